@@ -1,0 +1,81 @@
+# brakelight -- build, test, demo and benchmark.
+#
+#   make          library, Lua module and runner under build/
+#   make demo     install missing Debian packages, build, run the demo recipe
+#   make check    install missing Debian packages, build, run every test
+#   make bench    timing benchmark (never part of the tests)
+
+CC      ?= cc
+CFLAGS  ?= -O2
+CFLAGS  += -std=c11 -Wall -Wextra -Werror -fPIC -D_POSIX_C_SOURCE=200809L
+CPPFLAGS = -Iinclude -I/usr/include/lua5.4 -I/usr/include/xraylib
+LIBS     = -lgsl -lgslcblas -lxrl -lm
+LUALIB   = -llua5.4
+
+B = build
+
+CORE_SRC = $(sort $(wildcard src/bl_*.c))
+CORE_OBJ = $(CORE_SRC:src/%.c=$(B)/%.o)
+TEST_SRC = $(sort $(wildcard tests/test_*.c))
+TEST_BIN = $(TEST_SRC:tests/%.c=$(B)/%)
+REF_SRC  = $(sort $(wildcard tests/ref/*.c))
+REF_OBJ  = $(REF_SRC:tests/ref/%.c=$(B)/ref_%.o)
+
+LIB    = $(B)/libbrakelight.a
+MODULE = $(B)/brakelight.so
+RUNNER = $(B)/brakelight
+
+.PHONY: all deps demo check test test-c test-lua lint bench clean
+
+all: $(LIB) $(MODULE) $(RUNNER)
+
+deps:
+	@bash scripts/install-deps.sh
+
+$(B):
+	@mkdir -p $(B)
+
+$(B)/%.o: src/%.c $(wildcard include/*.h) | $(B)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -c $< -o $@
+
+$(B)/ref_%.o: tests/ref/%.c $(wildcard tests/ref/*.h) $(wildcard include/*.h) | $(B)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -Itests/ref -c $< -o $@
+
+$(LIB): $(CORE_OBJ)
+	rm -f $@
+	ar rcs $@ $^
+
+$(MODULE): $(B)/lbrakelight.o $(LIB)
+	$(CC) -shared -o $@ $(B)/lbrakelight.o $(LIB) $(LIBS)
+
+$(RUNNER): $(B)/brakelight.o $(B)/lbrakelight.o $(LIB)
+	$(CC) -o $@ $(B)/brakelight.o $(B)/lbrakelight.o $(LIB) $(LUALIB) $(LIBS) -Wl,-E
+
+$(B)/test_%: tests/test_%.c $(REF_OBJ) $(LIB) $(wildcard tests/ref/*.h)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -Itests/ref -o $@ $< $(REF_OBJ) $(LIB) -lcriterion $(LIBS)
+
+demo: deps
+	@$(MAKE) --no-print-directory all
+	./$(RUNNER) lua/recipes/demo.lua
+
+check: deps
+	@$(MAKE) --no-print-directory all lint test
+
+test: test-c test-lua
+
+lint:
+	@! grep -l 'lua\.h\|lauxlib\.h' src/bl_*.c include/bl_*.h \
+	  || { echo "lint: a core file (src/bl_*.c, include/bl_*.h) includes Lua"; exit 1; }
+	@echo "lint: core files are free of Lua"
+
+test-c: $(TEST_BIN)
+	@set -e; for t in $(TEST_BIN); do echo "== $$t"; ./$$t --jobs 2; done
+
+test-lua: $(MODULE) $(RUNNER)
+	@bash scripts/run-lua-tests.sh
+
+bench: all
+	@bash scripts/bench.sh
+
+clean:
+	rm -rf $(B)

@@ -1,0 +1,33 @@
+/*
+** bl_errno.h -- status codes of the brakelight core
+** See Copyright Notice in LICENSE
+*/
+#ifndef BL_ERRNO_H
+#define BL_ERRNO_H
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/*
+** Fallible core functions return an int status: 0 on success.  GSL codes
+** (GSL_EMAXITER, GSL_EROUND, ...) pass through unchanged; the codes of our
+** own sit above every GSL code.
+*/
+enum {
+  BL_SUCCESS  = 0,
+  BL_EDOMAIN  = 1001,   /* an argument is outside its allowed range */
+  BL_EUNKNOWN = 1002,   /* unknown name (particle, element, model) */
+  BL_ENOMEM   = 1003,   /* allocation failed */
+  BL_EMODEL   = 1004,   /* model cannot serve this request */
+  BL_ENOTCONV = 1005    /* integral did not reach the requested tolerance */
+};
+
+/* Message for a status code: ours or GSL's.  Never NULL, static storage. */
+const char *bl_strerror (int status);
+
+#ifdef __cplusplus
+}
+#endif
+
+#endif

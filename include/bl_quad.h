@@ -1,0 +1,36 @@
+/*
+** bl_quad.h -- integration workspace: tolerances, GSL workspaces, counters
+** See Copyright Notice in LICENSE
+*/
+#ifndef BL_QUAD_H
+#define BL_QUAD_H
+
+#include <stddef.h>
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+typedef struct bl_quad bl_quad;
+
+/* New workspace with at most `limit` subintervals per nesting level
+** (limit >= 8) and relative tolerance 1e-4.  NULL on allocation failure. */
+bl_quad *bl_quad_alloc (size_t limit);
+
+/* Free; NULL is a no-op. */
+void bl_quad_free (bl_quad *q);
+
+/* Relative tolerance for the next integrals: BL_EDOMAIN unless
+** 1e-12 <= rtol <= 0.5. */
+int bl_quad_set_rtol (bl_quad *q, double rtol);
+double bl_quad_rtol (const bl_quad *q);
+
+/* Integrand evaluations since the last reset (for tests and benchmarks). */
+unsigned long bl_quad_calls (const bl_quad *q);
+void bl_quad_reset_calls (bl_quad *q);
+
+#ifdef __cplusplus
+}
+#endif
+
+#endif

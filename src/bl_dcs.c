@@ -1,0 +1,360 @@
+/*
+** bl_dcs.c -- Born bremsstrahlung cross sections: fully differential, photon
+** angular distribution and photon spectrum
+** See Copyright Notice in LICENSE
+**
+** The fully differential first-order Born cross section of a projectile of
+** mass m and charge z e in the static field of an atom (units m = 1):
+**
+**   d3sigma / (dk dOmega_k dOmega_p) = (norm / (4 pi^2)) (p / (p0 k)) W(q^2) B
+**
+** norm = z^4 Z^2 alpha r0^2, r0 = alpha hbar/(m c); W(x) = (sum_i a_i/(b_i + x))^2
+** is G(q)/(Z^2 q^4) for screening 1 - F/Z = sum_i a_i q^2/(b_i + q^2); B is
+** the bracket of bl_kin.c (Bethe & Heitler 1934 for spin 1/2, its scalar-QED
+** analogue for spin 0).  The azimuth phi is integrated in closed form
+** (bl_bracket_azimuth); the two polar angles numerically:
+**
+**   dsigma/dk = norm (p/(p0 k)) (1/pi) int_0^2 dh0 int_0^2 dh Phi(h0, h),
+**   Phi = int_0^pi B W dphi,  h0 = 1 - cos(theta0),  h = 1 - cos(theta).
+**
+** Maps.  E - p cos(theta) = p (h + hc) with hc = 1/(p (E + p)) ~ 1/(2 E^2):
+** the integrand varies on the scale hc, so the variable is
+** sigma = ln(1 + h/hc), smooth down to theta = 0.  For fixed theta0 the
+** integrand has a second, narrow ridge where the transverse momenta balance,
+** p sin(theta) = p0 sin(theta0); there q^2 is smallest and the integrand goes
+** like (q_z^2 + p^2 cos^2(theta*) (theta - theta*)^2)^(-3/2).  The inner range
+** is split at the ridge and each side mapped by sigma = sigma* +- w sinh(u),
+** w the ridge width, which turns the peak into a smooth e^(-2u) tail.
+** Every piece is integrated with GSL's adaptive Gauss-Kronrod rule (qag);
+** the integrand is positive, so per-piece relative tolerance bounds the total.
+*/
+
+#include <math.h>
+
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_integration.h>
+
+#include "bl_internal.h"
+#include "bl_quad_impl.h"
+
+#define INNER_SHARE 0.2   /* inner tolerance as a share of the outer one */
+#define QAG_KEY GSL_INTEG_GAUSS21
+
+
+/* State of one integration, carried in gsl_function params. */
+typedef struct integ {
+  const bl_case *c;
+  bl_kin kn;
+  bl_polar g;
+  bl_quad *q;
+  double sstar, w, side;    /* inner map: sigma = sstar + side w sinh(u) */
+  double inner_rel;         /* largest relative error of an inner integral */
+  int status;               /* first failure of any integral */
+} integ;
+
+
+int bl_case_init (bl_case *c, const bl_particle *p, int Z,
+                  const bl_model *screening, const double *params, double T) {
+  bl_yukawa y;
+  double r0, z2;
+  int i, st;
+  if (c == NULL || bl_particle_check(p) != BL_SUCCESS)
+    return BL_EDOMAIN;
+  if (Z < 1 || Z > BL_ZMAX || !isfinite(T) || T <= 0.0 || screening == NULL)
+    return BL_EDOMAIN;
+  if (screening->nparams > (int)(sizeof c->params / sizeof c->params[0]))
+    return BL_EMODEL;
+  c->particle = *p;
+  c->Z = Z;
+  c->screening = screening;
+  if (params != NULL)
+    for (i = 0; i < screening->nparams; i++)
+      c->params[i] = params[i];
+  else
+    bl_model_defaults(screening, c->params);
+  c->T = T;
+  c->t0 = T / p->mass;
+  if (!isfinite(c->t0) || c->t0 <= 0.0)
+    return BL_EDOMAIN;
+  r0 = BL_ALPHA * BL_HBARC_MEVFM / p->mass;             /* fm */
+  z2 = p->charge * p->charge;
+  c->norm = z2 * z2 * (double)Z * Z * BL_ALPHA * r0 * r0 / BL_FM2_PER_MB;
+  if (screening->yukawa == NULL)
+    return BL_EMODEL;
+  st = screening->yukawa(Z, c->params, &y);
+  if (st != BL_SUCCESS)
+    return st;
+  c->ny = y.n;
+  for (i = 0; i < y.n; i++) {
+    double b = y.b[i] / p->mass;
+    c->ya[i] = y.alpha[i];
+    c->yb[i] = b * b;
+  }
+  c->warn = (p->flags & BL_PARTICLE_COMPOSITE) ? BL_WARN_POINTLIKE : 0u;
+  return BL_SUCCESS;
+}
+
+
+/*
+** Check k and set the kinematics; warnings that depend on k (Born validity:
+** Koch & Motz 1959 require 2 pi z Z alpha / beta << 1 for both velocities;
+** we warn once it exceeds 1).
+*/
+static int setup (const bl_case *c, double k, bl_kin *kn, unsigned *warn) {
+  double xi;
+  if (!isfinite(k) || k <= 0.0 || k >= c->T)
+    return BL_EDOMAIN;
+  bl_kin_set(kn, c->t0, k / c->particle.mass, c->particle.spin);
+  if (!(kn->p > 0.0))
+    return BL_EDOMAIN;   /* k so close to T that nothing is left */
+  xi = 2.0 * BL_PI * fabs(c->particle.charge) * c->Z * BL_ALPHA * kn->E / kn->p;
+  *warn = c->warn | (xi > 1.0 ? BL_WARN_BORN : 0u);
+  return BL_SUCCESS;
+}
+
+
+/* Phi(h0, h) at the current outer geometry and inner h. */
+static double phi_at (integ *it, double h) {
+  bl_bracket br;
+  if (h > 2.0)
+    h = 2.0;
+  it->g.h = h;
+  it->g.s = sqrt(h * (2.0 - h));
+  bl_bracket_set(&it->kn, &it->g, &br);
+  it->q->calls++;
+  return bl_bracket_azimuth(&br, it->c->ny, it->c->ya, it->c->yb);
+}
+
+
+/* Inner integrand in u: sigma = sstar + side w sinh(u), h = hc expm1(sigma). */
+static double inner_f (double u, void *params) {
+  integ *it = params;
+  double hc = it->kn.hc;
+  double sg = it->sstar + it->side * it->w * sinh(u);
+  double dsg = it->w * cosh(u);
+  return phi_at(it, hc * expm1(sg)) * hc * exp(sg) * dsg;
+}
+
+
+/* Plain inner integrand in sigma. */
+static double inner_plain (double sg, void *params) {
+  integ *it = params;
+  double hc = it->kn.hc;
+  return phi_at(it, hc * expm1(sg)) * hc * exp(sg);
+}
+
+
+static void note (integ *it, int st) {
+  if (st != GSL_SUCCESS && it->status == GSL_SUCCESS)
+    it->status = st;
+}
+
+
+/*
+** int_0^2 dh Phi(h0, h) for the polar geometry already in it->g (h0, s0).
+*/
+static double inner_integral (integ *it) {
+  const bl_kin *kn = &it->kn;
+  double smax = log1p(2.0 / kn->hc), r = kn->p0 * it->g.s0 / kn->p;
+  double eps = INNER_SHARE * it->q->rtol;
+  double total = 0.0, abserr_total = 0.0, val, abserr;
+  gsl_function f;
+  int st;
+  f.params = it;
+  if (r < 1.0) {   /* a forward ridge p sin(theta*) = p0 sin(theta0) */
+    double cs = sqrt((1.0 - r) * (1.0 + r));
+    double hs = r * r / (1.0 + cs);
+    double qz = kn->delta - kn->p0 * it->g.h0 + kn->p * hs;
+    double bmin = it->c->yb[0], wh;
+    int i, side;
+    for (i = 1; i < it->c->ny; i++)
+      if (it->c->yb[i] < bmin)
+        bmin = it->c->yb[i];
+    wh = sqrt(qz * qz + bmin) * r / (kn->p * (cs > 1e-300 ? cs : 1e-300));
+    it->sstar = log1p(hs / kn->hc);
+    it->w = wh / (hs + kn->hc);
+    if (!(it->w > 1e-300))
+      it->w = 1e-300;
+    f.function = inner_f;
+    for (side = -1; side <= 1; side += 2) {
+      double len = side < 0 ? it->sstar : smax - it->sstar;
+      if (len <= 0.0)
+        continue;
+      it->side = side;
+      st = gsl_integration_qag(&f, 0.0, asinh(len / it->w), 0.0, eps,
+                               it->q->limit, QAG_KEY, it->q->ws[1], &val,
+                               &abserr);
+      note(it, st);
+      total += val;
+      abserr_total += abserr;
+    }
+  }
+  else {
+    f.function = inner_plain;
+    st = gsl_integration_qag(&f, 0.0, smax, 0.0, eps, it->q->limit, QAG_KEY,
+                             it->q->ws[1], &total, &abserr_total);
+    note(it, st);
+  }
+  if (total > 0.0 && abserr_total / total > it->inner_rel)
+    it->inner_rel = abserr_total / total;
+  return total;
+}
+
+
+/* Outer integrand in sigma0 = ln(1 + h0/hc0). */
+static double outer_f (double sg, void *params) {
+  integ *it = params;
+  double hc0 = it->kn.hc0;
+  double h0 = hc0 * expm1(sg);
+  if (h0 > 2.0)
+    h0 = 2.0;
+  it->g.h0 = h0;
+  it->g.s0 = sqrt(h0 * (2.0 - h0));
+  return inner_integral(it) * hc0 * exp(sg);
+}
+
+
+static void integ_init (integ *it, const bl_case *c, bl_quad *q) {
+  it->c = c;
+  it->q = q;
+  it->inner_rel = 0.0;
+  it->status = GSL_SUCCESS;
+}
+
+
+/* Fill *out from a raw integral and a factor; set the status warnings. */
+static int finish (const integ *it, double val, double abserr, double factor,
+                   unsigned warn, bl_result *out) {
+  out->val = val * factor;
+  out->err = (abserr + it->inner_rel * fabs(val)) * fabs(factor);
+  out->warn = warn;
+  if (!isfinite(out->val) || !isfinite(out->err)) {
+    out->warn |= BL_WARN_TOLERANCE;
+    return GSL_ERANGE;
+  }
+  if (it->status != GSL_SUCCESS)
+    out->warn |= BL_WARN_TOLERANCE;
+  return it->status;
+}
+
+
+int bl_dcs_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out) {
+  integ it;
+  gsl_function f;
+  double pts[2], val = 0.0, abserr = 0.0, smax, ratio;
+  unsigned warn;
+  int st, n = 0, i;
+  out->val = out->err = 0.0;
+  out->warn = 0;
+  if (c == NULL || q == NULL)
+    return BL_EDOMAIN;
+  integ_init(&it, c, q);
+  st = setup(c, k, &it.kn, &warn);
+  if (st != BL_SUCCESS)
+    return st;
+  f.function = outer_f;
+  f.params = &it;
+  smax = log1p(2.0 / it.kn.hc0);
+  /* beyond sin(theta0) = p/p0 the ridge no longer exists: a kink */
+  ratio = it.kn.p / it.kn.p0;
+  pts[n++] = 0.0;
+  if (ratio < 1.0) {
+    double hr = ratio * ratio / (1.0 + sqrt((1.0 - ratio) * (1.0 + ratio)));
+    double sr = log1p(hr / it.kn.hc0);
+    if (sr > 0.0 && sr < smax)
+      pts[n++] = sr;
+  }
+  for (i = 0; i < n; i++) {
+    double a = pts[i], b = (i + 1 < n) ? pts[i + 1] : smax, v, e;
+    st = gsl_integration_qag(&f, a, b, 0.0, q->rtol, q->limit, QAG_KEY,
+                             q->ws[0], &v, &e);
+    note(&it, st);
+    val += v;
+    abserr += e;
+  }
+  return finish(&it, val, abserr,
+                c->norm * it.kn.p / (it.kn.p0 * it.kn.k) / BL_PI
+                / c->particle.mass, warn, out);
+}
+
+
+int bl_dcs_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
+                      bl_result *out) {
+  integ it;
+  double sh, val;
+  unsigned warn;
+  int st;
+  out->val = out->err = 0.0;
+  out->warn = 0;
+  if (c == NULL || q == NULL || !(theta_k >= 0.0 && theta_k <= BL_PI))
+    return BL_EDOMAIN;
+  integ_init(&it, c, q);
+  st = setup(c, k, &it.kn, &warn);
+  if (st != BL_SUCCESS)
+    return st;
+  sh = sin(0.5 * theta_k);
+  it.g.h0 = 2.0 * sh * sh;
+  it.g.s0 = sin(theta_k);
+  /* the inner integral gets the whole tolerance here */
+  it.inner_rel = 0.0;
+  {
+    double saved = q->rtol;
+    q->rtol = saved / INNER_SHARE;
+    val = inner_integral(&it);
+    q->rtol = saved;
+  }
+  return finish(&it, val, 0.0,
+                c->norm * it.kn.p / (it.kn.p0 * it.kn.k) / (2.0 * BL_PI * BL_PI)
+                / c->particle.mass, warn, out);
+}
+
+
+/*
+** Beam-frame angles (photon theta_k, particle theta_p, azimuth phi between
+** them around the beam) to the photon frame: with e1 = unit p0_perp and
+** e2 = k x e1, the final direction has perpendicular components
+**   X = sin(theta_k - theta_p) + 2 cos(theta_k) sin(theta_p) sin^2(phi/2),
+**   Y = -sin(theta_p) sin(phi),
+** and h = 1 - cos(theta) = 2 sin^2((theta_k - theta_p)/2)
+**                         + 2 sin(theta_k) sin(theta_p) sin^2(phi/2).
+*/
+int bl_dcs_full_e (const bl_case *c, double k, double theta_k, double theta_p,
+                   double phi, bl_result *out) {
+  bl_kin kn;
+  bl_polar g;
+  bl_bracket br;
+  double sd, sp, X, Y, rho, v, val;
+  unsigned warn;
+  int st;
+  out->val = out->err = 0.0;
+  out->warn = 0;
+  if (c == NULL || !(theta_k >= 0.0 && theta_k <= BL_PI)
+      || !(theta_p >= 0.0 && theta_p <= BL_PI) || !isfinite(phi))
+    return BL_EDOMAIN;
+  st = setup(c, k, &kn, &warn);
+  if (st != BL_SUCCESS)
+    return st;
+  sd = sin(0.5 * (theta_k - theta_p));
+  sp = sin(0.5 * phi);
+  g.h0 = 2.0 * sin(0.5 * theta_k) * sin(0.5 * theta_k);
+  g.s0 = sin(theta_k);
+  g.h = 2.0 * sd * sd + 2.0 * g.s0 * sin(theta_p) * sp * sp;
+  X = sin(theta_k - theta_p) + 2.0 * cos(theta_k) * sin(theta_p) * sp * sp;
+  Y = -sin(theta_p) * sin(phi);
+  rho = hypot(X, Y);
+  g.s = rho;
+  if (rho == 0.0)
+    v = 0.0;
+  else if (X > 0.0)
+    v = Y * Y / (rho * (rho + X));  /* 1 - cos(phi_k) without cancellation */
+  else
+    v = (rho - X) / rho;
+  bl_bracket_set(&kn, &g, &br);
+  val = bl_bracket_point(&br, v, c->ny, c->ya, c->yb);
+  out->val = val * c->norm * kn.p / (kn.p0 * kn.k) / (4.0 * BL_PI * BL_PI)
+             / c->particle.mass;
+  out->warn = warn;
+  if (!isfinite(out->val))
+    return GSL_ERANGE;
+  return BL_SUCCESS;
+}

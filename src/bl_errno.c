@@ -1,0 +1,38 @@
+/*
+** bl_errno.c -- messages for status codes and warning bits
+** See Copyright Notice in LICENSE
+*/
+
+#include <gsl/gsl_errno.h>
+
+#include "bl_errno.h"
+#include "bl_result.h"
+
+
+const char *bl_strerror (int status) {
+  switch (status) {
+    case BL_SUCCESS:  return "success";
+    case BL_EDOMAIN:  return "argument outside its allowed range";
+    case BL_EUNKNOWN: return "unknown name";
+    case BL_ENOMEM:   return "out of memory";
+    case BL_EMODEL:   return "the model cannot serve this request";
+    case BL_ENOTCONV: return "integral did not reach the requested tolerance";
+    default:          return gsl_strerror(status);
+  }
+}
+
+
+const char *bl_warn_text (unsigned bit) {
+  switch (bit) {
+    case BL_WARN_TOLERANCE:
+      return "requested tolerance not reached; the error estimate says how far";
+    case BL_WARN_POINTLIKE:
+      return "composite projectile treated as a point charge (no form factor)";
+    case BL_WARN_BORN:
+      return "first Born approximation poor: 2 pi z Z alpha / beta is not small";
+    case BL_WARN_VALIDITY:
+      return "a model or correction is used outside its validity";
+    default:
+      return NULL;
+  }
+}

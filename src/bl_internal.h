@@ -1,0 +1,65 @@
+/*
+** bl_internal.h -- declarations shared by the core files, not public
+** See Copyright Notice in LICENSE
+*/
+#ifndef BL_INTERNAL_H
+#define BL_INTERNAL_H
+
+#include "brakelight.h"
+
+/* References (src/bl_references.c). */
+extern const bl_ref bl_ref_BetheHeitler1934;
+extern const bl_ref bl_ref_KochMotz1959;
+extern const bl_ref bl_ref_Schiff1951;
+extern const bl_ref bl_ref_Low1958;
+
+/* Screening models (one file each). */
+extern const bl_model bl_model_none;
+extern const bl_model bl_model_exponential;
+
+/*
+** Kinematics of one photon energy, in units of the projectile mass
+** (hbar = c = m = 1).  Filled by bl_kin_set; read-only afterwards.
+*/
+typedef struct bl_kin {
+  double E0, p0;      /* initial total energy and momentum */
+  double E, p;        /* final */
+  double k;           /* photon energy */
+  double delta;       /* p0 - p - k > 0, smallest momentum transfer */
+  double hc0, hc;     /* 1/(p0 (E0+p0)), 1/(p (E+p)): D0 = p0 (h0 + hc0) */
+  double spin;        /* 0 or 0.5 */
+} bl_kin;
+
+/* Polar geometry in the frame with the photon along z: h = 1 - cos(theta),
+** s = sin(theta), for the initial (h0, s0) and final (h, s) directions. */
+typedef struct bl_polar {
+  double h0, s0, h, s;
+} bl_polar;
+
+/*
+** The bracket B of the Born cross section, written for fixed polar angles as
+**   B(v) = L0 + L1 v - x (M0 + M1 v),   x = q^2 = Q0 + b v,   v = 1 - cos(phi),
+** with every coefficient >= 0 (M0 = M1 = 0 for spin 0).
+*/
+typedef struct bl_bracket {
+  double L0, L1, M0, M1;
+  double Q0, b;
+} bl_bracket;
+
+/* Kinematics for kinetic energy t0 and photon energy k (units of m);
+** requires 0 < k < t0. */
+void bl_kin_set (bl_kin *kn, double t0, double k, double spin);
+
+/* Bracket coefficients at the polar geometry g. */
+void bl_bracket_set (const bl_kin *kn, const bl_polar *g, bl_bracket *br);
+
+/* Azimuthal integral  int_0^pi B(v) W(x) dphi  with
+** W(x) = (sum_i a[i] / (bb[i] + x))^2  (bb[i] >= 0, n >= 1), closed form. */
+double bl_bracket_azimuth (const bl_bracket *br, int n, const double *a,
+                           const double *bb);
+
+/* B(v) W(x) at one azimuth. */
+double bl_bracket_point (const bl_bracket *br, double v, int n,
+                         const double *a, const double *bb);
+
+#endif

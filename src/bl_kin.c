@@ -1,0 +1,121 @@
+/*
+** bl_kin.c -- kinematics and the Born bracket with its azimuthal integral
+** See Copyright Notice in LICENSE
+**
+** Units: projectile mass m = 1 (hbar = c = 1).  The frame has the photon
+** momentum along z; the initial momentum p0 makes the angle theta0 with it,
+** the final momentum p the angle theta, and phi is the azimuth between the
+** (k, p0) and (k, p) planes.  Every difference that vanishes at high energy
+** is written in a cancellation-free form (see DEVELOPERS.md, "Kinematics").
+*/
+
+#include <math.h>
+
+#include "bl_internal.h"
+
+
+/*
+** Momentum from kinetic energy: p = sqrt(t (t + 2)), never sqrt(E^2 - 1).
+*/
+static double momentum (double t) {
+  return sqrt(t * (t + 2.0));
+}
+
+
+void bl_kin_set (bl_kin *kn, double t0, double k, double spin) {
+  double t = t0 - k;
+  kn->E0 = 1.0 + t0;
+  kn->p0 = momentum(t0);
+  kn->E = 1.0 + t;
+  kn->p = momentum(t);
+  kn->k = k;
+  /* p0 - p - k = k [1/(E0+p0) + 1/(E+p)] / (p0 + p) */
+  kn->delta = k * (1.0 / (kn->E0 + kn->p0) + 1.0 / (kn->E + kn->p))
+              / (kn->p0 + kn->p);
+  kn->hc0 = 1.0 / (kn->p0 * (kn->E0 + kn->p0));
+  kn->hc = 1.0 / (kn->p * (kn->E + kn->p));
+  kn->spin = spin;
+}
+
+
+/*
+** With a = |p_perp| / (E - p cos theta) and a0 likewise (the moduli of the
+** 2-vectors u and u0 of the bracket), and u.u0 = a a0 (1 - v):
+**   4 |E0 u - E u0|^2    = 4 (E0 a - E a0)^2 + 8 E0 E a a0 v
+**   |u - u0|^2           = (a - a0)^2 + 2 a a0 v
+**   |p_perp - p0_perp|^2 = (p s - p0 s0)^2 + b v,        b = 2 p0 p s0 s
+**   q^2                  = q_z^2 + (p0 s0 - p s)^2 + b v
+** and E - p cos theta = p (h + hc), q_z = delta - p0 h0 + p h.
+*/
+void bl_bracket_set (const bl_kin *kn, const bl_polar *g, bl_bracket *br) {
+  double D0 = kn->p0 * (g->h0 + kn->hc0);
+  double D = kn->p * (g->h + kn->hc);
+  double pt0 = kn->p0 * g->s0, pt = kn->p * g->s;
+  double a0 = pt0 / D0, a = pt / D;
+  double qz = kn->delta - kn->p0 * g->h0 + kn->p * g->h;
+  double dt = pt0 - pt;
+  double d0 = kn->E0 * a - kn->E * a0;
+  br->b = 2.0 * pt0 * pt;
+  br->Q0 = qz * qz + dt * dt;
+  br->L0 = 4.0 * d0 * d0;
+  br->L1 = 8.0 * kn->E0 * kn->E * a * a0;
+  if (kn->spin > 0.25) {  /* spin 1/2: the Bethe-Heitler bracket */
+    double c = 2.0 * kn->k * kn->k / (D * D0);
+    double du = a - a0;
+    br->L0 += c * dt * dt;
+    br->L1 += c * br->b;
+    br->M0 = du * du;
+    br->M1 = 2.0 * a * a0;
+  }
+  else
+    br->M0 = br->M1 = 0.0;
+}
+
+
+/*
+** Azimuthal building blocks, phi in [0, pi], v = 1 - cos(phi), d = m + b v
+** with m > 0, b >= 0, R = sqrt(m (m + 2b)), P = m + 2b + R:
+**   G0(m)   = int dphi / d          = pi / R
+**   G1(m)   = int v dphi / d        = 2 pi / P
+**   Y0(i,j) = int dphi / (d_i d_j)   = pi (m_i + m_j + 2b) / (R_i R_j (R_i + R_j))
+**   Y1(i,j) = int v dphi / (d_i d_j) = 2 pi [1 + (m_i + m_j + 2b)/(R_i + R_j)]
+**                                       / (P_i P_j)
+** The pair forms are divided differences of G0, G1 rewritten without any
+** subtraction, so they hold for i = j and for m_i close to m_j alike.
+** With x w_i w_j = w_j - beta_i w_i w_j (w_i = 1/(beta_i + x)) the term
+** -x (M0 + M1 v) of the bracket needs only G0 and G1: no v^2 integral, whose
+** closed form cancels badly when m << b.
+*/
+double bl_bracket_azimuth (const bl_bracket *br, int n, const double *a,
+                           const double *bb) {
+  double m[BL_YUKAWA_MAX], R[BL_YUKAWA_MAX], P[BL_YUKAWA_MAX];
+  double b = br->b, sum = 0.0, single = 0.0, asum = 0.0;
+  int i, j;
+  for (i = 0; i < n; i++) {
+    m[i] = bb[i] + br->Q0;
+    R[i] = sqrt(m[i] * (m[i] + 2.0 * b));
+    P[i] = m[i] + 2.0 * b + R[i];
+    asum += a[i];
+    single += a[i] * (br->M0 * BL_PI / R[i] + br->M1 * 2.0 * BL_PI / P[i]);
+  }
+  for (i = 0; i < n; i++) {
+    for (j = 0; j < n; j++) {
+      double s = m[i] + m[j] + 2.0 * b, rr = R[i] + R[j];
+      double y0 = BL_PI * s / (R[i] * R[j] * rr);
+      double y1 = 2.0 * BL_PI * (1.0 + s / rr) / (P[i] * P[j]);
+      sum += a[i] * a[j] * ((br->L0 + bb[i] * br->M0) * y0
+                            + (br->L1 + bb[i] * br->M1) * y1);
+    }
+  }
+  return sum - asum * single;
+}
+
+
+double bl_bracket_point (const bl_bracket *br, double v, int n,
+                         const double *a, const double *bb) {
+  double x = br->Q0 + br->b * v, w = 0.0;
+  int i;
+  for (i = 0; i < n; i++)
+    w += a[i] / (bb[i] + x);
+  return (br->L0 + br->L1 * v - x * (br->M0 + br->M1 * v)) * w * w;
+}

@@ -1,0 +1,64 @@
+/*
+** bl_quad.c -- integration workspace
+** See Copyright Notice in LICENSE
+*/
+
+#include <stdlib.h>
+
+#include "bl_errno.h"
+#include "bl_quad_impl.h"
+
+
+bl_quad *bl_quad_alloc (size_t limit) {
+  bl_quad *q;
+  int i;
+  if (limit < 8)
+    return NULL;
+  q = calloc(1, sizeof *q);
+  if (q == NULL)
+    return NULL;
+  for (i = 0; i < BL_QUAD_LEVELS; i++) {
+    q->ws[i] = gsl_integration_workspace_alloc(limit);
+    if (q->ws[i] == NULL) {
+      bl_quad_free(q);
+      return NULL;
+    }
+  }
+  q->limit = limit;
+  q->rtol = 1e-4;
+  return q;
+}
+
+
+void bl_quad_free (bl_quad *q) {
+  int i;
+  if (q == NULL)
+    return;
+  for (i = 0; i < BL_QUAD_LEVELS; i++)
+    if (q->ws[i] != NULL)
+      gsl_integration_workspace_free(q->ws[i]);
+  free(q);
+}
+
+
+int bl_quad_set_rtol (bl_quad *q, double rtol) {
+  if (!(rtol >= 1e-12 && rtol <= 0.5))
+    return BL_EDOMAIN;
+  q->rtol = rtol;
+  return BL_SUCCESS;
+}
+
+
+double bl_quad_rtol (const bl_quad *q) {
+  return q->rtol;
+}
+
+
+unsigned long bl_quad_calls (const bl_quad *q) {
+  return q->calls;
+}
+
+
+void bl_quad_reset_calls (bl_quad *q) {
+  q->calls = 0;
+}
