@@ -37,8 +37,12 @@
 #include "bl_internal.h"
 #include "bl_quad_impl.h"
 
+#ifndef INNER_SHARE
 #define INNER_SHARE 0.2   /* inner tolerance as a share of the outer one */
+#endif
+#ifndef QAG_KEY
 #define QAG_KEY GSL_INTEG_GAUSS21
+#endif
 
 
 /* State of one integration, carried in gsl_function params. */
@@ -116,8 +120,10 @@ static int setup (const bl_case *c, double k, bl_kin *kn, unsigned *warn) {
 /* Phi(h0, h) at the current outer geometry and inner h. */
 static double phi_at (integ *it, double h) {
   bl_bracket br;
-  if (h > 2.0)
+  if (h > 2.0) {
+    it->g.dh += 2.0 - h;
     h = 2.0;
+  }
   it->g.h = h;
   it->g.s = sqrt(h * (2.0 - h));
   bl_bracket_set(&it->kn, &it->g, &br);
@@ -130,8 +136,9 @@ static double phi_at (integ *it, double h) {
 static double inner_f (double u, void *params) {
   integ *it = params;
   double hc = it->kn.hc;
-  double sg = it->sstar + it->side * it->w * sinh(u);
+  double ds = it->side * it->w * sinh(u), sg = it->sstar + ds;
   double dsg = it->w * cosh(u);
+  it->g.dh = (it->g.hs + hc) * expm1(ds);
   return phi_at(it, hc * expm1(sg)) * hc * exp(sg) * dsg;
 }
 
@@ -172,6 +179,10 @@ static double inner_integral (integ *it) {
         bmin = it->c->yb[i];
     wh = sqrt(qz * qz + bmin) * r / (kn->p * (cs > 1e-300 ? cs : 1e-300));
     it->sstar = log1p(hs / kn->hc);
+    it->g.ridge = 1;
+    it->g.hs = hs;
+    it->g.ss = r;
+    it->g.qzs = qz;
     it->w = wh / (hs + kn->hc);
     if (!(it->w > 1e-300))
       it->w = 1e-300;
@@ -190,6 +201,7 @@ static double inner_integral (integ *it) {
     }
   }
   else {
+    it->g.ridge = 0;
     f.function = inner_plain;
     st = gsl_integration_qag(&f, 0.0, smax, 0.0, eps, it->q->limit, QAG_KEY,
                              it->q->ws[1], &total, &abserr_total);

@@ -34,6 +34,10 @@ typedef struct bl_kin {
 ** s = sin(theta), for the initial (h0, s0) and final (h, s) directions. */
 typedef struct bl_polar {
   double h0, s0, h, s;
+  /* Near the ridge p s = p0 s0 (set ridge = 1): h* and s* = p0 s0 / p of the
+  ** ridge, q_z there, and dh = h - h* known without rounding. */
+  int ridge;
+  double hs, ss, qzs, dh;
 } bl_polar;
 
 /*

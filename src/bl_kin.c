@@ -45,15 +45,25 @@ void bl_kin_set (bl_kin *kn, double t0, double k, double spin) {
 **   |u - u0|^2           = (a - a0)^2 + 2 a a0 v
 **   |p_perp - p0_perp|^2 = (p s - p0 s0)^2 + b v,        b = 2 p0 p s0 s
 **   q^2                  = q_z^2 + (p0 s0 - p s)^2 + b v
-** and E - p cos theta = p (h + hc), q_z = delta - p0 h0 + p h.
+** and E - p cos theta = p (h + hc), q_z = delta - p0 h0 + p h.  Near the
+** ridge where p s = p0 s0 both q_z and p0 s0 - p s are small differences of
+** large terms; there they are taken relative to the ridge point h*:
+**   q_z = q_z(h*) + p (h - h*),  p0 s0 - p s = -p (h - h*)(2 - h - h*)/(s + s*).
 */
 void bl_bracket_set (const bl_kin *kn, const bl_polar *g, bl_bracket *br) {
   double D0 = kn->p0 * (g->h0 + kn->hc0);
   double D = kn->p * (g->h + kn->hc);
   double pt0 = kn->p0 * g->s0, pt = kn->p * g->s;
   double a0 = pt0 / D0, a = pt / D;
-  double qz = kn->delta - kn->p0 * g->h0 + kn->p * g->h;
-  double dt = pt0 - pt;
+  double qz, dt;
+  if (g->ridge) {  /* measured from the ridge: no cancellation at tiny q */
+    qz = g->qzs + kn->p * g->dh;
+    dt = -kn->p * g->dh * (2.0 - g->h - g->hs) / (g->s + g->ss);
+  }
+  else {
+    qz = kn->delta - kn->p0 * g->h0 + kn->p * g->h;
+    dt = pt0 - pt;
+  }
   double d0 = kn->E0 * a - kn->E * a0;
   br->b = 2.0 * pt0 * pt;
   br->Q0 = qz * qz + dt * dt;
