@@ -24,7 +24,7 @@ typedef struct bl_case {
   double T;                   /* kinetic energy, MeV */
   /* derived */
   double t0;                  /* T / m */
-  double norm;                /* z^4 alpha r0^2, mb (r0 = z^0 alpha hbar/(m c)) */
+  double norm;                /* z^4 Z^2 alpha r0^2, mb; r0 = alpha hbar/(m c) */
   int ny;                     /* Yukawa terms of the screening */
   double ya[BL_YUKAWA_MAX];   /* their weights alpha_i */
   double yb[BL_YUKAWA_MAX];   /* b_i^2 in units of m^2 */

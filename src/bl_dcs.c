@@ -158,12 +158,12 @@ static void note (integ *it, int st) {
 
 
 /*
-** int_0^2 dh Phi(h0, h) for the polar geometry already in it->g (h0, s0).
+** int_0^2 dh Phi(h0, h) for the polar geometry already in it->g (h0, s0),
+** to relative tolerance eps.
 */
-static double inner_integral (integ *it) {
+static double inner_integral (integ *it, double eps) {
   const bl_kin *kn = &it->kn;
   double smax = log1p(2.0 / kn->hc), r = kn->p0 * it->g.s0 / kn->p;
-  double eps = INNER_SHARE * it->q->rtol;
   double total = 0.0, abserr_total = 0.0, val, abserr;
   gsl_function f;
   int st;
@@ -222,7 +222,7 @@ static double outer_f (double sg, void *params) {
     h0 = 2.0;
   it->g.h0 = h0;
   it->g.s0 = sqrt(h0 * (2.0 - h0));
-  return inner_integral(it) * hc0 * exp(sg);
+  return inner_integral(it, INNER_SHARE * it->q->rtol) * hc0 * exp(sg);
 }
 
 
@@ -307,14 +307,7 @@ int bl_dcs_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
   sh = sin(0.5 * theta_k);
   it.g.h0 = 2.0 * sh * sh;
   it.g.s0 = sin(theta_k);
-  /* the inner integral gets the whole tolerance here */
-  it.inner_rel = 0.0;
-  {
-    double saved = q->rtol;
-    q->rtol = saved / INNER_SHARE;
-    val = inner_integral(&it);
-    q->rtol = saved;
-  }
+  val = inner_integral(&it, q->rtol);  /* the whole tolerance is its own */
   return finish(&it, val, 0.0,
                 c->norm * it.kn.p / (it.kn.p0 * it.kn.k) / (2.0 * BL_PI * BL_PI)
                 / c->particle.mass, warn, out);
@@ -348,6 +341,7 @@ int bl_dcs_full_e (const bl_case *c, double k, double theta_k, double theta_p,
     return st;
   sd = sin(0.5 * (theta_k - theta_p));
   sp = sin(0.5 * phi);
+  g.ridge = 0;
   g.h0 = 2.0 * sin(0.5 * theta_k) * sin(0.5 * theta_k);
   g.s0 = sin(theta_k);
   g.h = 2.0 * sd * sd + 2.0 * g.s0 * sin(theta_p) * sp * sp;
