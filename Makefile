@@ -35,7 +35,7 @@ deps:
 $(B):
 	@mkdir -p $(B)
 
-$(B)/%.o: src/%.c $(wildcard include/*.h) | $(B)
+$(B)/%.o: src/%.c $(wildcard include/*.h) $(wildcard src/*.h) | $(B)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -c $< -o $@
 
 $(B)/ref_%.o: tests/ref/%.c $(wildcard tests/ref/*.h) $(wildcard include/*.h) | $(B)

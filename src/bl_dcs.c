@@ -43,6 +43,9 @@
 #ifndef QAG_KEY
 #define QAG_KEY GSL_INTEG_GAUSS21
 #endif
+#ifndef QAG_KEY_INNER
+#define QAG_KEY_INNER QAG_KEY
+#endif
 
 
 /* State of one integration, carried in gsl_function params. */
@@ -193,7 +196,7 @@ static double inner_integral (integ *it, double eps) {
         continue;
       it->side = side;
       st = gsl_integration_qag(&f, 0.0, asinh(len / it->w), 0.0, eps,
-                               it->q->limit, QAG_KEY, it->q->ws[1], &val,
+                               it->q->limit, QAG_KEY_INNER, it->q->ws[1], &val,
                                &abserr);
       note(it, st);
       total += val;
@@ -203,7 +206,7 @@ static double inner_integral (integ *it, double eps) {
   else {
     it->g.ridge = 0;
     f.function = inner_plain;
-    st = gsl_integration_qag(&f, 0.0, smax, 0.0, eps, it->q->limit, QAG_KEY,
+    st = gsl_integration_qag(&f, 0.0, smax, 0.0, eps, it->q->limit, QAG_KEY_INNER,
                              it->q->ws[1], &total, &abserr_total);
     note(it, st);
   }

@@ -1,0 +1,61 @@
+#!/usr/bin/env bash
+# install-deps.sh -- install the Debian packages brakelight needs, if missing.
+#
+#   bash scripts/install-deps.sh           build and test packages
+#   bash scripts/install-deps.sh --bench   also python3-scipy (for make bench)
+#   bash scripts/install-deps.sh --plot    also gnuplot-nox (optional plots)
+#
+# Called by `make deps`, which `make demo` and `make check` run first, so a
+# fresh Debian machine needs nothing else.  Idempotent: when every package is
+# present it prints nothing and runs no apt command.  Uses sudo only when not
+# root.  Never reads standard input.
+set -euo pipefail
+
+pkgs=(liblua5.4-dev lua5.4 libgsl-dev libcriterion-dev libxrl-dev)
+
+for opt in "$@"; do
+  case "$opt" in
+    --bench) pkgs+=(python3-scipy) ;;
+    --plot)  pkgs+=(gnuplot-nox) ;;
+    -h|--help) sed -n '2,11p' "$0" | sed 's/^# \{0,1\}//'; exit 0 ;;
+    *) echo "install-deps: unknown option '$opt' (allowed: --bench, --plot, --help)" >&2
+       exit 2 ;;
+  esac
+done
+
+# the tools that run the build itself: absent from minimal Debian images
+command -v make >/dev/null 2>&1 || pkgs+=(make)
+command -v cc >/dev/null 2>&1 || pkgs+=(gcc libc6-dev)
+
+# installed: dpkg knows the package and its state is "installed"
+installed() {
+  [ "$(dpkg-query -W -f='${db:Status-Status}' "$1" 2>/dev/null)" = installed ]
+}
+
+missing=()
+for p in "${pkgs[@]}"; do
+  installed "$p" || missing+=("$p")
+done
+[ ${#missing[@]} -eq 0 ] && exit 0
+
+if ! command -v apt-get >/dev/null 2>&1; then
+  echo "install-deps: apt-get not found; install these by hand: ${missing[*]}" >&2
+  exit 1
+fi
+
+sudo=()
+if [ "$(id -u)" -ne 0 ]; then
+  if command -v sudo >/dev/null 2>&1; then
+    sudo=(sudo)
+  else
+    echo "install-deps: not root and no sudo; install these by hand: ${missing[*]}" >&2
+    exit 1
+  fi
+fi
+
+echo "install-deps: installing ${missing[*]}"
+export DEBIAN_FRONTEND=noninteractive
+"${sudo[@]}" env DEBIAN_FRONTEND=noninteractive apt-get update -qq </dev/null
+"${sudo[@]}" env DEBIAN_FRONTEND=noninteractive \
+  apt-get install -y -qq --no-install-recommends "${missing[@]}" </dev/null
+echo "install-deps: done"

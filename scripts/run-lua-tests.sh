@@ -1,0 +1,123 @@
+#!/usr/bin/env bash
+# run-lua-tests.sh -- run the Lua-level tests (called by `make test-lua`).
+#
+# Runs every tests/lua/*.lua with the runner build/brakelight, from the top
+# of the source tree; a test passes when it exits with status 0.  Then checks
+# that the module build/brakelight.so loads in the stock lua5.4 interpreter,
+# and the runner's own behaviour (version line, error report and exit
+# status, bad options, the 'arg' table against lua5.4, BRAKELIGHT_LUA_PATH).
+# One line per check; the last line reads "N passed, M failed"; the exit
+# status is non-zero when any check failed.  A failing check's output is
+# shown, indented, under its line.
+set -uo pipefail
+
+cd "$(dirname "$0")/.."
+runner=build/brakelight
+passed=0
+failed=0
+log=$(mktemp)
+tmp=$(mktemp -d)
+trap 'rm -rf "$log" "$tmp"' EXIT
+
+# record CHECK-NAME STATUS SECONDS: print the line, count it, show the log on failure
+record() {
+  if [ "$2" -eq 0 ]; then
+    printf 'ok    %-40s %6.2fs\n' "$1" "$3"
+    passed=$((passed + 1))
+  else
+    printf 'FAIL  %-40s %6.2fs  (exit status %d)\n' "$1" "$3" "$2"
+    sed 's/^/      | /' "$log"
+    failed=$((failed + 1))
+  fi
+}
+
+# now: seconds since the epoch, with fractions
+now() { date +%s.%N; }
+elapsed() { awk -v a="$1" -v b="$(now)" 'BEGIN { printf "%.2f", b - a }'; }
+
+if [ ! -x "$runner" ]; then
+  echo "run-lua-tests: $runner is missing: run make first" >&2
+  exit 1
+fi
+
+shopt -s nullglob
+for t in tests/lua/*.lua; do
+  start=$(now)
+  "$runner" "$t" >"$log" 2>&1 </dev/null
+  st=$?
+  record "$t" "$st" "$(elapsed "$start")"
+done
+
+# the module must load in the stock interpreter, outside the runner
+start=$(now)
+if command -v lua5.4 >/dev/null 2>&1; then
+  lua5.4 -e 'package.cpath="build/?.so;"..package.cpath; local b=require"brakelight"; assert(type(b.dsdk)=="function")' \
+    >"$log" 2>&1 </dev/null
+  st=$?
+else
+  echo "lua5.4 not found (install the Debian package lua5.4)" >"$log"
+  st=127
+fi
+record "stock lua5.4: require \"brakelight\"" "$st" "$(elapsed "$start")"
+
+# runner: run CHECK-NAME COMMAND...: the command's output goes to the log
+check() {
+  local name=$1 st
+  shift
+  start=$(now)
+  ( "$@" ) >"$log" 2>&1 </dev/null
+  st=$?
+  record "$name" "$st" "$(elapsed "$start")"
+}
+
+version_line() {
+  local v
+  v=$(sed -n 's/^#define BL_VERSION "\(.*\)".*/\1/p' include/brakelight.h)
+  out=$("$runner" --version) || return 1
+  echo "got: $out"
+  [ "$out" = "brakelight $v (Lua 5.4)" ]
+}
+
+error_report() {
+  printf 'local function f() error("planned failure") end\nf()\n' >"$tmp/err.lua"
+  "$runner" "$tmp/err.lua" 2>"$tmp/stderr"
+  st=$?
+  cat "$tmp/stderr"
+  [ "$st" -eq 1 ] && grep -q '^brakelight: .*planned failure' "$tmp/stderr" \
+    && grep -q 'stack traceback' "$tmp/stderr"
+}
+
+bad_option() {
+  "$runner" --no-such-option 2>"$tmp/stderr"
+  st=$?
+  cat "$tmp/stderr"
+  [ "$st" -eq 1 ] && grep -q '^usage:' "$tmp/stderr"
+}
+
+# the same command line through lua5.4 and the runner gives the same 'arg'
+# (apart from the interpreter's own name)
+arg_table() {
+  printf 'for i = -3, #arg do io.write(i, "=", tostring(arg[i]), " ") end\nprint("|", ...)\n' \
+    >"$tmp/args.lua"
+  a=$(lua5.4 -e 'x = 1' "$tmp/args.lua" one two 2>&1 | sed 's/=lua5.4 /=INTERP /')
+  b=$("$runner" -e 'x = 1' "$tmp/args.lua" one two 2>&1 | sed "s#=$runner #=INTERP #")
+  echo "lua5.4: $a"
+  echo "runner: $b"
+  [ -n "$a" ] && [ "$a" = "$b" ]
+}
+
+lua_path_env() {
+  mkdir -p "$tmp/luadir"
+  echo 'return {answer = 42}' >"$tmp/luadir/bl_runner_probe.lua"
+  BRAKELIGHT_LUA_PATH="$tmp/luadir" \
+    "$runner" -e 'assert(require("bl_runner_probe").answer == 42)'
+}
+
+check "runner: --version" version_line
+check "runner: error report, exit status 1" error_report
+check "runner: unknown option" bad_option
+check "runner: 'arg' as lua5.4 sets it" arg_table
+check "runner: BRAKELIGHT_LUA_PATH" lua_path_env
+
+echo "$passed passed, $failed failed"
+[ "$failed" -eq 0 ]
