@@ -135,22 +135,30 @@ static double phi_at (integ *it, double h) {
 }
 
 
-/* Inner integrand in u: sigma = sstar + side w sinh(u), h = hc expm1(sigma). */
+/*
+** Inner integrand in u: sigma = sstar + side w sinh(u), so that
+** h - h* = (h* + hc) expm1(sigma - sstar) and dh/dsigma = h + hc: one
+** exponential per call.
+*/
 static double inner_f (double u, void *params) {
   integ *it = params;
-  double hc = it->kn.hc;
-  double ds = it->side * it->w * sinh(u), sg = it->sstar + ds;
-  double dsg = it->w * cosh(u);
-  it->g.dh = (it->g.hs + hc) * expm1(ds);
-  return phi_at(it, hc * expm1(sg)) * hc * exp(sg) * dsg;
+  double eu = exp(u), sh = 0.5 * (eu - 1.0 / eu), ch = sh + 1.0 / eu;
+  double ds, dh, hh;
+  if (u < 1e-3)   /* sinh without cancellation near 0 */
+    sh = sinh(u);
+  ds = it->side * it->w * sh;
+  dh = (it->g.hs + it->kn.hc) * expm1(ds);
+  hh = it->g.hs + dh;
+  it->g.dh = dh;
+  return phi_at(it, hh) * (hh + it->kn.hc) * it->w * ch;
 }
 
 
-/* Plain inner integrand in sigma. */
+/* Plain inner integrand in sigma; dh/dsigma = h + hc. */
 static double inner_plain (double sg, void *params) {
   integ *it = params;
-  double hc = it->kn.hc;
-  return phi_at(it, hc * expm1(sg)) * hc * exp(sg);
+  double h = it->kn.hc * expm1(sg);
+  return phi_at(it, h) * (h + it->kn.hc);
 }
 
 
