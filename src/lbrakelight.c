@@ -1,0 +1,1230 @@
+/*
+** $Id: lbrakelight.c $
+** Lua binding of the brakelight core: the module `brakelight`
+** See Copyright Notice in LICENSE
+**
+** The only file of src/ that includes Lua headers.  Every library function
+** takes one option table (argument #1), checks all of it before computing,
+** and reports bad input as "bad argument #1 to '<name>' (...)" naming the
+** field, the value given and what is allowed.  Per-state data (the
+** integration workspace) is a userdata upvalue, never a C static.
+*/
+
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <string.h>
+
+#include <gsl/gsl_errno.h>
+
+#include "lua.h"
+#include "lauxlib.h"
+
+#include "brakelight.h"
+#include "lbrakelight.h"
+
+
+#define QUADMETA  "brakelight.Quad"       /* integration workspace */
+#define PARTMETA  "brakelight.Particle"   /* particle object */
+
+#define QUAD_LIMIT   1000     /* subintervals per nesting level */
+#define MSGSIZE      1024     /* longest error or warning message */
+#define NAMESIZE     512      /* longest "allowed: ..." list */
+
+#define RTOL_DEFAULT 1e-4     /* default relative tolerance */
+#define RTOL_MIN     1e-12    /* range accepted by bl_quad_set_rtol */
+#define RTOL_MAX     0.5
+#define SCREENING_DEFAULT "exponential"
+#define NUCLEUS_DEFAULT   "point"
+#define CUSTOM_NAME       "custom"   /* name of a particle made without one */
+
+
+/*
+** {======================================================
+** Messages
+** =======================================================
+*/
+
+/*
+** Raise a Lua error with a printf-style message (formatted by C, so %g
+** works, unlike lua_pushfstring).  Never returns.
+*/
+static int fail (lua_State *L, const char *fmt, ...) {
+  char msg[MSGSIZE];
+  va_list ap;
+  va_start(ap, fmt);
+  vsnprintf(msg, sizeof msg, fmt, ap);
+  va_end(ap);
+  return luaL_error(L, "%s", msg);
+}
+
+
+/*
+** Raise "bad argument #1 to 'fname' (msg)", the message of luaL_argerror,
+** with a fixed function name so that it reads the same however the
+** function was reached (brakelight.dsdk{...} or pcall(brakelight.dsdk, t)).
+** Every library function takes its options as argument #1.  Never returns.
+*/
+static int argfail (lua_State *L, const char *fname, const char *fmt, ...) {
+  char msg[MSGSIZE];
+  va_list ap;
+  va_start(ap, fmt);
+  vsnprintf(msg, sizeof msg, fmt, ap);
+  va_end(ap);
+  return luaL_error(L, "bad argument #1 to '%s' (%s)", fname, msg);
+}
+
+
+/*
+** Describe the Lua value at idx for a message, into buf: numbers as
+** written, strings quoted, booleans by value, anything else by type name.
+** Touches no stack slot.
+*/
+static const char *showval (lua_State *L, int idx, char *buf, size_t n) {
+  switch (lua_type(L, idx)) {
+    case LUA_TNUMBER:
+      if (lua_isinteger(L, idx))
+        snprintf(buf, n, "%lld", (long long)lua_tointeger(L, idx));
+      else
+        snprintf(buf, n, "%.14g", (double)lua_tonumber(L, idx));
+      break;
+    case LUA_TSTRING:
+      snprintf(buf, n, "'%.60s'", lua_tostring(L, idx));
+      break;
+    case LUA_TBOOLEAN:
+      snprintf(buf, n, "%s", lua_toboolean(L, idx) ? "true" : "false");
+      break;
+    case LUA_TNONE:
+      snprintf(buf, n, "no value");
+      break;
+    default:
+      snprintf(buf, n, "%s", luaL_typename(L, idx));
+      break;
+  }
+  return buf;
+}
+
+
+/*
+** Append s to the ", "-separated list in buf (size n), truncating safely.
+*/
+static void addname (char *buf, size_t n, const char *s) {
+  size_t len = strlen(buf);
+  if (len + 1 < n)
+    snprintf(buf + len, n - len, "%s%s", len > 0 ? ", " : "", s);
+}
+
+
+/* Names of the registered screening models, ", "-separated. */
+static const char *modelnames (char *buf, size_t n) {
+  int i;
+  buf[0] = '\0';
+  for (i = 0; bl_models[i] != NULL; i++)
+    addname(buf, n, bl_models[i]->name);
+  return buf;
+}
+
+
+/* Names of the particle presets, ", "-separated. */
+static const char *particlenames (char *buf, size_t n) {
+  int i;
+  buf[0] = '\0';
+  for (i = 0; bl_particles[i] != NULL; i++)
+    addname(buf, n, bl_particles[i]->name);
+  return buf;
+}
+
+
+/* Names of a NULL-terminated key list, ", "-separated. */
+static const char *keynames (const char *const keys[], char *buf, size_t n) {
+  int i;
+  buf[0] = '\0';
+  for (i = 0; keys[i] != NULL; i++)
+    addname(buf, n, keys[i]);
+  return buf;
+}
+
+/* }====================================================== */
+
+
+/*
+** {======================================================
+** Reading option tables
+** =======================================================
+*/
+
+/*
+** Check that every key of the table at absolute index t is one of `keys`
+** (NULL-terminated).  `what` names the kind of key in the message
+** ("option", "particle field").  Raises on the first stranger, so that a
+** typo in a scan never passes silently.
+*/
+static void checkkeys (lua_State *L, int t, const char *fname,
+                       const char *what, const char *const keys[]) {
+  char names[NAMESIZE], v[80];
+  lua_pushnil(L);  /* first key */
+  while (lua_next(L, t) != 0) {  /* key at -2, value at -1 */
+    int i, known = 0;
+    if (lua_type(L, -2) == LUA_TSTRING) {
+      const char *key = lua_tostring(L, -2);  /* a string: no conversion */
+      for (i = 0; keys[i] != NULL && !known; i++)
+        known = (strcmp(key, keys[i]) == 0);
+      if (!known)
+        argfail(L, fname, "unknown %s '%.60s'; allowed: %s", what, key,
+                keynames(keys, names, sizeof names));
+    }
+    else
+      argfail(L, fname, "%s names must be strings, got key %s; allowed: %s",
+              what, showval(L, -2, v, sizeof v),
+              keynames(keys, names, sizeof names));
+    lua_pop(L, 1);  /* remove value, keep key for lua_next */
+  }
+}
+
+
+/*
+** Read field `key` of the table at absolute index t as a number into *x.
+** Returns 0 (and leaves *x) if the field is nil, 1 if it was read; raises
+** if it holds something else.  `prefix` ("" or "particle.") qualifies the
+** field name in messages.  Stack unchanged.
+*/
+static int getnum (lua_State *L, int t, const char *fname,
+                   const char *prefix, const char *key, double *x) {
+  char v[80];
+  int tp = lua_getfield(L, t, key);
+  if (tp == LUA_TNIL) {
+    lua_pop(L, 1);
+    return 0;
+  }
+  if (tp != LUA_TNUMBER)
+    argfail(L, fname, "field '%s%s' must be a number, got %s", prefix, key,
+            showval(L, -1, v, sizeof v));
+  *x = (double)lua_tonumber(L, -1);
+  lua_pop(L, 1);
+  return 1;
+}
+
+
+/*
+** As getnum, but the field is required: `meaning` says what it is in the
+** message for a missing field.
+*/
+static double neednum (lua_State *L, int t, const char *fname,
+                       const char *prefix, const char *key,
+                       const char *meaning) {
+  double x = 0;
+  if (!getnum(L, t, fname, prefix, key, &x))
+    argfail(L, fname, "missing required field '%s%s' (%s)", prefix, key,
+            meaning);
+  return x;
+}
+
+
+/*
+** Read field `key` of the table at absolute index t as a string; returns
+** NULL if nil, raises if it holds something else.  The string stays
+** valid while the table holds it.  Stack unchanged.
+*/
+static const char *getstr (lua_State *L, int t, const char *fname,
+                           const char *key) {
+  char v[80];
+  const char *s;
+  int tp = lua_getfield(L, t, key);
+  if (tp == LUA_TNIL) {
+    lua_pop(L, 1);
+    return NULL;
+  }
+  if (tp != LUA_TSTRING)
+    argfail(L, fname, "field '%s' must be a string, got %s", key,
+            showval(L, -1, v, sizeof v));
+  s = lua_tostring(L, -1);
+  lua_pop(L, 1);  /* the table still references the string */
+  return s;
+}
+
+
+/* Fields of a particle description table. */
+static const char *const particle_keys[] = {
+  "name", "mass", "charge", "spin", NULL
+};
+
+/*
+** Fill *p from the particle description at absolute index t,
+** {mass = MeV, charge = z, spin = 0 or 0.5, name = "..."}; mass, charge
+** and spin are required, the name defaults to "custom".  `prefix`
+** qualifies field names in messages.  p->name borrows the table's string.
+*/
+static void tabparticle (lua_State *L, int t, const char *fname,
+                         const char *prefix, bl_particle *p) {
+  char v[80];
+  const char *name;
+  checkkeys(L, t, fname, "particle field", particle_keys);
+  p->mass = neednum(L, t, fname, prefix, "mass", "particle mass in MeV");
+  p->charge = neednum(L, t, fname, prefix, "charge",
+                      "particle charge in units of e");
+  p->spin = neednum(L, t, fname, prefix, "spin", "particle spin, 0 or 0.5");
+  p->flags = 0;
+  if (!(p->mass > 0 && isfinite(p->mass)))
+    argfail(L, fname, "field '%smass' must be > 0 MeV and finite, got %.14g",
+            prefix, p->mass);
+  if (!(p->charge != 0 && isfinite(p->charge)))
+    argfail(L, fname, "field '%scharge' must be a finite non-zero charge "
+            "in units of e, got %.14g", prefix, p->charge);
+  if (!(p->spin == 0 || p->spin == 0.5))
+    argfail(L, fname, "field '%sspin' must be 0 or 0.5, got %.14g",
+            prefix, p->spin);
+  if (lua_getfield(L, t, "name") == LUA_TNIL)
+    name = CUSTOM_NAME;
+  else if (lua_type(L, -1) == LUA_TSTRING)
+    name = lua_tostring(L, -1);  /* held by the table */
+  else {
+    argfail(L, fname, "field '%sname' must be a string, got %s", prefix,
+            showval(L, -1, v, sizeof v));
+    return;  /* not reached */
+  }
+  lua_pop(L, 1);
+  p->name = name;
+  if (bl_particle_check(p) != BL_SUCCESS)  /* the core's own view */
+    argfail(L, fname, "particle '%.60s' rejected by the core: %s", p->name,
+            bl_strerror(bl_particle_check(p)));
+}
+
+
+/* Everything a computation needs besides its abscissae. */
+typedef struct Opts {
+  const char *fname;          /* Lua name of the function, for messages */
+  bl_particle particle;
+  int Z;
+  const bl_model *screening;
+  double T;                   /* kinetic energy, MeV */
+  double rtol;                /* relative tolerance (integrals only) */
+  int userol;                 /* rtol is an option of this function */
+} Opts;
+
+
+/*
+** Read option 'particle': a preset name, a particle object or a
+** particle description table.
+*/
+static void optparticle (lua_State *L, Opts *o) {
+  char names[NAMESIZE], v[80];
+  const bl_particle *pre;
+  int tp = lua_getfield(L, 1, "particle");
+  switch (tp) {
+    case LUA_TNIL:
+      argfail(L, o->fname, "missing required field 'particle' (a preset "
+              "name such as 'electron', or a particle object)");
+      break;
+    case LUA_TSTRING:
+      pre = bl_particle_find(lua_tostring(L, -1));
+      if (pre == NULL)
+        argfail(L, o->fname, "unknown particle %s in field 'particle'; "
+                "allowed: %s, or a particle object from brakelight.particle",
+                showval(L, -1, v, sizeof v),
+                particlenames(names, sizeof names));
+      o->particle = *pre;
+      break;
+    case LUA_TTABLE:
+      tabparticle(L, lua_gettop(L), o->fname, "particle.", &o->particle);
+      break;
+    default: {
+      bl_particle *p = (bl_particle *)luaL_testudata(L, -1, PARTMETA);
+      if (p == NULL)
+        argfail(L, o->fname, "field 'particle' must be a preset name or a "
+                "particle object, got %s", showval(L, -1, v, sizeof v));
+      o->particle = *p;  /* name held by the object's user value */
+      break;
+    }
+  }
+  lua_pop(L, 1);  /* the option table keeps strings and objects alive */
+}
+
+
+/* Read option 'target': an element symbol or an integer Z in 1..BL_ZMAX. */
+static void opttarget (lua_State *L, Opts *o) {
+  char v[80];
+  int tp = lua_getfield(L, 1, "target");
+  const char *first = bl_element_symbol(1), *last = bl_element_symbol(BL_ZMAX);
+  if (tp == LUA_TNIL)
+    argfail(L, o->fname, "missing required field 'target' (an element "
+            "symbol such as 'Pb' or an atomic number Z in 1..%d)", BL_ZMAX);
+  else if (tp == LUA_TSTRING) {
+    o->Z = bl_element_find(lua_tostring(L, -1));
+    if (o->Z < 1 || o->Z > BL_ZMAX)
+      argfail(L, o->fname, "unknown element %s in field 'target'; allowed: "
+              "element symbols %s..%s (case as in the periodic table) or an "
+              "integer Z in 1..%d", showval(L, -1, v, sizeof v),
+              first ? first : "?", last ? last : "?", BL_ZMAX);
+  }
+  else if (tp == LUA_TNUMBER) {
+    int isint;
+    lua_Integer Z = lua_tointegerx(L, -1, &isint);  /* 82.0 is fine */
+    if (!isint || Z < 1 || Z > BL_ZMAX)
+      argfail(L, o->fname, "field 'target' must be an integer Z in 1..%d, "
+              "got %s", BL_ZMAX, showval(L, -1, v, sizeof v));
+    o->Z = (int)Z;
+  }
+  else
+    argfail(L, o->fname, "field 'target' must be an element symbol or an "
+            "integer Z in 1..%d, got %s", BL_ZMAX,
+            showval(L, -1, v, sizeof v));
+  lua_pop(L, 1);
+}
+
+
+/*
+** Read the options shared by every computation (particle, target, T,
+** screening, rtol, nucleus, electrons) from the table at index 1, after
+** checking its keys against `keys`.
+*/
+static void readopts (lua_State *L, const char *fname,
+                      const char *const keys[], int userol, Opts *o) {
+  char names[NAMESIZE], v[80];
+  const char *s;
+  memset(o, 0, sizeof *o);
+  o->fname = fname;
+  o->userol = userol;
+  if (lua_type(L, 1) != LUA_TTABLE)
+    argfail(L, fname, "option table expected, got %s",
+            showval(L, 1, v, sizeof v));
+  lua_settop(L, 1);  /* ignore extra arguments; the stack is ours */
+  checkkeys(L, 1, fname, "option", keys);
+  optparticle(L, o);
+  opttarget(L, o);
+  o->T = neednum(L, 1, fname, "", "T", "kinetic energy in MeV");
+  if (!(o->T > 0 && isfinite(o->T)))
+    argfail(L, fname, "field 'T' must be > 0 MeV and finite, got %.14g",
+            o->T);
+  s = getstr(L, 1, fname, "screening");
+  o->screening = bl_model_find(s ? s : SCREENING_DEFAULT);
+  if (o->screening == NULL)
+    argfail(L, fname, "unknown screening model '%.60s' in field 'screening'; "
+            "allowed: %s", s ? s : SCREENING_DEFAULT,
+            modelnames(names, sizeof names));
+  o->rtol = RTOL_DEFAULT;
+  if (userol && getnum(L, 1, fname, "", "rtol", &o->rtol)
+      && !(o->rtol >= RTOL_MIN && o->rtol <= RTOL_MAX))
+    argfail(L, fname, "field 'rtol' must be a relative tolerance in "
+            "[%g, %g], got %.14g", RTOL_MIN, RTOL_MAX, o->rtol);
+  s = getstr(L, 1, fname, "nucleus");
+  if (s != NULL && strcmp(s, NUCLEUS_DEFAULT) != 0)
+    argfail(L, fname, "unknown nucleus model '%.60s' in field 'nucleus'; "
+            "allowed: %s", s, NUCLEUS_DEFAULT);
+  switch (lua_getfield(L, 1, "electrons")) {
+    case LUA_TNIL: break;
+    case LUA_TBOOLEAN:
+      if (lua_toboolean(L, -1))
+        argfail(L, fname, "field 'electrons' is true: atomic-electron field "
+                "not available yet; allowed: false");
+      break;
+    default:
+      argfail(L, fname, "field 'electrons' must be a boolean (allowed: "
+              "false), got %s", showval(L, -1, v, sizeof v));
+  }
+  lua_pop(L, 1);
+}
+
+
+/*
+** Read the required scalar option `key`, which must lie in (lo, hi)
+** (open = 1) or [lo, hi] (open = 0); `range` describes the interval
+** in the message ("(0, T) = (0, 20) MeV").  NaN and infinities fail.
+*/
+static double optrange (lua_State *L, const Opts *o, const char *key,
+                        const char *meaning, double lo, double hi, int open,
+                        const char *range) {
+  double x = neednum(L, 1, o->fname, "", key, meaning);
+  int ok = open ? (x > lo && x < hi) : (x >= lo && x <= hi);
+  if (!ok || !isfinite(x))
+    argfail(L, o->fname, "field '%s' must be in %s, got %.14g", key, range,
+            x);
+  return x;
+}
+
+
+/*
+** Check the array option `key` (must be present): a non-empty sequence of
+** numbers each in (lo, hi) (open = 1) or [lo, hi] (open = 0), `range`
+** describing the interval.  Returns its length.  Stack unchanged.
+*/
+static lua_Integer optarray (lua_State *L, const Opts *o, const char *key,
+                             double lo, double hi, int open,
+                             const char *range) {
+  char v[80];
+  lua_Integer i, n;
+  if (lua_getfield(L, 1, key) != LUA_TTABLE)
+    argfail(L, o->fname, "field '%s' must be an array of numbers, got %s",
+            key, showval(L, -1, v, sizeof v));
+  n = (lua_Integer)lua_rawlen(L, -1);
+  if (n < 1)
+    argfail(L, o->fname, "field '%s' must be a non-empty array of numbers, "
+            "got an empty table", key);
+  for (i = 1; i <= n; i++) {
+    double x;
+    int ok;
+    if (lua_rawgeti(L, -1, i) != LUA_TNUMBER)
+      argfail(L, o->fname, "element #%lld of '%s' is not a number, got %s",
+              (long long)i, key, showval(L, -1, v, sizeof v));
+    x = (double)lua_tonumber(L, -1);
+    ok = open ? (x > lo && x < hi) : (x >= lo && x <= hi);
+    if (!ok || !isfinite(x))
+      argfail(L, o->fname, "element #%lld of '%s' must be in %s, got %.14g",
+              (long long)i, key, range, x);
+    lua_pop(L, 1);
+  }
+  lua_pop(L, 1);
+  return n;
+}
+
+/* }====================================================== */
+
+
+/*
+** {======================================================
+** Computing: workspace, case, results, warnings
+** =======================================================
+*/
+
+typedef struct LQuad {
+  bl_quad *q;   /* NULL when closed */
+} LQuad;
+
+
+/*
+** The state's integration workspace (upvalue 1 of every library
+** function), set to the tolerance of *o.
+*/
+static bl_quad *getquad (lua_State *L, const Opts *o) {
+  LQuad *lq = (LQuad *)luaL_testudata(L, lua_upvalueindex(1), QUADMETA);
+  int st;
+  if (lq == NULL || lq->q == NULL)
+    luaL_error(L, "%s: the integration workspace of brakelight is closed",
+               o->fname);
+  st = bl_quad_set_rtol(lq->q, o->rtol);
+  if (st != BL_SUCCESS)
+    fail(L, "%s: the core refused rtol = %g: %s", o->fname, o->rtol,
+         bl_strerror(st));
+  return lq->q;
+}
+
+
+/* Prepare the core's case for *o; raises if the core refuses it. */
+static void makecase (lua_State *L, const Opts *o, bl_case *c) {
+  int st = bl_case_init(c, &o->particle, o->Z, o->screening, NULL, o->T);
+  if (st != BL_SUCCESS)
+    fail(L, "%s: cannot set up %s on Z = %d at T = %g MeV with screening "
+         "'%s': %s", o->fname, o->particle.name, o->Z, o->T,
+         o->screening->name, bl_strerror(st));
+}
+
+
+/* Statuses that mean "best estimate available, tolerance not reached". */
+static int notconverged (int st) {
+  return st == GSL_EMAXITER || st == GSL_EROUND || st == GSL_ESING
+      || st == GSL_ETOL || st == GSL_EDIVERGE || st == BL_ENOTCONV;
+}
+
+
+/*
+** Accept a core result or raise: a non-convergence status becomes the
+** tolerance warning on the best estimate; any other failure, and any
+** non-finite value or error, is a Lua error with the numbers.  `where`
+** describes the point ("k = 5 MeV").
+*/
+static void checkresult (lua_State *L, const Opts *o, int st, bl_result *r,
+                         const char *where) {
+  if (st != BL_SUCCESS) {
+    if (notconverged(st))
+      r->warn |= BL_WARN_TOLERANCE;
+    else
+      fail(L, "%s: %s for %s on Z = %d at T = %g MeV, %s (estimate %g +- %g)",
+           o->fname, bl_strerror(st), o->particle.name, o->Z, o->T, where,
+           r->val, r->err);
+  }
+  if (!isfinite(r->val) || !isfinite(r->err))
+    fail(L, "%s: non-finite result %g +- %g for %s on Z = %d at T = %g MeV, "
+         "%s (please report this case)", o->fname, r->val, r->err,
+         o->particle.name, o->Z, o->T, where);
+}
+
+
+/* Warnings gathered over the points of one call. */
+typedef struct Warnings {
+  unsigned bits;       /* union of BL_WARN_* over all points and the case */
+  int npts, ntol;      /* points computed / points short of the tolerance */
+  double worst;        /* worst relative error estimate among the latter */
+  char worstat[64];    /* where it was ("k = 5 MeV") */
+  double kborn;        /* largest k flagged BL_WARN_BORN; < 0: none */
+} Warnings;
+
+
+/* Start a collection with the case's own warnings (and point-like for
+** composite projectiles, whatever the core says). */
+static void initwarn (Warnings *w, const Opts *o, const bl_case *c) {
+  memset(w, 0, sizeof *w);
+  w->bits = c->warn;
+  if (o->particle.flags & BL_PARTICLE_COMPOSITE)
+    w->bits |= BL_WARN_POINTLIKE;
+  w->kborn = -1;
+}
+
+
+/* Add one point's result, computed at photon energy k, described by `at`. */
+static void addwarn (Warnings *w, const bl_result *r, double k,
+                     const char *at) {
+  w->npts++;
+  w->bits |= r->warn;
+  if (r->warn & BL_WARN_TOLERANCE) {
+    double rel = r->val != 0 ? r->err / fabs(r->val) : HUGE_VAL;
+    w->ntol++;
+    if (w->ntol == 1 || rel > w->worst) {
+      w->worst = rel;
+      snprintf(w->worstat, sizeof w->worstat, "%s", at);
+    }
+  }
+  if ((r->warn & BL_WARN_BORN) && k > w->kborn)
+    w->kborn = k;
+}
+
+
+/* Speed v/c of a particle of mass m (MeV) and kinetic energy t (MeV). */
+static double beta (double t, double m) {
+  double x = t / m;
+  return sqrt(x * (x + 2)) / (x + 1);
+}
+
+
+/* Push the string for warning bit `bit`, with the numbers of this call. */
+static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
+                         unsigned bit) {
+  char msg[MSGSIZE];
+  const char *text = bl_warn_text(bit);
+  const bl_particle *p = &o->particle;
+  double xi = 2 * BL_PI * fabs(p->charge) * o->Z * BL_ALPHA;
+  if (text == NULL)
+    text = "warning";
+  switch (bit) {
+    case BL_WARN_TOLERANCE:
+      snprintf(msg, sizeof msg, "%s: %d of %d points missed rtol = %g "
+               "(worst relative error estimate %.3g at %s)", text, w->ntol,
+               w->npts, o->rtol, w->worst, w->worstat);
+      break;
+    case BL_WARN_POINTLIKE:
+      snprintf(msg, sizeof msg, "%s: %s (mass %g MeV) treated as point-like",
+               text, p->name, p->mass);
+      break;
+    case BL_WARN_BORN:  /* the core's criterion: 2 pi |z| Z alpha / beta */
+      if (w->kborn > 0 && w->kborn < o->T)
+        snprintf(msg, sizeof msg, "%s (2 pi |z| Z alpha/beta = %.3g before "
+                 "emission, %.3g after emitting k = %g MeV; z = %g, Z = %d, "
+                 "T = %g MeV)", text, xi / beta(o->T, p->mass),
+                 xi / beta(o->T - w->kborn, p->mass), w->kborn, p->charge,
+                 o->Z, o->T);
+      else
+        snprintf(msg, sizeof msg, "%s (2 pi |z| Z alpha/beta = %.3g; z = %g, "
+                 "Z = %d, T = %g MeV)", text, xi / beta(o->T, p->mass),
+                 p->charge, o->Z, o->T);
+      break;
+    case BL_WARN_VALIDITY:
+      snprintf(msg, sizeof msg, "%s (screening '%s', %s, Z = %d, "
+               "T = %g MeV)", text, o->screening->name, p->name, o->Z, o->T);
+      break;
+    default:
+      snprintf(msg, sizeof msg, "%s (warning bit 0x%x)", text, bit);
+      break;
+  }
+  lua_pushstring(L, msg);
+}
+
+
+/*
+** Push the list of warnings: one string per bit set, in bit order, so the
+** list is deduplicated by construction; empty when none.
+*/
+static void pushwarnings (lua_State *L, const Opts *o, const Warnings *w) {
+  unsigned i;
+  int n = 0;
+  lua_newtable(L);
+  for (i = 0; i < 8 * sizeof w->bits; i++) {
+    unsigned bit = 1u << i;
+    if (w->bits & bit) {
+      pushwarning(L, o, w, bit);
+      lua_rawseti(L, -2, ++n);
+    }
+  }
+}
+
+
+/* Push {name, mass, charge, spin} of particle p. */
+static void pushparticletable (lua_State *L, const bl_particle *p) {
+  lua_createtable(L, 0, 4);
+  lua_pushstring(L, p->name);
+  lua_setfield(L, -2, "name");
+  lua_pushnumber(L, p->mass);
+  lua_setfield(L, -2, "mass");
+  lua_pushnumber(L, p->charge);
+  lua_setfield(L, -2, "charge");
+  lua_pushnumber(L, p->spin);
+  lua_setfield(L, -2, "spin");
+}
+
+
+/* Push the settings table: every option used, defaults filled in. */
+static void pushsettings (lua_State *L, const Opts *o) {
+  lua_createtable(L, 0, 8);
+  pushparticletable(L, &o->particle);
+  lua_setfield(L, -2, "particle");
+  lua_createtable(L, 0, 2);
+  lua_pushstring(L, bl_element_symbol(o->Z));
+  lua_setfield(L, -2, "symbol");
+  lua_pushinteger(L, o->Z);
+  lua_setfield(L, -2, "Z");
+  lua_setfield(L, -2, "target");
+  lua_pushnumber(L, o->T);
+  lua_setfield(L, -2, "T");
+  lua_pushstring(L, o->screening->name);
+  lua_setfield(L, -2, "screening");
+  if (o->userol) {
+    lua_pushnumber(L, o->rtol);
+    lua_setfield(L, -2, "rtol");
+  }
+  lua_pushstring(L, NUCLEUS_DEFAULT);
+  lua_setfield(L, -2, "nucleus");
+  lua_pushboolean(L, 0);
+  lua_setfield(L, -2, "electrons");
+  lua_pushstring(L, "born");
+  lua_setfield(L, -2, "method");
+}
+
+
+/*
+** Push a table of units: pairs of (field, unit) strings, NULL-terminated.
+*/
+static void pushunits (lua_State *L, const char *const pairs[]) {
+  int i;
+  lua_newtable(L);
+  for (i = 0; pairs[i] != NULL; i += 2) {
+    lua_pushstring(L, pairs[i + 1]);
+    lua_setfield(L, -2, pairs[i]);
+  }
+}
+
+/* }====================================================== */
+
+
+/*
+** {======================================================
+** Library functions
+** =======================================================
+*/
+
+/* Option names of each function, in the order the messages list them. */
+static const char *const dsdk_keys[] = {
+  "particle", "target", "T", "k", "screening", "rtol", "nucleus",
+  "electrons", NULL
+};
+static const char *const spectrum_keys[] = {
+  "particle", "target", "T", "k", "y", "screening", "rtol", "nucleus",
+  "electrons", NULL
+};
+static const char *const angular_keys[] = {
+  "particle", "target", "T", "k", "theta", "screening", "rtol", "nucleus",
+  "electrons", NULL
+};
+static const char *const differential_keys[] = {
+  "particle", "target", "T", "k", "theta_k", "theta_p", "phi", "screening",
+  "nucleus", "electrons", NULL
+};
+
+
+/* Read option 'k', required, in (0, T). */
+static double optk (lua_State *L, const Opts *o) {
+  char range[96];
+  snprintf(range, sizeof range, "(0, T) = (0, %.14g) MeV", o->T);
+  return optrange(L, o, "k", "photon energy in MeV", 0, o->T, 1, range);
+}
+
+
+/*
+** brakelight.dsdk{particle =, target =, T =, k =, ...}
+**   -> dsigma/dk (mb/MeV per atom), its error estimate, warnings list
+*/
+static int l_dsdk (lua_State *L) {
+  Opts o;
+  bl_case c;
+  bl_result r;
+  bl_quad *q;
+  Warnings w;
+  char at[64];
+  double k;
+  int st;
+  readopts(L, "dsdk", dsdk_keys, 1, &o);
+  k = optk(L, &o);
+  /* all checks done */
+  q = getquad(L, &o);
+  makecase(L, &o, &c);
+  initwarn(&w, &o, &c);
+  snprintf(at, sizeof at, "k = %.6g MeV", k);
+  st = bl_dcs_dk_e(&c, k, q, &r);
+  checkresult(L, &o, st, &r, at);
+  addwarn(&w, &r, k, at);
+  lua_pushnumber(L, r.val);
+  lua_pushnumber(L, r.err);
+  pushwarnings(L, &o, &w);
+  return 3;
+}
+
+
+/*
+** brakelight.spectrum{..., k = {...}} or {..., y = {...}}
+**   -> {k, y, dsdk, err, units, settings, warnings}
+*/
+static int l_spectrum (lua_State *L) {
+  static const char *const units[] = {
+    "k", "MeV", "y", "1", "dsdk", "mb/MeV", "err", "mb/MeV", NULL
+  };
+  Opts o;
+  bl_case c;
+  bl_quad *q;
+  Warnings w;
+  char range[96];
+  const char *axis;
+  lua_Integer i, n;
+  int hask, hasy;
+  readopts(L, "spectrum", spectrum_keys, 1, &o);
+  hask = (lua_getfield(L, 1, "k") != LUA_TNIL);
+  hasy = (lua_getfield(L, 1, "y") != LUA_TNIL);
+  lua_pop(L, 2);
+  if (hask == hasy)
+    argfail(L, o.fname, "give exactly one of fields 'k' (photon energies, "
+            "MeV) and 'y' (fractions k/T), got %s", hask ? "both" : "neither");
+  if (hask) {
+    axis = "k";
+    snprintf(range, sizeof range, "(0, T) = (0, %.14g) MeV", o.T);
+    n = optarray(L, &o, "k", 0, o.T, 1, range);
+  }
+  else {
+    axis = "y";
+    n = optarray(L, &o, "y", 0, 1, 1, "(0, 1)");
+  }
+  /* all checks done */
+  q = getquad(L, &o);
+  makecase(L, &o, &c);
+  initwarn(&w, &o, &c);
+  lua_getfield(L, 1, axis);           /* 2: abscissae */
+  lua_createtable(L, (int)n, 0);      /* 3: k */
+  lua_createtable(L, (int)n, 0);      /* 4: y */
+  lua_createtable(L, (int)n, 0);      /* 5: dsdk */
+  lua_createtable(L, (int)n, 0);      /* 6: err */
+  for (i = 1; i <= n; i++) {
+    bl_result r;
+    char at[64];
+    double x, k, y;
+    int st;
+    lua_rawgeti(L, 2, i);
+    x = (double)lua_tonumber(L, -1);
+    lua_pop(L, 1);
+    k = hask ? x : x * o.T;
+    y = hask ? x / o.T : x;
+    snprintf(at, sizeof at, "k = %.6g MeV", k);
+    st = bl_dcs_dk_e(&c, k, q, &r);
+    checkresult(L, &o, st, &r, at);
+    addwarn(&w, &r, k, at);
+    lua_pushnumber(L, k);
+    lua_rawseti(L, 3, i);
+    lua_pushnumber(L, y);
+    lua_rawseti(L, 4, i);
+    lua_pushnumber(L, r.val);
+    lua_rawseti(L, 5, i);
+    lua_pushnumber(L, r.err);
+    lua_rawseti(L, 6, i);
+  }
+  lua_createtable(L, 0, 7);           /* 7: result */
+  lua_pushvalue(L, 3);
+  lua_setfield(L, 7, "k");
+  lua_pushvalue(L, 4);
+  lua_setfield(L, 7, "y");
+  lua_pushvalue(L, 5);
+  lua_setfield(L, 7, "dsdk");
+  lua_pushvalue(L, 6);
+  lua_setfield(L, 7, "err");
+  pushunits(L, units);
+  lua_setfield(L, 7, "units");
+  pushsettings(L, &o);
+  lua_setfield(L, 7, "settings");
+  pushwarnings(L, &o, &w);
+  lua_setfield(L, 7, "warnings");
+  return 1;
+}
+
+
+/*
+** brakelight.angular{..., k =, theta = {...}}
+**   -> {k, y, theta, d2sigma, err, units, settings, warnings}
+*/
+static int l_angular (lua_State *L) {
+  static const char *const units[] = {
+    "k", "MeV", "y", "1", "theta", "rad", "d2sigma", "mb/(MeV sr)",
+    "err", "mb/(MeV sr)", NULL
+  };
+  Opts o;
+  bl_case c;
+  bl_quad *q;
+  Warnings w;
+  lua_Integer i, n;
+  double k;
+  readopts(L, "angular", angular_keys, 1, &o);
+  k = optk(L, &o);
+  n = optarray(L, &o, "theta", 0, BL_PI, 0, "[0, pi] rad");
+  /* all checks done */
+  q = getquad(L, &o);
+  makecase(L, &o, &c);
+  initwarn(&w, &o, &c);
+  lua_getfield(L, 1, "theta");        /* 2: angles */
+  lua_createtable(L, (int)n, 0);      /* 3: theta */
+  lua_createtable(L, (int)n, 0);      /* 4: d2sigma */
+  lua_createtable(L, (int)n, 0);      /* 5: err */
+  for (i = 1; i <= n; i++) {
+    bl_result r;
+    char at[64];
+    double th;
+    int st;
+    lua_rawgeti(L, 2, i);
+    th = (double)lua_tonumber(L, -1);
+    lua_pop(L, 1);
+    snprintf(at, sizeof at, "k = %.6g MeV, theta = %.6g rad", k, th);
+    st = bl_dcs_angular_e(&c, k, th, q, &r);
+    checkresult(L, &o, st, &r, at);
+    addwarn(&w, &r, k, at);
+    lua_pushnumber(L, th);
+    lua_rawseti(L, 3, i);
+    lua_pushnumber(L, r.val);
+    lua_rawseti(L, 4, i);
+    lua_pushnumber(L, r.err);
+    lua_rawseti(L, 5, i);
+  }
+  lua_createtable(L, 0, 8);           /* 6: result */
+  lua_pushnumber(L, k);
+  lua_setfield(L, 6, "k");
+  lua_pushnumber(L, k / o.T);
+  lua_setfield(L, 6, "y");
+  lua_pushvalue(L, 3);
+  lua_setfield(L, 6, "theta");
+  lua_pushvalue(L, 4);
+  lua_setfield(L, 6, "d2sigma");
+  lua_pushvalue(L, 5);
+  lua_setfield(L, 6, "err");
+  pushunits(L, units);
+  lua_setfield(L, 6, "units");
+  pushsettings(L, &o);
+  lua_setfield(L, 6, "settings");
+  pushwarnings(L, &o, &w);
+  lua_setfield(L, 6, "warnings");
+  return 1;
+}
+
+
+/*
+** brakelight.differential{..., k =, theta_k =, theta_p =, phi =}
+**   -> d3sigma/(dk dOmega_k dOmega_p) in mb/(MeV sr^2), warnings list
+*/
+static int l_differential (lua_State *L) {
+  Opts o;
+  bl_case c;
+  bl_result r;
+  Warnings w;
+  char at[128];
+  double k, thk, thp, phi;
+  int st;
+  readopts(L, "differential", differential_keys, 0, &o);
+  k = optk(L, &o);
+  thk = optrange(L, &o, "theta_k", "photon polar angle in rad", 0, BL_PI, 0,
+                 "[0, pi] rad");
+  thp = optrange(L, &o, "theta_p", "final-particle polar angle in rad", 0,
+                 BL_PI, 0, "[0, pi] rad");
+  phi = neednum(L, 1, o.fname, "", "phi", "azimuth between photon and "
+                "particle in rad");
+  if (!isfinite(phi))
+    argfail(L, o.fname, "field 'phi' must be a finite angle in rad, got "
+            "%.14g", phi);
+  /* all checks done */
+  makecase(L, &o, &c);
+  initwarn(&w, &o, &c);
+  snprintf(at, sizeof at, "k = %.6g MeV, theta_k = %.6g, theta_p = %.6g, "
+           "phi = %.6g rad", k, thk, thp, phi);
+  st = bl_dcs_full_e(&c, k, thk, thp, phi, &r);
+  checkresult(L, &o, st, &r, at);
+  addwarn(&w, &r, k, at);
+  lua_pushnumber(L, r.val);
+  pushwarnings(L, &o, &w);
+  return 2;
+}
+
+
+/*
+** brakelight.models() -> list of {id, name, description,
+**   references = {{key, citation, doi}...},
+**   parameters = {{name, description, default, unit}...}}, in id order
+*/
+static int l_models (lua_State *L) {
+  int i, j;
+  lua_newtable(L);
+  for (i = 0; bl_models[i] != NULL; i++) {
+    const bl_model *m = bl_models[i];
+    lua_createtable(L, 0, 5);
+    lua_pushinteger(L, m->id);
+    lua_setfield(L, -2, "id");
+    lua_pushstring(L, m->name);
+    lua_setfield(L, -2, "name");
+    lua_pushstring(L, m->description);
+    lua_setfield(L, -2, "description");
+    lua_newtable(L);  /* references */
+    for (j = 0; j < BL_MAX_REFS && m->refs[j] != NULL; j++) {
+      lua_createtable(L, 0, 3);
+      lua_pushstring(L, m->refs[j]->key);
+      lua_setfield(L, -2, "key");
+      lua_pushstring(L, m->refs[j]->citation);
+      lua_setfield(L, -2, "citation");
+      if (m->refs[j]->doi != NULL) {
+        lua_pushstring(L, m->refs[j]->doi);
+        lua_setfield(L, -2, "doi");
+      }
+      lua_rawseti(L, -2, j + 1);
+    }
+    lua_setfield(L, -2, "references");
+    lua_newtable(L);  /* parameters */
+    for (j = 0; j < m->nparams; j++) {
+      const bl_param *p = &m->params[j];
+      lua_createtable(L, 0, 4);
+      lua_pushstring(L, p->name);
+      lua_setfield(L, -2, "name");
+      lua_pushstring(L, p->description);
+      lua_setfield(L, -2, "description");
+      lua_pushnumber(L, p->value);
+      lua_setfield(L, -2, "default");
+      lua_pushstring(L, p->unit);
+      lua_setfield(L, -2, "unit");
+      lua_rawseti(L, -2, j + 1);
+    }
+    lua_setfield(L, -2, "parameters");
+    lua_rawseti(L, -2, i + 1);
+  }
+  return 1;
+}
+
+/* }====================================================== */
+
+
+/*
+** {======================================================
+** Particle objects (metatable "brakelight.Particle")
+** A full userdata holding a bl_particle; its name string is the user
+** value, so the borrowed name pointer lives as long as the object.
+** Read-only fields: name, mass (MeV), charge (e), spin, composite.
+** =======================================================
+*/
+
+/* Push a new particle object holding a copy of *src (name copied too). */
+static void pushparticle (lua_State *L, const bl_particle *src) {
+  bl_particle *p = (bl_particle *)lua_newuserdatauv(L, sizeof *p, 1);
+  *p = *src;
+  lua_pushstring(L, src->name);     /* the object's own copy of the name */
+  p->name = lua_tostring(L, -1);
+  lua_setiuservalue(L, -2, 1);      /* keep it alive */
+  luaL_setmetatable(L, PARTMETA);
+}
+
+
+/*
+** brakelight.particle(name) -> a preset particle object;
+** brakelight.particle{mass =, charge =, spin =, name =} -> a new one
+*/
+static int l_particle (lua_State *L) {
+  char names[NAMESIZE], v[80];
+  bl_particle p;
+  const bl_particle *pre;
+  switch (lua_type(L, 1)) {
+    case LUA_TSTRING:
+      pre = bl_particle_find(lua_tostring(L, 1));
+      if (pre == NULL)
+        argfail(L, "particle", "unknown particle %s; allowed: %s, or a "
+                "table {mass =, charge =, spin =, name =}",
+                showval(L, 1, v, sizeof v),
+                particlenames(names, sizeof names));
+      pushparticle(L, pre);
+      return 1;
+    case LUA_TTABLE:
+      lua_settop(L, 1);
+      tabparticle(L, 1, "particle", "", &p);
+      pushparticle(L, &p);
+      return 1;
+    default:
+      return argfail(L, "particle", "particle name (string) or description "
+                     "(table) expected, got %s", showval(L, 1, v, sizeof v));
+  }
+}
+
+
+/* __index: the read-only fields; nil for any other key. */
+static int particle_index (lua_State *L) {
+  const bl_particle *p = (const bl_particle *)luaL_checkudata(L, 1, PARTMETA);
+  const char *key = lua_tostring(L, 2);  /* NULL for non-string keys */
+  if (key == NULL || lua_type(L, 2) != LUA_TSTRING)
+    lua_pushnil(L);
+  else if (strcmp(key, "name") == 0)
+    lua_pushstring(L, p->name);
+  else if (strcmp(key, "mass") == 0)
+    lua_pushnumber(L, p->mass);
+  else if (strcmp(key, "charge") == 0)
+    lua_pushnumber(L, p->charge);
+  else if (strcmp(key, "spin") == 0)
+    lua_pushnumber(L, p->spin);
+  else if (strcmp(key, "composite") == 0)
+    lua_pushboolean(L, (p->flags & BL_PARTICLE_COMPOSITE) != 0);
+  else
+    lua_pushnil(L);
+  return 1;
+}
+
+
+/* __newindex: particle objects are immutable. */
+static int particle_newindex (lua_State *L) {
+  luaL_checkudata(L, 1, PARTMETA);
+  return luaL_error(L, "particle objects are read-only (field '%s'); make a "
+                    "new one with brakelight.particle{...}",
+                    luaL_tolstring(L, 2, NULL));
+}
+
+
+/* __tostring: "brakelight.Particle: muon (mass ... MeV, charge -1, spin 1/2)". */
+static int particle_tostring (lua_State *L) {
+  const bl_particle *p = (const bl_particle *)luaL_checkudata(L, 1, PARTMETA);
+  char buf[MSGSIZE];
+  snprintf(buf, sizeof buf, "%s: %s (mass %.10g MeV, charge %g, spin %s%s)",
+           PARTMETA, p->name, p->mass, p->charge,
+           p->spin == 0 ? "0" : "1/2",
+           (p->flags & BL_PARTICLE_COMPOSITE) ? ", composite" : "");
+  lua_pushstring(L, buf);
+  return 1;
+}
+
+
+/* Two particle objects are equal when every field is. */
+static int particle_eq (lua_State *L) {
+  const bl_particle *a = (const bl_particle *)luaL_checkudata(L, 1, PARTMETA);
+  const bl_particle *b = (const bl_particle *)luaL_checkudata(L, 2, PARTMETA);
+  lua_pushboolean(L, a->mass == b->mass && a->charge == b->charge
+                     && a->spin == b->spin && a->flags == b->flags
+                     && strcmp(a->name, b->name) == 0);
+  return 1;
+}
+
+
+static const luaL_Reg particle_meta[] = {
+  {"__eq", particle_eq},
+  {"__index", particle_index},
+  {"__newindex", particle_newindex},
+  {"__tostring", particle_tostring},
+  {NULL, NULL}
+};
+
+/* }====================================================== */
+
+
+/*
+** {======================================================
+** Workspace objects (metatable "brakelight.Quad")
+** =======================================================
+*/
+
+/* Free the workspace; serves __gc, __close and :close(); idempotent. */
+static int quad_gc (lua_State *L) {
+  LQuad *lq = (LQuad *)luaL_checkudata(L, 1, QUADMETA);
+  bl_quad_free(lq->q);  /* NULL is a no-op */
+  lq->q = NULL;         /* mark as closed */
+  return 0;
+}
+
+
+/* __tostring: "brakelight.Quad (0x...)" or "brakelight.Quad (closed)". */
+static int quad_tostring (lua_State *L) {
+  LQuad *lq = (LQuad *)luaL_checkudata(L, 1, QUADMETA);
+  if (lq->q == NULL)
+    lua_pushliteral(L, QUADMETA " (closed)");
+  else
+    lua_pushfstring(L, QUADMETA " (%p)", (void *)lq->q);
+  return 1;
+}
+
+
+static const luaL_Reg quad_meth[] = {
+  {"close", quad_gc},
+  {NULL, NULL}
+};
+
+static const luaL_Reg quad_meta[] = {
+  {"__index", NULL},  /* placeholder */
+  {"__gc", quad_gc},
+  {"__close", quad_gc},
+  {"__tostring", quad_tostring},
+  {NULL, NULL}
+};
+
+
+/* Create the metatables of the module's userdata. */
+static void createmeta (lua_State *L) {
+  luaL_newmetatable(L, QUADMETA);        /* metatable for workspaces */
+  luaL_setfuncs(L, quad_meta, 0);        /* add metamethods */
+  luaL_newlibtable(L, quad_meth);        /* method table */
+  luaL_setfuncs(L, quad_meth, 0);
+  lua_setfield(L, -2, "__index");        /* metatable.__index = methods */
+  lua_pop(L, 1);
+  luaL_newmetatable(L, PARTMETA);        /* metatable for particles */
+  luaL_setfuncs(L, particle_meta, 0);
+  lua_pop(L, 1);
+}
+
+
+/*
+** Push a new workspace object: created closed (q = NULL) with its
+** metatable before the allocation, so a failure leaves nothing to leak.
+*/
+static void newquad (lua_State *L) {
+  LQuad *lq = (LQuad *)lua_newuserdatauv(L, sizeof *lq, 0);
+  lq->q = NULL;
+  luaL_setmetatable(L, QUADMETA);
+  lq->q = bl_quad_alloc(QUAD_LIMIT);
+  if (lq->q == NULL)
+    luaL_error(L, "brakelight: cannot allocate the integration workspace");
+}
+
+/* }====================================================== */
+
+
+static const luaL_Reg brakelight_funcs[] = {
+  {"angular", l_angular},
+  {"differential", l_differential},
+  {"dsdk", l_dsdk},
+  {"models", l_models},
+  {"particle", l_particle},
+  {"spectrum", l_spectrum},
+  {NULL, NULL}
+};
+
+
+/*
+** Open the module: the GSL error handler is switched off (process-wide:
+** GSL's default handler aborts), and the library functions share one
+** integration workspace as upvalue 1.  Returns the module table.
+*/
+LUAMOD_API int luaopen_brakelight (lua_State *L) {
+  gsl_set_error_handler_off();
+  luaL_checkversion(L);
+  createmeta(L);
+  luaL_newlibtable(L, brakelight_funcs);  /* module table */
+  newquad(L);                             /* shared workspace */
+  luaL_setfuncs(L, brakelight_funcs, 1);  /* functions with upvalue */
+  lua_pushliteral(L, BL_VERSION);
+  lua_setfield(L, -2, "_VERSION");
+  return 1;
+}

@@ -1,0 +1,193 @@
+--[[
+  test_physics.lua -- physics sanity through the Lua module: checks that
+  can fail if the binding passes the wrong numbers to the core or the core
+  mixes up spin, charge, mass or units.  The precise comparisons with
+  published formulas are in the Criterion tests (tests/test_*.c).
+  Run: build/brakelight tests/lua/test_physics.lua
+]]
+
+local bl = require "brakelight"
+
+local function rel(a, b) return math.abs(a - b) / math.max(math.abs(a),
+                                                           math.abs(b)) end
+
+local function check(cond, fmt, ...)
+  if not cond then error(string.format(fmt, ...), 2) end
+end
+
+local ME = bl.particle("electron").mass
+
+-- 1. dsigma/dk is positive and finite across particles, targets, models
+for _, p in ipairs{ "electron", "positron", "muon", "pion-", "proton" } do
+  for _, scr in ipairs{ "none", "exponential" } do
+    local m = bl.particle(p).mass
+    local T = 50 * m
+    local s = bl.spectrum{ particle = p, target = "Fe", T = T,
+                           y = { 0.01, 0.5, 0.99 }, screening = scr,
+                           rtol = 1e-3 }
+    for i = 1, 3 do
+      local v, e = s.dsdk[i], s.err[i]
+      check(v > 0 and v < math.huge and e >= 0 and e < math.huge,
+            "%s %s y=%g: dsdk %g +- %g", p, scr, s.y[i], v, e)
+      check(e <= 1e-2 * v, "%s %s y=%g: error %g too large for %g", p, scr,
+            s.y[i], e, v)
+    end
+    -- screening only removes strength: exponential <= none
+    -- (1 - F/Z)^2 <= 1 in G(q); physics.md, target factor)
+    if scr == "exponential" then
+      local n = bl.spectrum{ particle = p, target = "Fe", T = T,
+                             y = { 0.01, 0.5, 0.99 }, screening = "none",
+                             rtol = 1e-3 }
+      for i = 1, 3 do
+        check(s.dsdk[i] <= n.dsdk[i] * (1 + 2e-3),
+              "%s y=%g: screened %g above unscreened %g", p, s.y[i],
+              s.dsdk[i], n.dsdk[i])
+      end
+    end
+  end
+end
+
+-- 2. the same points through k and through y give the same numbers
+do
+  local T = 30
+  local Y = { 0.05, 0.3, 0.75 }
+  local K = {}
+  for i, y in ipairs(Y) do K[i] = y * T end
+  local a = bl.spectrum{ particle = "electron", target = "Sn", T = T, y = Y,
+                         rtol = 1e-4 }
+  local b = bl.spectrum{ particle = "electron", target = "Sn", T = T, k = K,
+                         rtol = 1e-4 }
+  for i = 1, #Y do
+    check(rel(a.k[i], b.k[i]) < 1e-15 and rel(a.y[i], b.y[i]) < 1e-15,
+          "abscissae differ at %d", i)
+    check(rel(a.dsdk[i], b.dsdk[i]) < 1e-12, "k vs y at y=%g: %.15g %.15g",
+          Y[i], a.dsdk[i], b.dsdk[i])
+    -- and dsdk{} gives the same as one point of spectrum{}
+    local v = bl.dsdk{ particle = "electron", target = "Sn", T = T,
+                       k = K[i], rtol = 1e-4 }
+    check(rel(v, b.dsdk[i]) < 1e-12, "dsdk vs spectrum at k=%g", K[i])
+  end
+end
+
+-- 3. spin 0 and spin 1/2 of the same mass: different hard photons, equal
+--    soft ones.  Soft-photon limit (Low 1958): both tend to the elastic
+--    cross section times a spin-independent factor; the elastic cross
+--    sections differ by q^2/(4 E^2) (physics.md), small for the forward
+--    scattering that dominates, so at y = 1e-3 they agree to < 1 %.
+--    At y = 0.9 the spin-1/2 helicity-flip term (1 - v)^2 ... dominates the
+--    difference: spin 0 replaces (1 + v^2) by 2v in the high-energy form
+--    (physics.md, high-energy formulation), ratio about 2v/(1+v^2) = 0.2
+--    at v = 0.1; we only require spin 0 < 0.5 spin 1/2 there.
+do
+  local m = 20 * ME
+  local s0 = bl.particle{ name = "s0", mass = m, charge = 1, spin = 0 }
+  local s1 = bl.particle{ name = "s1", mass = m, charge = 1, spin = 0.5 }
+  local o = { target = "Al", T = 1000 * m, y = { 1e-3, 0.9 },
+              screening = "none", rtol = 1e-4 }
+  o.particle = s0
+  local a = bl.spectrum(o)
+  o.particle = s1
+  local b = bl.spectrum(o)
+  check(rel(a.dsdk[1], b.dsdk[1]) < 1e-2, "soft photons: spin 0 %g vs " ..
+        "spin 1/2 %g", a.dsdk[1], b.dsdk[1])
+  check(a.dsdk[2] < 0.5 * b.dsdk[2], "hard photons: spin 0 %g not below " ..
+        "half of spin 1/2 %g", a.dsdk[2], b.dsdk[2])
+end
+
+-- 4. charge: Born cross sections scale as z^4 at fixed mass (norm z^4
+--    alpha r0^2, bl_dcs.h; issue 2 §6), and do not depend on its sign
+do
+  local mu = bl.particle("muon")
+  local z1 = bl.particle{ name = "z1", mass = mu.mass, charge = 1, spin = 0.5 }
+  local z2 = bl.particle{ name = "z2", mass = mu.mass, charge = 2, spin = 0.5 }
+  local zm = bl.particle{ name = "zm", mass = mu.mass, charge = -1, spin = 0.5 }
+  for _, scr in ipairs{ "none", "exponential" } do
+    local o = { target = "Pb", T = 2000, k = 700, screening = scr,
+                rtol = 1e-4 }
+    o.particle = z1
+    local v1 = bl.dsdk(o)
+    o.particle = z2
+    local v2 = bl.dsdk(o)
+    o.particle = zm
+    local vm = bl.dsdk(o)
+    check(rel(v2, 16 * v1) < 1e-6, "%s: charge 2 / charge 1 = %.10g, not 16",
+          scr, v2 / v1)
+    check(rel(vm, v1) < 1e-12, "%s: sign of the charge matters: %g vs %g",
+          scr, vm, v1)
+  end
+end
+
+-- 5. mass: for a bare nucleus the Born cross section in units of m
+--    depends only on gamma and y, so at equal gamma
+--    k dsigma/dk scales as m^-2 (issue 2 §6, "(m_e/m)^2 in mass at the
+--    same Lorentz factor")
+do
+  local g1 = 40                       -- T/m
+  local e = bl.spectrum{ particle = "electron", target = "W", T = g1 * ME,
+                         y = { 0.1, 0.6 }, screening = "none", rtol = 1e-5 }
+  local mx = 300 / 20 * ME
+  local x = bl.spectrum{ particle = { mass = mx, charge = -1, spin = 0.5 },
+                         target = "W", T = g1 * mx, y = { 0.1, 0.6 },
+                         screening = "none", rtol = 1e-5 }
+  for i = 1, 2 do
+    local ratio = (mx / ME)^2 * (x.k[i] * x.dsdk[i]) / (e.k[i] * e.dsdk[i])
+    check(math.abs(ratio - 1) < 1e-6, "mass scaling at y=%g: %.10g", e.y[i],
+          ratio)
+  end
+  -- with screening the atom sets a length of its own: no such scaling
+  local es = bl.spectrum{ particle = "electron", target = "W", T = g1 * ME,
+                          y = { 0.1 }, screening = "exponential",
+                          rtol = 1e-4 }
+  local xs = bl.spectrum{ particle = { mass = mx, charge = -1, spin = 0.5 },
+                          target = "W", T = g1 * mx, y = { 0.1 },
+                          screening = "exponential", rtol = 1e-4 }
+  local ratio = (mx / ME)^2 * (xs.k[1] * xs.dsdk[1]) / (es.k[1] * es.dsdk[1])
+  check(ratio > 1.05, "screened ratio %g should exceed 1 (the heavier " ..
+        "particle is screened less at equal gamma)", ratio)
+end
+
+-- 6. the photon angular distribution integrates to dsigma/dk:
+--    2 pi int_0^pi d2sigma/(dk dOmega) sin(theta) dtheta = dsigma/dk.
+--    Composite Simpson on theta = pi u^2 (points crowd near the beam,
+--    where the distribution peaks within ~1/gamma = 0.2 rad here).
+do
+  local o = { particle = "electron", target = "Cu", T = 2, k = 0.8,
+              rtol = 1e-5 }
+  local n = 100                          -- even
+  local theta = {}
+  for i = 0, n do theta[i + 1] = math.pi * (i / n)^2 end
+  o.theta = theta
+  local a = bl.angular(o)
+  local sum = 0
+  for i = 0, n do
+    local u = i / n
+    local dth = 2 * math.pi * u          -- dtheta/du
+    local f = 2 * math.pi * a.d2sigma[i + 1] * math.sin(theta[i + 1]) * dth
+    local w = (i == 0 or i == n) and 1 or (i % 2 == 1 and 4 or 2)
+    sum = sum + w * f
+  end
+  sum = sum / (3 * n)
+  o.theta = nil
+  local v = bl.dsdk(o)
+  check(rel(sum, v) < 1e-5, "angular integral %.8g vs dsdk %.8g (rel %.2g)",
+        sum, v, rel(sum, v))
+end
+
+-- 7. the fully differential value: even in phi, 2 pi periodic, >= 0
+do
+  local o = { particle = "electron", target = "Cu", T = 10, k = 4,
+              theta_k = 0.05, theta_p = 0.08 }
+  for _, phi in ipairs{ 0.3, 1.2, 2.9 } do
+    o.phi = phi
+    local a = bl.differential(o)
+    o.phi = -phi
+    local b = bl.differential(o)
+    o.phi = phi + 2 * math.pi
+    local c = bl.differential(o)
+    check(a >= 0 and a < math.huge, "differential %g at phi %g", a, phi)
+    check(rel(a, b) < 1e-9, "not even in phi: %g vs %g", a, b)
+    check(rel(a, c) < 1e-9, "not 2 pi periodic: %g vs %g", a, c)
+  end
+end
+
+print("test_physics: ok")
