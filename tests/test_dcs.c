@@ -1,0 +1,643 @@
+/*
+** test_dcs.c -- the Born cross sections of the core against closed forms
+** See Copyright Notice in LICENSE
+**
+** Each physics check names its source.  Reference formulas are the
+** independent transcriptions in tests/ref/kochmotz.c (validated by
+** test_refs.c).  Units: the core returns mb/MeV (dsigma/dk) and
+** mb/(MeV sr^2) (fully differential); the references return multiples of
+** Z^2 alpha r0^2 per unit k in m c^2 (see kochmotz.h), converted here with
+** r0 = alpha hbar c/(m c^2) computed from the CODATA constants in bl_const.h
+** (not from bl_case.norm, so the normalisation is checked too).
+*/
+#include <math.h>
+#include <stdio.h>
+
+#include <criterion/criterion.h>
+#include <criterion/new/assert.h>
+#include <criterion/parameterized.h>
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_integration.h>
+
+#include "brakelight.h"
+#include "kochmotz.h"
+
+/* Relative-difference check that prints got/want/rel on failure. */
+#define EXPECT_REL(got, want, tol, ...) do {                              \
+    double g_ = (got), w_ = (want), r_ = fabs(g_ - w_) / fabs(w_);      \
+    char m_[512];                                                       \
+    snprintf(m_, sizeof m_, __VA_ARGS__);                               \
+    cr_expect(isfinite(g_) && r_ <= (tol),                              \
+              "%s: got %.12g want %.12g rel %.3e > tol %.1e",             \
+              m_, g_, w_, r_, (double) (tol));                          \
+  } while (0)
+
+static void setup (void) {
+  gsl_set_error_handler_off();
+}
+
+TestSuite(dcs, .init = setup);
+
+
+/* z^4 alpha r0^2 / m in mb/MeV, r0 = alpha hbar c / (m c^2): the factor that
+** turns a km_* value (per Z^2) into mb/MeV (mb/(MeV sr^2)). */
+static double unit_mb (const bl_particle *p) {
+  double r0 = BL_ALPHA * BL_HBARC_MEVFM / p->mass;    /* fm */
+  double z2 = p->charge * p->charge;
+  return z2 * z2 * BL_ALPHA * r0 * r0 / BL_FM2_PER_MB / p->mass;
+}
+
+/* A case for particle p on element Z with the named screening model at
+** kinetic energy T (MeV); aborts the test if it cannot be made. */
+static bl_case make_case (const bl_particle *p, int Z, const char *model,
+                          double T) {
+  bl_case c;
+  const bl_model *m = bl_model_find(model);
+  int st;
+  cr_assert(m != NULL, "screening model '%s' not found", model);
+  st = bl_case_init(&c, p, Z, m, NULL, T);
+  cr_assert(st == BL_SUCCESS, "bl_case_init(%s, Z=%d, %s, T=%g): %s",
+            p->name, Z, model, T, bl_strerror(st));
+  return c;
+}
+
+/* Preset particle by name; aborts the test if missing. */
+static const bl_particle *preset (const char *name) {
+  const bl_particle *p = bl_particle_find(name);
+  cr_assert(p != NULL, "particle preset '%s' not found", name);
+  return p;
+}
+
+/* A spin-0 particle with the electron's mass and charge (for Low and the
+** mass scaling of spin 0). */
+static const bl_particle scalar_e = { "scalar-e", BL_ME_MEV, -1.0, 0.0, 0 };
+
+
+/*
+** Spin 1/2, no screening: dsigma/dk of the core equals Koch & Motz (1959)
+** formula 3BN (Bethe-Heitler, Born, point nucleus) to 1e-4 relative
+** (issue section 6).  Grid: 8 energies T/m = 0.01 ... 1e5 (one test each)
+** x 6 values of y = k/T from 0.01 to 0.99 = 48 points; electrons on Pb.
+** The integration is asked for rtol = 2e-5 so that a 1e-4 comparison is
+** meaningful, and its own error estimate must be honest in size:
+** err <= 5 rtol val ("a few" rtol: nested rules add their errors).
+*/
+#define BN_RTOL 2e-5
+
+ParameterizedTestParameters(dcs, bn_grid) {
+  static double t0s[] = { 0.01, 0.1, 1.0, 10.0, 100.0, 1e3, 1e4, 1e5 };
+  return cr_make_param_array(double, t0s, sizeof t0s / sizeof t0s[0]);
+}
+
+ParameterizedTest(double *t0p, dcs, bn_grid) {
+  static const double ys[] = { 0.01, 0.1, 0.3, 0.6, 0.9, 0.99 };
+  const bl_particle *e = preset("electron");
+  double t0 = *t0p, T = t0 * e->mass;
+  bl_case c = make_case(e, 82, "none", T);
+  bl_quad *q = bl_quad_alloc(200);
+  size_t j;
+  cr_assert(q != NULL, "bl_quad_alloc(200) failed");
+  cr_assert(bl_quad_set_rtol(q, BN_RTOL) == BL_SUCCESS, "bl_quad_set_rtol");
+  for (j = 0; j < sizeof ys / sizeof ys[0]; j++) {
+    double k = ys[j] * T;
+    double want = 82.0 * 82.0 * unit_mb(e) * km_3bn(t0, ys[j] * t0);
+    bl_result r;
+    int st = bl_dcs_dk_e(&c, k, q, &r);
+    cr_expect(st == BL_SUCCESS, "bl_dcs_dk_e T/m=%g y=%g: status %d (%s)",
+              t0, ys[j], st, bl_strerror(st));
+    /* Koch & Motz 1959, formula 3BN */
+    EXPECT_REL(r.val, want, 1e-4, "dsigma/dk vs 3BN at T/m=%g y=%g", t0, ys[j]);
+    cr_expect(r.err >= 0.0 && r.err <= 5.0 * BN_RTOL * fabs(r.val),
+              "error estimate at T/m=%g y=%g: err %.3e, val %.6e, "
+              "err/val %.3e > 5 rtol = %.1e", t0, ys[j], r.err, r.val,
+              r.err / r.val, 5.0 * BN_RTOL);
+  }
+  bl_quad_free(q);
+}
+
+
+/*
+** The same comparison made strict and wider: asked for rtol 1e-7, the core
+** must agree with 3BN (Koch & Motz 1959) to 1e-6 (10 rtol: the contract of
+** a relative tolerance), out to T/m = 1e-4 and 1e6 and y = 1e-4 and 0.9999
+** (physics.md reports the same agreement, 1e-6, for its own integration).
+** 7 energies x 5 y = 35 more points.
+*/
+ParameterizedTestParameters(dcs, bn_strict) {
+  static double t0s[] = { 1e-4, 1e-3, 0.01, 1.0, 100.0, 1e4, 1e6 };
+  return cr_make_param_array(double, t0s, sizeof t0s / sizeof t0s[0]);
+}
+
+ParameterizedTest(double *t0p, dcs, bn_strict) {
+  static const double ys[] = { 1e-4, 0.01, 0.5, 0.99, 0.9999 };
+  const bl_particle *e = preset("electron");
+  double t0 = *t0p, T = t0 * e->mass;
+  bl_case c = make_case(e, 13, "none", T);
+  bl_quad *q = bl_quad_alloc(200);
+  size_t j;
+  cr_assert(q != NULL);
+  cr_assert(bl_quad_set_rtol(q, 1e-7) == BL_SUCCESS);
+  for (j = 0; j < sizeof ys / sizeof ys[0]; j++) {
+    double want = 13.0 * 13.0 * unit_mb(e) * km_3bn(t0, ys[j] * t0);
+    bl_result r;
+    int st = bl_dcs_dk_e(&c, ys[j] * T, q, &r);
+    /* GSL_EROUND (rounding limits the last digits) is acceptable here */
+    cr_expect(st == BL_SUCCESS || st == GSL_EROUND,
+              "T/m=%g y=%g: status %d (%s)", t0, ys[j], st, bl_strerror(st));
+    /* Koch & Motz 1959, formula 3BN */
+    EXPECT_REL(r.val, want, 1e-6, "dsigma/dk (rtol 1e-7) vs 3BN at T/m=%g y=%g",
+               t0, ys[j]);
+  }
+  bl_quad_free(q);
+}
+
+
+/*
+** Spin 0 at high energy, no screening.  Reference: the screening-function
+** form of physics.md (high-energy formulation) with (1 + v^2) -> 2v for spin
+** 0 and phi1 = phi2 = 4 ln(1/delta) - 2 unscreened, i.e.
+**   dsigma/dk = (16/3) (Z^2 alpha r0^2/k) v [ln(2 E0 E/k) - 1/2],  v = E/E0:
+** 3BN(b) (Koch & Motz 1959) without its y^2 = (1-v)^2 helicity-flip term.
+** Source: project physics notes (verified there against the exact spin-0
+** Born integral); no literature formula was checked for this one.  Like
+** 3BN(b) it drops O(1/E^2) terms: at T/m >= 1e4 and y <= 0.9 (E >= 1e3)
+** that is <~ 1e-6.  rtol 1e-8, tolerance 2e-6.
+*/
+Test(dcs, spin_zero_extreme_relativistic) {
+  static const double t0s[] = { 1e4, 1e5 };
+  static const double ys[] = { 0.01, 0.1, 0.5, 0.9 };
+  bl_quad *q = bl_quad_alloc(200);
+  size_t i, j;
+  cr_assert(q != NULL);
+  cr_assert(bl_quad_set_rtol(q, 1e-8) == BL_SUCCESS);
+  for (i = 0; i < 2; i++)
+    for (j = 0; j < 4; j++) {
+      double t0 = t0s[i], T = t0 * scalar_e.mass, y = ys[j];
+      double E0 = 1.0 + t0, k = y * t0, E = E0 - k, v = E / E0;
+      double want = 82.0 * 82.0 * unit_mb(&scalar_e)
+                    * 16.0 / 3.0 * v / k * (log(2.0 * E0 * E / k) - 0.5);
+      bl_case c = make_case(&scalar_e, 82, "none", T);
+      bl_result r;
+      int st = bl_dcs_dk_e(&c, y * T, q, &r);
+      cr_expect(st == BL_SUCCESS || st == GSL_EROUND, "status %d", st);
+      EXPECT_REL(r.val, want, 2e-6, "spin 0 vs ER form at T/m=%g y=%g", t0, y);
+    }
+  bl_quad_free(q);
+}
+
+
+/*
+** Exponential screening equals Schiff's formula (Schiff 1951; Koch & Motz
+** 1959 formula 3BS(e)) to 1e-3 for electrons at T >= 100 MeV (issue
+** section 6), Pb, a = 111 Z^-1/3 hbar/(m_e c).  Schiff's formula is a
+** high-energy approximation of the same Born integral: its unscreened limit
+** 3BN(b) differs from the exact 3BN by 2.4e-4 at T = 100 MeV, y = 0.5, but
+** by 3e-3 at y = 0.9 and 4e-2 at y = 0.99 (Koch & Motz formulas compared in
+** our evaluation).  So the points below are those where that difference is
+** <= 2.4e-4, leaving room for Schiff's own neglect of O(1/a^2) terms (~4e-4;
+** physics.md found 5e-4 between the two; the current core gives 1.3e-4 ...
+** 5.2e-4 at these points, and -3.4e-3 ... -1e-2 at 10 MeV, y <= 0.5, where
+** Schiff's formula is not meant to hold).
+*/
+Test(dcs, exponential_is_schiff) {
+  static const struct { double T, y; } pts[] = {
+    { 100.0, 0.1 }, { 100.0, 0.5 },
+    { 1e3, 0.1 }, { 1e3, 0.5 }, { 1e3, 0.9 },
+    { 1e4, 0.1 }, { 1e4, 0.5 }, { 1e4, 0.9 }, { 1e4, 0.99 },
+    { 1e6, 0.5 }, { 1e6, 0.99 },
+  };
+  const bl_particle *e = preset("electron");
+  bl_quad *q = bl_quad_alloc(200);
+  double a = km_schiff_radius(82, 1.0);
+  size_t i;
+  cr_assert(q != NULL);
+  cr_assert(bl_quad_set_rtol(q, 1e-5) == BL_SUCCESS);
+  for (i = 0; i < sizeof pts / sizeof pts[0]; i++) {
+    double T = pts[i].T, t0 = T / e->mass, k = pts[i].y * T;
+    bl_case c = make_case(e, 82, "exponential", T);
+    double want = 82.0 * 82.0 * unit_mb(e) * km_3bse(t0, k / e->mass, a);
+    bl_result r;
+    int st = bl_dcs_dk_e(&c, k, q, &r);
+    cr_expect(st == BL_SUCCESS, "status %d (%s) at T=%g y=%g", st,
+              bl_strerror(st), T, pts[i].y);
+    /* Schiff 1951 = Koch & Motz 1959, formula 3BS(e) */
+    EXPECT_REL(r.val, want, 1e-3, "exponential vs 3BS(e) at T=%g MeV y=%g",
+               T, pts[i].y);
+  }
+  bl_quad_free(q);
+}
+
+
+/*
+** Soft-photon limit (Low 1958): as k -> 0 the fully differential Born cross
+** section of either spin tends to the elastic Born cross section (Rutherford
+** for spin 0, Mott for spin 1/2) times (alpha/(4 pi^2 k)) |u - u0|^2 (see
+** km_low).  The difference is O(k) relative.  Its size was measured with an
+** independent evaluation (Python) of the exact Born formula of physics.md at
+** these angle sets: (0.5 ... 6.1) x k/T for T/m = 0.1 ... 1000.  Tolerance
+** 10 k/T, at k/T = 1e-4 and at 1e-5, so the test also shows the approach
+** is linear in k.  Angles: beam frame (theta_k, theta_p, phi); one set
+** scales with 1/E0 to probe the forward peak.  Screening "none" (Low's
+** elastic factor is for a point charge).
+*/
+static void low_check (const bl_particle *p, double t0) {
+  static const double ang[][3] = {
+    { 0.3, 0.5, 1.0 }, { 1.0, 0.4, 2.5 }, { 0.2, 1.2, 0.0 },
+    { 2.0, 0.7, 3.0 }, { 0.05, 0.3, 1.5 }, { 0.0, 0.0, 0.0 } /* scaled */
+  };
+  static const double yk[] = { 1e-4, 1e-5 };
+  double T = t0 * p->mass, E0 = 1.0 + t0;
+  bl_case c = make_case(p, 29, "none", T);
+  size_t i, j;
+  for (j = 0; j < 2; j++)
+    for (i = 0; i < sizeof ang / sizeof ang[0]; i++) {
+      double tk = ang[i][0], tp = ang[i][1], ph = ang[i][2];
+      double k = yk[j] * T, want;
+      bl_result r;
+      int st;
+      if (i == 5) { tk = 0.1 / E0; tp = 0.5 / E0; ph = 1.0; }
+      want = 29.0 * 29.0 * unit_mb(p)
+             * km_low(p->spin, t0, yk[j] * t0, tk, tp, ph);
+      st = bl_dcs_full_e(&c, k, tk, tp, ph, &r);
+      cr_expect(st == BL_SUCCESS, "bl_dcs_full_e status %d (%s)", st,
+                bl_strerror(st));
+      /* Low 1958 soft-photon theorem with Born elastic cross sections */
+      EXPECT_REL(r.val, want, 10.0 * yk[j],
+                 "%s full dcs vs Low at T/m=%g k/T=%g angles (%g, %g, %g)",
+                 p->name, t0, yk[j], tk, tp, ph);
+    }
+}
+
+Test(dcs, soft_photon_low_spin_half) {
+  low_check(preset("electron"), 1.0);
+  low_check(preset("electron"), 1000.0);
+  low_check(preset("muon"), 0.1);
+}
+
+Test(dcs, soft_photon_low_spin_zero) {
+  low_check(&scalar_e, 1.0);
+  low_check(&scalar_e, 1000.0);
+  low_check(preset("pion+"), 0.1);
+}
+
+
+/* dsigma/dk of particle p at T = t0 m, y, for a scaling comparison. */
+static double dsdk (const bl_particle *p, int Z, const char *model, double t0,
+                    double y, bl_quad *q) {
+  double T = t0 * p->mass;
+  bl_case c = make_case(p, Z, model, T);
+  bl_result r;
+  int st = bl_dcs_dk_e(&c, y * T, q, &r);
+  cr_expect(st == BL_SUCCESS, "%s T/m=%g y=%g: status %d (%s)", p->name, t0,
+            y, st, bl_strerror(st));
+  return r.val;
+}
+
+
+/*
+** Charge scaling: the Born cross section is proportional to z^4 (the photon
+** couples with z e, the nucleus with z Z e^2: amplitude ~ z^2; physics.md
+** units section; Koch & Motz 1959 give Z^2 r0^2 for z = 1).  Charge 2 vs
+** charge 1, same mass and spin: ratio 16; and the sign does not matter in
+** the first Born approximation (positron = electron).  Same integration
+** path, so the ratio is exact up to rounding: tolerance 1e-6.  Exponential
+** screening (the target factor does not depend on z), both spins.
+*/
+Test(dcs, charge_scaling) {
+  static const double ys[] = { 0.2, 0.8 };
+  const bl_particle *e = preset("electron");
+  bl_particle e2 = { "charge-2 lepton", BL_ME_MEV, 2.0, 0.5, 0 };
+  bl_particle s1 = { "charge-1 scalar", BL_ME_MEV, 1.0, 0.0, 0 };
+  bl_particle s2 = { "charge-2 scalar", BL_ME_MEV, 2.0, 0.0, 0 };
+  bl_quad *q = bl_quad_alloc(200);
+  size_t j;
+  cr_assert(q != NULL);
+  for (j = 0; j < 2; j++) {
+    double t0 = 10.0, y = ys[j];
+    double ve = dsdk(e, 29, "exponential", t0, y, q);
+    EXPECT_REL(dsdk(&e2, 29, "exponential", t0, y, q), 16.0 * ve, 1e-6,
+               "spin 1/2 charge 2 vs 16 x charge 1, y=%g", y);
+    EXPECT_REL(dsdk(preset("positron"), 29, "exponential", t0, y, q), ve,
+               1e-6, "positron vs electron (Born), y=%g", y);
+    EXPECT_REL(dsdk(&s2, 29, "exponential", t0, y, q),
+               16.0 * dsdk(&s1, 29, "exponential", t0, y, q), 1e-6,
+               "spin 0 charge 2 vs 16 x charge 1, y=%g", y);
+  }
+  bl_quad_free(q);
+}
+
+
+/*
+** Mass scaling at the same Lorentz factor (same T/m and y): without
+** screening the Born cross section in units of r0^2 = (alpha hbar/(m c))^2
+** depends on energies in units of m only, so sigma ~ (m_e/m)^2 (physics.md,
+** units; Koch & Motz 1959 in units of m c^2) and dsigma/dk [per MeV] ~
+** (m_e/m)^3.  Muon vs electron (spin 1/2), pion+ vs an electron-mass scalar
+** (spin 0).  Same integration path in units of m: tolerance 1e-6.  Also
+** Z^2 for a point nucleus (3BN is proportional to Z^2): Z = 82 vs Z = 1.
+*/
+Test(dcs, mass_and_Z_scaling) {
+  static const double ys[] = { 0.2, 0.8 };
+  const bl_particle *e = preset("electron"), *mu = preset("muon");
+  const bl_particle *pi = preset("pion+");
+  bl_quad *q = bl_quad_alloc(200);
+  size_t j;
+  cr_assert(q != NULL);
+  for (j = 0; j < 2; j++) {
+    double t0 = 10.0, y = ys[j];
+    double rm = e->mass / mu->mass, rp = e->mass / pi->mass;
+    double ve = dsdk(e, 82, "none", t0, y, q);
+    EXPECT_REL(dsdk(mu, 82, "none", t0, y, q), rm * rm * rm * ve, 1e-6,
+               "muon vs (m_e/m_mu)^3 electron, y=%g", y);
+    EXPECT_REL(dsdk(pi, 82, "none", t0, y, q),
+               rp * rp * rp * dsdk(&scalar_e, 82, "none", t0, y, q), 1e-6,
+               "pion+ vs (m_e/m_pi)^3 scalar of electron mass, y=%g", y);
+    EXPECT_REL(dsdk(e, 1, "none", t0, y, q) * 82.0 * 82.0, ve, 1e-6,
+               "Z^2 scaling, Z=1 vs Z=82, y=%g", y);
+  }
+  bl_quad_free(q);
+}
+
+
+/* Error cases of bl_case_init (bl_dcs.h contract). */
+Test(dcs, case_init_domain) {
+  const bl_particle *e = preset("electron");
+  const bl_model *m = bl_model_find("exponential");
+  bl_particle bad = { "massless", 0.0, 1.0, 0.5, 0 };
+  bl_case c;
+  cr_assert(m != NULL);
+  cr_expect(bl_case_init(&c, e, 0, m, NULL, 10.0) == BL_EDOMAIN, "Z = 0");
+  cr_expect(bl_case_init(&c, e, 101, m, NULL, 10.0) == BL_EDOMAIN, "Z = 101");
+  cr_expect(bl_case_init(&c, e, -5, m, NULL, 10.0) == BL_EDOMAIN, "Z = -5");
+  cr_expect(bl_case_init(&c, e, 82, m, NULL, 0.0) == BL_EDOMAIN, "T = 0");
+  cr_expect(bl_case_init(&c, e, 82, m, NULL, -1.0) == BL_EDOMAIN, "T = -1");
+  cr_expect(bl_case_init(&c, e, 82, m, NULL, NAN) == BL_EDOMAIN, "T = NaN");
+  cr_expect(bl_case_init(&c, e, 82, m, NULL, INFINITY) == BL_EDOMAIN,
+            "T = inf");
+  cr_expect(bl_case_init(&c, &bad, 82, m, NULL, 10.0) == BL_EDOMAIN,
+            "particle of mass 0");
+  cr_expect(bl_case_init(&c, e, 1, m, NULL, 10.0) == BL_SUCCESS, "Z = 1");
+  cr_expect(bl_case_init(&c, e, 100, m, NULL, 10.0) == BL_SUCCESS, "Z = 100");
+}
+
+
+/* Error cases of bl_dcs_dk_e and bl_dcs_full_e (bl_dcs.h contract). */
+Test(dcs, dk_and_full_domain) {
+  const bl_particle *e = preset("electron");
+  bl_case c = make_case(e, 82, "exponential", 10.0);
+  bl_quad *q = bl_quad_alloc(100);
+  bl_result r;
+  static const double badk[] = { 0.0, -1.0, 10.0, 11.0, NAN, INFINITY };
+  size_t i;
+  cr_assert(q != NULL);
+  for (i = 0; i < sizeof badk / sizeof badk[0]; i++) {
+    cr_expect(bl_dcs_dk_e(&c, badk[i], q, &r) == BL_EDOMAIN,
+              "bl_dcs_dk_e must reject k = %g (T = 10)", badk[i]);
+    cr_expect(bl_dcs_full_e(&c, badk[i], 0.1, 0.2, 1.0, &r) == BL_EDOMAIN,
+              "bl_dcs_full_e must reject k = %g (T = 10)", badk[i]);
+  }
+  cr_expect(bl_dcs_full_e(&c, 5.0, -0.1, 0.2, 1.0, &r) == BL_EDOMAIN,
+            "theta_k = -0.1");
+  cr_expect(bl_dcs_full_e(&c, 5.0, 3.2, 0.2, 1.0, &r) == BL_EDOMAIN,
+            "theta_k = 3.2");
+  cr_expect(bl_dcs_full_e(&c, 5.0, 0.1, NAN, 1.0, &r) == BL_EDOMAIN,
+            "theta_p = NaN");
+  cr_expect(bl_dcs_full_e(&c, 5.0, 0.1, 0.2, NAN, &r) == BL_EDOMAIN,
+            "phi = NaN");
+  cr_expect(bl_quad_set_rtol(q, 0.0) == BL_EDOMAIN, "rtol = 0");
+  cr_expect(bl_quad_set_rtol(q, 1e-13) == BL_EDOMAIN, "rtol = 1e-13");
+  cr_expect(bl_quad_set_rtol(q, 0.6) == BL_EDOMAIN, "rtol = 0.6");
+  cr_expect(bl_quad_set_rtol(q, NAN) == BL_EDOMAIN, "rtol = NaN");
+  cr_expect(bl_quad_set_rtol(q, 1e-3) == BL_SUCCESS, "rtol = 1e-3");
+  cr_expect(bl_quad_rtol(q) == 1e-3, "bl_quad_rtol: %g", bl_quad_rtol(q));
+  bl_quad_free(q);
+  bl_quad_free(NULL);   /* documented no-op */
+}
+
+
+/*
+** Forced non-convergence: GSL's integration tests force a failure with a tiny
+** subinterval limit.  Here the smallest workspace (8 subintervals per level)
+** with the tightest tolerance the API accepts (1e-12).  With the current core
+** 8 subintervals already reach 1e-10 (measured: identical to a 1000-
+** subinterval result), so rtol 1e-12 is needed; the core reported
+** GSL_EMAXITER at y = 1e-4 for every T tried, and at y = 0.3 for
+** T = 0.01 MeV (none) and 1e5 MeV (both models).
+** For every case: either the status says the tolerance was not reached,
+** and the result still holds a finite positive best estimate with finite
+** error and BL_WARN_TOLERANCE; or it claims success, and then the value must
+** agree with a 1000-subinterval result to 1e-10.  At least one case must
+** take the failure path, so that path is exercised.  The unconverged
+** estimate must lie within its own error estimate of the converged one
+** (measured: off by up to 8e-3 relative at T = 0.01 MeV, y = 1e-4, with
+** err/val ~ 2, so the estimate is honest though pessimistic).
+*/
+Test(dcs, forced_nonconvergence) {
+  static const struct { const char *model; double T, y; } cs[] = {
+    { "none", 0.01, 0.3 }, { "none", 1e5, 0.3 }, { "exponential", 1e5, 0.3 },
+    { "exponential", 10.0, 0.3 }, { "exponential", 10.0, 1e-4 },
+    { "none", 1.0, 1e-4 }, { "none", 0.01, 1e-4 },
+  };
+  const bl_particle *e = preset("electron");
+  bl_quad *q8 = bl_quad_alloc(8), *qr = bl_quad_alloc(1000);
+  int nfail = 0;
+  size_t i;
+  cr_assert(q8 != NULL && qr != NULL);
+  cr_assert(bl_quad_set_rtol(q8, 1e-12) == BL_SUCCESS);
+  cr_assert(bl_quad_set_rtol(qr, 1e-12) == BL_SUCCESS);
+  for (i = 0; i < sizeof cs / sizeof cs[0]; i++) {
+    bl_case c = make_case(e, 82, cs[i].model, cs[i].T);
+    bl_result r, ref;
+    int st = bl_dcs_dk_e(&c, cs[i].y * cs[i].T, q8, &r);
+    int sr = bl_dcs_dk_e(&c, cs[i].y * cs[i].T, qr, &ref);
+    cr_expect(isfinite(ref.val) && ref.val > 0.0,
+              "reference (limit 1000) status %d value %g", sr, ref.val);
+    if (st == BL_SUCCESS) {
+      EXPECT_REL(r.val, ref.val, 1e-10,
+                 "limit 8 claims success (%s, T=%g, y=%g)", cs[i].model,
+                 cs[i].T, cs[i].y);
+      continue;
+    }
+    nfail++;
+    cr_expect(bl_strerror(st) != NULL && bl_strerror(st)[0] != '\0',
+              "bl_strerror(%d) empty", st);
+    cr_expect(isfinite(r.val) && r.val > 0.0, "estimate %g (status %d)",
+              r.val, st);
+    cr_expect(isfinite(r.err) && r.err >= 0.0, "error %g", r.err);
+    cr_expect(r.warn & BL_WARN_TOLERANCE,
+              "status %d but warn bits 0x%x lack BL_WARN_TOLERANCE", st, r.warn);
+    /* bl_result.h: BL_WARN_TOLERANCE means "err says how far" */
+    cr_expect(fabs(r.val - ref.val) <= r.err,
+              "unconverged estimate (%s, T=%g, y=%g): got %.12g, converged "
+              "%.12g, |diff| %.3e exceeds its error estimate %.3e",
+              cs[i].model, cs[i].T, cs[i].y, r.val, ref.val,
+              fabs(r.val - ref.val), r.err);
+  }
+  cr_expect(nfail > 0, "no case failed to converge with limit 8, rtol 1e-12: "
+            "the failure path was not exercised");
+  bl_quad_free(q8);
+  bl_quad_free(qr);
+}
+
+
+/*
+** Integrand calls (GSL's integration tests count evaluations the same way):
+** a dsigma/dk point must call the integrand, the count must reset, and a
+** tighter tolerance must cost more calls.  Upper bound: measured on the
+** current core at rtol 1e-4, Pb, exponential screening, y = 0.3:
+** 4.6e3 calls (T = 1 MeV), 5.6e3 (100 MeV), 2.2e4 (100 GeV); the bound is
+** 1e5, about 5x the largest, so a regression in the peak mapping shows.
+*/
+#define CALLS_MAX 100000UL
+
+Test(dcs, integrand_calls) {
+  const bl_particle *e = preset("electron");
+  static const double Ts[] = { 1.0, 100.0, 1e5 };
+  bl_quad *q = bl_quad_alloc(200);
+  size_t i;
+  cr_assert(q != NULL);
+  for (i = 0; i < 3; i++) {
+    bl_case c = make_case(e, 82, "exponential", Ts[i]);
+    bl_result r;
+    unsigned long n4, n6;
+    bl_quad_set_rtol(q, 1e-4);
+    bl_quad_reset_calls(q);
+    cr_expect(bl_quad_calls(q) == 0, "calls after reset: %lu", bl_quad_calls(q));
+    bl_dcs_dk_e(&c, 0.3 * Ts[i], q, &r);
+    n4 = bl_quad_calls(q);
+    bl_quad_set_rtol(q, 1e-6);
+    bl_quad_reset_calls(q);
+    bl_dcs_dk_e(&c, 0.3 * Ts[i], q, &r);
+    n6 = bl_quad_calls(q);
+    cr_log_info("T=%g MeV: %lu calls at rtol 1e-4, %lu at 1e-6", Ts[i], n4, n6);
+    cr_expect(n4 > 0 && n4 <= CALLS_MAX, "T=%g: %lu calls at rtol 1e-4 "
+              "(bound %lu)", Ts[i], n4, CALLS_MAX);
+    cr_expect(n6 > n4, "T=%g: rtol 1e-6 took %lu calls, 1e-4 took %lu",
+              Ts[i], n6, n4);
+  }
+  bl_quad_free(q);
+}
+
+
+/* Numerical angular integrals of the core's own outputs (GSL qag): the
+** parameters, and the first non-success status met on the way. */
+typedef struct {
+  const bl_case *c;
+  bl_quad *q;
+  double k, theta_k, theta_p;
+  int status;
+  gsl_integration_workspace *w;   /* for the inner (phi) integral */
+} ang_par;
+
+/* 2 pi sin(theta) theta d2sigma/(dk dOmega_k) at theta = exp(s). */
+static double ang_integrand (double s, void *vp) {
+  ang_par *ap = vp;
+  double th = exp(s);
+  bl_result r;
+  int st = bl_dcs_angular_e(ap->c, ap->k, th, ap->q, &r);
+  if (st != BL_SUCCESS && ap->status == BL_SUCCESS)
+    ap->status = st;
+  return 2.0 * BL_PI * sin(th) * th * r.val;   /* dOmega = 2 pi sin th dth */
+}
+
+/* int_a^b f to relative tolerance rtol (GAUSS21); aborts the test on
+** failure, since a failed test quadrature would judge nothing. */
+static double gsl_qag (double (*f) (double, void *), void *par, double a,
+                       double b, double rtol, gsl_integration_workspace *w) {
+  gsl_function F = { f, par };
+  double res = 0.0, err = 0.0;
+  int st = gsl_integration_qag(&F, a, b, 0.0, rtol, 1000, GSL_INTEG_GAUSS21,
+                               w, &res, &err);
+  cr_assert(st == GSL_SUCCESS, "test quadrature: %s", gsl_strerror(st));
+  return res;
+}
+
+
+/*
+** Consistency of two public paths: d2sigma/(dk dOmega_k) integrated over the
+** photon direction (here, with GSL in ln theta_k, which resolves the 1/E0
+** forward peak; below theta = 1e-6/E0 the density is flat and contributes
+** < 1e-12) equals dsigma/dk.  Definition of the angular density
+** (bl_dcs.h); no external source.  rtol 1e-8 in the core, 1e-7 here:
+** tolerance 1e-6.
+*/
+Test(dcs, angular_integrates_to_dk) {
+  static const double Ts[] = { 1.0, 100.0, 1e4 };
+  const bl_particle *e = preset("electron");
+  bl_quad *q = bl_quad_alloc(200);
+  gsl_integration_workspace *w = gsl_integration_workspace_alloc(1000);
+  size_t i;
+  cr_assert(q != NULL && w != NULL);
+  cr_assert(bl_quad_set_rtol(q, 1e-8) == BL_SUCCESS);
+  for (i = 0; i < 3; i++) {
+    double T = Ts[i], E0 = 1.0 + T / e->mass, k = 0.4 * T;
+    bl_case c = make_case(e, 82, "exponential", T);
+    ang_par ap = { &c, q, k, 0.0, 0.0, BL_SUCCESS, NULL };
+    bl_result r;
+    double integ = gsl_qag(ang_integrand, &ap, log(1e-6 / E0), log(BL_PI),
+                           1e-7, w);
+    int st = bl_dcs_dk_e(&c, k, q, &r);
+    cr_expect(ap.status == BL_SUCCESS || ap.status == GSL_EROUND,
+              "angular status %d", ap.status);
+    cr_expect(st == BL_SUCCESS || st == GSL_EROUND, "dk status %d", st);
+    EXPECT_REL(integ, r.val, 1e-6, "int dOmega_k angular vs dk at T=%g MeV",
+               T);
+  }
+  gsl_integration_workspace_free(w);
+  bl_quad_free(q);
+}
+
+
+/* Fully differential density at azimuth phi (theta_k, theta_p in vp). */
+static double full_phi (double phi, void *vp) {
+  ang_par *ap = vp;
+  bl_result r;
+  int st = bl_dcs_full_e(ap->c, ap->k, ap->theta_k, ap->theta_p, phi, &r);
+  if (st != BL_SUCCESS && ap->status == BL_SUCCESS)
+    ap->status = st;
+  return r.val;
+}
+
+/* sin(theta_p) int_0^{2 pi} dphi of the fully differential density. */
+static double full_theta (double thp, void *vp) {
+  ang_par *ap = vp;
+  ap->theta_p = thp;
+  return sin(thp) * gsl_qag(full_phi, ap, 0.0, 2.0 * BL_PI, 1e-9, ap->w);
+}
+
+
+/*
+** Consistency of the fully differential and the angular densities: the
+** former integrated over the final-particle direction (GSL, theta_p and phi
+** over the whole sphere) equals the latter.  At T/m = 1 nothing is sharply
+** peaked, so plain adaptive rules do.  Definitions (bl_dcs.h); no external
+** source.  Both spins, several photon angles; rtol 1e-9 in the core's
+** angular integral, 1e-8/1e-9 here: tolerance 1e-6.
+*/
+Test(dcs, full_integrates_to_angular) {
+  static const double tks[] = { 0.1, 0.5, 2.0 };
+  const bl_particle *ps[] = { preset("electron"), &scalar_e };
+  bl_quad *q = bl_quad_alloc(200);
+  gsl_integration_workspace *w = gsl_integration_workspace_alloc(1000);
+  gsl_integration_workspace *wi = gsl_integration_workspace_alloc(1000);
+  size_t i, j;
+  cr_assert(q != NULL && w != NULL && wi != NULL);
+  cr_assert(bl_quad_set_rtol(q, 1e-9) == BL_SUCCESS);
+  for (j = 0; j < 2; j++)
+    for (i = 0; i < 3; i++) {
+      double T = ps[j]->mass, k = 0.5 * T;
+      bl_case c = make_case(ps[j], 29, "none", T);
+      ang_par ap = { &c, q, k, tks[i], 0.0, BL_SUCCESS, wi };
+      bl_result r;
+      double integ = gsl_qag(full_theta, &ap, 0.0, BL_PI, 1e-8, w);
+      int st = bl_dcs_angular_e(&c, k, tks[i], q, &r);
+      cr_expect(ap.status == BL_SUCCESS, "full status %d", ap.status);
+      cr_expect(st == BL_SUCCESS || st == GSL_EROUND, "angular status %d", st);
+      EXPECT_REL(integ, r.val, 1e-6,
+                 "%s: int dOmega_p full vs angular at theta_k=%g",
+                 ps[j]->name, tks[i]);
+    }
+  gsl_integration_workspace_free(wi);
+  gsl_integration_workspace_free(w);
+  bl_quad_free(q);
+}
