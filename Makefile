@@ -25,6 +25,9 @@ LIB    = $(B)/libbrakelight.a
 MODULE = $(B)/brakelight.so
 RUNNER = $(B)/brakelight
 
+# keep the reference objects between test builds
+.SECONDARY:
+
 .PHONY: all deps demo check test test-c test-lua lint bench clean
 
 all: $(LIB) $(MODULE) $(RUNNER)

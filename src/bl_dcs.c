@@ -55,7 +55,9 @@ typedef struct integ {
   bl_polar g;
   bl_quad *q;
   double sstar, w, side;    /* inner map: sigma = sstar + side w sinh(u) */
-  double inner_rel;         /* largest relative error of an inner integral */
+  double last_err;          /* error estimate of the latest inner integral */
+  double inner_err, inner_val;  /* sums of inner errors and values, each
+                                ** times the outer Jacobian, over all calls */
   int status;               /* first failure of any integral */
 } integ;
 
@@ -218,8 +220,7 @@ static double inner_integral (integ *it, double eps) {
                              it->q->ws[1], &total, &abserr_total);
     note(it, st);
   }
-  if (total > 0.0 && abserr_total / total > it->inner_rel)
-    it->inner_rel = abserr_total / total;
+  it->last_err = abserr_total;
   return total;
 }
 
@@ -227,29 +228,39 @@ static double inner_integral (integ *it, double eps) {
 /* Outer integrand in sigma0 = ln(1 + h0/hc0). */
 static double outer_f (double sg, void *params) {
   integ *it = params;
-  double hc0 = it->kn.hc0;
+  double hc0 = it->kn.hc0, jac = hc0 * exp(sg);
   double h0 = hc0 * expm1(sg);
   if (h0 > 2.0)
     h0 = 2.0;
   it->g.h0 = h0;
   it->g.s0 = sqrt(h0 * (2.0 - h0));
-  return inner_integral(it, INNER_SHARE * it->q->rtol) * hc0 * exp(sg);
+  double v = inner_integral(it, INNER_SHARE * it->q->rtol) * jac;
+  it->inner_val += fabs(v);
+  it->inner_err += it->last_err * jac;
+  return v;
 }
 
 
 static void integ_init (integ *it, const bl_case *c, bl_quad *q) {
   it->c = c;
   it->q = q;
-  it->inner_rel = 0.0;
+  it->inner_err = it->inner_val = it->last_err = 0.0;
   it->status = GSL_SUCCESS;
 }
 
 
-/* Fill *out from a raw integral and a factor; set the status warnings. */
+/*
+** Fill *out from a raw integral, its error and a factor; set the status
+** warnings.  The inner integrals add their errors in the proportion they
+** bear to their values, summed over all outer points (so an inner integral
+** that struggled where the integrand is negligible costs little).
+*/
 static int finish (const integ *it, double val, double abserr, double factor,
                    unsigned warn, bl_result *out) {
+  if (it->inner_val > 0.0)
+    abserr += it->inner_err / it->inner_val * fabs(val);
   out->val = val * factor;
-  out->err = (abserr + it->inner_rel * fabs(val)) * fabs(factor);
+  out->err = abserr * fabs(factor);
   out->warn = warn;
   if (!isfinite(out->val) || !isfinite(out->err)) {
     out->warn |= BL_WARN_TOLERANCE;
@@ -319,7 +330,7 @@ int bl_dcs_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
   it.g.h0 = 2.0 * sh * sh;
   it.g.s0 = sin(theta_k);
   val = inner_integral(&it, q->rtol);  /* the whole tolerance is its own */
-  return finish(&it, val, 0.0,
+  return finish(&it, val, it.last_err,
                 c->norm * it.kn.p / (it.kn.p0 * it.kn.k) / (2.0 * BL_PI * BL_PI)
                 / c->particle.mass, warn, out);
 }

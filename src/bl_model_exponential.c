@@ -32,7 +32,7 @@ static double exponential_ff (double q, int Z, const double *p) {
 
 
 static int exponential_yukawa (int Z, const double *p, bl_yukawa *out) {
-  if (!(p[0] > 0.0))
+  if (Z < 1 || Z > BL_ZMAX || !(p[0] > 0.0))
     return BL_EDOMAIN;
   out->n = 1;
   out->alpha[0] = 1.0;

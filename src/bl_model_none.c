@@ -17,7 +17,9 @@ static double none_ff (double q, int Z, const double *p) {
 
 /* 1 - F/Z = 1 = q^2 / (0 + q^2): one term with b = 0. */
 static int none_yukawa (int Z, const double *p, bl_yukawa *out) {
-  (void)Z; (void)p;
+  (void)p;
+  if (Z < 1 || Z > BL_ZMAX)
+    return BL_EDOMAIN;
   out->n = 1;
   out->alpha[0] = 1.0;
   out->b[0] = 0.0;
