@@ -709,6 +709,26 @@ static void pushunits (lua_State *L, const char *const pairs[]) {
   }
 }
 
+/*
+** Finish a result table at absolute index t: t[names[i]] = the value at
+** absolute index first + i, then units, settings and warnings.
+*/
+static void setresult (lua_State *L, int t, int first,
+                       const char *const names[], const char *const units[],
+                       const Opts *o, const Warnings *w) {
+  int i;
+  for (i = 0; names[i] != NULL; i++) {
+    lua_pushvalue(L, first + i);
+    lua_setfield(L, t, names[i]);
+  }
+  pushunits(L, units);
+  lua_setfield(L, t, "units");
+  pushsettings(L, o);
+  lua_setfield(L, t, "settings");
+  pushwarnings(L, o, w);
+  lua_setfield(L, t, "warnings");
+}
+
 /* }====================================================== */
 
 
@@ -783,6 +803,7 @@ static int l_spectrum (lua_State *L) {
   static const char *const units[] = {
     "k", "MeV", "y", "1", "dsdk", "mb/MeV", "err", "mb/MeV", NULL
   };
+  static const char *const names[] = {"k", "y", "dsdk", "err", NULL};
   Opts o;
   bl_case c;
   bl_quad *q;
@@ -840,20 +861,7 @@ static int l_spectrum (lua_State *L) {
     lua_rawseti(L, 6, i);
   }
   lua_createtable(L, 0, 7);           /* 7: result */
-  lua_pushvalue(L, 3);
-  lua_setfield(L, 7, "k");
-  lua_pushvalue(L, 4);
-  lua_setfield(L, 7, "y");
-  lua_pushvalue(L, 5);
-  lua_setfield(L, 7, "dsdk");
-  lua_pushvalue(L, 6);
-  lua_setfield(L, 7, "err");
-  pushunits(L, units);
-  lua_setfield(L, 7, "units");
-  pushsettings(L, &o);
-  lua_setfield(L, 7, "settings");
-  pushwarnings(L, &o, &w);
-  lua_setfield(L, 7, "warnings");
+  setresult(L, 7, 3, names, units, &o, &w);
   return 1;
 }
 
@@ -867,6 +875,7 @@ static int l_angular (lua_State *L) {
     "k", "MeV", "y", "1", "theta", "rad", "d2sigma", "mb/(MeV sr)",
     "err", "mb/(MeV sr)", NULL
   };
+  static const char *const names[] = {"theta", "d2sigma", "err", NULL};
   Opts o;
   bl_case c;
   bl_quad *q;
@@ -904,22 +913,11 @@ static int l_angular (lua_State *L) {
     lua_rawseti(L, 5, i);
   }
   lua_createtable(L, 0, 8);           /* 6: result */
+  setresult(L, 6, 3, names, units, &o, &w);
   lua_pushnumber(L, k);
   lua_setfield(L, 6, "k");
   lua_pushnumber(L, k / o.T);
   lua_setfield(L, 6, "y");
-  lua_pushvalue(L, 3);
-  lua_setfield(L, 6, "theta");
-  lua_pushvalue(L, 4);
-  lua_setfield(L, 6, "d2sigma");
-  lua_pushvalue(L, 5);
-  lua_setfield(L, 6, "err");
-  pushunits(L, units);
-  lua_setfield(L, 6, "units");
-  pushsettings(L, &o);
-  lua_setfield(L, 6, "settings");
-  pushwarnings(L, &o, &w);
-  lua_setfield(L, 6, "warnings");
   return 1;
 }
 

@@ -17,10 +17,7 @@
 #include <gsl/gsl_errno.h>
 
 #include "brakelight.h"
-
-static void setup (void) {
-  gsl_set_error_handler_off();
-}
+#include "testutil.h"
 
 TestSuite(models, .init = setup);
 
