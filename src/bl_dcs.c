@@ -40,6 +40,12 @@
 #ifndef INNER_SHARE
 #define INNER_SHARE 0.2   /* inner tolerance as a share of the outer one */
 #endif
+/* Work budget of one dsigma/dk, in integrand calls (about 0.3 s).  Past it
+** the inner integrals get a single panel each, so a request the integrator
+** cannot resolve in double precision ends in bounded time, flagged
+** BL_ENOTCONV, instead of running for minutes.  Normal points use 1e3 to
+** 4e4 calls. */
+#define CALL_BUDGET 5000000UL
 #ifndef QAG_KEY
 #define QAG_KEY GSL_INTEG_GAUSS21
 #endif
@@ -56,6 +62,7 @@ typedef struct integ {
   bl_quad *q;
   double sstar, w, side;    /* inner map: sigma = sstar + side w sinh(u) */
   double last_err;          /* error estimate of the latest inner integral */
+  unsigned long calls0;     /* q->calls when this integral began */
   double inner_err, inner_val;  /* sums of inner errors and values, each
                                 ** times the outer Jacobian, over all calls */
   int status;               /* first failure of any integral */
@@ -125,9 +132,13 @@ static int setup (const bl_case *c, double k, bl_kin *kn, unsigned *warn) {
 /* Phi(h0, h) at the current outer geometry and inner h. */
 static double phi_at (integ *it, double h) {
   bl_bracket br;
-  if (h > 2.0) {
+  if (h > 2.0) {   /* rounding at the ends of the range */
     it->g.dh += 2.0 - h;
     h = 2.0;
+  }
+  else if (h < 0.0) {
+    it->g.dh -= h;
+    h = 0.0;
   }
   it->g.h = h;
   it->g.s = sqrt(h * (2.0 - h));
@@ -138,21 +149,21 @@ static double phi_at (integ *it, double h) {
 
 
 /*
-** Inner integrand in u: sigma = sstar + side w sinh(u), so that
-** h - h* = (h* + hc) expm1(sigma - sstar) and dh/dsigma = h + hc: one
-** exponential per call.
+** Inner integrand in u: sigma = sstar + side w sinh(u).  h = hc expm1(sigma)
+** is accurate where h is small (the forward peak), h - h* =
+** (h* + hc) expm1(sigma - sstar) where it is near the ridge; neither can
+** stand in for the other.  dh/dsigma = h + hc.
 */
 static double inner_f (double u, void *params) {
   integ *it = params;
   double eu = exp(u), sh = 0.5 * (eu - 1.0 / eu), ch = sh + 1.0 / eu;
-  double ds, dh, hh;
+  double ds, h;
   if (u < 1e-3)   /* sinh without cancellation near 0 */
     sh = sinh(u);
   ds = it->side * it->w * sh;
-  dh = (it->g.hs + it->kn.hc) * expm1(ds);
-  hh = it->g.hs + dh;
-  it->g.dh = dh;
-  return phi_at(it, hh) * (hh + it->kn.hc) * it->w * ch;
+  h = it->kn.hc * expm1(it->sstar + ds);
+  it->g.dh = (it->g.hs + it->kn.hc) * expm1(ds);
+  return phi_at(it, h) * (h + it->kn.hc) * it->w * ch;
 }
 
 
@@ -179,18 +190,28 @@ static double inner_integral (integ *it, double eps) {
   double smax = log1p(2.0 / kn->hc), r = kn->p0 * it->g.s0 / kn->p;
   double total = 0.0, abserr_total = 0.0, val, abserr;
   gsl_function f;
+  size_t limit = it->q->limit;
   int st;
   f.params = it;
+  if (it->q->calls - it->calls0 > CALL_BUDGET) {
+    limit = 1;
+    if (it->status == GSL_SUCCESS)
+      it->status = BL_ENOTCONV;
+  }
   if (r < 1.0) {   /* a forward ridge p sin(theta*) = p0 sin(theta0) */
     double cs = sqrt((1.0 - r) * (1.0 + r));
     double hs = r * r / (1.0 + cs);
     double qz = kn->delta - kn->p0 * it->g.h0 + kn->p * hs;
     double bmin = it->c->yb[0], wh;
     int i, side;
+    /* q >= delta for every geometry, so |q_z| >= delta at the ridge; a
+    ** smaller value is rounding of the three terms (forward photons) */
+    if (fabs(qz) < kn->delta)
+      qz = kn->delta;
     for (i = 1; i < it->c->ny; i++)
       if (it->c->yb[i] < bmin)
         bmin = it->c->yb[i];
-    wh = sqrt(qz * qz + bmin) * r / (kn->p * (cs > 1e-300 ? cs : 1e-300));
+    wh = hypot(qz, sqrt(bmin)) * r / (kn->p * (cs > 1e-300 ? cs : 1e-300));
     it->sstar = log1p(hs / kn->hc);
     it->g.ridge = 1;
     it->g.hs = hs;
@@ -206,7 +227,7 @@ static double inner_integral (integ *it, double eps) {
         continue;
       it->side = side;
       st = gsl_integration_qag(&f, 0.0, asinh(len / it->w), 0.0, eps,
-                               it->q->limit, QAG_KEY_INNER, it->q->ws[1], &val,
+                               limit, QAG_KEY_INNER, it->q->ws[1], &val,
                                &abserr);
       note(it, st);
       total += val;
@@ -216,7 +237,7 @@ static double inner_integral (integ *it, double eps) {
   else {
     it->g.ridge = 0;
     f.function = inner_plain;
-    st = gsl_integration_qag(&f, 0.0, smax, 0.0, eps, it->q->limit, QAG_KEY_INNER,
+    st = gsl_integration_qag(&f, 0.0, smax, 0.0, eps, limit, QAG_KEY_INNER,
                              it->q->ws[1], &total, &abserr_total);
     note(it, st);
   }
@@ -245,6 +266,7 @@ static void integ_init (integ *it, const bl_case *c, bl_quad *q) {
   it->c = c;
   it->q = q;
   it->inner_err = it->inner_val = it->last_err = 0.0;
+  it->calls0 = q->calls;
   it->status = GSL_SUCCESS;
 }
 
