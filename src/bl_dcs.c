@@ -149,21 +149,29 @@ static double phi_at (integ *it, double h) {
 
 
 /*
-** Inner integrand in u: sigma = sstar + side w sinh(u).  h = hc expm1(sigma)
-** is accurate where h is small (the forward peak), h - h* =
-** (h* + hc) expm1(sigma - sstar) where it is near the ridge; neither can
-** stand in for the other.  dh/dsigma = h + hc.
+** Inner integrand in u: sigma = sstar + side w sinh(u), dh/dsigma = h + hc.
+** Near the ridge (|sigma - sstar| < 1/2) h - h* = (h* + hc) expm1(sigma -
+** sstar) keeps the digits of the small difference and h = h* + (h - h*)
+** loses none (h + hc >= 0.6 (h* + hc)); elsewhere h = hc expm1(sigma) keeps
+** those of a small h (the forward peak) and h - h* is no small difference.
+** One expm1 per call either way.
 */
 static double inner_f (double u, void *params) {
   integ *it = params;
   double eu = exp(u), sh = 0.5 * (eu - 1.0 / eu), ch = sh + 1.0 / eu;
-  double ds, h;
+  double ds, h, hc = it->kn.hc;
   if (u < 1e-3)   /* sinh without cancellation near 0 */
     sh = sinh(u);
   ds = it->side * it->w * sh;
-  h = it->kn.hc * expm1(it->sstar + ds);
-  it->g.dh = (it->g.hs + it->kn.hc) * expm1(ds);
-  return phi_at(it, h) * (h + it->kn.hc) * it->w * ch;
+  if (fabs(ds) < 0.5) {
+    it->g.dh = (it->g.hs + hc) * expm1(ds);
+    h = it->g.hs + it->g.dh;
+  }
+  else {
+    h = hc * expm1(it->sstar + ds);
+    it->g.dh = h - it->g.hs;
+  }
+  return phi_at(it, h) * (h + hc) * it->w * ch;
 }
 
 
