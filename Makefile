@@ -21,6 +21,9 @@ TEST_BIN = $(TEST_SRC:tests/%.c=$(B)/%)
 REF_SRC  = $(sort $(wildcard tests/ref/*.c))
 REF_OBJ  = $(REF_SRC:tests/ref/%.c=$(B)/ref_%.o)
 
+BIND_SRC = $(sort $(wildcard src/l*.c))
+BIND_OBJ = $(BIND_SRC:src/%.c=$(B)/%.o)
+
 LIB    = $(B)/libbrakelight.a
 MODULE = $(B)/brakelight.so
 RUNNER = $(B)/brakelight
@@ -48,11 +51,11 @@ $(LIB): $(CORE_OBJ)
 	rm -f $@
 	ar rcs $@ $^
 
-$(MODULE): $(B)/lbrakelight.o $(LIB)
-	$(CC) -shared -o $@ $(B)/lbrakelight.o $(LIB) $(LIBS)
+$(MODULE): $(BIND_OBJ) $(LIB)
+	$(CC) -shared -o $@ $(BIND_OBJ) $(LIB) $(LIBS)
 
-$(RUNNER): $(B)/brakelight.o $(B)/lbrakelight.o $(LIB)
-	$(CC) -o $@ $(B)/brakelight.o $(B)/lbrakelight.o $(LIB) $(LUALIB) $(LIBS) -Wl,-E
+$(RUNNER): $(B)/brakelight.o $(BIND_OBJ) $(LIB)
+	$(CC) -o $@ $(B)/brakelight.o $(BIND_OBJ) $(LIB) $(LUALIB) $(LIBS) -Wl,-E
 
 $(B)/test_%: tests/test_%.c $(REF_OBJ) $(LIB) $(wildcard tests/ref/*.h)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -Itests/ref -o $@ $< $(REF_OBJ) $(LIB) -lcriterion $(LIBS)

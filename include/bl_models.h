@@ -41,8 +41,10 @@ typedef struct bl_yukawa {
 
 /* Stable ids: never reassigned. */
 enum {
-  BL_MODEL_NONE        = 1,
-  BL_MODEL_EXPONENTIAL = 2
+  BL_MODEL_NONE         = 1,
+  BL_MODEL_EXPONENTIAL  = 2,
+  BL_MODEL_THOMAS_FERMI = 3,
+  BL_MODEL_HARTREE_FOCK = 4
 };
 
 typedef struct bl_model {
@@ -56,6 +58,13 @@ typedef struct bl_model {
   double (*form_factor) (double q, int Z, const double *p);
   /* Fill the Yukawa representation for element Z: BL_SUCCESS or BL_EDOMAIN. */
   int (*yukawa) (int Z, const double *p, bl_yukawa *out);
+  /*
+  ** The field of the atomic electrons (incoherent scattering function S,
+  ** S(0) = 0, S(inf) = Z) in the same Yukawa form, but linear:
+  **   S(q)/Z = sum_i alpha_i q^2 / (b_i^2 + q^2),   sum_i alpha_i = 1,
+  ** q and b_i in MeV.  NULL: the model has no electron field (S = 0).
+  */
+  int (*incoherent) (int Z, const double *p, bl_yukawa *out);
   unsigned flags;
 } bl_model;
 

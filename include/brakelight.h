@@ -15,5 +15,6 @@
 #include "bl_models.h"
 #include "bl_quad.h"
 #include "bl_dcs.h"
+#include "bl_material.h"
 
 #endif

@@ -22,6 +22,7 @@
 
 #include "brakelight.h"
 #include "lbrakelight.h"
+#include "lbl_internal.h"
 
 
 #define QUADMETA  "brakelight.Quad"       /* integration workspace */
@@ -49,7 +50,7 @@
 ** Raise a Lua error with a printf-style message (formatted by C, so %g
 ** works, unlike lua_pushfstring).  Never returns.
 */
-static int fail (lua_State *L, const char *fmt, ...) {
+int lbl_fail (lua_State *L, const char *fmt, ...) {
   char msg[MSGSIZE];
   va_list ap;
   va_start(ap, fmt);
@@ -65,7 +66,7 @@ static int fail (lua_State *L, const char *fmt, ...) {
 ** function was reached (brakelight.dsdk{...} or pcall(brakelight.dsdk, t)).
 ** Every library function takes its options as argument #1.  Never returns.
 */
-static int argfail (lua_State *L, const char *fname, const char *fmt, ...) {
+int lbl_argfail (lua_State *L, const char *fname, const char *fmt, ...) {
   char msg[MSGSIZE];
   va_list ap;
   va_start(ap, fmt);
@@ -80,7 +81,7 @@ static int argfail (lua_State *L, const char *fname, const char *fmt, ...) {
 ** written, strings quoted, booleans by value, anything else by type name.
 ** Touches no stack slot.
 */
-static const char *showval (lua_State *L, int idx, char *buf, size_t n) {
+const char *lbl_showval (lua_State *L, int idx, char *buf, size_t n) {
   switch (lua_type(L, idx)) {
     case LUA_TNUMBER:
       if (lua_isinteger(L, idx))
@@ -170,12 +171,12 @@ static void checkkeys (lua_State *L, int t, const char *fname,
       for (i = 0; keys[i] != NULL && !known; i++)
         known = (strcmp(key, keys[i]) == 0);
       if (!known)
-        argfail(L, fname, "unknown %s '%.60s'; allowed: %s", what, key,
+        lbl_argfail(L, fname, "unknown %s '%.60s'; allowed: %s", what, key,
                 keynames(keys, names, sizeof names));
     }
     else
-      argfail(L, fname, "%s names must be strings, got key %s; allowed: %s",
-              what, showval(L, -2, v, sizeof v),
+      lbl_argfail(L, fname, "%s names must be strings, got key %s; allowed: %s",
+              what, lbl_showval(L, -2, v, sizeof v),
               keynames(keys, names, sizeof names));
     lua_pop(L, 1);  /* remove value, keep key for lua_next */
   }
@@ -197,8 +198,8 @@ static int getnum (lua_State *L, int t, const char *fname,
     return 0;
   }
   if (tp != LUA_TNUMBER)
-    argfail(L, fname, "field '%s%s' must be a number, got %s", prefix, key,
-            showval(L, -1, v, sizeof v));
+    lbl_argfail(L, fname, "field '%s%s' must be a number, got %s", prefix, key,
+            lbl_showval(L, -1, v, sizeof v));
   *x = (double)lua_tonumber(L, -1);
   lua_pop(L, 1);
   return 1;
@@ -214,7 +215,7 @@ static double neednum (lua_State *L, int t, const char *fname,
                        const char *meaning) {
   double x = 0;
   if (!getnum(L, t, fname, prefix, key, &x))
-    argfail(L, fname, "missing required field '%s%s' (%s)", prefix, key,
+    lbl_argfail(L, fname, "missing required field '%s%s' (%s)", prefix, key,
             meaning);
   return x;
 }
@@ -235,8 +236,8 @@ static const char *getstr (lua_State *L, int t, const char *fname,
     return NULL;
   }
   if (tp != LUA_TSTRING)
-    argfail(L, fname, "field '%s' must be a string, got %s", key,
-            showval(L, -1, v, sizeof v));
+    lbl_argfail(L, fname, "field '%s' must be a string, got %s", key,
+            lbl_showval(L, -1, v, sizeof v));
   s = lua_tostring(L, -1);
   lua_pop(L, 1);  /* the table still references the string */
   return s;
@@ -265,27 +266,27 @@ static void tabparticle (lua_State *L, int t, const char *fname,
   p->spin = neednum(L, t, fname, prefix, "spin", "particle spin, 0 or 0.5");
   p->flags = 0;
   if (!(p->mass > 0 && isfinite(p->mass)))
-    argfail(L, fname, "field '%smass' must be > 0 MeV and finite, got %.14g",
+    lbl_argfail(L, fname, "field '%smass' must be > 0 MeV and finite, got %.14g",
             prefix, p->mass);
   if (!(p->charge != 0 && isfinite(p->charge)))
-    argfail(L, fname, "field '%scharge' must be a finite non-zero charge "
+    lbl_argfail(L, fname, "field '%scharge' must be a finite non-zero charge "
             "in units of e, got %.14g", prefix, p->charge);
   if (!(p->spin == 0 || p->spin == 0.5))
-    argfail(L, fname, "field '%sspin' must be 0 or 0.5, got %.14g",
+    lbl_argfail(L, fname, "field '%sspin' must be 0 or 0.5, got %.14g",
             prefix, p->spin);
   if (lua_getfield(L, t, "name") == LUA_TNIL)
     name = CUSTOM_NAME;
   else if (lua_type(L, -1) == LUA_TSTRING)
     name = lua_tostring(L, -1);  /* held by the table */
   else {
-    argfail(L, fname, "field '%sname' must be a string, got %s", prefix,
-            showval(L, -1, v, sizeof v));
+    lbl_argfail(L, fname, "field '%sname' must be a string, got %s", prefix,
+            lbl_showval(L, -1, v, sizeof v));
     return;  /* not reached */
   }
   lua_pop(L, 1);
   p->name = name;
   if (bl_particle_check(p) != BL_SUCCESS)  /* the core's own view */
-    argfail(L, fname, "particle '%.60s' rejected by the core: %s", p->name,
+    lbl_argfail(L, fname, "particle '%.60s' rejected by the core: %s", p->name,
             bl_strerror(bl_particle_check(p)));
 }
 
@@ -312,15 +313,15 @@ static void optparticle (lua_State *L, Opts *o) {
   int tp = lua_getfield(L, 1, "particle");
   switch (tp) {
     case LUA_TNIL:
-      argfail(L, o->fname, "missing required field 'particle' (a preset "
+      lbl_argfail(L, o->fname, "missing required field 'particle' (a preset "
               "name such as 'electron', or a particle object)");
       break;
     case LUA_TSTRING:
       pre = bl_particle_find(lua_tostring(L, -1));
       if (pre == NULL)
-        argfail(L, o->fname, "unknown particle %s in field 'particle'; "
+        lbl_argfail(L, o->fname, "unknown particle %s in field 'particle'; "
                 "allowed: %s, or a particle object from brakelight.particle",
-                showval(L, -1, v, sizeof v),
+                lbl_showval(L, -1, v, sizeof v),
                 particlenames(names, sizeof names));
       o->particle = *pre;
       break;
@@ -330,8 +331,8 @@ static void optparticle (lua_State *L, Opts *o) {
     default: {
       bl_particle *p = (bl_particle *)luaL_testudata(L, -1, PARTMETA);
       if (p == NULL)
-        argfail(L, o->fname, "field 'particle' must be a preset name or a "
-                "particle object, got %s", showval(L, -1, v, sizeof v));
+        lbl_argfail(L, o->fname, "field 'particle' must be a preset name or a "
+                "particle object, got %s", lbl_showval(L, -1, v, sizeof v));
       o->particle = *p;  /* name held by the object's user value */
       break;
     }
@@ -346,28 +347,28 @@ static void opttarget (lua_State *L, Opts *o) {
   int tp = lua_getfield(L, 1, "target");
   const char *first = bl_element_symbol(1), *last = bl_element_symbol(BL_ZMAX);
   if (tp == LUA_TNIL)
-    argfail(L, o->fname, "missing required field 'target' (an element "
+    lbl_argfail(L, o->fname, "missing required field 'target' (an element "
             "symbol such as 'Pb' or an atomic number Z in 1..%d)", BL_ZMAX);
   else if (tp == LUA_TSTRING) {
     o->Z = bl_element_find(lua_tostring(L, -1));
     if (o->Z < 1 || o->Z > BL_ZMAX)
-      argfail(L, o->fname, "unknown element %s in field 'target'; allowed: "
+      lbl_argfail(L, o->fname, "unknown element %s in field 'target'; allowed: "
               "element symbols %s..%s (case as in the periodic table) or an "
-              "integer Z in 1..%d", showval(L, -1, v, sizeof v),
+              "integer Z in 1..%d", lbl_showval(L, -1, v, sizeof v),
               first ? first : "?", last ? last : "?", BL_ZMAX);
   }
   else if (tp == LUA_TNUMBER) {
     int isint;
     lua_Integer Z = lua_tointegerx(L, -1, &isint);  /* 82.0 is fine */
     if (!isint || Z < 1 || Z > BL_ZMAX)
-      argfail(L, o->fname, "field 'target' must be an integer Z in 1..%d, "
-              "got %s", BL_ZMAX, showval(L, -1, v, sizeof v));
+      lbl_argfail(L, o->fname, "field 'target' must be an integer Z in 1..%d, "
+              "got %s", BL_ZMAX, lbl_showval(L, -1, v, sizeof v));
     o->Z = (int)Z;
   }
   else
-    argfail(L, o->fname, "field 'target' must be an element symbol or an "
+    lbl_argfail(L, o->fname, "field 'target' must be an element symbol or an "
             "integer Z in 1..%d, got %s", BL_ZMAX,
-            showval(L, -1, v, sizeof v));
+            lbl_showval(L, -1, v, sizeof v));
   lua_pop(L, 1);
 }
 
@@ -385,41 +386,41 @@ static void readopts (lua_State *L, const char *fname,
   o->fname = fname;
   o->userol = userol;
   if (lua_type(L, 1) != LUA_TTABLE)
-    argfail(L, fname, "option table expected, got %s",
-            showval(L, 1, v, sizeof v));
+    lbl_argfail(L, fname, "option table expected, got %s",
+            lbl_showval(L, 1, v, sizeof v));
   lua_settop(L, 1);  /* ignore extra arguments; the stack is ours */
   checkkeys(L, 1, fname, "option", keys);
   optparticle(L, o);
   opttarget(L, o);
   o->T = neednum(L, 1, fname, "", "T", "kinetic energy in MeV");
   if (!(o->T > 0 && isfinite(o->T)))
-    argfail(L, fname, "field 'T' must be > 0 MeV and finite, got %.14g",
+    lbl_argfail(L, fname, "field 'T' must be > 0 MeV and finite, got %.14g",
             o->T);
   s = getstr(L, 1, fname, "screening");
   o->screening = bl_model_find(s ? s : SCREENING_DEFAULT);
   if (o->screening == NULL)
-    argfail(L, fname, "unknown screening model '%.60s' in field 'screening'; "
+    lbl_argfail(L, fname, "unknown screening model '%.60s' in field 'screening'; "
             "allowed: %s", s ? s : SCREENING_DEFAULT,
             modelnames(names, sizeof names));
   o->rtol = RTOL_DEFAULT;
   if (userol && getnum(L, 1, fname, "", "rtol", &o->rtol)
       && !(o->rtol >= RTOL_MIN && o->rtol <= RTOL_MAX))
-    argfail(L, fname, "field 'rtol' must be a relative tolerance in "
+    lbl_argfail(L, fname, "field 'rtol' must be a relative tolerance in "
             "[%g, %g], got %.14g", RTOL_MIN, RTOL_MAX, o->rtol);
   s = getstr(L, 1, fname, "nucleus");
   if (s != NULL && strcmp(s, NUCLEUS_DEFAULT) != 0)
-    argfail(L, fname, "unknown nucleus model '%.60s' in field 'nucleus'; "
+    lbl_argfail(L, fname, "unknown nucleus model '%.60s' in field 'nucleus'; "
             "allowed: %s", s, NUCLEUS_DEFAULT);
   switch (lua_getfield(L, 1, "electrons")) {
     case LUA_TNIL: break;
     case LUA_TBOOLEAN:
       if (lua_toboolean(L, -1))
-        argfail(L, fname, "field 'electrons' is true: atomic-electron field "
+        lbl_argfail(L, fname, "field 'electrons' is true: atomic-electron field "
                 "not available yet; allowed: false");
       break;
     default:
-      argfail(L, fname, "field 'electrons' must be a boolean (allowed: "
-              "false), got %s", showval(L, -1, v, sizeof v));
+      lbl_argfail(L, fname, "field 'electrons' must be a boolean (allowed: "
+              "false), got %s", lbl_showval(L, -1, v, sizeof v));
   }
   lua_pop(L, 1);
 }
@@ -436,7 +437,7 @@ static double optrange (lua_State *L, const Opts *o, const char *key,
   double x = neednum(L, 1, o->fname, "", key, meaning);
   int ok = open ? (x > lo && x < hi) : (x >= lo && x <= hi);
   if (!ok || !isfinite(x))
-    argfail(L, o->fname, "field '%s' must be in %s, got %.14g", key, range,
+    lbl_argfail(L, o->fname, "field '%s' must be in %s, got %.14g", key, range,
             x);
   return x;
 }
@@ -453,22 +454,22 @@ static lua_Integer optarray (lua_State *L, const Opts *o, const char *key,
   char v[80];
   lua_Integer i, n;
   if (lua_getfield(L, 1, key) != LUA_TTABLE)
-    argfail(L, o->fname, "field '%s' must be an array of numbers, got %s",
-            key, showval(L, -1, v, sizeof v));
+    lbl_argfail(L, o->fname, "field '%s' must be an array of numbers, got %s",
+            key, lbl_showval(L, -1, v, sizeof v));
   n = (lua_Integer)lua_rawlen(L, -1);
   if (n < 1)
-    argfail(L, o->fname, "field '%s' must be a non-empty array of numbers, "
+    lbl_argfail(L, o->fname, "field '%s' must be a non-empty array of numbers, "
             "got an empty table", key);
   for (i = 1; i <= n; i++) {
     double x;
     int ok;
     if (lua_rawgeti(L, -1, i) != LUA_TNUMBER)
-      argfail(L, o->fname, "element #%lld of '%s' is not a number, got %s",
-              (long long)i, key, showval(L, -1, v, sizeof v));
+      lbl_argfail(L, o->fname, "element #%lld of '%s' is not a number, got %s",
+              (long long)i, key, lbl_showval(L, -1, v, sizeof v));
     x = (double)lua_tonumber(L, -1);
     ok = open ? (x > lo && x < hi) : (x >= lo && x <= hi);
     if (!ok || !isfinite(x))
-      argfail(L, o->fname, "element #%lld of '%s' must be in %s, got %.14g",
+      lbl_argfail(L, o->fname, "element #%lld of '%s' must be in %s, got %.14g",
               (long long)i, key, range, x);
     lua_pop(L, 1);
   }
@@ -502,7 +503,7 @@ static bl_quad *getquad (lua_State *L, const Opts *o) {
                o->fname);
   st = bl_quad_set_rtol(lq->q, o->rtol);
   if (st != BL_SUCCESS)
-    fail(L, "%s: the core refused rtol = %g: %s", o->fname, o->rtol,
+    lbl_fail(L, "%s: the core refused rtol = %g: %s", o->fname, o->rtol,
          bl_strerror(st));
   return lq->q;
 }
@@ -512,7 +513,7 @@ static bl_quad *getquad (lua_State *L, const Opts *o) {
 static void makecase (lua_State *L, const Opts *o, bl_case *c) {
   int st = bl_case_init(c, &o->particle, o->Z, o->screening, NULL, o->T);
   if (st != BL_SUCCESS)
-    fail(L, "%s: cannot set up %s on Z = %d at T = %g MeV with screening "
+    lbl_fail(L, "%s: cannot set up %s on Z = %d at T = %g MeV with screening "
          "'%s': %s", o->fname, o->particle.name, o->Z, o->T,
          o->screening->name, bl_strerror(st));
 }
@@ -537,12 +538,12 @@ static void checkresult (lua_State *L, const Opts *o, int st, bl_result *r,
     if (notconverged(st))
       r->warn |= BL_WARN_TOLERANCE;
     else
-      fail(L, "%s: %s for %s on Z = %d at T = %g MeV, %s (estimate %g +- %g)",
+      lbl_fail(L, "%s: %s for %s on Z = %d at T = %g MeV, %s (estimate %g +- %g)",
            o->fname, bl_strerror(st), o->particle.name, o->Z, o->T, where,
            r->val, r->err);
   }
   if (!isfinite(r->val) || !isfinite(r->err))
-    fail(L, "%s: non-finite result %g +- %g for %s on Z = %d at T = %g MeV, "
+    lbl_fail(L, "%s: non-finite result %g +- %g for %s on Z = %d at T = %g MeV, "
          "%s (please report this case)", o->fname, r->val, r->err,
          o->particle.name, o->Z, o->T, where);
 }
@@ -817,7 +818,7 @@ static int l_spectrum (lua_State *L) {
   hasy = (lua_getfield(L, 1, "y") != LUA_TNIL);
   lua_pop(L, 2);
   if (hask == hasy)
-    argfail(L, o.fname, "give exactly one of fields 'k' (photon energies, "
+    lbl_argfail(L, o.fname, "give exactly one of fields 'k' (photon energies, "
             "MeV) and 'y' (fractions k/T), got %s", hask ? "both" : "neither");
   if (hask) {
     axis = "k";
@@ -943,7 +944,7 @@ static int l_differential (lua_State *L) {
   phi = neednum(L, 1, o.fname, "", "phi", "azimuth between photon and "
                 "particle in rad");
   if (!isfinite(phi))
-    argfail(L, o.fname, "field 'phi' must be a finite angle in rad, got "
+    lbl_argfail(L, o.fname, "field 'phi' must be a finite angle in rad, got "
             "%.14g", phi);
   /* all checks done */
   makecase(L, &o, &c);
@@ -1045,9 +1046,9 @@ static int l_particle (lua_State *L) {
     case LUA_TSTRING:
       pre = bl_particle_find(lua_tostring(L, 1));
       if (pre == NULL)
-        argfail(L, "particle", "unknown particle %s; allowed: %s, or a "
+        lbl_argfail(L, "particle", "unknown particle %s; allowed: %s, or a "
                 "table {mass =, charge =, spin =, name =}",
-                showval(L, 1, v, sizeof v),
+                lbl_showval(L, 1, v, sizeof v),
                 particlenames(names, sizeof names));
       pushparticle(L, pre);
       return 1;
@@ -1057,8 +1058,8 @@ static int l_particle (lua_State *L) {
       pushparticle(L, &p);
       return 1;
     default:
-      return argfail(L, "particle", "particle name (string) or description "
-                     "(table) expected, got %s", showval(L, 1, v, sizeof v));
+      return lbl_argfail(L, "particle", "particle name (string) or description "
+                     "(table) expected, got %s", lbl_showval(L, 1, v, sizeof v));
   }
 }
 
