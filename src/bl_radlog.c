@@ -3,7 +3,7 @@
 ** See Copyright Notice in LICENSE
 **
 ** Complete-screening constants of the Thomas-Fermi atom (Tsai 1974, Rev. Mod.
-** Phys. 46, 815, Table B.2 and eqs. 3.66-3.67): L_rad = ln(184.15 Z^-1/3),
+** Phys. 46, 815): L_rad = ln(184.15 Z^-1/3),
 ** L'_rad = ln(1194 Z^-2/3) for Z >= 5, and his values from Hartree-Fock and
 ** exact wave functions for Z = 1..4.
 */
@@ -35,7 +35,7 @@ double bl_lrad_prime (int Z) {
 
 
 /*
-** Davies, Bethe & Maximon (1954), as fitted by Tsai (1974, eq. 3.3):
+** Davies, Bethe & Maximon (1954), in the fitted form Tsai (1974) gives:
 **   f(a) = a^2 [1/(1 + a^2) + 0.20206 - 0.0369 a^2 + 0.0083 a^4 - 0.002 a^6],
 ** a = z Z alpha.  Even in a: the same for both signs of the charge.
 */
