@@ -14,6 +14,38 @@
 extern "C" {
 #endif
 
+/* Nucleus models and the three-way switch of the corrections. */
+enum { BL_NUCLEUS_POINT = 0, BL_NUCLEUS_UNIFORM = 1 };
+enum { BL_APPLY_OFF = 0, BL_APPLY_ON = 1, BL_APPLY_AUTO = 2 };
+
+/* What the target factor and the corrections include. */
+typedef struct bl_opts {
+  int electrons;   /* 1: add the field of the atomic electrons, S(q) */
+  int nucleus;     /* BL_NUCLEUS_POINT or BL_NUCLEUS_UNIFORM */
+  double A;        /* mass number for R = 1.2 A^1/3 fm; 0: the standard
+                   ** atomic weight rounded */
+  int coulomb;     /* BL_APPLY_*: Davies-Bethe-Maximon correction */
+  int elwert;      /* BL_APPLY_*: Elwert factor */
+} bl_opts;
+
+/* The plain Born cross section in the screened field of the model: point
+** nucleus, no electrons, no corrections (what bl_case_init uses). */
+extern const bl_opts bl_opts_bare;
+
+/* The defaults of the Lua module: electrons, uniform nucleus, both
+** corrections where valid. */
+extern const bl_opts bl_opts_default;
+
+#define BL_POLE_MAX 24
+#define BL_TERM_MAX 200
+
+/* One term c w_i w_j of the target factor, w_i = 1/(pole_i + q^2), with
+** pole_i <= pole_j. */
+typedef struct bl_term {
+  int i, j;
+  double c;
+} bl_term;
+
 /* One computation: projectile, target atom, kinetic energy.  Filled by
 ** bl_case_init; plain data, may be copied; nothing to free. */
 typedef struct bl_case {
@@ -25,9 +57,16 @@ typedef struct bl_case {
   /* derived */
   double t0;                  /* T / m */
   double norm;                /* z^4 Z^2 alpha r0^2, mb; r0 = alpha hbar/(m c) */
-  int ny;                     /* Yukawa terms of the screening */
-  double ya[BL_YUKAWA_MAX];   /* their weights alpha_i */
-  double yb[BL_YUKAWA_MAX];   /* b_i^2 in units of m^2 */
+  bl_opts opts;
+  double R;                   /* nuclear radius, fm (0: point) */
+  /* Target factor W(q^2) = G(q) / (Z^2 q^4) = sum_t c_t w_i w_j, q in m: */
+  int npole;
+  double pole[BL_POLE_MAX];   /* ascending, in units of m^2 */
+  int nterm;
+  bl_term term[BL_TERM_MAX];
+  int nelastic;               /* the first nelastic terms are the nuclear
+                              ** (elastic) part, the rest the electrons' */
+  double ridge_b;             /* smallest screening pole of the elastic part */
   unsigned warn;              /* warnings that hold for every k (BL_WARN_*) */
 } bl_case;
 
@@ -36,6 +75,18 @@ typedef struct bl_case {
 ** Yukawa form.  `params` may be NULL (defaults). */
 int bl_case_init (bl_case *c, const bl_particle *p, int Z,
                   const bl_model *screening, const double *params, double T);
+
+/* The same with the target options o (NULL: bl_opts_bare).  Also
+** BL_EDOMAIN for A outside [0, 300] or unknown switch values; BL_EMODEL
+** for electrons with a model that has no electron field. */
+int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
+                   const bl_model *screening, const double *params, double T,
+                   const bl_opts *o);
+
+/* Uniform sphere of radius R: F_N(x)^2 with x = q R, and the rational
+** approximation the core integrates (bl_nucleus.c). */
+double bl_nucleus_ff2 (double x);
+double bl_nucleus_ff2_fit (double x);
 
 /* Fully differential d3sigma/(dk dOmega_k dOmega_p), mb/(MeV sr^2), at photon
 ** energy k (MeV, 0 < k < T), photon polar angle theta_k and final-particle

@@ -14,14 +14,25 @@ enum {
   BL_WARN_TOLERANCE = 1u << 0,  /* requested tolerance not reached: err says how far */
   BL_WARN_POINTLIKE = 1u << 1,  /* composite projectile treated as a point charge */
   BL_WARN_BORN      = 1u << 2,  /* z Z alpha / beta not small: first Born approximation poor */
-  BL_WARN_VALIDITY  = 1u << 3   /* a model or correction used outside its validity */
+  BL_WARN_VALIDITY  = 1u << 3,  /* a model or correction used outside its validity */
+  BL_WARN_COULOMB   = 1u << 4,  /* Coulomb correction requested outside its validity */
+  BL_WARN_ELWERT    = 1u << 5,  /* Elwert factor requested outside its validity */
+  BL_WARN_STATIC_E  = 1u << 6,  /* atomic electrons as static charges: no recoil */
+  BL_WARN_CLAMPED   = 1u << 7   /* Coulomb correction exceeded the Born value: 0 */
 };
-#define BL_WARN_COUNT 4
+#define BL_WARN_COUNT 8
+
+/* Corrections actually applied to a result (bl_result.applied). */
+enum {
+  BL_APPLIED_COULOMB = 1u << 0,  /* Davies-Bethe-Maximon, subtracted */
+  BL_APPLIED_ELWERT  = 1u << 1   /* Elwert factor, nuclear part */
+};
 
 typedef struct bl_result {
   double val;     /* best estimate */
   double err;     /* absolute error estimate (>= 0) */
   unsigned warn;  /* BL_WARN_* bits */
+  unsigned applied;  /* BL_APPLIED_* bits */
 } bl_result;
 
 /* Short English text for one warning bit (e.g. BL_WARN_BORN); NULL if unknown. */

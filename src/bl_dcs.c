@@ -66,20 +66,131 @@ typedef struct integ {
   double inner_err, inner_val;  /* sums of inner errors and values, each
                                 ** times the outer Jacobian, over all calls */
   int status;               /* first failure of any integral */
+  int nterm;                /* the target factor, Elwert factor applied */
+  bl_term term[BL_TERM_MAX];
 } integ;
+
+
+const bl_opts bl_opts_bare = {0, BL_NUCLEUS_POINT, 0.0, BL_APPLY_OFF,
+                               BL_APPLY_OFF};
+const bl_opts bl_opts_default = {1, BL_NUCLEUS_UNIFORM, 0.0, BL_APPLY_AUTO,
+                                  BL_APPLY_AUTO};
+
+
+/* Index of pole value x in c->pole, added if new; -1 when full. */
+static int addpole (bl_case *c, double x) {
+  int i;
+  for (i = 0; i < c->npole; i++)
+    if (c->pole[i] == x)
+      return i;
+  if (c->npole == BL_POLE_MAX)
+    return -1;
+  c->pole[c->npole] = x;
+  return c->npole++;
+}
+
+
+/* Add the term coef w(x1) w(x2), the smaller pole first. */
+static int addterm (bl_case *c, double x1, double x2, double coef) {
+  int i, j;
+  bl_term *t;
+  if (c->nterm == BL_TERM_MAX)
+    return BL_EMODEL;
+  i = addpole(c, x1 < x2 ? x1 : x2);
+  j = addpole(c, x1 < x2 ? x2 : x1);
+  if (i < 0 || j < 0)
+    return BL_EMODEL;
+  t = &c->term[c->nterm++];
+  t->i = i;
+  t->j = j;
+  t->c = coef;
+  return BL_SUCCESS;
+}
+
+
+/*
+** The target factor W = G / (Z^2 q^4) as terms c w_i w_j (units m = 1):
+**   elastic:   ((Z F_N - F) / (Z q^2))^2 = (sum_i a_i w_i - sum_j c_j u_j)^2,
+**     1 - F/Z = sum_i a_i q^2 w_i from the model (Yukawa form), and
+**     (1 - F_N)/q^2 = sum_j c_j u_j from the uniform-sphere fit
+**     (bl_nucleus.c), u_j = 1/(l_j / R^2 + q^2);
+**   electrons: S / (Z^2 q^4) = (1/Z) sum_k g_k w_0 w_k,
+**     S/Z = sum_k g_k q^2 w_k from the model's incoherent function, w_0 = 1/q^2.
+*/
+static int targetfactor (bl_case *c) {
+  bl_yukawa y;
+  double vp[BL_YUKAWA_MAX + BL_NUCLEUS_NPOLE], va[BL_YUKAWA_MAX + BL_NUCLEUS_NPOLE];
+  double m = c->particle.mass;
+  int n = 0, i, j, st;
+  st = c->screening->yukawa(c->Z, c->params, &y);
+  if (st != BL_SUCCESS)
+    return st;
+  if (y.n < 1 || y.n > BL_YUKAWA_MAX)
+    return BL_EMODEL;
+  c->ridge_b = HUGE_VAL;
+  for (i = 0; i < y.n; i++) {
+    double b = y.b[i] / m;
+    vp[n] = b * b;
+    va[n++] = y.alpha[i];
+    if (b * b < c->ridge_b)
+      c->ridge_b = b * b;
+  }
+  if (c->R > 0.0) {
+    double Rm = c->R * m / BL_HBARC_MEVFM;   /* R in units of 1/m */
+    for (j = 0; j < BL_NUCLEUS_NPOLE; j++) {
+      vp[n] = bl_nucleus_pole[j] / (Rm * Rm);
+      va[n++] = -bl_nucleus_coef[j];
+    }
+  }
+  c->npole = c->nterm = 0;
+  for (i = 0; i < n; i++)
+    for (j = i; j < n; j++) {
+      st = addterm(c, vp[i], vp[j], va[i] * va[j] * (i == j ? 1.0 : 2.0));
+      if (st != BL_SUCCESS)
+        return st;
+    }
+  c->nelastic = c->nterm;
+  if (c->opts.electrons) {
+    st = c->screening->incoherent(c->Z, c->params, &y);
+    if (st != BL_SUCCESS)
+      return st;
+    if (y.n < 1 || y.n > BL_YUKAWA_MAX)
+      return BL_EMODEL;
+    for (i = 0; i < y.n; i++) {
+      double b = y.b[i] / m;
+      st = addterm(c, 0.0, b * b, y.alpha[i] / c->Z);
+      if (st != BL_SUCCESS)
+        return st;
+    }
+  }
+  return BL_SUCCESS;
+}
 
 
 int bl_case_init (bl_case *c, const bl_particle *p, int Z,
                   const bl_model *screening, const double *params, double T) {
-  bl_yukawa y;
-  double r0, z2;
-  int i, st;
+  return bl_case_setup(c, p, Z, screening, params, T, NULL);
+}
+
+
+int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
+                   const bl_model *screening, const double *params, double T,
+                   const bl_opts *o) {
+  double r0, z2, A;
+  int i;
   if (c == NULL || bl_particle_check(p) != BL_SUCCESS)
     return BL_EDOMAIN;
   if (Z < 1 || Z > BL_ZMAX || !isfinite(T) || T <= 0.0 || screening == NULL)
     return BL_EDOMAIN;
   if (screening->nparams > (int)(sizeof c->params / sizeof c->params[0]))
     return BL_EMODEL;
+  if (o == NULL)
+    o = &bl_opts_bare;
+  if (!(o->A >= 0.0 && o->A <= 300.0)
+      || (o->nucleus != BL_NUCLEUS_POINT && o->nucleus != BL_NUCLEUS_UNIFORM)
+      || o->coulomb < BL_APPLY_OFF || o->coulomb > BL_APPLY_AUTO
+      || o->elwert < BL_APPLY_OFF || o->elwert > BL_APPLY_AUTO)
+    return BL_EDOMAIN;
   c->particle = *p;
   c->Z = Z;
   c->screening = screening;
@@ -97,27 +208,75 @@ int bl_case_init (bl_case *c, const bl_particle *p, int Z,
   c->norm = z2 * z2 * (double)Z * Z * BL_ALPHA * r0 * r0 / BL_FM2_PER_MB;
   if (screening->yukawa == NULL)
     return BL_EMODEL;
-  st = screening->yukawa(Z, c->params, &y);
-  if (st != BL_SUCCESS)
-    return st;
-  c->ny = y.n;
-  for (i = 0; i < y.n; i++) {
-    double b = y.b[i] / p->mass;
-    c->ya[i] = y.alpha[i];
-    c->yb[i] = b * b;
-  }
+  c->opts = *o;
+  if (screening->incoherent == NULL)
+    c->opts.electrons = 0;   /* the model has no electron field (none) */
+  A = o->A > 0.0 ? o->A : floor(bl_element_mass(Z) + 0.5);
+  c->opts.A = A;
+  c->R = o->nucleus == BL_NUCLEUS_UNIFORM ? bl_nucleus_radius(A) : 0.0;
   c->warn = (p->flags & BL_PARTICLE_COMPOSITE) ? BL_WARN_POINTLIKE : 0u;
-  return BL_SUCCESS;
+  if (c->opts.electrons && p->mass > 2.0 * BL_ME_MEV)
+    c->warn |= BL_WARN_STATIC_E;
+  return targetfactor(c);
+}
+
+
+/* Elwert factor (Elwert 1939; Koch & Motz 1959, section II) for a
+** projectile of charge z in the field of charge Z:
+**   F_E = (beta0/beta) (1 - exp(-2 pi eta/beta0)) / (1 - exp(-2 pi eta/beta)),
+** eta = -z Z alpha (> 0 when attracted: electrons).  For eta < 0 the
+** exponentials are rewritten so that nothing overflows at beta -> 0. */
+static double elwert (const bl_case *c, const bl_kin *kn) {
+  double b0 = kn->p0 / kn->E0, b = kn->p / kn->E;
+  double eta = -c->particle.charge * c->Z * BL_ALPHA;
+  double a = 2.0 * BL_PI * fabs(eta);
+  if (eta > 0.0)
+    return (b0 / b) * expm1(-a / b0) / expm1(-a / b);
+  return (b0 / b) * exp(a / b0 - a / b) * expm1(-a / b0) / expm1(-a / b);
 }
 
 
 /*
-** Check k and set the kinematics; warnings that depend on k (Born validity:
-** Koch & Motz 1959 require 2 pi z Z alpha / beta << 1 for both velocities;
-** we warn once it exceeds 1).
+** Where the corrections hold (README, "Corrections"):
+** Elwert: slow projectiles, gamma0 <= 1 + 2 MeV / m_e (Koch & Motz's
+** recommendation for electrons up to T = 2 MeV, from memory); the factor
+** is a ratio of Sommerfeld factors, so the bound is put on the velocity.
+** Coulomb (Davies-Bethe-Maximon): gamma0 >= 100 and gamma >= 10 after
+** emission, and a projectile whose Compton wavelength hbar/(m c) is at
+** least ten nuclear radii: the correction comes from distances ~ hbar/(m c)
+** from the nucleus, where the field must still be a point Coulomb field
+** (electrons and positrons; not muons, whose 1.9 fm lies inside heavy
+** nuclei).
 */
-static int setup (const bl_case *c, double k, bl_kin *kn, unsigned *warn) {
-  double xi;
+static int elwert_valid (const bl_kin *kn) {
+  return kn->E0 <= 1.0 + 2.0 / BL_ME_MEV;
+}
+
+static int coulomb_valid (const bl_case *c, const bl_kin *kn) {
+  double lambda = BL_HBARC_MEVFM / c->particle.mass;          /* fm */
+  return kn->E0 >= 100.0 && kn->E >= 10.0
+         && lambda >= 10.0 * bl_nucleus_radius(c->opts.A);
+}
+
+
+static int wanted (int opt, int valid, unsigned bit, unsigned *warn) {
+  if (opt == BL_APPLY_ON && !valid)
+    *warn |= bit;
+  return opt == BL_APPLY_ON || (opt == BL_APPLY_AUTO && valid);
+}
+
+
+/*
+** Check k and set the kinematics, the target factor for this k (the Elwert
+** factor scales the nuclear part) and the warnings that depend on k (Born
+** validity: Koch & Motz 1959 require 2 pi z Z alpha / beta << 1 for both
+** velocities; we warn once it exceeds 1).
+*/
+static int setup (const bl_case *c, double k, integ *it, unsigned *warn,
+                  unsigned *applied) {
+  bl_kin *kn = &it->kn;
+  double xi, fe = 1.0;
+  int t;
   if (!isfinite(k) || k <= 0.0 || k >= c->T)
     return BL_EDOMAIN;
   bl_kin_set(kn, c->t0, k / c->particle.mass, c->particle.spin);
@@ -125,6 +284,18 @@ static int setup (const bl_case *c, double k, bl_kin *kn, unsigned *warn) {
     return BL_EDOMAIN;   /* k so close to T that nothing is left */
   xi = 2.0 * BL_PI * fabs(c->particle.charge) * c->Z * BL_ALPHA * kn->E / kn->p;
   *warn = c->warn | (xi > 1.0 ? BL_WARN_BORN : 0u);
+  *applied = 0;
+  if (wanted(c->opts.elwert, elwert_valid(kn),
+             BL_WARN_ELWERT, warn)) {
+    fe = elwert(c, kn);
+    *applied |= BL_APPLIED_ELWERT;
+  }
+  it->nterm = c->nterm;
+  for (t = 0; t < c->nterm; t++) {
+    it->term[t] = c->term[t];
+    if (t < c->nelastic)
+      it->term[t].c *= fe;
+  }
   return BL_SUCCESS;
 }
 
@@ -144,7 +315,8 @@ static double phi_at (integ *it, double h) {
   it->g.s = sqrt(h * (2.0 - h));
   bl_bracket_set(&it->kn, &it->g, &br);
   it->q->calls++;
-  return bl_bracket_azimuth(&br, it->c->ny, it->c->ya, it->c->yb);
+  return bl_bracket_azimuth(&br, it->c->npole, it->c->pole, it->nterm,
+                            it->term);
 }
 
 
@@ -210,16 +382,13 @@ static double inner_integral (integ *it, double eps) {
     double cs = sqrt((1.0 - r) * (1.0 + r));
     double hs = r * r / (1.0 + cs);
     double qz = kn->delta - kn->p0 * it->g.h0 + kn->p * hs;
-    double bmin = it->c->yb[0], wh;
-    int i, side;
+    double wh;
+    int side;
     /* q >= delta for every geometry, so |q_z| >= delta at the ridge; a
     ** smaller value is rounding of the three terms (forward photons) */
     if (fabs(qz) < kn->delta)
       qz = kn->delta;
-    for (i = 1; i < it->c->ny; i++)
-      if (it->c->yb[i] < bmin)
-        bmin = it->c->yb[i];
-    wh = hypot(qz, sqrt(bmin)) * r / (kn->p * (cs > 1e-300 ? cs : 1e-300));
+    wh = hypot(qz, sqrt(it->c->ridge_b)) * r / (kn->p * (cs > 1e-300 ? cs : 1e-300));
     it->sstar = log1p(hs / kn->hc);
     it->g.ridge = 1;
     it->g.hs = hs;
@@ -286,12 +455,13 @@ static void integ_init (integ *it, const bl_case *c, bl_quad *q) {
 ** that struggled where the integrand is negligible costs little).
 */
 static int finish (const integ *it, double val, double abserr, double factor,
-                   unsigned warn, bl_result *out) {
+                   unsigned warn, unsigned applied, bl_result *out) {
   if (it->inner_val > 0.0)
     abserr += it->inner_err / it->inner_val * fabs(val);
   out->val = val * factor;
   out->err = abserr * fabs(factor);
   out->warn = warn;
+  out->applied = applied;
   if (!isfinite(out->val) || !isfinite(out->err)) {
     out->warn |= BL_WARN_TOLERANCE;
     return GSL_ERANGE;
@@ -302,18 +472,42 @@ static int finish (const integ *it, double val, double abserr, double factor,
 }
 
 
+/*
+** Subtract the Coulomb correction of Davies, Bethe & Maximon (1954) from
+** dsigma/dk: in the screening-function form (Tsai 1974) it lowers phi1 and
+** phi2 of the nuclear part by 4 f(z Z alpha), i.e. by
+**   (norm / k) 4 f [(1 + v^2) - (2/3) v]   (spin 1/2),
+**   (norm / k) 4 f [2 v - (2/3) v]         (spin 0: 1 + v^2 -> 2 v),
+** v = E/E0.  The spin-0 form assumes the correction, an eikonal phase at
+** leading order, is the same for both spins.  A correction larger than the
+** Born value leaves 0 and a warning.
+*/
+static void coulomb (const bl_case *c, const bl_kin *kn, bl_result *out) {
+  double v = kn->E / kn->E0;
+  double f = bl_coulomb_f(c->particle.charge * c->Z * BL_ALPHA);
+  double shape = kn->spin > 0.25 ? 1.0 + v * v - 2.0 * v / 3.0
+                                 : 4.0 * v / 3.0;
+  out->val -= c->norm / (kn->k * c->particle.mass) * 4.0 * f * shape;
+  out->applied |= BL_APPLIED_COULOMB;
+  if (out->val < 0.0) {
+    out->val = 0.0;
+    out->warn |= BL_WARN_CLAMPED;
+  }
+}
+
+
 int bl_dcs_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out) {
   integ it;
   gsl_function f;
   double pts[2], val = 0.0, abserr = 0.0, smax, ratio;
-  unsigned warn;
+  unsigned warn, applied;
   int st, n = 0, i;
   out->val = out->err = 0.0;
-  out->warn = 0;
+  out->warn = out->applied = 0;
   if (c == NULL || q == NULL)
     return BL_EDOMAIN;
   integ_init(&it, c, q);
-  st = setup(c, k, &it.kn, &warn);
+  st = setup(c, k, &it, &warn, &applied);
   if (st != BL_SUCCESS)
     return st;
   f.function = outer_f;
@@ -336,9 +530,16 @@ int bl_dcs_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out) {
     val += v;
     abserr += e;
   }
-  return finish(&it, val, abserr,
-                c->norm * it.kn.p / (it.kn.p0 * it.kn.k) / BL_PI
-                / c->particle.mass, warn, out);
+  st = finish(&it, val, abserr,
+              c->norm * it.kn.p / (it.kn.p0 * it.kn.k) / BL_PI
+              / c->particle.mass, warn, applied, out);
+  if (wanted(c->opts.coulomb, coulomb_valid(c, &it.kn), BL_WARN_COULOMB,
+             &out->warn)) {
+    coulomb(c, &it.kn, out);
+    if (!isfinite(out->val) && st == BL_SUCCESS)
+      st = GSL_ERANGE;
+  }
+  return st;
 }
 
 
@@ -346,14 +547,16 @@ int bl_dcs_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
                       bl_result *out) {
   integ it;
   double sh, val;
-  unsigned warn;
+  unsigned warn, applied;
   int st;
   out->val = out->err = 0.0;
-  out->warn = 0;
+  out->warn = out->applied = 0;
   if (c == NULL || q == NULL || !(theta_k >= 0.0 && theta_k <= BL_PI))
     return BL_EDOMAIN;
   integ_init(&it, c, q);
-  st = setup(c, k, &it.kn, &warn);
+  st = setup(c, k, &it, &warn, &applied);
+  if (c->opts.coulomb == BL_APPLY_ON)
+    warn |= BL_WARN_COULOMB;   /* known for dsigma/dk only */
   if (st != BL_SUCCESS)
     return st;
   sh = sin(0.5 * theta_k);
@@ -362,7 +565,7 @@ int bl_dcs_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
   val = inner_integral(&it, q->rtol);  /* the whole tolerance is its own */
   return finish(&it, val, it.last_err,
                 c->norm * it.kn.p / (it.kn.p0 * it.kn.k) / (2.0 * BL_PI * BL_PI)
-                / c->particle.mass, warn, out);
+                / c->particle.mass, warn, applied, out);
 }
 
 
@@ -377,20 +580,23 @@ int bl_dcs_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
 */
 int bl_dcs_full_e (const bl_case *c, double k, double theta_k, double theta_p,
                    double phi, bl_result *out) {
-  bl_kin kn;
+  integ it;
+  bl_kin *kn = &it.kn;
   bl_polar g;
   bl_bracket br;
   double sd, sp, X, Y, rho, v, val;
-  unsigned warn;
+  unsigned warn, applied;
   int st;
   out->val = out->err = 0.0;
-  out->warn = 0;
+  out->warn = out->applied = 0;
   if (c == NULL || !(theta_k >= 0.0 && theta_k <= BL_PI)
       || !(theta_p >= 0.0 && theta_p <= BL_PI) || !isfinite(phi))
     return BL_EDOMAIN;
-  st = setup(c, k, &kn, &warn);
+  st = setup(c, k, &it, &warn, &applied);
   if (st != BL_SUCCESS)
     return st;
+  if (c->opts.coulomb == BL_APPLY_ON)
+    warn |= BL_WARN_COULOMB;   /* known for dsigma/dk only */
   sd = sin(0.5 * (theta_k - theta_p));
   sp = sin(0.5 * phi);
   g.ridge = 0;
@@ -407,11 +613,12 @@ int bl_dcs_full_e (const bl_case *c, double k, double theta_k, double theta_p,
     v = Y * Y / (rho * (rho + X));  /* 1 - cos(phi_k) without cancellation */
   else
     v = (rho - X) / rho;
-  bl_bracket_set(&kn, &g, &br);
-  val = bl_bracket_point(&br, v, c->ny, c->ya, c->yb);
-  out->val = val * c->norm * kn.p / (kn.p0 * kn.k) / (4.0 * BL_PI * BL_PI)
+  bl_bracket_set(kn, &g, &br);
+  val = bl_bracket_point(&br, v, c->npole, c->pole, it.nterm, it.term);
+  out->val = val * c->norm * kn->p / (kn->p0 * kn->k) / (4.0 * BL_PI * BL_PI)
              / c->particle.mass;
   out->warn = warn;
+  out->applied = applied;
   if (!isfinite(out->val))
     return GSL_ERANGE;
   return BL_SUCCESS;

@@ -32,6 +32,16 @@ const char *bl_warn_text (unsigned bit) {
       return "first Born approximation poor: 2 pi z Z alpha / beta is not small";
     case BL_WARN_VALIDITY:
       return "a model or correction is used outside its validity";
+    case BL_WARN_COULOMB:
+      return "Coulomb correction applied outside its validity (high energy, "
+             "light projectile)";
+    case BL_WARN_ELWERT:
+      return "Elwert factor applied outside its validity (low energy)";
+    case BL_WARN_STATIC_E:
+      return "atomic electrons treated as static charges (no recoil): their "
+             "share is overestimated for heavy projectiles";
+    case BL_WARN_CLAMPED:
+      return "the Coulomb correction exceeds the Born value; result set to 0";
     default:
       return NULL;
   }

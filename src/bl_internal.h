@@ -17,6 +17,14 @@ extern const bl_ref bl_ref_Low1958;
 extern const bl_model bl_model_none;
 extern const bl_model bl_model_exponential;
 
+/* The uniform-sphere fit of bl_nucleus.c: poles in units of R^-2. */
+#define BL_NUCLEUS_NPOLE 4
+extern const double bl_nucleus_pole[BL_NUCLEUS_NPOLE];
+extern const double bl_nucleus_coef[BL_NUCLEUS_NPOLE];
+
+/* R = 1.2 A^1/3 fm. */
+double bl_nucleus_radius (double A);
+
 /*
 ** Kinematics of one photon energy, in units of the projectile mass
 ** (hbar = c = m = 1).  Filled by bl_kin_set; read-only afterwards.
@@ -58,12 +66,14 @@ void bl_kin_set (bl_kin *kn, double t0, double k, double spin);
 void bl_bracket_set (const bl_kin *kn, const bl_polar *g, bl_bracket *br);
 
 /* Azimuthal integral  int_0^pi B(v) W(x) dphi  with
-** W(x) = (sum_i a[i] / (bb[i] + x))^2  (bb[i] >= 0, n >= 1), closed form. */
-double bl_bracket_azimuth (const bl_bracket *br, int n, const double *a,
-                           const double *bb);
+** W(x) = sum_t c_t w_i w_j, w_i = 1/(pole[i] + x), pole[i] >= 0 and
+** pole[i] <= pole[j] in every term; closed form. */
+double bl_bracket_azimuth (const bl_bracket *br, int npole,
+                           const double *pole, int nterm,
+                           const bl_term *term);
 
 /* B(v) W(x) at one azimuth. */
-double bl_bracket_point (const bl_bracket *br, double v, int n,
-                         const double *a, const double *bb);
+double bl_bracket_point (const bl_bracket *br, double v, int npole,
+                         const double *pole, int nterm, const bl_term *term);
 
 #endif

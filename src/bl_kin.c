@@ -92,40 +92,42 @@ void bl_bracket_set (const bl_kin *kn, const bl_polar *g, bl_bracket *br) {
 **                                       / (P_i P_j)
 ** The pair forms are divided differences of G0, G1 rewritten without any
 ** subtraction, so they hold for i = j and for m_i close to m_j alike.
-** With x w_i w_j = w_j - beta_i w_i w_j (w_i = 1/(beta_i + x)) the term
+** With x w_i w_j = w_j - pole_i w_i w_j (w_i = 1/(pole_i + x)) the term
 ** -x (M0 + M1 v) of the bracket needs only G0 and G1: no v^2 integral, whose
-** closed form cancels badly when m << b.
+** closed form cancels badly when m << b.  Taking i as the smaller pole keeps
+** that subtraction mild (it cancels only where x << pole_i).
 */
-double bl_bracket_azimuth (const bl_bracket *br, int n, const double *a,
-                           const double *bb) {
-  double m[BL_YUKAWA_MAX], R[BL_YUKAWA_MAX], P[BL_YUKAWA_MAX];
-  double b = br->b, sum = 0.0, single = 0.0, asum = 0.0;
-  int i, j;
-  for (i = 0; i < n; i++) {
-    m[i] = bb[i] + br->Q0;
+double bl_bracket_azimuth (const bl_bracket *br, int npole,
+                           const double *pole, int nterm,
+                           const bl_term *term) {
+  double m[BL_POLE_MAX], R[BL_POLE_MAX], P[BL_POLE_MAX];
+  double b = br->b, sum = 0.0;
+  int i, t;
+  for (i = 0; i < npole; i++) {
+    m[i] = pole[i] + br->Q0;
     R[i] = sqrt(m[i] * (m[i] + 2.0 * b));
     P[i] = m[i] + 2.0 * b + R[i];
-    asum += a[i];
-    single += a[i] * (br->M0 * BL_PI / R[i] + br->M1 * 2.0 * BL_PI / P[i]);
   }
-  for (i = 0; i < n; i++) {
-    for (j = 0; j < n; j++) {
-      double s = m[i] + m[j] + 2.0 * b, rr = R[i] + R[j];
-      double y0 = BL_PI * s / (R[i] * R[j] * rr);
-      double y1 = 2.0 * BL_PI * (1.0 + s / rr) / (P[i] * P[j]);
-      sum += a[i] * a[j] * ((br->L0 + bb[i] * br->M0) * y0
-                            + (br->L1 + bb[i] * br->M1) * y1);
-    }
+  for (t = 0; t < nterm; t++) {
+    int ti = term[t].i, tj = term[t].j;
+    double s = m[ti] + m[tj] + 2.0 * b, rr = R[ti] + R[tj];
+    double y0 = s / (R[ti] * R[tj] * rr);
+    double y1 = 2.0 * (1.0 + s / rr) / (P[ti] * P[tj]);
+    sum += term[t].c * ((br->L0 + pole[ti] * br->M0) * y0
+                        + (br->L1 + pole[ti] * br->M1) * y1
+                        - br->M0 / R[tj] - br->M1 * 2.0 / P[tj]);
   }
-  return sum - asum * single;
+  return BL_PI * sum;
 }
 
 
-double bl_bracket_point (const bl_bracket *br, double v, int n,
-                         const double *a, const double *bb) {
-  double x = br->Q0 + br->b * v, w = 0.0;
-  int i;
-  for (i = 0; i < n; i++)
-    w += a[i] / (bb[i] + x);
-  return (br->L0 + br->L1 * v - x * (br->M0 + br->M1 * v)) * w * w;
+double bl_bracket_point (const bl_bracket *br, double v, int npole,
+                         const double *pole, int nterm, const bl_term *term) {
+  double x = br->Q0 + br->b * v, w[BL_POLE_MAX], W = 0.0;
+  int i, t;
+  for (i = 0; i < npole; i++)
+    w[i] = 1.0 / (pole[i] + x);
+  for (t = 0; t < nterm; t++)
+    W += term[t].c * w[term[t].i] * w[term[t].j];
+  return (br->L0 + br->L1 * v - x * (br->M0 + br->M1 * v)) * W;
 }

@@ -36,7 +36,6 @@
 #define RTOL_MIN     1e-12    /* range accepted by bl_quad_set_rtol */
 #define RTOL_MAX     0.5
 #define SCREENING_DEFAULT "exponential"
-#define NUCLEUS_DEFAULT   "point"
 #define CUSTOM_NAME       "custom"   /* name of a particle made without one */
 
 
@@ -295,8 +294,10 @@ static void tabparticle (lua_State *L, int t, const char *fname,
 typedef struct Opts {
   const char *fname;          /* Lua name of the function, for messages */
   bl_particle particle;
-  int Z;
+  bl_material target;
+  int Z;                      /* the component being computed (messages) */
   const bl_model *screening;
+  bl_opts bo;                 /* electrons, nucleus, corrections */
   double T;                   /* kinetic energy, MeV */
   double rtol;                /* relative tolerance (integrals only) */
   int userol;                 /* rtol is an option of this function */
@@ -341,35 +342,37 @@ static void optparticle (lua_State *L, Opts *o) {
 }
 
 
-/* Read option 'target': an element symbol or an integer Z in 1..BL_ZMAX. */
+/* Read option 'target': anything brakelight.material accepts, or Z. */
 static void opttarget (lua_State *L, Opts *o) {
-  char v[80];
-  int tp = lua_getfield(L, 1, "target");
-  const char *first = bl_element_symbol(1), *last = bl_element_symbol(BL_ZMAX);
-  if (tp == LUA_TNIL)
-    lbl_argfail(L, o->fname, "missing required field 'target' (an element "
-            "symbol such as 'Pb' or an atomic number Z in 1..%d)", BL_ZMAX);
-  else if (tp == LUA_TSTRING) {
-    o->Z = bl_element_find(lua_tostring(L, -1));
-    if (o->Z < 1 || o->Z > BL_ZMAX)
-      lbl_argfail(L, o->fname, "unknown element %s in field 'target'; allowed: "
-              "element symbols %s..%s (case as in the periodic table) or an "
-              "integer Z in 1..%d", lbl_showval(L, -1, v, sizeof v),
-              first ? first : "?", last ? last : "?", BL_ZMAX);
-  }
-  else if (tp == LUA_TNUMBER) {
-    int isint;
-    lua_Integer Z = lua_tointegerx(L, -1, &isint);  /* 82.0 is fine */
-    if (!isint || Z < 1 || Z > BL_ZMAX)
-      lbl_argfail(L, o->fname, "field 'target' must be an integer Z in 1..%d, "
-              "got %s", BL_ZMAX, lbl_showval(L, -1, v, sizeof v));
-    o->Z = (int)Z;
-  }
-  else
-    lbl_argfail(L, o->fname, "field 'target' must be an element symbol or an "
-            "integer Z in 1..%d, got %s", BL_ZMAX,
-            lbl_showval(L, -1, v, sizeof v));
+  lua_getfield(L, 1, "target");
+  lbl_totarget(L, -1, o->fname, "target", &o->target);
   lua_pop(L, 1);
+  o->Z = o->target.comp[0].Z;
+}
+
+
+/*
+** Read a correction switch: nil (apply where valid), true or false.
+*/
+static int optswitch (lua_State *L, const char *fname, const char *key) {
+  char v[80];
+  int r = BL_APPLY_AUTO;
+  switch (lua_getfield(L, 1, key)) {
+    case LUA_TNIL: break;
+    case LUA_TBOOLEAN:
+      r = lua_toboolean(L, -1) ? BL_APPLY_ON : BL_APPLY_OFF;
+      break;
+    case LUA_TSTRING:
+      if (strcmp(lua_tostring(L, -1), "auto") == 0)
+        break;
+      /* FALLTHROUGH */
+    default:
+      lbl_argfail(L, fname, "field '%s' must be true, false or 'auto' (the "
+                  "default: apply where valid), got %s", key,
+                  lbl_showval(L, -1, v, sizeof v));
+  }
+  lua_pop(L, 1);
+  return r;
 }
 
 
@@ -407,22 +410,27 @@ static void readopts (lua_State *L, const char *fname,
       && !(o->rtol >= RTOL_MIN && o->rtol <= RTOL_MAX))
     lbl_argfail(L, fname, "field 'rtol' must be a relative tolerance in "
             "[%g, %g], got %.14g", RTOL_MIN, RTOL_MAX, o->rtol);
+  o->bo = bl_opts_default;
   s = getstr(L, 1, fname, "nucleus");
-  if (s != NULL && strcmp(s, NUCLEUS_DEFAULT) != 0)
+  if (s == NULL || strcmp(s, "uniform") == 0)
+    o->bo.nucleus = BL_NUCLEUS_UNIFORM;
+  else if (strcmp(s, "point") == 0)
+    o->bo.nucleus = BL_NUCLEUS_POINT;
+  else
     lbl_argfail(L, fname, "unknown nucleus model '%.60s' in field 'nucleus'; "
-            "allowed: %s", s, NUCLEUS_DEFAULT);
+            "allowed: 'uniform' (default), 'point'", s);
   switch (lua_getfield(L, 1, "electrons")) {
     case LUA_TNIL: break;
     case LUA_TBOOLEAN:
-      if (lua_toboolean(L, -1))
-        lbl_argfail(L, fname, "field 'electrons' is true: atomic-electron field "
-                "not available yet; allowed: false");
+      o->bo.electrons = lua_toboolean(L, -1);
       break;
     default:
-      lbl_argfail(L, fname, "field 'electrons' must be a boolean (allowed: "
-              "false), got %s", lbl_showval(L, -1, v, sizeof v));
+      lbl_argfail(L, fname, "field 'electrons' must be a boolean (true: "
+              "default, false), got %s", lbl_showval(L, -1, v, sizeof v));
   }
   lua_pop(L, 1);
+  o->bo.coulomb = optswitch(L, fname, "coulomb");
+  o->bo.elwert = optswitch(L, fname, "elwert");
 }
 
 
@@ -509,13 +517,34 @@ static bl_quad *getquad (lua_State *L, const Opts *o) {
 }
 
 
-/* Prepare the core's case for *o; raises if the core refuses it. */
-static void makecase (lua_State *L, const Opts *o, bl_case *c) {
-  int st = bl_case_init(c, &o->particle, o->Z, o->screening, NULL, o->T);
-  if (st != BL_SUCCESS)
-    lbl_fail(L, "%s: cannot set up %s on Z = %d at T = %g MeV with screening "
-         "'%s': %s", o->fname, o->particle.name, o->Z, o->T,
-         o->screening->name, bl_strerror(st));
+/*
+** The cases of every element of the target with their weights (atoms per
+** formula unit).  Held in a userdata (bl_case is large), collected with
+** the stack on any error.
+*/
+typedef struct Cases {
+  int n;
+  double atoms[BL_MATERIAL_MAXCOMP];
+  bl_case c[BL_MATERIAL_MAXCOMP];
+} Cases;
+
+
+/* Push a new Cases for *o; raises if the core refuses an element. */
+static Cases *makecases (lua_State *L, Opts *o) {
+  Cases *cs = (Cases *)lua_newuserdatauv(L, sizeof *cs, 0);
+  int i;
+  cs->n = o->target.n;
+  for (i = 0; i < cs->n; i++) {
+    int Z = o->target.comp[i].Z;
+    int st = bl_case_setup(&cs->c[i], &o->particle, Z, o->screening, NULL,
+                           o->T, &o->bo);
+    if (st != BL_SUCCESS)
+      lbl_fail(L, "%s: cannot set up %s on Z = %d at T = %g MeV with "
+               "screening '%s': %s", o->fname, o->particle.name, Z, o->T,
+               o->screening->name, bl_strerror(st));
+    cs->atoms[i] = o->target.comp[i].atoms;
+  }
+  return cs;
 }
 
 
@@ -556,14 +585,17 @@ typedef struct Warnings {
   double worst;        /* worst relative error estimate among the latter */
   char worstat[64];    /* where it was ("k = 5 MeV") */
   double kborn;        /* largest k flagged BL_WARN_BORN; < 0: none */
+  int zborn;           /* largest Z flagged BL_WARN_BORN */
 } Warnings;
 
 
 /* Start a collection with the case's own warnings (and point-like for
 ** composite projectiles, whatever the core says). */
-static void initwarn (Warnings *w, const Opts *o, const bl_case *c) {
+static void initwarn (Warnings *w, const Opts *o, const Cases *cs) {
+  int i;
   memset(w, 0, sizeof *w);
-  w->bits = c->warn;
+  for (i = 0; i < cs->n; i++)
+    w->bits |= cs->c[i].warn;
   if (o->particle.flags & BL_PARTICLE_COMPOSITE)
     w->bits |= BL_WARN_POINTLIKE;
   w->kborn = -1;
@@ -588,6 +620,53 @@ static void addwarn (Warnings *w, const bl_result *r, double k,
 }
 
 
+/* What one point asks of the core. */
+enum { PT_DK, PT_ANGULAR, PT_FULL };
+typedef struct Point {
+  int kind;
+  double k, theta, theta_p, phi;   /* photon energy (MeV) and angles (rad) */
+} Point;
+
+
+/*
+** Compute one point for every element of the target and sum them with
+** their weights: errors add, warnings and applied corrections unite.
+** Raises on a hard failure (checkresult).
+*/
+static void computepoint (lua_State *L, Opts *o, const Cases *cs,
+                          const Point *pt, bl_quad *q, Warnings *w,
+                          const char *at, bl_result *sum) {
+  int i;
+  sum->val = sum->err = 0.0;
+  sum->warn = sum->applied = 0;
+  for (i = 0; i < cs->n; i++) {
+    const bl_case *c = &cs->c[i];
+    bl_result r;
+    int st;
+    switch (pt->kind) {
+      case PT_DK:
+        st = bl_dcs_dk_e(c, pt->k, q, &r);
+        break;
+      case PT_ANGULAR:
+        st = bl_dcs_angular_e(c, pt->k, pt->theta, q, &r);
+        break;
+      default:
+        st = bl_dcs_full_e(c, pt->k, pt->theta, pt->theta_p, pt->phi, &r);
+        break;
+    }
+    o->Z = c->Z;
+    checkresult(L, o, st, &r, at);
+    if ((r.warn & BL_WARN_BORN) && c->Z > w->zborn)
+      w->zborn = c->Z;
+    sum->val += cs->atoms[i] * r.val;
+    sum->err += cs->atoms[i] * r.err;
+    sum->warn |= r.warn;
+    sum->applied |= r.applied;
+  }
+  addwarn(w, sum, pt->k, at);
+}
+
+
 /* Speed v/c of a particle of mass m (MeV) and kinetic energy t (MeV). */
 static double beta (double t, double m) {
   double x = t / m;
@@ -601,7 +680,9 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
   char msg[MSGSIZE];
   const char *text = bl_warn_text(bit);
   const bl_particle *p = &o->particle;
-  double xi = 2 * BL_PI * fabs(p->charge) * o->Z * BL_ALPHA;
+  int zb = w->zborn > 0 ? w->zborn : o->Z;
+  double xi = 2 * BL_PI * fabs(p->charge) * zb * BL_ALPHA;
+  double g0 = 1.0 + o->T / p->mass;
   if (text == NULL)
     text = "warning";
   switch (bit) {
@@ -620,15 +701,37 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                  "emission, %.3g after emitting k = %g MeV; z = %g, Z = %d, "
                  "T = %g MeV)", text, xi / beta(o->T, p->mass),
                  xi / beta(o->T - w->kborn, p->mass), w->kborn, p->charge,
-                 o->Z, o->T);
+                 zb, o->T);
       else
         snprintf(msg, sizeof msg, "%s (2 pi |z| Z alpha/beta = %.3g; z = %g, "
                  "Z = %d, T = %g MeV)", text, xi / beta(o->T, p->mass),
-                 p->charge, o->Z, o->T);
+                 p->charge, zb, o->T);
       break;
     case BL_WARN_VALIDITY:
-      snprintf(msg, sizeof msg, "%s (screening '%s', %s, Z = %d, "
-               "T = %g MeV)", text, o->screening->name, p->name, o->Z, o->T);
+      snprintf(msg, sizeof msg, "%s (screening '%s', %s, target %s, "
+               "T = %g MeV)", text, o->screening->name, p->name,
+               o->target.name, o->T);
+      break;
+    case BL_WARN_COULOMB:
+      snprintf(msg, sizeof msg, "%s: it holds for gamma >= 100 before and >= 10 "
+               "after emission and hbar/(m c) >= 10 nuclear radii; here "
+               "gamma0 = %.4g, hbar/(m c) = %.3g fm (%s, target %s; for "
+               "angular distributions it is not available at all)", text, g0,
+               BL_HBARC_MEVFM / p->mass, p->name, o->target.name);
+      break;
+    case BL_WARN_ELWERT:
+      snprintf(msg, sizeof msg, "%s: it holds for gamma0 <= %.4g (T <= 2 MeV "
+               "for electrons); here gamma0 = %.4g (%s, T = %g MeV)", text,
+               1.0 + 2.0 / BL_ME_MEV, g0, p->name, o->T);
+      break;
+    case BL_WARN_STATIC_E:
+      snprintf(msg, sizeof msg, "%s (%s, mass %g MeV; electrons = false "
+               "leaves the nucleus only)", text, p->name, p->mass);
+      break;
+    case BL_WARN_CLAMPED:
+      snprintf(msg, sizeof msg, "%s (%s on %s at T = %g MeV, near the tip of "
+               "the spectrum; coulomb = false gives the Born value)", text,
+               p->name, o->target.name, o->T);
       break;
     default:
       snprintf(msg, sizeof msg, "%s (warning bit 0x%x)", text, bit);
@@ -670,16 +773,39 @@ static void pushparticletable (lua_State *L, const bl_particle *p) {
 }
 
 
+/* The factor from mb per formula unit to cm^2/g. */
+static double pergram (const Opts *o) {
+  return BL_NA / o->target.molar_mass * 1e-27;
+}
+
+
+/* Push a correction switch as the user writes it: true, false, "auto". */
+static void pushswitch (lua_State *L, int sw) {
+  if (sw == BL_APPLY_AUTO)
+    lua_pushliteral(L, "auto");
+  else
+    lua_pushboolean(L, sw == BL_APPLY_ON);
+}
+
+
 /* Push the settings table: every option used, defaults filled in. */
 static void pushsettings (lua_State *L, const Opts *o) {
   lua_createtable(L, 0, 8);
   pushparticletable(L, &o->particle);
   lua_setfield(L, -2, "particle");
-  lua_createtable(L, 0, 2);
-  lua_pushstring(L, bl_element_symbol(o->Z));
-  lua_setfield(L, -2, "symbol");
-  lua_pushinteger(L, o->Z);
-  lua_setfield(L, -2, "Z");
+  lua_createtable(L, 0, 4);
+  lua_pushstring(L, o->target.name);
+  lua_setfield(L, -2, "name");
+  if (o->target.n == 1 && o->target.comp[0].atoms == 1.0) {  /* an element */
+    lua_pushstring(L, bl_element_symbol(o->target.comp[0].Z));
+    lua_setfield(L, -2, "symbol");
+    lua_pushinteger(L, o->target.comp[0].Z);
+    lua_setfield(L, -2, "Z");
+  }
+  lua_pushnumber(L, o->target.molar_mass);
+  lua_setfield(L, -2, "molar_mass");
+  lua_pushnumber(L, pergram(o));
+  lua_setfield(L, -2, "per_gram");
   lua_setfield(L, -2, "target");
   lua_pushnumber(L, o->T);
   lua_setfield(L, -2, "T");
@@ -689,10 +815,14 @@ static void pushsettings (lua_State *L, const Opts *o) {
     lua_pushnumber(L, o->rtol);
     lua_setfield(L, -2, "rtol");
   }
-  lua_pushstring(L, NUCLEUS_DEFAULT);
+  lua_pushstring(L, o->bo.nucleus == BL_NUCLEUS_UNIFORM ? "uniform" : "point");
   lua_setfield(L, -2, "nucleus");
-  lua_pushboolean(L, 0);
+  lua_pushboolean(L, o->bo.electrons && o->screening->incoherent != NULL);
   lua_setfield(L, -2, "electrons");
+  pushswitch(L, o->bo.coulomb);
+  lua_setfield(L, -2, "coulomb");
+  pushswitch(L, o->bo.elwert);
+  lua_setfield(L, -2, "elwert");
   lua_pushstring(L, "born");
   lua_setfield(L, -2, "method");
 }
@@ -742,20 +872,43 @@ static void setresult (lua_State *L, int t, int first,
 /* Option names of each function, in the order the messages list them. */
 static const char *const dsdk_keys[] = {
   "particle", "target", "T", "k", "screening", "rtol", "nucleus",
-  "electrons", NULL
+  "electrons", "coulomb", "elwert", NULL
 };
 static const char *const spectrum_keys[] = {
   "particle", "target", "T", "k", "y", "screening", "rtol", "nucleus",
-  "electrons", NULL
+  "electrons", "coulomb", "elwert", NULL
 };
 static const char *const angular_keys[] = {
   "particle", "target", "T", "k", "theta", "screening", "rtol", "nucleus",
-  "electrons", NULL
+  "electrons", "coulomb", "elwert", NULL
 };
 static const char *const differential_keys[] = {
   "particle", "target", "T", "k", "theta_k", "theta_p", "phi", "screening",
-  "nucleus", "electrons", NULL
+  "nucleus", "electrons", "coulomb", "elwert", NULL
 };
+
+
+/* Refuse coulomb = true where the correction is not defined. */
+static void nocoulomb (lua_State *L, const Opts *o) {
+  if (o->bo.coulomb == BL_APPLY_ON)
+    lbl_argfail(L, o->fname, "field 'coulomb' is true, but the Coulomb "
+                "correction is known for dsigma/dk only (spectrum, dsdk); "
+                "allowed here: false or 'auto' (not applied)");
+}
+
+
+/* Push the table of one point's extras: per_gram, corrections applied. */
+static void pushinfo (lua_State *L, const Opts *o, const bl_result *r) {
+  lua_createtable(L, 0, 4);
+  lua_pushnumber(L, pergram(o));
+  lua_setfield(L, -2, "per_gram");
+  lua_pushboolean(L, (r->applied & BL_APPLIED_COULOMB) != 0);
+  lua_setfield(L, -2, "coulomb_applied");
+  lua_pushboolean(L, (r->applied & BL_APPLIED_ELWERT) != 0);
+  lua_setfield(L, -2, "elwert_applied");
+  pushsettings(L, o);
+  lua_setfield(L, -2, "settings");
+}
 
 
 /* Read option 'k', required, in (0, T). */
@@ -772,41 +925,50 @@ static double optk (lua_State *L, const Opts *o) {
 */
 static int l_dsdk (lua_State *L) {
   Opts o;
-  bl_case c;
+  const Cases *cs;
   bl_result r;
   bl_quad *q;
   Warnings w;
+  Point pt = {PT_DK, 0, 0, 0, 0};
   char at[64];
-  double k;
-  int st;
   readopts(L, "dsdk", dsdk_keys, 1, &o);
-  k = optk(L, &o);
+  pt.k = optk(L, &o);
   /* all checks done */
   q = getquad(L, &o);
-  makecase(L, &o, &c);
-  initwarn(&w, &o, &c);
-  snprintf(at, sizeof at, "k = %.6g MeV", k);
-  st = bl_dcs_dk_e(&c, k, q, &r);
-  checkresult(L, &o, st, &r, at);
-  addwarn(&w, &r, k, at);
+  cs = makecases(L, &o);
+  initwarn(&w, &o, cs);
+  snprintf(at, sizeof at, "k = %.6g MeV", pt.k);
+  computepoint(L, &o, cs, &pt, q, &w, at, &r);
   lua_pushnumber(L, r.val);
   lua_pushnumber(L, r.err);
   pushwarnings(L, &o, &w);
-  return 3;
+  pushinfo(L, &o, &r);
+  return 4;
+}
+
+
+/* Push a boolean array slot: t[i] = v. */
+static void setbool (lua_State *L, int t, lua_Integer i, int v) {
+  lua_pushboolean(L, v);
+  lua_rawseti(L, t, i);
 }
 
 
 /*
 ** brakelight.spectrum{..., k = {...}} or {..., y = {...}}
-**   -> {k, y, dsdk, err, units, settings, warnings}
+**   -> {k, y, dsdk, err, coulomb_applied, elwert_applied, per_gram, units,
+**       settings, warnings}
 */
 static int l_spectrum (lua_State *L) {
   static const char *const units[] = {
-    "k", "MeV", "y", "1", "dsdk", "mb/MeV", "err", "mb/MeV", NULL
+    "k", "MeV", "y", "1", "dsdk", "mb/MeV", "err", "mb/MeV",
+    "per_gram", "cm^2/g per mb", NULL
   };
-  static const char *const names[] = {"k", "y", "dsdk", "err", NULL};
+  static const char *const names[] = {"k", "y", "dsdk", "err",
+                                      "coulomb_applied", "elwert_applied",
+                                      NULL};
   Opts o;
-  bl_case c;
+  const Cases *cs;
   bl_quad *q;
   Warnings w;
   char range[96];
@@ -831,132 +993,141 @@ static int l_spectrum (lua_State *L) {
   }
   /* all checks done */
   q = getquad(L, &o);
-  makecase(L, &o, &c);
-  initwarn(&w, &o, &c);
-  lua_getfield(L, 1, axis);           /* 2: abscissae */
-  lua_createtable(L, (int)n, 0);      /* 3: k */
-  lua_createtable(L, (int)n, 0);      /* 4: y */
-  lua_createtable(L, (int)n, 0);      /* 5: dsdk */
-  lua_createtable(L, (int)n, 0);      /* 6: err */
+  cs = makecases(L, &o);              /* 2: the cases */
+  initwarn(&w, &o, cs);
+  lua_getfield(L, 1, axis);           /* 3: abscissae */
+  lua_createtable(L, (int)n, 0);      /* 4: k */
+  lua_createtable(L, (int)n, 0);      /* 5: y */
+  lua_createtable(L, (int)n, 0);      /* 6: dsdk */
+  lua_createtable(L, (int)n, 0);      /* 7: err */
+  lua_createtable(L, (int)n, 0);      /* 8: coulomb_applied */
+  lua_createtable(L, (int)n, 0);      /* 9: elwert_applied */
   for (i = 1; i <= n; i++) {
     bl_result r;
+    Point pt = {PT_DK, 0, 0, 0, 0};
     char at[64];
-    double x, k, y;
-    int st;
-    lua_rawgeti(L, 2, i);
+    double x;
+    lua_rawgeti(L, 3, i);
     x = (double)lua_tonumber(L, -1);
     lua_pop(L, 1);
-    k = hask ? x : x * o.T;
-    y = hask ? x / o.T : x;
-    snprintf(at, sizeof at, "k = %.6g MeV", k);
-    st = bl_dcs_dk_e(&c, k, q, &r);
-    checkresult(L, &o, st, &r, at);
-    addwarn(&w, &r, k, at);
-    lua_pushnumber(L, k);
-    lua_rawseti(L, 3, i);
-    lua_pushnumber(L, y);
+    pt.k = hask ? x : x * o.T;
+    snprintf(at, sizeof at, "k = %.6g MeV", pt.k);
+    computepoint(L, &o, cs, &pt, q, &w, at, &r);
+    lua_pushnumber(L, pt.k);
     lua_rawseti(L, 4, i);
-    lua_pushnumber(L, r.val);
+    lua_pushnumber(L, hask ? x / o.T : x);
     lua_rawseti(L, 5, i);
-    lua_pushnumber(L, r.err);
+    lua_pushnumber(L, r.val);
     lua_rawseti(L, 6, i);
+    lua_pushnumber(L, r.err);
+    lua_rawseti(L, 7, i);
+    setbool(L, 8, i, (r.applied & BL_APPLIED_COULOMB) != 0);
+    setbool(L, 9, i, (r.applied & BL_APPLIED_ELWERT) != 0);
   }
-  lua_createtable(L, 0, 7);           /* 7: result */
-  setresult(L, 7, 3, names, units, &o, &w);
+  lua_createtable(L, 0, 11);          /* 10: result */
+  setresult(L, 10, 4, names, units, &o, &w);
+  lua_pushnumber(L, pergram(&o));
+  lua_setfield(L, 10, "per_gram");
   return 1;
 }
 
 
 /*
 ** brakelight.angular{..., k =, theta = {...}}
-**   -> {k, y, theta, d2sigma, err, units, settings, warnings}
+**   -> {k, y, theta, d2sigma, err, elwert_applied, per_gram, units,
+**       settings, warnings}
 */
 static int l_angular (lua_State *L) {
   static const char *const units[] = {
     "k", "MeV", "y", "1", "theta", "rad", "d2sigma", "mb/(MeV sr)",
-    "err", "mb/(MeV sr)", NULL
+    "err", "mb/(MeV sr)", "per_gram", "cm^2/g per mb", NULL
   };
   static const char *const names[] = {"theta", "d2sigma", "err", NULL};
   Opts o;
-  bl_case c;
+  const Cases *cs;
   bl_quad *q;
   Warnings w;
   lua_Integer i, n;
+  unsigned applied = 0;
   double k;
   readopts(L, "angular", angular_keys, 1, &o);
+  nocoulomb(L, &o);
   k = optk(L, &o);
   n = optarray(L, &o, "theta", 0, BL_PI, 0, "[0, pi] rad");
   /* all checks done */
   q = getquad(L, &o);
-  makecase(L, &o, &c);
-  initwarn(&w, &o, &c);
-  lua_getfield(L, 1, "theta");        /* 2: angles */
-  lua_createtable(L, (int)n, 0);      /* 3: theta */
-  lua_createtable(L, (int)n, 0);      /* 4: d2sigma */
-  lua_createtable(L, (int)n, 0);      /* 5: err */
+  cs = makecases(L, &o);              /* 2: the cases */
+  initwarn(&w, &o, cs);
+  lua_getfield(L, 1, "theta");        /* 3: angles */
+  lua_createtable(L, (int)n, 0);      /* 4: theta */
+  lua_createtable(L, (int)n, 0);      /* 5: d2sigma */
+  lua_createtable(L, (int)n, 0);      /* 6: err */
   for (i = 1; i <= n; i++) {
     bl_result r;
+    Point pt = {PT_ANGULAR, 0, 0, 0, 0};
     char at[64];
-    double th;
-    int st;
-    lua_rawgeti(L, 2, i);
-    th = (double)lua_tonumber(L, -1);
+    pt.k = k;
+    lua_rawgeti(L, 3, i);
+    pt.theta = (double)lua_tonumber(L, -1);
     lua_pop(L, 1);
-    snprintf(at, sizeof at, "k = %.6g MeV, theta = %.6g rad", k, th);
-    st = bl_dcs_angular_e(&c, k, th, q, &r);
-    checkresult(L, &o, st, &r, at);
-    addwarn(&w, &r, k, at);
-    lua_pushnumber(L, th);
-    lua_rawseti(L, 3, i);
-    lua_pushnumber(L, r.val);
+    snprintf(at, sizeof at, "k = %.6g MeV, theta = %.6g rad", k, pt.theta);
+    computepoint(L, &o, cs, &pt, q, &w, at, &r);
+    applied |= r.applied;
+    lua_pushnumber(L, pt.theta);
     lua_rawseti(L, 4, i);
-    lua_pushnumber(L, r.err);
+    lua_pushnumber(L, r.val);
     lua_rawseti(L, 5, i);
+    lua_pushnumber(L, r.err);
+    lua_rawseti(L, 6, i);
   }
-  lua_createtable(L, 0, 8);           /* 6: result */
-  setresult(L, 6, 3, names, units, &o, &w);
+  lua_createtable(L, 0, 10);          /* 7: result */
+  setresult(L, 7, 4, names, units, &o, &w);
   lua_pushnumber(L, k);
-  lua_setfield(L, 6, "k");
+  lua_setfield(L, 7, "k");
   lua_pushnumber(L, k / o.T);
-  lua_setfield(L, 6, "y");
+  lua_setfield(L, 7, "y");
+  lua_pushboolean(L, (applied & BL_APPLIED_ELWERT) != 0);
+  lua_setfield(L, 7, "elwert_applied");
+  lua_pushnumber(L, pergram(&o));
+  lua_setfield(L, 7, "per_gram");
   return 1;
 }
 
 
 /*
 ** brakelight.differential{..., k =, theta_k =, theta_p =, phi =}
-**   -> d3sigma/(dk dOmega_k dOmega_p) in mb/(MeV sr^2), warnings list
+**   -> d3sigma/(dk dOmega_k dOmega_p) in mb/(MeV sr^2), warnings list,
+**      info table
 */
 static int l_differential (lua_State *L) {
   Opts o;
-  bl_case c;
+  const Cases *cs;
   bl_result r;
   Warnings w;
+  Point pt = {PT_FULL, 0, 0, 0, 0};
   char at[128];
-  double k, thk, thp, phi;
-  int st;
   readopts(L, "differential", differential_keys, 0, &o);
-  k = optk(L, &o);
-  thk = optrange(L, &o, "theta_k", "photon polar angle in rad", 0, BL_PI, 0,
-                 "[0, pi] rad");
-  thp = optrange(L, &o, "theta_p", "final-particle polar angle in rad", 0,
-                 BL_PI, 0, "[0, pi] rad");
-  phi = neednum(L, 1, o.fname, "", "phi", "azimuth between photon and "
-                "particle in rad");
-  if (!isfinite(phi))
+  nocoulomb(L, &o);
+  pt.k = optk(L, &o);
+  pt.theta = optrange(L, &o, "theta_k", "photon polar angle in rad", 0, BL_PI,
+                      0, "[0, pi] rad");
+  pt.theta_p = optrange(L, &o, "theta_p", "final-particle polar angle in rad",
+                        0, BL_PI, 0, "[0, pi] rad");
+  pt.phi = neednum(L, 1, o.fname, "", "phi", "azimuth between photon and "
+                   "particle in rad");
+  if (!isfinite(pt.phi))
     lbl_argfail(L, o.fname, "field 'phi' must be a finite angle in rad, got "
-            "%.14g", phi);
+            "%.14g", pt.phi);
   /* all checks done */
-  makecase(L, &o, &c);
-  initwarn(&w, &o, &c);
+  cs = makecases(L, &o);
+  initwarn(&w, &o, cs);
   snprintf(at, sizeof at, "k = %.6g MeV, theta_k = %.6g, theta_p = %.6g, "
-           "phi = %.6g rad", k, thk, thp, phi);
-  st = bl_dcs_full_e(&c, k, thk, thp, phi, &r);
-  checkresult(L, &o, st, &r, at);
-  addwarn(&w, &r, k, at);
+           "phi = %.6g rad", pt.k, pt.theta, pt.theta_p, pt.phi);
+  computepoint(L, &o, cs, &pt, NULL, &w, at, &r);
   lua_pushnumber(L, r.val);
   pushwarnings(L, &o, &w);
-  return 2;
+  pushinfo(L, &o, &r);
+  return 3;
 }
 
 
@@ -1225,5 +1396,6 @@ LUAMOD_API int luaopen_brakelight (lua_State *L) {
   luaL_setfuncs(L, brakelight_funcs, 1);  /* functions with upvalue */
   lua_pushliteral(L, BL_VERSION);
   lua_setfield(L, -2, "_VERSION");
+  lbl_material_open(L);                   /* material functions */
   return 1;
 }
