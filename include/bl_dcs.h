@@ -59,9 +59,14 @@ typedef struct bl_case {
   double norm;                /* z^4 Z^2 alpha r0^2, mb; r0 = alpha hbar/(m c) */
   bl_opts opts;
   double R;                   /* nuclear radius, fm (0: point) */
-  /* Target factor W(q^2) = G(q) / (Z^2 q^4) = sum_t c_t w_i w_j, q in m: */
+  /* Target factor W(q^2) = G(q) / (Z^2 q^4) = sum_i s_i w_i
+  ** + sum_t c_t w_i w_j, q in units of m; pairs of far-apart poles are
+  ** split into singles s_i (partial fractions), the elastic and electron
+  ** parts kept apart: */
   int npole;
-  double pole[BL_POLE_MAX];   /* ascending, in units of m^2 */
+  double pole[BL_POLE_MAX];   /* in units of m^2 */
+  double single_el[BL_POLE_MAX], single_e[BL_POLE_MAX];
+  double qmax2;               /* bound on q^2 in the case, units of m^2 */
   int nterm;
   bl_term term[BL_TERM_MAX];
   int nelastic;               /* the first nelastic terms are the nuclear

@@ -66,14 +66,16 @@ void bl_kin_set (bl_kin *kn, double t0, double k, double spin);
 void bl_bracket_set (const bl_kin *kn, const bl_polar *g, bl_bracket *br);
 
 /* Azimuthal integral  int_0^pi B(v) W(x) dphi  with
-** W(x) = sum_t c_t w_i w_j, w_i = 1/(pole[i] + x), pole[i] >= 0 and
-** pole[i] <= pole[j] in every term; closed form. */
+** W(x) = sum_i single[i] w_i + sum_t c_t w_i w_j, w_i = 1/(pole[i] + x),
+** pole[i] >= 0, pole[i] <= pole[j] in every term, and the singles summing
+** to zero (they come from partial fractions); closed form. */
 double bl_bracket_azimuth (const bl_bracket *br, int npole,
-                           const double *pole, int nterm,
-                           const bl_term *term);
+                           const double *pole, const double *single,
+                           int nterm, const bl_term *term);
 
 /* B(v) W(x) at one azimuth. */
 double bl_bracket_point (const bl_bracket *br, double v, int npole,
-                         const double *pole, int nterm, const bl_term *term);
+                         const double *pole, const double *single, int nterm,
+                         const bl_term *term);
 
 #endif

@@ -96,10 +96,14 @@ void bl_bracket_set (const bl_kin *kn, const bl_polar *g, bl_bracket *br) {
 ** -x (M0 + M1 v) of the bracket needs only G0 and G1: no v^2 integral, whose
 ** closed form cancels badly when m << b.  Taking i as the smaller pole keeps
 ** that subtraction mild (it cancels only where x << pole_i).
+** Single poles: int B w_i dphi = (L0 + pole_i M0) G0 + (L1 + pole_i M1) G1
+** - (M0 + M1) pi, by x w_i = 1 - pole_i w_i; the last part is dropped
+** because the singles come from partial fractions w_i w_j = (w_i - w_j) /
+** (pole_j - pole_i) and so sum to zero.
 */
 double bl_bracket_azimuth (const bl_bracket *br, int npole,
-                           const double *pole, int nterm,
-                           const bl_term *term) {
+                           const double *pole, const double *single,
+                           int nterm, const bl_term *term) {
   double m[BL_POLE_MAX], R[BL_POLE_MAX], P[BL_POLE_MAX];
   double b = br->b, sum = 0.0;
   int i, t;
@@ -107,6 +111,9 @@ double bl_bracket_azimuth (const bl_bracket *br, int npole,
     m[i] = pole[i] + br->Q0;
     R[i] = sqrt(m[i] * (m[i] + 2.0 * b));
     P[i] = m[i] + 2.0 * b + R[i];
+    if (single[i] != 0.0)
+      sum += single[i] * ((br->L0 + pole[i] * br->M0) / R[i]
+                          + (br->L1 + pole[i] * br->M1) * 2.0 / P[i]);
   }
   for (t = 0; t < nterm; t++) {
     int ti = term[t].i, tj = term[t].j;
@@ -122,11 +129,14 @@ double bl_bracket_azimuth (const bl_bracket *br, int npole,
 
 
 double bl_bracket_point (const bl_bracket *br, double v, int npole,
-                         const double *pole, int nterm, const bl_term *term) {
+                         const double *pole, const double *single, int nterm,
+                         const bl_term *term) {
   double x = br->Q0 + br->b * v, w[BL_POLE_MAX], W = 0.0;
   int i, t;
-  for (i = 0; i < npole; i++)
+  for (i = 0; i < npole; i++) {
     w[i] = 1.0 / (pole[i] + x);
+    W += single[i] * w[i];
+  }
   for (t = 0; t < nterm; t++)
     W += term[t].c * w[term[t].i] * w[term[t].j];
   return (br->L0 + br->L1 * v - x * (br->M0 + br->M1 * v)) * W;

@@ -114,7 +114,8 @@ end
 
 -- target: unknown symbol, Z out of range or not an integer, wrong type
 dsdk_err({ target = "Xx" },
-         { "unknown element 'Xx'", "'target'", "H..", "1..100" })
+         { "unknown material 'Xx'", "'target'", "H..Fm", "1..100",
+           "did you mean" })
 dsdk_err({ target = 0 }, { "'target'", "integer Z in 1..100", "got 0" })
 dsdk_err({ target = 101 }, { "'target'", "integer Z in 1..100", "got 101" })
 dsdk_err({ target = -3 }, { "'target'", "got -3" })
@@ -155,16 +156,26 @@ do
   assert(msg)
 end
 
--- nucleus and electrons: only the one value that exists now
+-- nucleus, electrons and the corrections
 dsdk_err({ nucleus = "sphere" },
-         { "unknown nucleus model 'sphere'", "'nucleus'", "allowed: point" })
-dsdk_err({ electrons = true },
-         { "'electrons'", "true", "atomic-electron field not available yet",
-           "allowed: false" })
+         { "unknown nucleus model 'sphere'", "'nucleus'", "'uniform'",
+           "'point'" })
+dsdk_err({ coulomb = "yes" },
+         { "'coulomb'", "true, false or 'auto'", "got 'yes'" })
+dsdk_err({ elwert = 1 }, { "'elwert'", "true, false or 'auto'", "got 1" })
+expect_error("angular", bl.angular,
+             { particle = "electron", target = "C", T = 10, k = 5,
+               theta = { 0.1 }, coulomb = true },
+             { "'coulomb'", "dsigma/dk only", "false or 'auto'" })
 dsdk_err({ electrons = "no" }, { "'electrons'", "boolean", "got 'no'" })
 do  -- the accepted values really are accepted
-  local v = bl.dsdk(opts{ nucleus = "point", electrons = false })
-  assert(v > 0)
+  for _, t in ipairs{ { nucleus = "point", electrons = false },
+                      { nucleus = "uniform", electrons = true },
+                      { coulomb = true, elwert = false },
+                      { coulomb = "auto", elwert = "auto" } } do
+    local v = bl.dsdk(opts(t))
+    assert(v > 0)
+  end
 end
 
 -- spectrum: exactly one of k and y; element checks

@@ -108,7 +108,9 @@ do
   assert(st.T == 10)
   assert(st.screening == "exponential", "default screening")
   assert(st.rtol == 1e-4, "default rtol")
-  assert(st.nucleus == "point" and st.electrons == false)
+  assert(st.nucleus == "uniform" and st.electrons == true)
+  assert(st.coulomb == "auto" and st.elwert == "auto")
+  assert(s.per_gram > 0 and st.target.per_gram == s.per_gram)
   assert(st.method == "born")
   assert(type(s.warnings) == "table")
   -- electron on lead: 2 pi Z alpha = 3.8, the Born warning names numbers
