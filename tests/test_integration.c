@@ -70,7 +70,7 @@ static double f_thetak (double tk, void *p) {
 
 static void check_case (const bl_particle *pt, const char *model, double T,
                         double k, const double *tks, int ntk,
-                        double theta_scale) {
+                        double theta_scale, const bl_opts *o) {
   brute b;
   gsl_function f = {f_thetak, &b};
   gsl_integration_workspace *w3 = gsl_integration_workspace_alloc(1000);
@@ -82,7 +82,7 @@ static void check_case (const bl_particle *pt, const char *model, double T,
   b.q = bl_quad_alloc(200);
   b.k = k;
   cr_assert_eq(bl_quad_set_rtol(b.q, 1e-8), BL_SUCCESS);
-  cr_assert_eq(bl_case_init(&b.c, pt, 82, bl_model_find(model), NULL, T),
+  cr_assert_eq(bl_case_setup(&b.c, pt, 82, bl_model_find(model), NULL, T, o),
                BL_SUCCESS);
   for (i = 0; i < ntk; i++) {
     double tp[5];
@@ -121,13 +121,29 @@ static void check_case (const bl_particle *pt, const char *model, double T,
 }
 
 
+/* The full target factor: atomic electrons (pole pairs with q^-2), the
+** uniform nucleus (poles split into singles for light projectiles) and the
+** Elwert factor, through the same two steps. */
+Test(integration, full_target_factor) {
+  const double tks[] = {0.0, 0.3, 1.0, 2.5};
+  const double tkm[] = {0.0, 0.05, 0.3, 1.5};
+  bl_opts o = bl_opts_default;
+  check_case(bl_particle_find("electron"), "exponential", 1.0, 0.4, tks, 4, 1,
+             &o);
+  check_case(bl_particle_find("muon"), "exponential", 1000.0, 400.0, tkm, 4,
+             0.1, &o);
+}
+
+
 Test(integration, low_energy_both_spins) {
   bl_particle s0 = *bl_particle_find("electron");
   const double tks[] = {0.0, 0.3, 1.0, 2.5};
   s0.spin = 0.0;
-  check_case(bl_particle_find("electron"), "exponential", 1.0, 0.4, tks, 4, 1);
-  check_case(&s0, "exponential", 1.0, 0.4, tks, 4, 1);
-  check_case(bl_particle_find("electron"), "none", 0.05, 0.01, tks, 4, 1);
+  check_case(bl_particle_find("electron"), "exponential", 1.0, 0.4, tks, 4, 1,
+             NULL);
+  check_case(&s0, "exponential", 1.0, 0.4, tks, 4, 1, NULL);
+  check_case(bl_particle_find("electron"), "none", 0.05, 0.01, tks, 4, 1,
+             NULL);
 }
 
 
@@ -137,8 +153,8 @@ Test(integration, high_energy_both_spins) {
   double gamma = 1.0 + 1000.0 / BL_ME_MEV;
   s0.spin = 0.0;
   check_case(bl_particle_find("electron"), "exponential", 1000.0, 300.0, tks,
-             3, 1.0 / gamma);
-  check_case(&s0, "exponential", 1000.0, 300.0, tks, 3, 1.0 / gamma);
+             3, 1.0 / gamma, NULL);
+  check_case(&s0, "exponential", 1000.0, 300.0, tks, 3, 1.0 / gamma, NULL);
 }
 
 
