@@ -85,3 +85,8 @@ bench: all
 
 clean:
 	rm -rf $(B)
+
+# ---- issue 5: threads, install, scans -------------------------------------
+# the core starts POSIX threads (src/bl_spectrum.c)
+CFLAGS += -pthread
+LIBS   += -pthread
