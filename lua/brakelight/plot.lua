@@ -18,7 +18,7 @@
   `units` = {col = unit} or brakelight.scan.units).
 
   Axes: `log` true/false; when omitted an axis is logarithmic if every
-  value is positive and they span more than two decades.  The unit goes
+  value is positive and they span two decades or more.  The unit goes
   in brackets after the label.  One line (with small markers) per series,
   a legend naming them.  The look: white background, light dotted grid,
   no top or right border, a palette of our own.
@@ -91,7 +91,7 @@ local function fromrecords(spec)
   return series, axis(xs, xc), axis(ys, yc)
 end
 
---[[ Should an axis be logarithmic? (all positive, > 2 decades) ]]
+--[[ Should an axis be logarithmic? (all positive, >= 2 decades) ]]
 local function autolog(series, field)
   local lo, hi = math.huge, -math.huge
   for _, s in ipairs(series) do
@@ -103,7 +103,7 @@ local function autolog(series, field)
       ::continue::
     end
   end
-  return hi > 0 and lo > 0 and hi / lo > 100
+  return hi > 0 and lo > 0 and hi / lo >= 100
 end
 
 local function axislabel(a)

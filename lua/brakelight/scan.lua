@@ -97,6 +97,19 @@ scan.units = {
 local RESERVED = { with = true, key = true, index = true }
 
 
+--[[ A value shown in a message: nan, inf, quoted strings. ]]
+local function show(v)
+  if type(v) == "number" then
+    if v ~= v then return "nan" end
+    if v == math.huge then return "inf" end
+    if v == -math.huge then return "-inf" end
+  elseif type(v) == "string" then
+    return format("%q", v)
+  end
+  return tostring(v)
+end
+
+
 --[[ The runner's description of this process, or nil (stock lua5.4). ]]
 local function session()
   local s = package.loaded["brakelight.session"]
@@ -191,7 +204,7 @@ local function describe(spec, fname)
         lab, why = scanfile.label(v)
         if not lab then
           argerr(fname, "axis '%s': value #%d (%s) is not allowed: %s", name,
-                 j, tostring(v), why)
+                 j, show(v), why)
         end
       end
       if type(v) == "function" or type(v) == "thread" then
@@ -236,7 +249,7 @@ local function describe(spec, fname)
     local lab, why = scanfile.label(fixed[k])
     if not lab then
       argerr(fname, "fixed setting '%s' (%s) is not allowed: %s", k,
-             tostring(fixed[k]), why)
+             show(fixed[k]), why)
     end
     settings[i] = { name = k, label = lab, unit = units[k] }
   end
@@ -661,7 +674,7 @@ function scan.run(spec)
     if mode == "bar" then io.stderr:write("\n") end
     error(err, 0)
   end
-  save(missingfile)
+  if dirty or missingfile then save(true) end
   if nreused < #order then bar:finish() end
   if path and ss and ss.manifest then
     local f = io.open(ss.manifest, "a")
