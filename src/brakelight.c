@@ -370,7 +370,8 @@ static int pushdirtemplates (lua_State *L, const char *dir) {
 ** Put the project's Lua helpers in front of package.path, in this order:
 **   1. $BRAKELIGHT_LUA_PATH: a directory, or Lua templates if it holds '?';
 **   2. <exe dir>/../lua            (the runner in build/ of a source tree);
-**   3. <exe dir>/../share/brakelight/lua   (an installed prefix).
+**   3. <exe dir>/../share/brakelight/lua   (an installed prefix: recipes);
+**   4. <exe dir>/../share/lua/5.4          (an installed prefix: helpers).
 ** Directories that do not exist are skipped.
 */
 static void setluapath (lua_State *L, const char *argv0) {
@@ -391,6 +392,9 @@ static void setluapath (lua_State *L, const char *argv0) {
     snprintf(cand, sizeof cand, "%s/lua", up);
     n += pushdirtemplates(L, cand);
     snprintf(cand, sizeof cand, "%s/share/brakelight/lua", up);
+    n += pushdirtemplates(L, cand);
+    snprintf(cand, sizeof cand, "%s/share/lua/%s.%s", up, LUA_VERSION_MAJOR,
+             LUA_VERSION_MINOR);  /* helpers of `make install PREFIX=...` */
     n += pushdirtemplates(L, cand);
   }
   lua_getglobal(L, "package");
@@ -896,6 +900,29 @@ static int makesession (const options *o, session *ss) {
 
 
 /*
+** Let the module reach its pure-Lua helpers as fields: brakelight.scan,
+** brakelight.plot, brakelight.merge load "brakelight.<name>" on first use
+** (an __index metamethod on the module table; nothing is loaded before).
+*/
+static void helperfields (lua_State *L) {
+  static const char code[] =
+    "local bl = require '" BL_MODNAME "'\n"
+    "local lazy = { scan = true, plot = true, merge = true, json = true }\n"
+    "if getmetatable(bl) == nil then\n"
+    "  setmetatable(bl, { __index = function(t, k)\n"
+    "    if lazy[k] then\n"
+    "      local m = require('" BL_MODNAME ".' .. k)\n"
+    "      rawset(t, k, m)\n"
+    "      return m\n"
+    "    end\n"
+    "  end })\n"
+    "end\n";
+  if (luaL_dostring(L, code) != LUA_OK)
+    lua_pop(L, 1);  /* helpers unavailable: leave the module as it is */
+}
+
+
+/*
 ** Main body, run in protected mode so that errors in the set-up are caught
 ** too.  Receives argc (integer) and argv (light userdata); returns true
 ** (pushes a boolean) when everything ran without error.
@@ -930,6 +957,7 @@ static int pmain (lua_State *L) {
   luaL_requiref(L, BL_MODNAME, luaopen_brakelight, 0);  /* LOADED[modname] = module */
   lua_pop(L, 1);  /* remove module; 'require' finds it in LOADED */
   setluapath(L, argv[0]);
+  helperfields(L);
   globalL = L;
   setsignals(laction);
   if (o.merge) {
