@@ -85,3 +85,60 @@ bench: all
 
 clean:
 	rm -rf $(B)
+
+# ---- issue 5: threads, install, scans -------------------------------------
+# the core starts POSIX threads (src/bl_spectrum.c)
+CFLAGS += -pthread
+LIBS   += -pthread
+
+# a C program that embeds Lua and loads the module (tests/embed/embed.c)
+$(B)/embed: tests/embed/embed.c | $(B)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $< $(LUALIB) -lm -ldl -Wl,-E
+
+.PHONY: test-embed install uninstall rock-install
+test: test-embed
+test-embed: $(B)/embed $(MODULE)
+	@./$(B)/embed "$(CURDIR)/"
+
+# make install PREFIX=... [DESTDIR=...]: library, headers, Lua module, Lua
+# helpers and recipes, runner, man page
+PREFIX  ?= /usr/local
+LUAVER   = 5.4
+BINDIR   = $(DESTDIR)$(PREFIX)/bin
+LIBDIR   = $(DESTDIR)$(PREFIX)/lib
+INCDIR   = $(DESTDIR)$(PREFIX)/include
+CMODDIR  = $(DESTDIR)$(PREFIX)/lib/lua/$(LUAVER)
+LMODDIR  = $(DESTDIR)$(PREFIX)/share/lua/$(LUAVER)
+SHAREDIR = $(DESTDIR)$(PREFIX)/share/brakelight
+MANDIR   = $(DESTDIR)$(PREFIX)/share/man/man1
+
+install: all
+	install -d $(BINDIR) $(LIBDIR) $(INCDIR) $(CMODDIR) $(LMODDIR)/brakelight \
+	  $(SHAREDIR)/lua/recipes $(MANDIR)
+	install -m 755 $(RUNNER) $(BINDIR)/brakelight
+	install -m 644 $(LIB) $(LIBDIR)/libbrakelight.a
+	install -m 644 include/*.h $(INCDIR)/
+	install -m 755 $(MODULE) $(CMODDIR)/brakelight.so
+	install -m 644 lua/brakelight/*.lua $(LMODDIR)/brakelight/
+	install -m 644 lua/recipes/*.lua $(SHAREDIR)/lua/recipes/
+	install -m 644 scripts/brakelight.1 $(MANDIR)/brakelight.1
+
+uninstall:
+	rm -f $(BINDIR)/brakelight $(LIBDIR)/libbrakelight.a $(CMODDIR)/brakelight.so \
+	  $(MANDIR)/brakelight.1
+	rm -f $(addprefix $(INCDIR)/,$(notdir $(wildcard include/*.h)))
+	rm -rf $(LMODDIR)/brakelight $(SHAREDIR)
+
+# luarocks make scripts/brakelight-0.1.0-1.rockspec ("make" build type):
+# luarocks passes its directories as INST_*
+rock-install: all
+	install -d $(INST_LIBDIR) $(INST_LUADIR)/brakelight $(INST_BINDIR)
+	install -m 755 $(MODULE) $(INST_LIBDIR)/brakelight.so
+	install -m 644 lua/brakelight/*.lua $(INST_LUADIR)/brakelight/
+	install -m 755 $(RUNNER) $(INST_BINDIR)/brakelight
+
+# make install into a scratch prefix, then use the installed runner and the
+# installed module from the stock interpreter
+test: test-install
+test-install: all
+	@bash scripts/check-install.sh

@@ -1,0 +1,81 @@
+--[[
+  energy_loss_table.lua -- radiative energy loss across materials and
+  energies
+
+  Scenario (our own): a table for sizing beam dumps: the mean energy an
+  electron loses to bremsstrahlung per g/cm^2 of C, Al, Cu, W and Pb at
+  kinetic energies from 10 MeV to 10 GeV,
+
+      -dE/dx / rho = (N_A / A) * integral_0^T k dsigma/dk dk,
+
+  one atom at a time (Born, screened nucleus; no field of the atomic
+  electrons, which adds about 1/Z).  The integral over the photon energy
+  is done here in Lua (Gauss-Legendre in y = k/T on three pieces) until
+  the module's own energy-loss function arrives; then replace `loss`
+  below by that call.  The scan writes energy-loss.csv (resumable: kill
+  it and start again) and energy-loss.png; a text table goes to stdout.
+  Also printed: phi_rad = integral / (T + m), the energy-loss cross
+  section per atom, which flattens out at high energy.
+
+  Usage: build/brakelight lua/recipes/energy_loss_table.lua [outdir]
+         (BRAKELIGHT_SMALL=1: 2 materials x 2 energies, few nodes)
+]]
+
+local bl = require "brakelight"
+local scan = require "brakelight.scan"
+local plot = require "brakelight.plot"
+local recipe = require "brakelight.recipe"
+local tabular = require "brakelight.tabular"
+
+local small = recipe.small()
+local NA = 6.02214076e23                          -- 1/mol, exact (SI 2019)
+-- standard atomic weights, g/mol: from memory, ~1e-4
+local A = { C = 12.011, Al = 26.982, Cu = 63.546, W = 183.84, Pb = 207.2 }
+local ME = bl.particle("electron").mass
+
+local targets = small and { "C", "Pb" } or { "C", "Al", "Cu", "W", "Pb" }
+local energies = small and { 10, 1000 } or { 10, 30, 100, 300, 1000, 3000, 10000 }
+local nodes = small and 3 or 8
+
+--[[ integral_0^T k dsigma/dk dk in mb MeV, for one material and energy ]]
+local function loss(pt)
+  return pt.T * pt.T * recipe.integrate(function(ys)
+    local s = bl.spectrum{ particle = pt.particle, target = pt.target,
+                           T = pt.T, y = ys, rtol = pt.rtol }
+    local v = {}
+    for i, y in ipairs(ys) do v[i] = y * s.dsdk[i] end
+    return v
+  end, { 0, 0.5, 0.9, 1 }, nodes)
+end
+
+local records = scan.run{
+  title = "radiative energy loss of electrons",
+  axes = { { "target", targets }, { "T", energies } },
+  fixed = { particle = "electron", rtol = small and 1e-2 or 1e-4 },
+  units = { kdsdk_integral = "mb MeV", phi_rad = "mb",
+            dEdx = "MeV cm2/g" },
+  columns = { "kdsdk_integral", "phi_rad", "dEdx" },
+  notes = { "integral over k done in Lua: Gauss-Legendre, " .. nodes ..
+            " nodes on each of y in (0,0.5), (0.5,0.9), (0.9,1)" },
+  output = recipe.path("energy-loss.csv"),
+  each = function(pt)
+    local I = loss(pt)
+    return { kdsdk_integral = I, phi_rad = I / (pt.T + ME),
+             dEdx = NA / A[pt.target] * I * 1e-27 }
+  end,
+}
+
+local cols = { { title = "target" }, { title = "T", unit = "MeV", fmt = "%g" },
+               { title = "phi_rad", unit = "mb", fmt = "%.4g" },
+               { title = "-dE/dx/rho", unit = "MeV cm2/g", fmt = "%.4g" },
+               { title = "(dE/dx)/E", unit = "cm2/g", fmt = "%.4g" } }
+local rows = {}
+for _, r in ipairs(records) do
+  rows[#rows + 1] = { r.target, r.T, r.phi_rad, r.dEdx, r.dEdx / (r.T + ME) }
+end
+io.write(tabular.format(cols, rows))
+
+plot{ output = recipe.path("energy-loss.png"),
+      title = "Radiative energy loss of electrons (Born, screened atom)",
+      records = records, x = "T", y = "dEdx", by = "target",
+      units = { dEdx = "MeV cm^2/g" } }
