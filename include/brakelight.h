@@ -16,5 +16,6 @@
 #include "bl_quad.h"
 #include "bl_dcs.h"
 #include "bl_material.h"
+#include "bl_spectrum.h"
 
 #endif

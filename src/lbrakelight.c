@@ -13,6 +13,7 @@
 #include <math.h>
 #include <stdarg.h>
 #include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
 
 #include <gsl/gsl_errno.h>
@@ -876,7 +877,7 @@ static const char *const dsdk_keys[] = {
 };
 static const char *const spectrum_keys[] = {
   "particle", "target", "T", "k", "y", "screening", "rtol", "nucleus",
-  "electrons", "coulomb", "elwert", NULL
+  "electrons", "coulomb", "elwert", "threads", NULL
 };
 static const char *const angular_keys[] = {
   "particle", "target", "T", "k", "theta", "screening", "rtol", "nucleus",
@@ -955,6 +956,59 @@ static void setbool (lua_State *L, int t, lua_Integer i, int v) {
 
 
 /*
+** Threads for one spectrum: option 'threads' (integer >= 0, 0: one per
+** processor), else the environment variable BRAKELIGHT_THREADS, else 1
+** (scans and the runner's -j already keep the cores busy).
+*/
+static int optthreads (lua_State *L, const Opts *o) {
+  char v[80];
+  const char *env;
+  int isint;
+  lua_Integer t;
+  if (lua_getfield(L, 1, "threads") != LUA_TNIL) {
+    t = lua_tointegerx(L, -1, &isint);
+    if (!isint || t < 0 || t > BL_SPECTRUM_MAX_THREADS)
+      lbl_argfail(L, o->fname, "field 'threads' must be an integer in 0..%d "
+                  "(0: one per processor), got %s", BL_SPECTRUM_MAX_THREADS,
+                  lbl_showval(L, -1, v, sizeof v));
+    lua_pop(L, 1);
+    return (int)t;
+  }
+  lua_pop(L, 1);
+  env = getenv("BRAKELIGHT_THREADS");
+  if (env != NULL && *env != '\0') {
+    char *end;
+    long e = strtol(env, &end, 10);
+    if (*end != '\0' || e < 0 || e > BL_SPECTRUM_MAX_THREADS)
+      lbl_fail(L, "%s: environment variable BRAKELIGHT_THREADS must be an "
+               "integer in 0..%d (0: one per processor), got '%.40s'",
+               o->fname, BL_SPECTRUM_MAX_THREADS, env);
+    return (int)e;
+  }
+  return 1;
+}
+
+
+/* Scratch space of one spectrum, a userdata (freed by the collector even
+** when an error interrupts the call). */
+typedef struct Scratch {
+  double *k;
+  bl_result *sum, *r;
+  int *st;
+} Scratch;
+
+static void newscratch (lua_State *L, size_t n, Scratch *s) {
+  char *p = (char *)lua_newuserdatauv(L, n * (sizeof(double)
+                                      + 2 * sizeof(bl_result) + sizeof(int)),
+                                      0);
+  s->sum = (bl_result *)p;
+  s->r = s->sum + n;
+  s->k = (double *)(s->r + n);
+  s->st = (int *)(s->k + n);
+}
+
+
+/*
 ** brakelight.spectrum{..., k = {...}} or {..., y = {...}}
 **   -> {k, y, dsdk, err, coulomb_applied, elwert_applied, per_gram, units,
 **       settings, warnings}
@@ -969,13 +1023,15 @@ static int l_spectrum (lua_State *L) {
                                       NULL};
   Opts o;
   const Cases *cs;
+  Scratch sc;
   bl_quad *q;
   Warnings w;
-  char range[96];
+  char range[96], at[64];
   const char *axis;
   lua_Integer i, n;
-  int hask, hasy;
+  int hask, hasy, nthreads, j;
   readopts(L, "spectrum", spectrum_keys, 1, &o);
+  nthreads = optthreads(L, &o);
   hask = (lua_getfield(L, 1, "k") != LUA_TNIL);
   hasy = (lua_getfield(L, 1, "y") != LUA_TNIL);
   lua_pop(L, 2);
@@ -995,39 +1051,63 @@ static int l_spectrum (lua_State *L) {
   q = getquad(L, &o);
   cs = makecases(L, &o);              /* 2: the cases */
   initwarn(&w, &o, cs);
-  lua_getfield(L, 1, axis);           /* 3: abscissae */
-  lua_createtable(L, (int)n, 0);      /* 4: k */
-  lua_createtable(L, (int)n, 0);      /* 5: y */
-  lua_createtable(L, (int)n, 0);      /* 6: dsdk */
-  lua_createtable(L, (int)n, 0);      /* 7: err */
-  lua_createtable(L, (int)n, 0);      /* 8: coulomb_applied */
-  lua_createtable(L, (int)n, 0);      /* 9: elwert_applied */
+  newscratch(L, (size_t)n, &sc);      /* 3: scratch */
+  lua_getfield(L, 1, axis);           /* 4: abscissae */
   for (i = 1; i <= n; i++) {
-    bl_result r;
-    Point pt = {PT_DK, 0, 0, 0, 0};
-    char at[64];
-    double x;
-    lua_rawgeti(L, 3, i);
-    x = (double)lua_tonumber(L, -1);
+    lua_rawgeti(L, 4, i);
+    sc.k[i - 1] = hask ? (double)lua_tonumber(L, -1)
+                       : (double)lua_tonumber(L, -1) * o.T;
     lua_pop(L, 1);
-    pt.k = hask ? x : x * o.T;
-    snprintf(at, sizeof at, "k = %.6g MeV", pt.k);
-    computepoint(L, &o, cs, &pt, q, &w, at, &r);
-    lua_pushnumber(L, pt.k);
-    lua_rawseti(L, 4, i);
-    lua_pushnumber(L, hask ? x / o.T : x);
-    lua_rawseti(L, 5, i);
-    lua_pushnumber(L, r.val);
-    lua_rawseti(L, 6, i);
-    lua_pushnumber(L, r.err);
-    lua_rawseti(L, 7, i);
-    setbool(L, 8, i, (r.applied & BL_APPLIED_COULOMB) != 0);
-    setbool(L, 9, i, (r.applied & BL_APPLIED_ELWERT) != 0);
+    memset(&sc.sum[i - 1], 0, sizeof sc.sum[i - 1]);
   }
-  lua_createtable(L, 0, 11);          /* 10: result */
-  setresult(L, 10, 4, names, units, &o, &w);
+  for (j = 0; j < cs->n; j++) {       /* each element, all points */
+    const bl_case *c = &cs->c[j];
+    bl_spectrum_dk_e(c, (size_t)n, sc.k, nthreads, q, sc.r, sc.st);
+    o.Z = c->Z;
+    for (i = 0; i < n; i++) {
+      bl_result *r = &sc.r[i], *sum = &sc.sum[i];
+      snprintf(at, sizeof at, "k = %.6g MeV", sc.k[i]);
+      checkresult(L, &o, sc.st[i], r, at);
+      if ((r->warn & BL_WARN_BORN) && c->Z > w.zborn)
+        w.zborn = c->Z;
+      sum->val += cs->atoms[j] * r->val;
+      sum->err += cs->atoms[j] * r->err;
+      sum->warn |= r->warn;
+      sum->applied |= r->applied;
+    }
+  }
+  lua_createtable(L, (int)n, 0);      /* 5: k */
+  lua_createtable(L, (int)n, 0);      /* 6: y */
+  lua_createtable(L, (int)n, 0);      /* 7: dsdk */
+  lua_createtable(L, (int)n, 0);      /* 8: err */
+  lua_createtable(L, (int)n, 0);      /* 9: coulomb_applied */
+  lua_createtable(L, (int)n, 0);      /* 10: elwert_applied */
+  for (i = 1; i <= n; i++) {
+    const bl_result *r = &sc.sum[i - 1];
+    double k = sc.k[i - 1];
+    snprintf(at, sizeof at, "k = %.6g MeV", k);
+    addwarn(&w, r, k, at);
+    lua_pushnumber(L, k);
+    lua_rawseti(L, 5, i);
+    lua_rawgeti(L, 4, i);             /* y as given, or k / T */
+    if (hask) {
+      lua_pop(L, 1);
+      lua_pushnumber(L, k / o.T);
+    }
+    lua_rawseti(L, 6, i);
+    lua_pushnumber(L, r->val);
+    lua_rawseti(L, 7, i);
+    lua_pushnumber(L, r->err);
+    lua_rawseti(L, 8, i);
+    setbool(L, 9, i, (r->applied & BL_APPLIED_COULOMB) != 0);
+    setbool(L, 10, i, (r->applied & BL_APPLIED_ELWERT) != 0);
+  }
+  lua_createtable(L, 0, 11);          /* 11: result */
+  setresult(L, 11, 5, names, units, &o, &w);
   lua_pushnumber(L, pergram(&o));
-  lua_setfield(L, 10, "per_gram");
+  lua_setfield(L, 11, "per_gram");
+  lua_pushinteger(L, nthreads);
+  lua_setfield(L, 11, "threads");
   return 1;
 }
 

@@ -191,4 +191,46 @@ do
   end
 end
 
+-- 8. a compound is the sum of its atoms (cross sections per molecule):
+--    H2O = 2 H + O; the same brass given by mass and by atom fractions
+--    gives the same cross section per average atom; threads change nothing
+do
+  local o = { particle = "electron", T = 50, y = { 0.2, 0.7 }, rtol = 1e-6 }
+  o.target = "H2O"
+  local w = bl.spectrum(o)
+  o.target = "H"
+  local h = bl.spectrum(o)
+  o.target = "O"
+  local ox = bl.spectrum(o)
+  for i = 1, 2 do
+    check(rel(w.dsdk[i], 2 * h.dsdk[i] + ox.dsdk[i]) < 1e-12,
+          "H2O %g vs 2 H + O %g", w.dsdk[i], 2 * h.dsdk[i] + ox.dsdk[i])
+  end
+  check(rel(w.per_gram, 6.02214076e23 / 18.015 * 1e-27) < 1e-3,
+        "per_gram of water %g", w.per_gram)
+  -- brass, 70 % Cu and 30 % Zn by mass; the atom fractions from the same
+  -- atomic weights
+  local cu, zn = 0.7 / 63.546, 0.3 / 65.38
+  local bymass = bl.material{ { "Cu", 0.7 }, { "Zn", 0.3 }, by = "mass" }
+  local byatoms = bl.material{ { "Cu", cu / (cu + zn) },
+                               { "Zn", zn / (cu + zn) }, by = "atoms" }
+  o.target = bymass
+  local a = bl.spectrum(o)
+  o.target = byatoms
+  local b = bl.spectrum(o)
+  for i = 1, 2 do
+    check(rel(a.dsdk[i], b.dsdk[i]) < 1e-9, "brass by mass %g, by atoms %g",
+          a.dsdk[i], b.dsdk[i])
+  end
+  o.target = "CaCO3"
+  o.threads = 1
+  local s1 = bl.spectrum(o)
+  o.threads = 2
+  local s2 = bl.spectrum(o)
+  for i = 1, 2 do
+    check(s1.dsdk[i] == s2.dsdk[i] and s1.err[i] == s2.err[i],
+          "threads: %.17g vs %.17g", s1.dsdk[i], s2.dsdk[i])
+  end
+end
+
 print("test_physics: ok")
