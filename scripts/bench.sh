@@ -4,7 +4,9 @@
 # 1. builds scripts/bench_dsdk.c against build/libbrakelight.a into build/
 #    (same flags as the Makefile) and prints the median time per dsigma/dk
 #    point for electrons on Pb, exponential screening, spin 0 and 1/2,
-#    T = 1 MeV ... 1 TeV, at rtol 1e-4, against the 2 ms target;
+#    T = 1 MeV ... 1 TeV, at rtol 1e-4, against the 2 ms target; then real
+#    atoms (Hartree-Fock and Thomas-Fermi screening with the atomic electrons
+#    and the uniform nucleus) at 10 MeV and 10 GeV against the 3 ms target;
 # 2. if Debian's /usr/bin/python3 has SciPy, evaluates a few of the same
 #    points with the independent SciPy integration (scripts/bench_scipy.py)
 #    and prints the time ratio and the relative difference of the values.
@@ -31,6 +33,7 @@ if ! ${CC:-cc} -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L \
   exit 1
 fi
 "$B/bench_dsdk" -r "$RTOL" || echo "bench: bench_dsdk exited with status $?"
+"$B/bench_dsdk" -r "$RTOL" -a || echo "bench: bench_dsdk -a exited with status $?"
 
 echo
 echo "== independent SciPy integration (scripts/bench_scipy.py), spin 1/2, Pb"

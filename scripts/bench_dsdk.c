@@ -11,6 +11,10 @@
 **   bench_dsdk [-r RTOL] -p T:y ... single points (spin 1/2, Pb), one
 **                                   machine-readable line each:
 **                                   "T y dsdk err seconds calls status"
+**   bench_dsdk [-r RTOL] -a         real atoms: Hartree-Fock and
+**                                   Thomas-Fermi screening with the atomic
+**                                   electrons and the uniform nucleus, C, Cu,
+**                                   Pb at 10 MeV and 10 GeV (3 ms target)
 */
 
 #include <stdio.h>
@@ -150,6 +154,72 @@ static int run_grid (bl_quad *q) {
 
 
 /*
+** Real atoms (issue 3): screening with the atomic electrons' field and the
+** uniform nucleus (the Lua defaults), electrons on C, Cu and Pb at
+** T = 10 MeV and 10 GeV, against ATOMS_TARGET_S per point.
+*/
+#define ATOMS_TARGET_S 3e-3
+static int run_atoms (bl_quad *q) {
+  static const char *const models[] = {"hartree-fock", "thomas-fermi"};
+  static const int Zs[] = {6, 29, 82};
+  static const double Ts[] = {10.0, 1e4};
+  const bl_particle *el = bl_particle_find("electron");
+  double all[64];
+  int nall = 0, nmet = 0;
+  size_t im, iz, it, j;
+  printf("\ndsigma/dk of electrons with the atomic electrons and the uniform "
+         "nucleus, rtol %.0e; target %.0f ms per point\n\n", bl_quad_rtol(q),
+         1e3 * ATOMS_TARGET_S);
+  printf("%-13s %3s %9s %5s %14s %9s %10s %10s  %s\n", "screening", "Z",
+         "T [MeV]", "y", "dsdk [mb/MeV]", "rel.err", "calls", "time [ms]",
+         "target");
+  for (im = 0; im < 2; im++) {
+    const bl_model *scr = bl_model_find(models[im]);
+    if (scr == NULL) {
+      printf("%-13s not registered: skipped\n", models[im]);
+      continue;
+    }
+    for (iz = 0; iz < 3; iz++)
+      for (it = 0; it < 2; it++) {
+        bl_case c;
+        int st = bl_case_setup(&c, el, Zs[iz], scr, NULL, Ts[it],
+                               &bl_opts_default);
+        if (st != BL_SUCCESS) {
+          printf("%-13s %3d case not set up: %s\n", models[im], Zs[iz],
+                 bl_strerror(st));
+          continue;
+        }
+        for (j = 0; j < NY; j++) {
+          bl_result r;
+          unsigned long calls;
+          int reps;
+          double tmed;
+          st = timepoint(&c, grid_y[j], q, &r, &calls, &reps, &tmed);
+          if (im == 0 && nall < 64) {
+            all[nall++] = tmed;
+            nmet += tmed <= ATOMS_TARGET_S;
+          }
+          printf("%-13s %3d %9g %5.2f %14.6e %9.1e %10lu %10.3f  %s%s%s\n",
+                 models[im], Zs[iz], Ts[it], grid_y[j], r.val,
+                 r.val != 0 ? r.err / r.val : r.err, calls, 1e3 * tmed,
+                 tmed <= ATOMS_TARGET_S ? "met" : "MISSED",
+                 st != BL_SUCCESS ? "  status: " : "",
+                 st != BL_SUCCESS ? bl_strerror(st) : "");
+          fflush(stdout);
+        }
+      }
+  }
+  if (nall > 0) {
+    double tm = median(all, nall);
+    printf("\nsummary (hartree-fock): %d points, median %.3f ms, slowest "
+           "%.3f ms; %d of %d within %.0f ms\n", nall, 1e3 * tm,
+           1e3 * all[nall - 1], nmet, nall, 1e3 * ATOMS_TARGET_S);
+  }
+  return 0;
+}
+
+
+/*
 ** Single points "T:y" for the comparison with the SciPy version.
 */
 static int run_points (bl_quad *q, char **pts, int n) {
@@ -198,8 +268,10 @@ int main (int argc, char **argv) {
   }
   if (i < argc && strcmp(argv[i], "-p") == 0)
     rc = run_points(q, argv + i + 1, argc - i - 1);
+  else if (i < argc && strcmp(argv[i], "-a") == 0)
+    rc = run_atoms(q);
   else if (i < argc) {
-    fprintf(stderr, "usage: bench_dsdk [-r RTOL] [-p T:y ...]\n");
+    fprintf(stderr, "usage: bench_dsdk [-r RTOL] [-a | -p T:y ...]\n");
     rc = 1;
   }
   else
