@@ -1,5 +1,5 @@
 /*
-** bl_element.h -- chemical elements: symbol, atomic number, atomic mass
+** bl_element.h -- chemical elements: symbol, name, atomic number, atomic mass
 ** See Copyright Notice in LICENSE
 */
 #ifndef BL_ELEMENT_H
@@ -15,8 +15,20 @@ extern "C" {
 ** 0 if unknown. */
 int bl_element_find (const char *symbol);
 
+/*
+** Atomic number of an element symbol (case as in the periodic table:
+** "Co" is cobalt, "CO" is not a symbol) or English name in any case
+** ("lead", "Aluminium"; also "aluminum", "cesium", "sulphur"); 0 if none.
+** Also declared in bl_material.h.
+*/
+int bl_element_lookup (const char *name);
+
 /* Symbol of element Z (1..BL_ZMAX); NULL outside. Static storage. */
 const char *bl_element_symbol (int Z);
+
+/* English name of element Z in IUPAC spelling, lowercase ("aluminium",
+** "caesium", "sulfur"); NULL outside 1..BL_ZMAX. Static storage. */
+const char *bl_element_name (int Z);
 
 /* Standard atomic weight of element Z, g/mol; 0 outside 1..BL_ZMAX. */
 double bl_element_mass (int Z);

@@ -46,12 +46,14 @@ typedef struct bl_parse_error {
   const char *reason;
 } bl_parse_error;
 
-/* One element by atomic number.  BL_SUCCESS or BL_EDOMAIN (Z outside
-** 1..BL_ZMAX). */
+/* One element by atomic number, named by its symbol, with xraylib's
+** density (ElementDensity, g/cm^3; gases at room temperature and 1 atm;
+** 0 where it has none).  BL_SUCCESS or BL_EDOMAIN (Z outside 1..BL_ZMAX). */
 int bl_material_element (bl_material *m, int Z);
 
-/* Atomic number of an element symbol ("Pb") or English name, any case
-** ("lead", "Aluminium", "aluminum"); 0 if none. */
+/* Atomic number of an element symbol ("Pb", case as in the periodic table,
+** so that "CO" stays a formula) or English name in any case ("lead",
+** "Aluminium", "aluminum"); 0 if none.  Also declared in bl_element.h. */
 int bl_element_lookup (const char *name);
 
 /*
@@ -59,7 +61,14 @@ int bl_element_lookup (const char *name);
 ** optional counts (integers or decimals, > 0), parentheses and brackets with
 ** counts, and hydrates joined by '.' or '*' with an optional leading count:
 ** "H2O", "C8H8", "CaCO3", "Ca(OH)2", "CuSO4(H2O)5", "CuSO4.5H2O".
-** BL_SUCCESS, or BL_EDOMAIN with *err filled (err may be NULL).
+** A '.' between digits is a decimal point inside brackets, after a zero
+** integer part ("Fe0.5Ni0.5") or when no element or bracket follows the
+** next number ("YBa2Cu3O6.5"); otherwise it separates a hydrate ("4.5H2O"):
+** write "(Cu1.5)Se" for a decimal count before more elements.  No blanks.
+** Limits: 32 elements, counts <= 1e9, 1e12 atoms per element, 16 levels
+** of brackets.  The name is the formula; density 0 (unknown).
+** BL_SUCCESS, or BL_EDOMAIN with *err filled (err may be NULL): err->pos
+** is the 0-based byte offset of the offending character.
 */
 int bl_material_formula (bl_material *m, const char *formula,
                          bl_parse_error *err);
@@ -77,11 +86,24 @@ int bl_material_mixture (bl_material *m, int n, const bl_material *parts,
                          int *bad);
 
 /* A standard composition carried by xraylib, by its name (exact, then
-** case-insensitive).  BL_SUCCESS or BL_EUNKNOWN.  Density is set. */
+** case-insensitive).  BL_SUCCESS or BL_EUNKNOWN.  Density is set.  One
+** average atom per formula unit, as for mixtures. */
 int bl_material_standard (bl_material *m, const char *name);
 
-/* Up to nmax standard-composition names closest to `name` (edit distance
-** on lowercase), written to out[] (static storage); returns the count. */
+/*
+** A material named by a string, trying in this order: element symbol (case
+** as in the periodic table), element name (any case), chemical formula,
+** standard composition (exact, then any case).  Elements carry xraylib's
+** density (ElementDensity; 0 for Es and Fm), formulas none.  BL_SUCCESS, or
+** BL_EUNKNOWN with *err the formula parser's complaint (err may be NULL).
+*/
+int bl_material_lookup (bl_material *m, const char *spec,
+                        bl_parse_error *err);
+
+/* Up to nmax (at most 8) standard-composition names closest to `name`
+** (edit distance on lowercase: to the best-matching piece of the name
+** first, then to the whole name), written to out[] (static storage);
+** returns the count. */
 int bl_material_suggest (const char *name, const char **out, int nmax);
 
 /* Number of standard compositions and the i-th name (0-based, static

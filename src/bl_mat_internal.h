@@ -1,0 +1,29 @@
+/*
+** bl_mat_internal.h -- declarations shared by the material files
+** (src/bl_material.c, src/bl_mat_formula.c, src/bl_mat_standard.c), not
+** public
+** See Copyright Notice in LICENSE
+*/
+#ifndef BL_MAT_INTERNAL_H
+#define BL_MAT_INTERNAL_H
+
+#include "bl_element.h"
+#include "bl_material.h"
+
+/*
+** Fill *m from atoms[Z] (atoms of element Z per formula unit, Z =
+** 0..BL_ZMAX, entry 0 ignored, entries <= 0 skipped): components ordered by
+** Z, molar mass, mass fractions; name copied (truncated to fit), density 0.
+** BL_SUCCESS, or BL_EDOMAIN when there is no element or more than
+** BL_MATERIAL_MAXCOMP of them (*m is then emptied: n = 0).
+*/
+int bl_mat_fill (bl_material *m, const double atoms[BL_ZMAX + 1],
+                 const char *name);
+
+/* Copy src into dst (size BL_MATERIAL_NAMELEN), truncating. */
+void bl_mat_setname (char *dst, const char *src);
+
+/* 1 if a and b are equal ignoring ASCII case. */
+int bl_mat_sameword (const char *a, const char *b);
+
+#endif
