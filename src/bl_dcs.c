@@ -46,6 +46,12 @@
 ** BL_ENOTCONV, instead of running for minutes.  Normal points use 1e3 to
 ** 4e4 calls. */
 #define CALL_BUDGET 5000000UL
+/* Absolute tolerance of the later outer pieces, as a share of rtol times
+** the value of the earlier ones. */
+#define TAIL_SHARE 0.1
+/* An inner error is negligible below this share of rtol times the
+** largest outer integrand value seen so far (see piece). */
+#define NEGL_SHARE 1e-3
 #ifndef QAG_KEY
 #define QAG_KEY GSL_INTEG_GAUSS21
 #endif
@@ -63,6 +69,7 @@ typedef struct integ {
   double sstar, w, side;    /* inner map: sigma = sstar + side w sinh(u) */
   double last_err;          /* error estimate of the latest inner integral */
   unsigned long calls0;     /* q->calls when this integral began */
+  double fpeak;             /* largest outer integrand value so far */
   double inner_err, inner_val;  /* sums of inner errors and values, each
                                 ** times the outer Jacobian, over all calls */
   int status;               /* first failure of any integral */
@@ -384,16 +391,44 @@ static void note (integ *it, int st) {
 
 
 /*
-** int_0^2 dh Phi(h0, h) for the polar geometry already in it->g (h0, s0),
-** to relative tolerance eps.
+** One inner piece by qag.  First with at most SMALL_LIMIT subintervals
+** (enough for every ordinary piece); if that fails but its error is below
+** `negl` it is accepted as it is: where the integrand is small (large
+** angles, or an elastic field that a nuclear form factor cancels far below
+** the rounding of its parts) its own relative accuracy does not matter,
+** and chasing it in rounding noise would cost the whole call budget.  The
+** error still enters the reported one.  Otherwise qag runs again with the
+** full limit and its status counts.
 */
-static double inner_integral (integ *it, double eps) {
+#define SMALL_LIMIT 16
+static double piece (integ *it, gsl_function *f, double a, double b,
+                     double eps, double negl, size_t limit, double *abserr) {
+  double val;
+  int st;
+  if (limit > SMALL_LIMIT && negl > 0.0) {
+    st = gsl_integration_qag(f, a, b, 0.0, eps, SMALL_LIMIT, QAG_KEY_INNER,
+                             it->q->ws[1], &val, abserr);
+    if (st == GSL_SUCCESS || *abserr <= negl)
+      return val;
+  }
+  st = gsl_integration_qag(f, a, b, 0.0, eps, limit, QAG_KEY_INNER,
+                           it->q->ws[1], &val, abserr);
+  note(it, st);
+  return val;
+}
+
+
+/*
+** int_0^2 dh Phi(h0, h) for the polar geometry already in it->g (h0, s0),
+** to relative tolerance eps; pieces whose error is below negl need not
+** reach it (piece).
+*/
+static double inner_integral (integ *it, double eps, double negl) {
   const bl_kin *kn = &it->kn;
   double smax = log1p(2.0 / kn->hc), r = kn->p0 * it->g.s0 / kn->p;
   double total = 0.0, abserr_total = 0.0, val, abserr;
   gsl_function f;
   size_t limit = it->q->limit;
-  int st;
   f.params = it;
   if (it->q->calls - it->calls0 > CALL_BUDGET) {
     limit = 1;
@@ -425,10 +460,8 @@ static double inner_integral (integ *it, double eps) {
       if (len <= 0.0)
         continue;
       it->side = side;
-      st = gsl_integration_qag(&f, 0.0, asinh(len / it->w), 0.0, eps,
-                               limit, QAG_KEY_INNER, it->q->ws[1], &val,
-                               &abserr);
-      note(it, st);
+      val = piece(it, &f, 0.0, asinh(len / it->w), eps, 0.5 * negl, limit,
+                  &abserr);
       total += val;
       abserr_total += abserr;
     }
@@ -436,9 +469,7 @@ static double inner_integral (integ *it, double eps) {
   else {
     it->g.ridge = 0;
     f.function = inner_plain;
-    st = gsl_integration_qag(&f, 0.0, smax, 0.0, eps, limit, QAG_KEY_INNER,
-                             it->q->ws[1], &total, &abserr_total);
-    note(it, st);
+    total = piece(it, &f, 0.0, smax, eps, negl, limit, &abserr_total);
   }
   it->last_err = abserr_total;
   return total;
@@ -454,7 +485,10 @@ static double outer_f (double sg, void *params) {
     h0 = 2.0;
   it->g.h0 = h0;
   it->g.s0 = sqrt(h0 * (2.0 - h0));
-  double v = inner_integral(it, INNER_SHARE * it->q->rtol) * jac;
+  double negl = NEGL_SHARE * it->q->rtol * it->fpeak / jac;
+  double v = inner_integral(it, INNER_SHARE * it->q->rtol, negl) * jac;
+  if (fabs(v) > it->fpeak)
+    it->fpeak = fabs(v);
   it->inner_val += fabs(v);
   it->inner_err += it->last_err * jac;
   return v;
@@ -464,7 +498,7 @@ static double outer_f (double sg, void *params) {
 static void integ_init (integ *it, const bl_case *c, bl_quad *q) {
   it->c = c;
   it->q = q;
-  it->inner_err = it->inner_val = it->last_err = 0.0;
+  it->inner_err = it->inner_val = it->last_err = it->fpeak = 0.0;
   it->calls0 = q->calls;
   it->status = GSL_SUCCESS;
 }
@@ -546,8 +580,10 @@ int bl_dcs_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out) {
   }
   for (i = 0; i < n; i++) {
     double a = pts[i], b = (i + 1 < n) ? pts[i + 1] : smax, v, e;
-    st = gsl_integration_qag(&f, a, b, 0.0, q->rtol, q->limit, QAG_KEY,
-                             q->ws[0], &v, &e);
+    /* a later piece (beyond the kink: backward photons) may be negligible
+    ** next to the first; it needs only an absolute share of the tolerance */
+    st = gsl_integration_qag(&f, a, b, TAIL_SHARE * q->rtol * fabs(val),
+                             q->rtol, q->limit, QAG_KEY, q->ws[0], &v, &e);
     note(&it, st);
     val += v;
     abserr += e;
@@ -584,7 +620,7 @@ int bl_dcs_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
   sh = sin(0.5 * theta_k);
   it.g.h0 = 2.0 * sh * sh;
   it.g.s0 = sin(theta_k);
-  val = inner_integral(&it, q->rtol);  /* the whole tolerance is its own */
+  val = inner_integral(&it, q->rtol, 0.0);  /* the whole tolerance */
   return finish(&it, val, it.last_err,
                 c->norm * it.kn.p / (it.kn.p0 * it.kn.k) / (2.0 * BL_PI * BL_PI)
                 / c->particle.mass, warn, applied, out);
