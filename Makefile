@@ -44,6 +44,10 @@ $(B):
 $(B)/%.o: src/%.c $(wildcard include/*.h) $(wildcard src/*.h) | $(B)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -c $< -o $@
 
+# The azimuthal closed form is the hot loop: at -O3 without errno from sqrt
+# (never read) GCC vectorizes its per-pole part; 15-20 % faster per point.
+$(B)/bl_kin.o: CFLAGS += -O3 -fno-math-errno
+
 $(B)/ref_%.o: tests/ref/%.c $(wildcard tests/ref/*.h) $(wildcard include/*.h) | $(B)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -Itests/ref -c $< -o $@
 

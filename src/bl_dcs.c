@@ -106,9 +106,13 @@ static int addpole (bl_case *c, double x) {
 ** the relative accuracy 1e-16 q^2 / x_j where q^2 >> x_j, so it is done
 ** only when that stays below 1e-8 up to the largest q^2 of the case,
 ** (p0 + p + k)^2 < 4 (p0 + 1)^2: in practice, the nuclear poles of a
-** light projectile.
+** light projectile.  Poles closer than that (ratio >= SPLIT_NEAR) are split
+** when both are large, pole >= 1e-6 q^2 max: the error is then below
+** 1e-10 pole/(pole_j - pole_i); this turns the ten products of the nuclear
+** fit into four singles and four squares.
 */
 #define SPLIT_RATIO 1e3
+#define SPLIT_NEAR  1.5
 static int addterm (bl_case *c, int el, double x1, double x2, double coef) {
   double lo = x1 < x2 ? x1 : x2, hi = x1 < x2 ? x2 : x1;
   int i, j;
@@ -117,7 +121,8 @@ static int addterm (bl_case *c, int el, double x1, double x2, double coef) {
   j = addpole(c, hi);
   if (i < 0 || j < 0)
     return BL_EMODEL;
-  if (hi >= SPLIT_RATIO * lo && hi >= 1e-8 * c->qmax2) {
+  if ((hi >= SPLIT_RATIO * lo && hi >= 1e-8 * c->qmax2)
+      || (hi >= SPLIT_NEAR * lo && lo >= 1e-6 * c->qmax2)) {
     double *s = el ? c->single_el : c->single_e, f = coef / (hi - lo);
     s[i] += f;
     s[j] -= f;

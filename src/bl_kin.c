@@ -107,30 +107,33 @@ void bl_bracket_set (const bl_kin *kn, const bl_polar *g, bl_bracket *br) {
 double bl_bracket_azimuth (const bl_bracket *br, int npole,
                            const double *pole, const double *single,
                            int nterm, const bl_term *term) {
-  double m[BL_POLE_MAX], R[BL_POLE_MAX], P[BL_POLE_MAX];
+  double m[BL_POLE_MAX], R[BL_POLE_MAX], iR[BL_POLE_MAX], iP[BL_POLE_MAX];
+  double g[BL_POLE_MAX];
   double b = br->b, sum = 0.0;
   int i, t;
-  for (i = 0; i < npole; i++) {
+  for (i = 0; i < npole; i++) {   /* one sqrt, two divisions: vectorizable */
     m[i] = pole[i] + br->Q0;
     R[i] = sqrt(m[i] * (m[i] + 2.0 * b));
-    P[i] = m[i] + 2.0 * b + R[i];
+    iR[i] = 1.0 / R[i];
+    iP[i] = 1.0 / (m[i] + 2.0 * b + R[i]);
+    g[i] = br->M0 * iR[i] + 2.0 * br->M1 * iP[i];   /* (M0 G0 + M1 G1)/pi */
+  }
+  for (i = 0; i < npole; i++)
     if (single[i] != 0.0) {
       /* R - pole and P - 2 pole without cancellation (pole >> Q0 + b) */
       double rp = (2.0 * pole[i] * (br->Q0 + b) + br->Q0 * (br->Q0 + 2.0 * b))
                   / (R[i] + pole[i]);
-      sum += single[i] * (br->L0 / R[i] + br->L1 * 2.0 / P[i]
-                          - br->M0 * rp / R[i]
-                          - br->M1 * (br->Q0 + 2.0 * b + rp) / P[i]);
+      sum += single[i] * (br->L0 * iR[i] + 2.0 * br->L1 * iP[i]
+                          - br->M0 * rp * iR[i]
+                          - br->M1 * (br->Q0 + 2.0 * b + rp) * iP[i]);
     }
-  }
-  for (t = 0; t < nterm; t++) {
+  for (t = 0; t < nterm; t++) {   /* one division a term */
     int ti = term[t].i, tj = term[t].j;
-    double s = m[ti] + m[tj] + 2.0 * b, rr = R[ti] + R[tj];
-    double y0 = s / (R[ti] * R[tj] * rr);
-    double y1 = 2.0 * (1.0 + s / rr) / (P[ti] * P[tj]);
+    double s = m[ti] + m[tj] + 2.0 * b, irr = 1.0 / (R[ti] + R[tj]);
+    double y0 = s * irr * iR[ti] * iR[tj];
+    double y1 = 2.0 * (1.0 + s * irr) * iP[ti] * iP[tj];
     sum += term[t].c * ((br->L0 + pole[ti] * br->M0) * y0
-                        + (br->L1 + pole[ti] * br->M1) * y1
-                        - br->M0 / R[tj] - br->M1 * 2.0 / P[tj]);
+                        + (br->L1 + pole[ti] * br->M1) * y1 - g[tj]);
   }
   return BL_PI * sum;
 }
