@@ -8,8 +8,10 @@
 
       -dE/dx / rho = (N_A / A) * integral_0^T k dsigma/dk dk,
 
-  one atom at a time (Born, screened nucleus; no field of the atomic
-  electrons, which adds about 1/Z).  The integral over the photon energy
+  with the module's defaults (Born with the field of the atomic electrons,
+  a uniformly charged nucleus, and the Coulomb and Elwert corrections where
+  they hold); targets can be any material, here a few elements and water.
+  N_A / A comes from the material's molar mass.  The integral over the photon energy
   is done here in Lua (Gauss-Legendre in y = k/T on three pieces) until
   the module's own energy-loss function arrives; then replace `loss`
   below by that call.  The scan writes energy-loss.csv (resumable: kill
@@ -28,12 +30,9 @@ local recipe = require "brakelight.recipe"
 local tabular = require "brakelight.tabular"
 
 local small = recipe.small()
-local NA = 6.02214076e23                          -- 1/mol, exact (SI 2019)
--- standard atomic weights, g/mol: from memory, ~1e-4
-local A = { C = 12.011, Al = 26.982, Cu = 63.546, W = 183.84, Pb = 207.2 }
 local ME = bl.particle("electron").mass
 
-local targets = small and { "C", "Pb" } or { "C", "Al", "Cu", "W", "Pb" }
+local targets = small and { "C", "Pb" } or { "C", "Al", "Cu", "W", "Pb", "H2O" }
 local energies = small and { 10, 1000 } or { 10, 30, 100, 300, 1000, 3000, 10000 }
 local nodes = small and 3 or 8
 
@@ -61,7 +60,7 @@ local records = scan.run{
   each = function(pt)
     local I = loss(pt)
     return { kdsdk_integral = I, phi_rad = I / (pt.T + ME),
-             dEdx = NA / A[pt.target] * I * 1e-27 }
+             dEdx = bl.material(pt.target).per_gram * I }
   end,
 }
 
@@ -76,6 +75,6 @@ end
 io.write(tabular.format(cols, rows))
 
 plot{ output = recipe.path("energy-loss.png"),
-      title = "Radiative energy loss of electrons (Born, screened atom)",
+      title = "Radiative energy loss of electrons",
       records = records, x = "T", y = "dEdx", by = "target",
       units = { dEdx = "MeV cm^2/g" } }
