@@ -146,3 +146,11 @@ rock-install: all
 test: test-install
 test-install: all
 	@bash scripts/check-install.sh
+
+.PHONY: hf-table
+
+# Regenerate src/bl_hf_table.c: Yukawa fits of xraylib's F and S for the
+# "hartree-fock" model (about 2 min). Never part of all or check.
+hf-table: | $(B)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -o $(B)/fit-hf scripts/fit-hf.c $(LIBS)
+	./$(B)/fit-hf -o src/bl_hf_table.c

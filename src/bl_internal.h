@@ -26,14 +26,16 @@ extern const bl_model bl_model_hartree_fock;
 /*
 ** Hartree-Fock screening: Yukawa fits of xraylib's F and S per element,
 ** generated into src/bl_hf_table.c by scripts/fit-hf.c (`make hf-table`):
-**   F/Z = sum_i fa_i fb_i^2/(fb_i^2 + q^2),  S/Z = sum_i sa_i q^2/(sb_i^2 + q^2),
-** q and b in MeV, sum fa = sum sa = 1, b increasing.
+**   F/Z = sum_i fa_i fb_i^2/(fb_i^2 + q^2),
+**   S/Z = sum_i sa_i q^2/(sb_i^2 + q^2),
+** q and b in MeV, sum fa = sum sa = 1 (either sign), b increasing.
 */
 typedef struct bl_hf_fit {
   int nf, ns;                                  /* terms of F and S */
   double fa[BL_YUKAWA_MAX], fb[BL_YUKAWA_MAX];
   double sa[BL_YUKAWA_MAX], sb[BL_YUKAWA_MAX];
-  int zsrc;                                    /* element whose table was fitted */
+  int zsrc;                                    /* element whose table
+                                               ** was fitted */
 } bl_hf_fit;
 
 extern const bl_hf_fit bl_hf_table[BL_ZMAX];   /* index Z - 1 */

@@ -12,6 +12,8 @@
 const bl_model *const bl_models[] = {
   &bl_model_none,
   &bl_model_exponential,
+  &bl_model_thomas_fermi,
+  &bl_model_hartree_fock,
   NULL
 };
 
