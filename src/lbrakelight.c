@@ -36,7 +36,7 @@
 #define RTOL_DEFAULT 1e-4     /* default relative tolerance */
 #define RTOL_MIN     1e-12    /* range accepted by bl_quad_set_rtol */
 #define RTOL_MAX     0.5
-#define SCREENING_DEFAULT "exponential"
+#define SCREENING_DEFAULT "hartree-fock"
 #define CUSTOM_NAME       "custom"   /* name of a particle made without one */
 
 

@@ -83,8 +83,8 @@ do
   assert(bl.dsdk(t) == v1, "Z = 29 differs from 'Cu'")
   t.target = 29.0
   assert(bl.dsdk(t) == v1, "Z = 29.0 differs from 'Cu'")
-  t.screening = "exponential"
-  assert(bl.dsdk(t) == v1, "default screening is not exponential")
+  t.screening = "hartree-fock"
+  assert(bl.dsdk(t) == v1, "default screening is not hartree-fock")
   t.screening = "none"
   assert(bl.dsdk(t) ~= v1, "screening 'none' changes nothing")
 end
@@ -106,7 +106,7 @@ do
          st.particle.charge == -1 and st.particle.spin == 0.5)
   assert(st.target.symbol == "Pb" and st.target.Z == 82)
   assert(st.T == 10)
-  assert(st.screening == "exponential", "default screening")
+  assert(st.screening == "hartree-fock", "default screening")
   assert(st.rtol == 1e-4, "default rtol")
   assert(st.nucleus == "uniform" and st.electrons == true)
   assert(st.coulomb == "auto" and st.elwert == "auto")
