@@ -587,6 +587,7 @@ typedef struct Warnings {
   char worstat[64];    /* where it was ("k = 5 MeV") */
   double kborn;        /* largest k flagged BL_WARN_BORN; < 0: none */
   int zborn;           /* largest Z flagged BL_WARN_BORN */
+  unsigned applied;    /* union of BL_APPLIED_* over all points */
 } Warnings;
 
 
@@ -608,6 +609,7 @@ static void addwarn (Warnings *w, const bl_result *r, double k,
                      const char *at) {
   w->npts++;
   w->bits |= r->warn;
+  w->applied |= r->applied;
   if (r->warn & BL_WARN_TOLERANCE) {
     double rel = r->val != 0 ? r->err / fabs(r->val) : HUGE_VAL;
     w->ntol++;
@@ -696,18 +698,27 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
       snprintf(msg, sizeof msg, "%s: %s (mass %g MeV) treated as point-like",
                text, p->name, p->mass);
       break;
-    case BL_WARN_BORN:  /* the core's criterion: 2 pi |z| Z alpha / beta */
+    case BL_WARN_BORN: {  /* the core's criterion: 2 pi |z| Z alpha / beta */
+      const char *corr =
+          (w->applied & BL_APPLIED_COULOMB) && (w->applied & BL_APPLIED_ELWERT)
+          ? "the Coulomb correction and the Elwert factor were applied"
+          : (w->applied & BL_APPLIED_COULOMB)
+          ? "the Coulomb correction was applied"
+          : (w->applied & BL_APPLIED_ELWERT)
+          ? "the Elwert factor was applied"
+          : "no correction holds here (README, Corrections)";
       if (w->kborn > 0 && w->kborn < o->T)
         snprintf(msg, sizeof msg, "%s (2 pi |z| Z alpha/beta = %.3g before "
                  "emission, %.3g after emitting k = %g MeV; z = %g, Z = %d, "
-                 "T = %g MeV)", text, xi / beta(o->T, p->mass),
+                 "T = %g MeV); %s", text, xi / beta(o->T, p->mass),
                  xi / beta(o->T - w->kborn, p->mass), w->kborn, p->charge,
-                 zb, o->T);
+                 zb, o->T, corr);
       else
         snprintf(msg, sizeof msg, "%s (2 pi |z| Z alpha/beta = %.3g; z = %g, "
-                 "Z = %d, T = %g MeV)", text, xi / beta(o->T, p->mass),
-                 p->charge, zb, o->T);
+                 "Z = %d, T = %g MeV); %s", text, xi / beta(o->T, p->mass),
+                 p->charge, zb, o->T, corr);
       break;
+    }
     case BL_WARN_VALIDITY:
       snprintf(msg, sizeof msg, "%s (screening '%s', %s, target %s, "
                "T = %g MeV)", text, o->screening->name, p->name,
