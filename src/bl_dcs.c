@@ -8,9 +8,10 @@
 **
 **   d3sigma / (dk dOmega_k dOmega_p) = (norm / (4 pi^2)) (p / (p0 k)) W(q^2) B
 **
-** norm = z^4 Z^2 alpha r0^2, r0 = alpha hbar/(m c); W(x) = (sum_i a_i/(b_i + x))^2
-** is G(q)/(Z^2 q^4) for screening 1 - F/Z = sum_i a_i q^2/(b_i + q^2); B is
-** the bracket of bl_kin.c (Bethe & Heitler 1934 for spin 1/2, its scalar-QED
+** norm = z^4 Z^2 alpha r0^2, r0 = alpha hbar/(m c); W(q^2) = G(q)/(Z^2 q^4)
+** is the target factor as single poles and pole products (targetfactor
+** below: screening, nuclear size, atomic electrons); B is the bracket of
+** bl_kin.c (Bethe & Heitler 1934 for spin 1/2, its scalar-QED
 ** analogue for spin 0).  The azimuth phi is integrated in closed form
 ** (bl_bracket_azimuth); the two polar angles numerically:
 **
@@ -145,11 +146,13 @@ static int addterm (bl_case *c, int el, double x1, double x2, double coef) {
 **     (1 - F_N)/q^2 = sum_j c_j u_j from the uniform-sphere fit
 **     (bl_nucleus.c), u_j = 1/(l_j / R^2 + q^2);
 **   electrons: S / (Z^2 q^4) = (1/Z) sum_k g_k w_0 w_k,
-**     S/Z = sum_k g_k q^2 w_k from the model's incoherent function, w_0 = 1/q^2.
+**     S/Z = sum_k g_k q^2 w_k from the model's incoherent function,
+**     w_0 = 1/q^2.
 */
 static int targetfactor (bl_case *c) {
   bl_yukawa y;
-  double vp[BL_YUKAWA_MAX + BL_NUCLEUS_NPOLE], va[BL_YUKAWA_MAX + BL_NUCLEUS_NPOLE];
+  double vp[BL_YUKAWA_MAX + BL_NUCLEUS_NPOLE];   /* poles of the vector */
+  double va[BL_YUKAWA_MAX + BL_NUCLEUS_NPOLE];   /* and their weights */
   double m = c->particle.mass;
   int n = 0, i, j, st;
   st = c->screening->yukawa(c->Z, c->params, &y);
@@ -450,7 +453,8 @@ static double inner_integral (integ *it, double eps, double negl) {
     ** smaller value is rounding of the three terms (forward photons) */
     if (fabs(qz) < kn->delta)
       qz = kn->delta;
-    wh = hypot(qz, sqrt(it->c->ridge_b)) * r / (kn->p * (cs > 1e-300 ? cs : 1e-300));
+    wh = hypot(qz, sqrt(it->c->ridge_b)) * r
+         / (kn->p * (cs > 1e-300 ? cs : 1e-300));
     it->sstar = log1p(hs / kn->hc);
     it->g.ridge = 1;
     it->g.hs = hs;

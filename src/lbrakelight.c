@@ -725,8 +725,8 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                o->target.name, o->T);
       break;
     case BL_WARN_COULOMB:
-      snprintf(msg, sizeof msg, "%s: it holds for gamma >= 100 before and >= 10 "
-               "after emission and hbar/(m c) >= 10 nuclear radii; here "
+      snprintf(msg, sizeof msg, "%s: it holds for gamma >= 100 before and "
+               ">= 10 after emission and hbar/(m c) >= 10 nuclear radii; here "
                "gamma0 = %.4g, hbar/(m c) = %.3g fm (%s, target %s; for "
                "angular distributions it is not available at all)", text, g0,
                BL_HBARC_MEVFM / p->mass, p->name, o->target.name);
