@@ -108,7 +108,7 @@ double bl_bracket_azimuth (const bl_bracket *br, int npole,
                            const double *pole, const double *single,
                            int nterm, const bl_term *term) {
   double m[BL_POLE_MAX], R[BL_POLE_MAX], iR[BL_POLE_MAX], iP[BL_POLE_MAX];
-  double g[BL_POLE_MAX];
+  double g[BL_POLE_MAX], A[BL_POLE_MAX], B[BL_POLE_MAX];
   double b = br->b, sum = 0.0;
   int i, t;
   for (i = 0; i < npole; i++) {   /* one sqrt, two divisions: vectorizable */
@@ -117,6 +117,8 @@ double bl_bracket_azimuth (const bl_bracket *br, int npole,
     iR[i] = 1.0 / R[i];
     iP[i] = 1.0 / (m[i] + 2.0 * b + R[i]);
     g[i] = br->M0 * iR[i] + 2.0 * br->M1 * iP[i];   /* (M0 G0 + M1 G1)/pi */
+    A[i] = br->L0 + pole[i] * br->M0;
+    B[i] = br->L1 + pole[i] * br->M1;
   }
   for (i = 0; i < npole; i++)
     if (single[i] != 0.0) {
@@ -127,13 +129,13 @@ double bl_bracket_azimuth (const bl_bracket *br, int npole,
                           - br->M0 * rp * iR[i]
                           - br->M1 * (br->Q0 + 2.0 * b + rp) * iP[i]);
     }
-  for (t = 0; t < nterm; t++) {   /* one division a term */
+  for (t = 0; t < nterm; t++) {   /* one division a term, none for squares */
     int ti = term[t].i, tj = term[t].j;
-    double s = m[ti] + m[tj] + 2.0 * b, irr = 1.0 / (R[ti] + R[tj]);
+    double s = m[ti] + m[tj] + 2.0 * b;
+    double irr = ti == tj ? 0.5 * iR[ti] : 1.0 / (R[ti] + R[tj]);
     double y0 = s * irr * iR[ti] * iR[tj];
     double y1 = 2.0 * (1.0 + s * irr) * iP[ti] * iP[tj];
-    sum += term[t].c * ((br->L0 + pole[ti] * br->M0) * y0
-                        + (br->L1 + pole[ti] * br->M1) * y1 - g[tj]);
+    sum += term[t].c * (A[ti] * y0 + B[ti] * y1 - g[tj]);
   }
   return BL_PI * sum;
 }
