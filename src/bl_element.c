@@ -4,6 +4,7 @@
 */
 
 #include <string.h>
+#include <strings.h>
 
 #include "bl_element.h"
 
@@ -47,19 +48,6 @@ static const struct { const char *name; int Z; } aliases[] = {
 };
 
 
-/* Compare two strings ignoring ASCII case: 1 if equal. */
-static int sameword (const char *a, const char *b) {
-  for (; *a != '\0' && *b != '\0'; a++, b++) {
-    int x = (unsigned char)*a, y = (unsigned char)*b;
-    if (x >= 'A' && x <= 'Z') x += 'a' - 'A';
-    if (y >= 'A' && y <= 'Z') y += 'a' - 'A';
-    if (x != y)
-      return 0;
-  }
-  return *a == *b;
-}
-
-
 int bl_element_find (const char *symbol) {
   int Z;
   if (symbol == NULL)
@@ -83,10 +71,10 @@ int bl_element_lookup (const char *name) {
   if ((Z = bl_element_find(name)) != 0)
     return Z;
   for (Z = 1; Z <= BL_ZMAX; Z++)
-    if (sameword(name, names[Z]))
+    if (strcasecmp(name, names[Z]) == 0)
       return Z;
   for (i = 0; i < sizeof aliases / sizeof aliases[0]; i++)
-    if (sameword(name, aliases[i].name))
+    if (strcasecmp(name, aliases[i].name) == 0)
       return aliases[i].Z;
   return 0;
 }

@@ -23,7 +23,4 @@ int bl_mat_fill (bl_material *m, const double atoms[BL_ZMAX + 1],
 /* Copy src into dst (size BL_MATERIAL_NAMELEN), truncating. */
 void bl_mat_setname (char *dst, const char *src);
 
-/* 1 if a and b are equal ignoring ASCII case. */
-int bl_mat_sameword (const char *a, const char *b);
-
 #endif

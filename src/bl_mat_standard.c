@@ -12,6 +12,7 @@
 
 #include <pthread.h>
 #include <string.h>
+#include <strings.h>
 
 #include <xraylib.h>
 
@@ -66,7 +67,7 @@ static int findstd (const char *name) {
     if (strcmp(name, stdnames[i]) == 0)
       return i;
   for (i = 0; i < nstd; i++)
-    if (bl_mat_sameword(name, stdnames[i]))
+    if (strcasecmp(name, stdnames[i]) == 0)
       return i;
   return -1;
 }

@@ -37,18 +37,6 @@ void bl_mat_setname (char *dst, const char *src) {
 }
 
 
-int bl_mat_sameword (const char *a, const char *b) {
-  for (; *a != '\0' && *b != '\0'; a++, b++) {
-    int x = (unsigned char)*a, y = (unsigned char)*b;
-    if (x >= 'A' && x <= 'Z') x += 'a' - 'A';
-    if (y >= 'A' && y <= 'Z') y += 'a' - 'A';
-    if (x != y)
-      return 0;
-  }
-  return *a == *b;
-}
-
-
 int bl_mat_fill (bl_material *m, const double atoms[BL_ZMAX + 1],
                  const char *name) {
   int Z, n = 0;
