@@ -25,25 +25,12 @@ local function check(cond, msg)
   nchecks = nchecks + 1
 end
 
---[[
-  f(arg) must fail with a message that starts with
-  "bad argument #1 to 'fname' (" and contains every string of `want`
-  (plain find); lowercase start, no final period.
-]]
+local check_error = dofile((arg[0]:match("^(.*[/\\])") or "./")
+                           .. "lib/errcheck.lua")
+
+-- f(arg) must fail with a well-formed message (lib/errcheck.lua)
 local function expect_error(fname, f, arg, want)
-  local ok, msg = pcall(f, arg)
-  assert(not ok, fname .. ": expected an error for case " ..
-                 table.concat(want, " | "))
-  assert(type(msg) == "string", fname .. ": error is not a string")
-  local prefix = "bad argument #1 to '" .. fname .. "' ("
-  assert(find(msg, prefix, 1, true) == 1,
-         "message does not start with " .. prefix .. ": " .. msg)
-  for _, w in ipairs(want) do
-    assert(find(msg, w, 1, true), "message lacks '" .. w .. "': " .. msg)
-  end
-  assert(msg:sub(#prefix + 1, #prefix + 1):match("%l"),
-         "message should start lowercase: " .. msg)
-  assert(msg:sub(-2) ~= ".)", "message should not end with a period: " .. msg)
+  local msg = check_error(fname, f, arg, want)
   nchecks = nchecks + 1
   return msg
 end
