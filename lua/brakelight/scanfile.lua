@@ -360,28 +360,24 @@ local function encode_json(doc)
   field("order", q("Cartesian product of the axes, last axis fastest"))
   field("points_in_all", tostring(scanfile.npoints(doc)))
   field("shard", json.encode({ doc.shard[1], doc.shard[2] }))
-  local ax = {}
-  for i, a in ipairs(doc.axes) do
-    ax[i] = "    " .. json.encode({ name = a.name, unit = a.unit,
-                                    type = a.type, labels = a.labels },
-                                  { order = { "name", "unit", "type", "labels" } })
+  -- an array of objects, one per line, with the fields `keys` (in that
+  -- order) taken from each item; `rename` maps a field to the item's key
+  local function objects(items, keys, rename)
+    if #items == 0 then return "[]" end
+    local lines = {}
+    for i, it in ipairs(items) do
+      local o = {}
+      for _, k in ipairs(keys) do o[k] = it[rename and rename[k] or k] end
+      lines[i] = "    " .. json.encode(o, { order = keys })
+    end
+    return "[\n" .. concat(lines, ",\n") .. "\n  ]"
   end
-  field("axes", "[\n" .. concat(ax, ",\n") .. "\n  ]")
-  local st = {}
-  for i, s in ipairs(doc.settings) do
-    st[i] = "    " .. json.encode({ name = s.name, unit = s.unit,
-                                    value = s.label },
-                                  { order = { "name", "unit", "value" } })
-  end
-  field("settings", #st > 0 and "[\n" .. concat(st, ",\n") .. "\n  ]" or "[]")
-  local cols, order = {}, {}
-  for i, c in ipairs(doc.columns) do
-    order[i] = c.name
-    cols[i] = "    " .. json.encode({ name = c.name, unit = c.unit,
-                                      kind = c.kind, type = c.type },
-                                    { order = { "name", "unit", "kind", "type" } })
-  end
-  field("columns", "[\n" .. concat(cols, ",\n") .. "\n  ]")
+  field("axes", objects(doc.axes, { "name", "unit", "type", "labels" }))
+  field("settings", objects(doc.settings, { "name", "unit", "value" },
+                            { value = "label" }))
+  field("columns", objects(doc.columns, { "name", "unit", "kind", "type" }))
+  local order = {}
+  for i, c in ipairs(doc.columns) do order[i] = c.name end
   local recs = {}
   for i, r in ipairs(doc.records) do
     local parts = {}
