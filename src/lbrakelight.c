@@ -632,6 +632,22 @@ typedef struct Point {
 
 
 /*
+** Add the result r of element Z, present `atoms` times per formula unit,
+** to the sum over the target: errors add, warnings and applied
+** corrections unite; note Z for the Born warning.
+*/
+static void addelement (Warnings *w, int Z, double atoms, const bl_result *r,
+                        bl_result *sum) {
+  if ((r->warn & BL_WARN_BORN) && Z > w->zborn)
+    w->zborn = Z;
+  sum->val += atoms * r->val;
+  sum->err += atoms * r->err;
+  sum->warn |= r->warn;
+  sum->applied |= r->applied;
+}
+
+
+/*
 ** Compute one point for every element of the target and sum them with
 ** their weights: errors add, warnings and applied corrections unite.
 ** Raises on a hard failure (checkresult).
@@ -659,12 +675,7 @@ static void computepoint (lua_State *L, Opts *o, const Cases *cs,
     }
     o->Z = c->Z;
     checkresult(L, o, st, &r, at);
-    if ((r.warn & BL_WARN_BORN) && c->Z > w->zborn)
-      w->zborn = c->Z;
-    sum->val += cs->atoms[i] * r.val;
-    sum->err += cs->atoms[i] * r.err;
-    sum->warn |= r.warn;
-    sum->applied |= r.applied;
+    addelement(w, c->Z, cs->atoms[i], &r, sum);
   }
   addwarn(w, sum, pt->k, at);
 }
@@ -1076,15 +1087,9 @@ static int l_spectrum (lua_State *L) {
     bl_spectrum_dk_e(c, (size_t)n, sc.k, nthreads, q, sc.r, sc.st);
     o.Z = c->Z;
     for (i = 0; i < n; i++) {
-      bl_result *r = &sc.r[i], *sum = &sc.sum[i];
       snprintf(at, sizeof at, "k = %.6g MeV", sc.k[i]);
-      checkresult(L, &o, sc.st[i], r, at);
-      if ((r->warn & BL_WARN_BORN) && c->Z > w.zborn)
-        w.zborn = c->Z;
-      sum->val += cs->atoms[j] * r->val;
-      sum->err += cs->atoms[j] * r->err;
-      sum->warn |= r->warn;
-      sum->applied |= r->applied;
+      checkresult(L, &o, sc.st[i], &sc.r[i], at);
+      addelement(&w, c->Z, cs->atoms[j], &sc.r[i], &sc.sum[i]);
     }
   }
   lua_createtable(L, (int)n, 0);      /* 5: k */
