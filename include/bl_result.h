@@ -18,9 +18,13 @@ enum {
   BL_WARN_COULOMB   = 1u << 4,  /* Coulomb correction requested outside its validity */
   BL_WARN_ELWERT    = 1u << 5,  /* Elwert factor requested outside its validity */
   BL_WARN_STATIC_E  = 1u << 6,  /* atomic electrons as static charges: no recoil */
-  BL_WARN_CLAMPED   = 1u << 7   /* Coulomb correction exceeded the Born value: 0 */
+  BL_WARN_CLAMPED   = 1u << 7,  /* Coulomb correction exceeded the Born value: 0 */
+  BL_WARN_METHOD    = 1u << 8,  /* high-energy or complete-screening form used
+                                ** where it does not hold */
+  BL_WARN_SUPPRESS  = 1u << 9   /* LPM/dielectric suppression: an approximate
+                                ** treatment, see its warning */
 };
-#define BL_WARN_COUNT 8
+#define BL_WARN_COUNT 10
 
 /* Corrections actually applied to a result (bl_result.applied). */
 enum {
@@ -33,6 +37,7 @@ typedef struct bl_result {
   double err;     /* absolute error estimate (>= 0) */
   unsigned warn;  /* BL_WARN_* bits */
   unsigned applied;  /* BL_APPLIED_* bits */
+  int method;     /* BL_METHOD_* actually used (bl_he.h); 0: born */
 } bl_result;
 
 /* Short English text for one warning bit (e.g. BL_WARN_BORN); NULL if unknown. */

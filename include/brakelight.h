@@ -17,5 +17,6 @@
 #include "bl_dcs.h"
 #include "bl_material.h"
 #include "bl_spectrum.h"
+#include "bl_he.h"
 
 #endif

@@ -261,7 +261,7 @@ int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
 **   F_E = (beta0/beta) (1 - exp(-2 pi eta/beta0)) / (1 - exp(-2 pi eta/beta)),
 ** eta = -z Z alpha (> 0 when attracted: electrons).  For eta < 0 the
 ** exponentials are rewritten so that nothing overflows at beta -> 0. */
-static double elwert (const bl_case *c, const bl_kin *kn) {
+double bl_elwert (const bl_case *c, const bl_kin *kn) {
   double b0 = kn->p0 / kn->E0, b = kn->p / kn->E;
   double eta = -c->particle.charge * c->Z * BL_ALPHA;
   double a = 2.0 * BL_PI * fabs(eta);
@@ -283,18 +283,28 @@ static double elwert (const bl_case *c, const bl_kin *kn) {
 ** (electrons and positrons; not muons, whose 1.9 fm lies inside heavy
 ** nuclei).
 */
-static int elwert_valid (const bl_kin *kn) {
+int bl_elwert_valid (const bl_kin *kn) {
   return kn->E0 <= 1.0 + 2.0 / BL_ME_MEV;
 }
 
-static int coulomb_valid (const bl_case *c, const bl_kin *kn) {
+int bl_coulomb_valid (const bl_case *c, const bl_kin *kn) {
   double lambda = BL_HBARC_MEVFM / c->particle.mass;          /* fm */
   return kn->E0 >= 100.0 && kn->E >= 10.0
          && lambda >= 10.0 * bl_nucleus_radius(c->opts.A);
 }
 
 
-static int wanted (int opt, int valid, unsigned bit, unsigned *warn) {
+/* The case's warnings and the Born warning of the point (Koch & Motz 1959
+** require 2 pi z Z alpha / beta << 1 for both velocities; we warn once it
+** exceeds 1 after emission, the slower side). */
+unsigned bl_point_warn (const bl_case *c, const bl_kin *kn) {
+  double xi = 2.0 * BL_PI * fabs(c->particle.charge) * c->Z * BL_ALPHA
+              * kn->E / kn->p;
+  return c->warn | (xi > 1.0 ? BL_WARN_BORN : 0u);
+}
+
+
+int bl_wanted (int opt, int valid, unsigned bit, unsigned *warn) {
   if (opt == BL_APPLY_ON && !valid)
     *warn |= bit;
   return opt == BL_APPLY_ON || (opt == BL_APPLY_AUTO && valid);
@@ -310,19 +320,18 @@ static int wanted (int opt, int valid, unsigned bit, unsigned *warn) {
 static int setup (const bl_case *c, double k, integ *it, unsigned *warn,
                   unsigned *applied) {
   bl_kin *kn = &it->kn;
-  double xi, fe = 1.0;
+  double fe = 1.0;
   int t;
   if (!isfinite(k) || k <= 0.0 || k >= c->T)
     return BL_EDOMAIN;
   bl_kin_set(kn, c->t0, k / c->particle.mass, c->particle.spin);
   if (!(kn->p > 0.0))
     return BL_EDOMAIN;   /* k so close to T that nothing is left */
-  xi = 2.0 * BL_PI * fabs(c->particle.charge) * c->Z * BL_ALPHA * kn->E / kn->p;
-  *warn = c->warn | (xi > 1.0 ? BL_WARN_BORN : 0u);
+  *warn = bl_point_warn(c, kn);
   *applied = 0;
-  if (wanted(c->opts.elwert, elwert_valid(kn),
+  if (bl_wanted(c->opts.elwert, bl_elwert_valid(kn),
              BL_WARN_ELWERT, warn)) {
-    fe = elwert(c, kn);
+    fe = bl_elwert(c, kn);
     *applied |= BL_APPLIED_ELWERT;
   }
   for (t = 0; t < c->npole; t++)
@@ -547,7 +556,7 @@ static int finish (const integ *it, double val, double abserr, double factor,
 ** leading order, is the same for both spins.  A correction larger than the
 ** Born value leaves 0 and a warning.
 */
-static void coulomb (const bl_case *c, const bl_kin *kn, bl_result *out) {
+void bl_coulomb_subtract (const bl_case *c, const bl_kin *kn, bl_result *out) {
   double v = kn->E / kn->E0;
   double f = bl_coulomb_f(c->particle.charge * c->Z * BL_ALPHA);
   double shape = kn->spin > 0.25 ? 1.0 + v * v - 2.0 * v / 3.0
@@ -569,6 +578,7 @@ int bl_dcs_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out) {
   int st, n = 0, i;
   out->val = out->err = 0.0;
   out->warn = out->applied = 0;
+  out->method = 0;   /* BL_METHOD_BORN */
   if (c == NULL || q == NULL)
     return BL_EDOMAIN;
   integ_init(&it, c, q);
@@ -600,9 +610,9 @@ int bl_dcs_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out) {
   st = finish(&it, val, abserr,
               c->norm * it.kn.p / (it.kn.p0 * it.kn.k) / BL_PI
               / c->particle.mass, warn, applied, out);
-  if (wanted(c->opts.coulomb, coulomb_valid(c, &it.kn), BL_WARN_COULOMB,
+  if (bl_wanted(c->opts.coulomb, bl_coulomb_valid(c, &it.kn), BL_WARN_COULOMB,
              &out->warn)) {
-    coulomb(c, &it.kn, out);
+    bl_coulomb_subtract(c, &it.kn, out);
     if (!isfinite(out->val) && st == BL_SUCCESS)
       st = GSL_ERANGE;
   }
@@ -618,6 +628,7 @@ int bl_dcs_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
   int st;
   out->val = out->err = 0.0;
   out->warn = out->applied = 0;
+  out->method = 0;   /* BL_METHOD_BORN */
   if (c == NULL || q == NULL || !(theta_k >= 0.0 && theta_k <= BL_PI))
     return BL_EDOMAIN;
   integ_init(&it, c, q);
@@ -656,6 +667,7 @@ int bl_dcs_full_e (const bl_case *c, double k, double theta_k, double theta_p,
   int st;
   out->val = out->err = 0.0;
   out->warn = out->applied = 0;
+  out->method = 0;   /* BL_METHOD_BORN */
   if (c == NULL || !(theta_k >= 0.0 && theta_k <= BL_PI)
       || !(theta_p >= 0.0 && theta_p <= BL_PI) || !isfinite(phi))
     return BL_EDOMAIN;

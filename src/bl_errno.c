@@ -42,6 +42,12 @@ const char *bl_warn_text (unsigned bit) {
              "share is overestimated for heavy projectiles";
     case BL_WARN_CLAMPED:
       return "the Coulomb correction exceeds the Born value; result set to 0";
+    case BL_WARN_METHOD:
+      return "the high-energy (small-angle) or complete-screening form is used "
+             "where it does not hold";
+    case BL_WARN_SUPPRESS:
+      return "LPM and dielectric suppression follow Migdal's approximate "
+             "treatment";
     default:
       return NULL;
   }

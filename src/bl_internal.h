@@ -101,4 +101,20 @@ double bl_bracket_point (const bl_bracket *br, double v, int npole,
                          const double *pole, const double *single, int nterm,
                          const bl_term *term);
 
+/*
+** Shared by the methods of dsigma/dk (src/bl_dcs.c):
+** bl_point_warn: the case's warnings and the Born warning at kn.
+** bl_wanted: whether a BL_APPLY_* option applies where `valid` says it
+**   holds; sets `bit` in *warn when forced on where it does not.
+** bl_elwert / bl_elwert_valid: the Elwert factor and where it holds.
+** bl_coulomb_valid / bl_coulomb_subtract: where the Davies-Bethe-Maximon
+**   correction holds; subtract it from out->val (clamped at 0).
+*/
+unsigned bl_point_warn (const bl_case *c, const bl_kin *kn);
+int bl_wanted (int opt, int valid, unsigned bit, unsigned *warn);
+double bl_elwert (const bl_case *c, const bl_kin *kn);
+int bl_elwert_valid (const bl_kin *kn);
+int bl_coulomb_valid (const bl_case *c, const bl_kin *kn);
+void bl_coulomb_subtract (const bl_case *c, const bl_kin *kn, bl_result *out);
+
 #endif

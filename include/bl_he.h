@@ -1,0 +1,90 @@
+/*
+** bl_he.h -- high-energy (small-angle) dsigma/dk from screening functions,
+** Tsai's complete-screening formula, and the choice between methods
+** See Copyright Notice in LICENSE
+*/
+
+#ifndef BL_HE_H
+#define BL_HE_H
+
+#include "bl_dcs.h"
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/* Methods of dsigma/dk.  Stable ids. */
+enum {
+  BL_METHOD_BORN        = 0,   /* exact first-order Born integral */
+  BL_METHOD_HIGH_ENERGY = 1,   /* screening functions, small angles */
+  BL_METHOD_COMPLETE    = 2,   /* Tsai's complete-screening formula */
+  BL_METHOD_AUTO        = 3    /* born or high-energy, per point */
+};
+#define BL_METHOD_COUNT 4
+
+/* Lua-facing name of a method id ("born", "high-energy", ...); NULL if
+** unknown.  Method id of a name; -1 if unknown. */
+const char *bl_method_name (int method);
+int bl_method_find (const char *name);
+
+/*
+** Tabulated screening integrals of one Yukawa representation (cached,
+** shared, never freed; see bl_he.c).  Opaque.
+*/
+typedef struct bl_hetab bl_hetab;
+
+/* Nuclear-size correction of phi1, phi2 for one particle mass, spin and
+** nuclear radius (cached likewise).  Opaque. */
+typedef struct bl_nuctab bl_nuctab;
+
+/*
+** What the high-energy method needs besides the case: the screening
+** tables of the nuclear (elastic) part and of the atomic electrons, the
+** tails of their integrals beyond q = m, and the nuclear-size correction.
+** Plain data; the pointers are borrowed from the process-wide cache.
+*/
+typedef struct bl_he {
+  const bl_hetab *el, *e;     /* NULL: unscreened / no electron field */
+  double tail_el[4], tail_e[4];
+  const bl_nuctab *nuc;       /* NULL: point nucleus */
+  double maxerr;              /* worst interpolation error of the tables
+                              ** (absolute, in units of phi) */
+} bl_he;
+
+/*
+** Fill *h for case c: fetch the screening tables of (Z, model) from the
+** cache or build them (about 10 ms each, once per process; thread-safe).
+** The nuclear-size correction of a uniform nucleus is computed from the
+** Born integral (once per particle mass, spin and radius) with the
+** workspace q.  BL_SUCCESS, BL_ENOMEM, or the status of a failed Born
+** calibration.
+*/
+int bl_he_prepare (const bl_case *c, bl_quad *q, bl_he *h);
+
+/* dsigma/dk (mb/MeV) by the screening-function form.  Warns
+** (BL_WARN_METHOD) where the small-angle form does not hold.
+** exceptions: BL_EDOMAIN */
+int bl_he_dk_e (const bl_case *c, const bl_he *h, double k,
+                bl_result *out);
+
+/* dsigma/dk (mb/MeV) by Tsai's complete-screening formula (Tsai 1974,
+** eq. 3.83), spin 0 through 1 + v^2 -> 2 v.  exceptions: BL_EDOMAIN */
+int bl_complete_dk_e (const bl_case *c, double k, bl_result *out);
+
+/* 1 if the high-energy method holds at photon energy k of case c to
+** 1e-3 (the switch of method "auto"); 0 otherwise. */
+int bl_he_valid (const bl_case *c, double k);
+
+/*
+** dsigma/dk by `method` (BL_METHOD_*); h may be NULL for born and
+** complete.  out->method is the method actually used.
+** exceptions: as the method's function
+*/
+int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
+                    bl_quad *q, bl_result *out);
+
+#ifdef __cplusplus
+}
+#endif
+
+#endif
