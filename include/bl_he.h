@@ -44,6 +44,7 @@ typedef struct bl_nuctab bl_nuctab;
 ** Plain data; the pointers are borrowed from the process-wide cache.
 */
 typedef struct bl_he {
+  int ready;                  /* filled by bl_he_prepare */
   const bl_hetab *el, *e;     /* NULL: unscreened / no electron field */
   double tail_el[4], tail_e[4];
   const bl_nuctab *nuc;       /* NULL: point nucleus */
@@ -60,6 +61,14 @@ typedef struct bl_he {
 ** calibration.
 */
 int bl_he_prepare (const bl_case *c, bl_quad *q, bl_he *h);
+
+/*
+** Prepare *h for `method` on case c: bl_he_prepare for high-energy, and
+** for auto where some photon energy can take it (gamma0 >= the switch);
+** otherwise h is cleared (h->ready = 0) at no cost.  Status as
+** bl_he_prepare.
+*/
+int bl_method_prepare (const bl_case *c, int method, bl_quad *q, bl_he *h);
 
 /* dsigma/dk (mb/MeV) by the screening-function form.  Warns
 ** (BL_WARN_METHOD) where the small-angle form does not hold.

@@ -8,6 +8,7 @@
 #include <stddef.h>
 
 #include "bl_dcs.h"
+#include "bl_he.h"
 #include "bl_quad.h"
 #include "bl_result.h"
 
@@ -49,6 +50,15 @@ int bl_spectrum_dk_e (const bl_case *c, size_t n, const double *k,
 /* Number of threads that nthreads = 0 stands for (online processors, at
 ** least 1, at most BL_SPECTRUM_MAX_THREADS). */
 int bl_spectrum_threads_auto (void);
+
+/*
+** The same by `method` (BL_METHOD_*) with the high-energy tables h of the
+** case (bl_method_prepare; may be NULL for born and complete).  Same
+** threads, same bit-for-bit rule; status[i] is bl_method_dk_e's.
+*/
+int bl_spectrum_method_e (const bl_case *c, const bl_he *h, int method,
+                          size_t n, const double *k, int nthreads, bl_quad *q,
+                          bl_result *out, int *status);
 
 #ifdef __cplusplus
 }

@@ -18,5 +18,7 @@
 #include "bl_material.h"
 #include "bl_spectrum.h"
 #include "bl_he.h"
+#include "bl_integral.h"
+#include "bl_suppress.h"
 
 #endif

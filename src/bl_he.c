@@ -570,6 +570,16 @@ int bl_he_prepare (const bl_case *c, bl_quad *q, bl_he *h) {
     if (st != BL_SUCCESS)
       return st;
   }
+  h->ready = 1;
+  return BL_SUCCESS;
+}
+
+
+int bl_method_prepare (const bl_case *c, int method, bl_quad *q, bl_he *h) {
+  memset(h, 0, sizeof *h);
+  if (method == BL_METHOD_HIGH_ENERGY
+      || (method == BL_METHOD_AUTO && 1.0 + c->t0 > GFINAL_HE))
+    return bl_he_prepare(c, q, h);
   return BL_SUCCESS;
 }
 
@@ -654,7 +664,7 @@ int bl_he_dk_e (const bl_case *c, const bl_he *h, double k, bl_result *out) {
   double fe, f = 0.0, kmev;
   int st, coul;
   clearresult(out, BL_METHOD_HIGH_ENERGY);
-  if (c == NULL || h == NULL)
+  if (c == NULL || h == NULL || !h->ready)
     return BL_EDOMAIN;
   st = kinematics(c, k, &kn);
   if (st != BL_SUCCESS)
@@ -697,6 +707,22 @@ int bl_he_dk_e (const bl_case *c, const bl_he *h, double k, bl_result *out) {
 
 
 /*
+** Complete screening needs small angles (as the high-energy method),
+** Delta far below the screening momenta -- Tsai's screening variable
+** gamma = 100 m_e k / (E0 E Z^1/3) = 200 Delta / (m_e Z^1/3) below 0.02,
+** where the Thomas-Fermi form departs from its limit by about 0.5 % --
+** and a nucleus that is point-like at q ~ m (m R < 0.1 hbar c): the
+** formula has no nuclear size.
+*/
+static int complete_valid (const bl_case *c, const bl_kin *kn) {
+  double m = c->particle.mass;
+  double Delta = m * kn->k / (2.0 * kn->E0 * kn->E);
+  return kn->E >= GFINAL_HE && 200.0 * Delta / (BL_ME_MEV * cbrt(c->Z)) <= 0.02
+         && c->R * m / BL_HBARC_MEVFM <= 0.1;
+}
+
+
+/*
 ** Tsai (1974), Rev. Mod. Phys. 46, 815, eq. (3.83), complete screening:
 **   dsigma/dk = (4 alpha r0^2 / k) { (4/3 - 4/3 y + y^2)
 **               [Z^2 (L_rad - f) + Z L'_rad] + (1 - y)(Z^2 + Z)/9 },
@@ -720,8 +746,8 @@ int bl_complete_dk_e (const bl_case *c, double k, bl_result *out) {
   if (st != BL_SUCCESS)
     return st;
   fe = corrections(c, &kn, out, &coul);
-  if (!bl_he_valid(c, k) || c->R * m / BL_HBARC_MEVFM > 0.1)
-    out->warn |= BL_WARN_METHOD;   /* nuclear size ignored, see README */
+  if (!complete_valid(c, &kn))
+    out->warn |= BL_WARN_METHOD;
   if (coul)
     f = bl_coulomb_f(c->particle.charge * c->Z * BL_ALPHA);
   shift = log(m / BL_ME_MEV);
@@ -755,7 +781,7 @@ int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
     case BL_METHOD_COMPLETE:
       return bl_complete_dk_e(c, k, out);
     case BL_METHOD_AUTO:
-      if (c != NULL && h != NULL && bl_he_valid(c, k))
+      if (c != NULL && h != NULL && h->ready && bl_he_valid(c, k))
         return bl_he_dk_e(c, h, k, out);
       return bl_dcs_dk_e(c, k, q, out);
     default:

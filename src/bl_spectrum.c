@@ -22,6 +22,8 @@
 /* One thread's share: points start, start + stride, ... below n. */
 typedef struct share {
   const bl_case *c;
+  const bl_he *h;           /* high-energy tables (may be NULL) */
+  int method;               /* BL_METHOD_* */
   const double *k;
   size_t n, start, stride;
   bl_quad *q;               /* workspace of this share (owned or borrowed) */
@@ -45,7 +47,7 @@ static void runshare (share *s) {
   s->bad = s->n;
   s->badst = BL_SUCCESS;
   for (i = s->start; i < s->n; i += s->stride) {
-    int st = bl_dcs_dk_e(s->c, s->k[i], s->q, &s->out[i]);
+    int st = bl_method_dk_e(s->c, s->h, s->method, s->k[i], s->q, &s->out[i]);
     if (s->status != NULL)
       s->status[i] = st;
     if (st != BL_SUCCESS && s->bad == s->n) {
@@ -73,6 +75,14 @@ int bl_spectrum_threads_auto (void) {
 
 int bl_spectrum_dk_e (const bl_case *c, size_t n, const double *k,
                       int nthreads, bl_quad *q, bl_result *out, int *status) {
+  return bl_spectrum_method_e(c, NULL, BL_METHOD_BORN, n, k, nthreads, q, out,
+                              status);
+}
+
+
+int bl_spectrum_method_e (const bl_case *c, const bl_he *h, int method,
+                          size_t n, const double *k, int nthreads, bl_quad *q,
+                          bl_result *out, int *status) {
   share sh[BL_SPECTRUM_MAX_THREADS];
   size_t nt, t, bad;
   int badst;
@@ -90,6 +100,8 @@ int bl_spectrum_dk_e (const bl_case *c, size_t n, const double *k,
   for (t = 0; t < nt; t++) {  /* describe every share; workspaces */
     share *s = &sh[t];
     s->c = c;
+    s->h = h;
+    s->method = method;
     s->k = k;
     s->n = n;
     s->start = t;
