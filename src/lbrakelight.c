@@ -37,6 +37,7 @@
 #define RTOL_MIN     1e-12    /* range accepted by bl_quad_set_rtol */
 #define RTOL_MAX     0.5
 #define SCREENING_DEFAULT "hartree-fock"
+#define METHOD_DEFAULT    BL_METHOD_AUTO
 #define CUSTOM_NAME       "custom"   /* name of a particle made without one */
 
 
@@ -302,6 +303,9 @@ typedef struct Opts {
   double T;                   /* kinetic energy, MeV */
   double rtol;                /* relative tolerance (integrals only) */
   int userol;                 /* rtol is an option of this function */
+  int method;                 /* BL_METHOD_* requested */
+  unsigned used;              /* bit 1 << BL_METHOD_* of each method used */
+  bl_suppress sup;            /* LPM / dielectric suppression */
 } Opts;
 
 
@@ -378,6 +382,44 @@ static int optswitch (lua_State *L, const char *fname, const char *key) {
 
 
 /*
+** Read options 'method' (default "auto") and 'suppression' (default
+** "none"; needs a target with a density).  Functions that do not take
+** them have already refused the keys.
+*/
+static void optmethod (lua_State *L, Opts *o) {
+  char v[80];
+  const char *s = getstr(L, 1, o->fname, "method");
+  int st, mode;
+  o->method = s == NULL ? METHOD_DEFAULT : bl_method_find(s);
+  if (o->method < 0)
+    lbl_argfail(L, o->fname, "unknown method '%.60s' in field 'method'; "
+                "allowed: 'auto' (default), 'born', 'high-energy', "
+                "'complete'", s);
+  if (o->method == BL_METHOD_COMPLETE
+      && o->screening->id == BL_MODEL_NONE)
+    lbl_argfail(L, o->fname, "field 'method' is 'complete', but screening "
+                "'none' has no complete-screening limit; allowed with "
+                "'none': 'auto', 'born', 'high-energy'");
+  s = getstr(L, 1, o->fname, "suppression");
+  mode = s == NULL ? BL_SUPPRESS_NONE : bl_suppress_find(s);
+  if (mode < 0)
+    lbl_argfail(L, o->fname, "unknown suppression '%.60s' in field "
+                "'suppression'; allowed: 'none' (default), 'lpm', "
+                "'lpm+dielectric'", s);
+  if (mode != BL_SUPPRESS_NONE && !(o->target.density > 0.0))
+    lbl_argfail(L, o->fname, "field 'suppression' is '%s', which needs the "
+                "density of the medium, but target '%s' has none; give "
+                "target = {'%s', density = <g/cm^3>}", s, o->target.name,
+                o->target.name);
+  st = bl_suppress_init(&o->sup, mode, &o->target, &o->particle);
+  if (st != BL_SUCCESS)
+    lbl_fail(L, "%s: cannot set up suppression '%s' for target %s: %s",
+             o->fname, s, o->target.name, bl_strerror(st));
+  (void)v;
+}
+
+
+/*
 ** Read the options shared by every computation (particle, target, T,
 ** screening, rtol, nucleus, electrons) from the table at index 1, after
 ** checking its keys against `keys`.
@@ -432,6 +474,7 @@ static void readopts (lua_State *L, const char *fname,
   lua_pop(L, 1);
   o->bo.coulomb = optswitch(L, fname, "coulomb");
   o->bo.elwert = optswitch(L, fname, "elwert");
+  optmethod(L, o);
 }
 
 
@@ -527,6 +570,7 @@ typedef struct Cases {
   int n;
   double atoms[BL_MATERIAL_MAXCOMP];
   bl_case c[BL_MATERIAL_MAXCOMP];
+  bl_he he[BL_MATERIAL_MAXCOMP];     /* high-energy tables, per method */
 } Cases;
 
 
@@ -544,8 +588,25 @@ static Cases *makecases (lua_State *L, Opts *o) {
                "screening '%s': %s", o->fname, o->particle.name, Z, o->T,
                o->screening->name, bl_strerror(st));
     cs->atoms[i] = o->target.comp[i].atoms;
+    memset(&cs->he[i], 0, sizeof cs->he[i]);
   }
   return cs;
+}
+
+
+/*
+** Prepare the cases for the method of *o (the high-energy tables, built
+** once per process and element); raises if the core cannot.
+*/
+static void prepcases (lua_State *L, const Opts *o, Cases *cs, bl_quad *q) {
+  int i;
+  for (i = 0; i < cs->n; i++) {
+    int st = bl_method_prepare(&cs->c[i], o->method, q, &cs->he[i]);
+    if (st != BL_SUCCESS)
+      lbl_fail(L, "%s: cannot prepare method '%s' for %s on Z = %d at "
+               "T = %g MeV: %s", o->fname, bl_method_name(o->method),
+               o->particle.name, cs->c[i].Z, o->T, bl_strerror(st));
+  }
 }
 
 
@@ -588,6 +649,7 @@ typedef struct Warnings {
   double kborn;        /* largest k flagged BL_WARN_BORN; < 0: none */
   int zborn;           /* largest Z flagged BL_WARN_BORN */
   unsigned applied;    /* union of BL_APPLIED_* over all points */
+  double minsup;       /* smallest suppression factor applied */
 } Warnings;
 
 
@@ -601,6 +663,7 @@ static void initwarn (Warnings *w, const Opts *o, const Cases *cs) {
   if (o->particle.flags & BL_PARTICLE_COMPOSITE)
     w->bits |= BL_WARN_POINTLIKE;
   w->kborn = -1;
+  w->minsup = 1.0;
 }
 
 
@@ -648,6 +711,23 @@ static void addelement (Warnings *w, int Z, double atoms, const bl_result *r,
 
 
 /*
+** Apply the suppression of *o to the target's dsigma/dk at photon energy
+** k; note the smallest factor.
+*/
+static void suppress (const Opts *o, Warnings *w, double k, bl_result *sum) {
+  double f;
+  if (o->sup.mode == BL_SUPPRESS_NONE)
+    return;
+  f = bl_suppress_factor(&o->sup, o->T + o->particle.mass, k);
+  sum->val *= f;
+  sum->err *= f;
+  sum->warn |= BL_WARN_SUPPRESS;
+  if (f < w->minsup)
+    w->minsup = f;
+}
+
+
+/*
 ** Compute one point for every element of the target and sum them with
 ** their weights: errors add, warnings and applied corrections unite.
 ** Raises on a hard failure (checkresult).
@@ -664,7 +744,7 @@ static void computepoint (lua_State *L, Opts *o, const Cases *cs,
     int st;
     switch (pt->kind) {
       case PT_DK:
-        st = bl_dcs_dk_e(c, pt->k, q, &r);
+        st = bl_method_dk_e(c, &cs->he[i], o->method, pt->k, q, &r);
         break;
       case PT_ANGULAR:
         st = bl_dcs_angular_e(c, pt->k, pt->theta, q, &r);
@@ -675,8 +755,11 @@ static void computepoint (lua_State *L, Opts *o, const Cases *cs,
     }
     o->Z = c->Z;
     checkresult(L, o, st, &r, at);
+    o->used |= 1u << r.method;
     addelement(w, c->Z, cs->atoms[i], &r, sum);
   }
+  if (pt->kind == PT_DK)
+    suppress(o, w, pt->k, sum);
   addwarn(w, sum, pt->k, at);
 }
 
@@ -751,6 +834,20 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
       snprintf(msg, sizeof msg, "%s (%s, mass %g MeV; electrons = false "
                "leaves the nucleus only)", text, p->name, p->mass);
       break;
+    case BL_WARN_METHOD:
+      snprintf(msg, sizeof msg, "%s: method '%s' holds for a final gamma = "
+               "E/m >= 500 (complete screening also needs Tsai's gamma <= "
+               "0.02 and a point-like nucleus); here gamma0 = %.4g (%s, "
+               "target %s); method 'born' or 'auto' is exact", text,
+               bl_method_name(o->method), g0, p->name, o->target.name);
+      break;
+    case BL_WARN_SUPPRESS:
+      snprintf(msg, sizeof msg, "%s (Stanev et al. fits, Klein 1999 review); "
+               "E_LPM = %.4g MeV for %s in %s (X0 = %.4g cm)%s; smallest "
+               "factor %.4g", text, o->sup.elpm, p->name, o->target.name,
+               o->sup.X0cm, o->sup.mode == BL_SUPPRESS_DIELECTRIC
+               ? ", with dielectric suppression" : "", w->minsup);
+      break;
     case BL_WARN_CLAMPED:
       snprintf(msg, sizeof msg, "%s (%s on %s at T = %g MeV, near the tip of "
                "the spectrum; coulomb = false gives the Born value)", text,
@@ -811,6 +908,22 @@ static void pushswitch (lua_State *L, int sw) {
 }
 
 
+/*
+** Push the method actually used: its name when every point used one
+** method ("auto" when the points differ: see the result's per-point list),
+** the requested one before any point was computed.
+*/
+static void pushmethod (lua_State *L, const Opts *o) {
+  int i, n = 0, last = o->method;
+  for (i = 0; i < BL_METHOD_COUNT; i++)
+    if (o->used & (1u << i)) {
+      n++;
+      last = i;
+    }
+  lua_pushstring(L, bl_method_name(n > 1 ? BL_METHOD_AUTO : last));
+}
+
+
 /* Push the settings table: every option used, defaults filled in. */
 static void pushsettings (lua_State *L, const Opts *o) {
   lua_createtable(L, 0, 8);
@@ -846,8 +959,12 @@ static void pushsettings (lua_State *L, const Opts *o) {
   lua_setfield(L, -2, "coulomb");
   pushswitch(L, o->bo.elwert);
   lua_setfield(L, -2, "elwert");
-  lua_pushstring(L, "born");
+  pushmethod(L, o);
   lua_setfield(L, -2, "method");
+  lua_pushstring(L, bl_method_name(o->method));
+  lua_setfield(L, -2, "method_requested");
+  lua_pushstring(L, bl_suppress_name(o->sup.mode));
+  lua_setfield(L, -2, "suppression");
 }
 
 
@@ -895,28 +1012,50 @@ static void setresult (lua_State *L, int t, int first,
 /* Option names of each function, in the order the messages list them. */
 static const char *const dsdk_keys[] = {
   "particle", "target", "T", "k", "screening", "rtol", "nucleus",
-  "electrons", "coulomb", "elwert", NULL
+  "electrons", "coulomb", "elwert", "method", "suppression", NULL
 };
 static const char *const spectrum_keys[] = {
   "particle", "target", "T", "k", "y", "screening", "rtol", "nucleus",
-  "electrons", "coulomb", "elwert", "threads", NULL
+  "electrons", "coulomb", "elwert", "method", "suppression", "threads", NULL
 };
 static const char *const angular_keys[] = {
-  "particle", "target", "T", "k", "theta", "screening", "rtol", "nucleus",
-  "electrons", "coulomb", "elwert", NULL
+  "particle", "target", "T", "k", "kmin", "kmax", "theta", "screening",
+  "rtol", "nucleus", "electrons", "coulomb", "elwert", "method", NULL
 };
 static const char *const differential_keys[] = {
   "particle", "target", "T", "k", "theta_k", "theta_p", "phi", "screening",
-  "nucleus", "electrons", "coulomb", "elwert", NULL
+  "nucleus", "electrons", "coulomb", "elwert", "method", NULL
+};
+static const char *const cross_section_keys[] = {
+  "particle", "target", "T", "kmin", "kmax", "screening", "rtol", "nucleus",
+  "electrons", "coulomb", "elwert", "method", "suppression", NULL
+};
+static const char *const energy_loss_keys[] = {
+  "particle", "target", "T", "screening", "rtol", "nucleus", "electrons",
+  "coulomb", "elwert", "method", "suppression", NULL
+};
+static const char *const photon_yield_keys[] = {
+  "particle", "target", "T", "thickness", "kmin", "kmax", "bins", "spacing",
+  "screening", "rtol", "nucleus", "electrons", "coulomb", "elwert", "method",
+  "suppression", NULL
 };
 
 
-/* Refuse coulomb = true where the correction is not defined. */
-static void nocoulomb (lua_State *L, const Opts *o) {
+/*
+** Refuse coulomb = true where the correction is not defined, and a method
+** other than the Born integral for angular distributions ("auto" means
+** born there).
+*/
+static void nocoulomb (lua_State *L, Opts *o) {
   if (o->bo.coulomb == BL_APPLY_ON)
     lbl_argfail(L, o->fname, "field 'coulomb' is true, but the Coulomb "
                 "correction is known for dsigma/dk only (spectrum, dsdk); "
                 "allowed here: false or 'auto' (not applied)");
+  if (o->method != BL_METHOD_BORN && o->method != BL_METHOD_AUTO)
+    lbl_argfail(L, o->fname, "field 'method' is '%s', but angular "
+                "distributions come from the Born integral only; allowed "
+                "here: 'auto' (default) or 'born'", bl_method_name(o->method));
+  o->method = BL_METHOD_BORN;
 }
 
 
@@ -948,7 +1087,7 @@ static double optk (lua_State *L, const Opts *o) {
 */
 static int l_dsdk (lua_State *L) {
   Opts o;
-  const Cases *cs;
+  Cases *cs;
   bl_result r;
   bl_quad *q;
   Warnings w;
@@ -959,6 +1098,7 @@ static int l_dsdk (lua_State *L) {
   /* all checks done */
   q = getquad(L, &o);
   cs = makecases(L, &o);
+  prepcases(L, &o, cs, q);
   initwarn(&w, &o, cs);
   snprintf(at, sizeof at, "k = %.6g MeV", pt.k);
   computepoint(L, &o, cs, &pt, q, &w, at, &r);
@@ -1042,9 +1182,9 @@ static int l_spectrum (lua_State *L) {
   };
   static const char *const names[] = {"k", "y", "dsdk", "err",
                                       "coulomb_applied", "elwert_applied",
-                                      NULL};
+                                      "method", NULL};
   Opts o;
-  const Cases *cs;
+  Cases *cs;
   Scratch sc;
   bl_quad *q;
   Warnings w;
@@ -1072,6 +1212,7 @@ static int l_spectrum (lua_State *L) {
   /* all checks done */
   q = getquad(L, &o);
   cs = makecases(L, &o);              /* 2: the cases */
+  prepcases(L, &o, cs, q);
   initwarn(&w, &o, cs);
   newscratch(L, (size_t)n, &sc);      /* 3: scratch */
   lua_getfield(L, 1, axis);           /* 4: abscissae */
@@ -1084,20 +1225,26 @@ static int l_spectrum (lua_State *L) {
   }
   for (j = 0; j < cs->n; j++) {       /* each element, all points */
     const bl_case *c = &cs->c[j];
-    bl_spectrum_dk_e(c, (size_t)n, sc.k, nthreads, q, sc.r, sc.st);
+    bl_spectrum_method_e(c, &cs->he[j], o.method, (size_t)n, sc.k,
+                         nthreads, q, sc.r, sc.st);
     o.Z = c->Z;
     for (i = 0; i < n; i++) {
       snprintf(at, sizeof at, "k = %.6g MeV", sc.k[i]);
       checkresult(L, &o, sc.st[i], &sc.r[i], at);
       addelement(&w, c->Z, cs->atoms[j], &sc.r[i], &sc.sum[i]);
+      sc.sum[i].method = sc.r[i].method;   /* one rule for every element */
+      o.used |= 1u << sc.r[i].method;
     }
   }
+  for (i = 0; i < n; i++)
+    suppress(&o, &w, sc.k[i], &sc.sum[i]);
   lua_createtable(L, (int)n, 0);      /* 5: k */
   lua_createtable(L, (int)n, 0);      /* 6: y */
   lua_createtable(L, (int)n, 0);      /* 7: dsdk */
   lua_createtable(L, (int)n, 0);      /* 8: err */
   lua_createtable(L, (int)n, 0);      /* 9: coulomb_applied */
   lua_createtable(L, (int)n, 0);      /* 10: elwert_applied */
+  lua_createtable(L, (int)n, 0);      /* 11: method */
   for (i = 1; i <= n; i++) {
     const bl_result *r = &sc.sum[i - 1];
     double k = sc.k[i - 1];
@@ -1117,46 +1264,384 @@ static int l_spectrum (lua_State *L) {
     lua_rawseti(L, 8, i);
     setbool(L, 9, i, (r->applied & BL_APPLIED_COULOMB) != 0);
     setbool(L, 10, i, (r->applied & BL_APPLIED_ELWERT) != 0);
+    lua_pushstring(L, bl_method_name(r->method));
+    lua_rawseti(L, 11, i);
   }
-  lua_createtable(L, 0, 11);          /* 11: result */
-  setresult(L, 11, 5, names, units, &o, &w);
+  lua_createtable(L, 0, 12);          /* 12: result */
+  setresult(L, 12, 5, names, units, &o, &w);
   lua_pushnumber(L, pergram(&o));
-  lua_setfield(L, 11, "per_gram");
+  lua_setfield(L, 12, "per_gram");
   lua_pushinteger(L, nthreads);
-  lua_setfield(L, 11, "threads");
+  lua_setfield(L, 12, "threads");
   return 1;
 }
+
+
+/*
+** {======================================================
+** Integrals over the photon energy
+** =======================================================
+*/
+
+/* What one integrand evaluation needs: the target, the workspace of the
+** points, the collected warnings, and where a hard failure happened. */
+typedef struct KCtx {
+  Opts *o;
+  const Cases *cs;
+  bl_quad *q;
+  Warnings *w;
+  int kind;          /* PT_DK or PT_ANGULAR */
+  double theta;      /* photon angle of PT_ANGULAR */
+  int badZ;          /* element of a hard failure */
+  double badk;
+} KCtx;
+
+
+/*
+** The target's dsigma/dk (or d2sigma/(dk dOmega) at theta) at k for the
+** integrator: sums the elements, applies the suppression; never raises
+** (a hard failure is returned with its element noted).
+*/
+static int kpoint (void *ud, double k, bl_result *out) {
+  KCtx *x = ud;
+  int i, soft = 0;
+  out->val = out->err = 0.0;
+  out->warn = out->applied = 0;
+  out->method = BL_METHOD_BORN;
+  for (i = 0; i < x->cs->n; i++) {
+    const bl_case *c = &x->cs->c[i];
+    bl_result r;
+    int st = x->kind == PT_DK
+             ? bl_method_dk_e(c, &x->cs->he[i], x->o->method, k, x->q, &r)
+             : bl_dcs_angular_e(c, k, x->theta, x->q, &r);
+    if (st != BL_SUCCESS && !notconverged(st)) {
+      x->badZ = c->Z;
+      x->badk = k;
+      return st;
+    }
+    soft |= st != BL_SUCCESS;
+    x->o->used |= 1u << r.method;
+    addelement(x->w, c->Z, x->cs->atoms[i], &r, out);
+    out->method = r.method;
+  }
+  if (x->kind == PT_DK)
+    suppress(x->o, x->w, k, out);
+  return soft ? BL_ENOTCONV : BL_SUCCESS;
+}
+
+
+/*
+** Integrate the target's kind of cross section over (kmin, kmax): moment
+** 0 into *r0 and, if r1 is not NULL, moment 1 into *r1 (on shared points);
+** if r0 is NULL, moment 1 alone into *r1.  The points take a quarter of
+** the tolerance, so that their errors leave room for the quadrature's.
+** Raises on a hard failure.
+*/
+static void kintegral (lua_State *L, KCtx *x, double kmin, double kmax,
+                       bl_result *r0, bl_result *r1) {
+  char at[96];
+  int st;
+  double rtol = x->o->rtol;
+  st = bl_quad_set_rtol(x->q, fmax(rtol / 4.0, RTOL_MIN));
+  if (st == BL_SUCCESS) {
+    x->badZ = x->o->target.comp[0].Z;
+    x->badk = kmin;
+    st = r0 == NULL
+         ? bl_kintegral_e(kpoint, x, kmin, kmax, x->o->T, 1, rtol, r1)
+         : r1 == NULL
+         ? bl_kintegral_e(kpoint, x, kmin, kmax, x->o->T, 0, rtol, r0)
+         : bl_kintegral2_e(kpoint, x, kmin, kmax, x->o->T, rtol, r0, r1);
+  }
+  bl_quad_set_rtol(x->q, rtol);
+  x->o->Z = x->badZ;
+  snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV (at k = "
+           "%.6g MeV)", kmin, kmax, x->badk);
+  if (r0 != NULL) {
+    checkresult(L, x->o, st, r0, at);
+    addwarn(x->w, r0, kmax, at);
+  }
+  if (r1 != NULL) {
+    checkresult(L, x->o, st, r1, at);
+    addwarn(x->w, r1, kmax, at);
+  }
+}
+
+
+/* Read kmin (required, in (0, T)) and kmax (default T, in (kmin, T]). */
+static void optwindow (lua_State *L, const Opts *o, double *kmin,
+                       double *kmax) {
+  char range[128];
+  snprintf(range, sizeof range, "(0, T) = (0, %.14g) MeV", o->T);
+  *kmin = optrange(L, o, "kmin", "lowest photon energy in MeV", 0, o->T, 1,
+                   range);
+  *kmax = o->T;
+  if (lua_getfield(L, 1, "kmax") != LUA_TNIL) {
+    double x = neednum(L, 1, o->fname, "", "kmax",
+                       "highest photon energy in MeV");
+    if (!(x > *kmin && x <= o->T))
+      lbl_argfail(L, o->fname, "field 'kmax' must be in (kmin, T] = "
+                  "(%.14g, %.14g] MeV, got %.14g", *kmin, o->T, x);
+    *kmax = x;
+  }
+  lua_pop(L, 1);
+}
+
+
+/* Set up the target, workspace and warnings of one integrating call. */
+static Cases *kstart (lua_State *L, Opts *o, KCtx *x, Warnings *w) {
+  Cases *cs;
+  x->q = getquad(L, o);
+  cs = makecases(L, o);
+  prepcases(L, o, cs, x->q);
+  initwarn(w, o, cs);
+  x->o = o;
+  x->cs = cs;
+  x->w = w;
+  x->kind = PT_DK;
+  x->theta = 0.0;
+  return cs;
+}
+
+
+/* t[key] = v for the table at absolute index t. */
+static void setnum (lua_State *L, int t, const char *key, double v) {
+  lua_pushnumber(L, v);
+  lua_setfield(L, t, key);
+}
+
+
+/*
+** brakelight.cross_section{..., kmin =, kmax =}
+**   -> {sigma, err, mean_k, mean_k_err, kmin, kmax, per_gram, units,
+**       settings, warnings}: photons emitted with kmin < k < kmax
+*/
+static int l_cross_section (lua_State *L) {
+  static const char *const units[] = {
+    "sigma", "mb", "err", "mb", "mean_k", "MeV", "mean_k_err", "MeV",
+    "kmin", "MeV", "kmax", "MeV", "per_gram", "cm^2/g per mb", NULL
+  };
+  static const char *const none[] = {NULL};
+  Opts o;
+  KCtx x;
+  Warnings w;
+  bl_result r0, r1;
+  double kmin, kmax, mean;
+  readopts(L, "cross_section", cross_section_keys, 1, &o);
+  optwindow(L, &o, &kmin, &kmax);
+  /* all checks done */
+  kstart(L, &o, &x, &w);                 /* 2: the cases */
+  kintegral(L, &x, kmin, kmax, &r0, &r1);
+  mean = r0.val > 0.0 ? r1.val / r0.val : 0.5 * (kmin + kmax);
+  lua_createtable(L, 0, 12);             /* 3: result */
+  setnum(L, 3, "sigma", r0.val);
+  setnum(L, 3, "err", r0.err);
+  setnum(L, 3, "mean_k", mean);
+  setnum(L, 3, "mean_k_err", r0.val > 0.0 && r1.val > 0.0
+         ? mean * (r0.err / r0.val + r1.err / r1.val) : 0.0);
+  setnum(L, 3, "kmin", kmin);
+  setnum(L, 3, "kmax", kmax);
+  setnum(L, 3, "per_gram", pergram(&o));
+  setresult(L, 3, 4, none, units, &o, &w);
+  return 1;
+}
+
+
+/*
+** brakelight.energy_loss{particle =, target =, T =, ...}
+**   -> {dedx, err, per_unit, radiation_length, E_over_X0, units, settings,
+**       warnings}: the radiative stopping power int_0^T k dsigma/dk dk
+*/
+static int l_energy_loss (lua_State *L) {
+  static const char *const units[] = {
+    "dedx", "MeV cm^2/g", "err", "MeV cm^2/g", "per_unit",
+    "MeV mb per formula unit", "radiation_length", "g/cm^2",
+    "E_over_X0", "MeV cm^2/g", NULL
+  };
+  static const char *const none[] = {NULL};
+  Opts o;
+  KCtx x;
+  Warnings w;
+  bl_result r1;
+  double X0;
+  readopts(L, "energy_loss", energy_loss_keys, 1, &o);
+  /* all checks done */
+  kstart(L, &o, &x, &w);                 /* 2: the cases */
+  kintegral(L, &x, 0.0, o.T, NULL, &r1);
+  X0 = bl_radiation_length(&o.target);
+  lua_createtable(L, 0, 10);             /* 3: result */
+  setnum(L, 3, "dedx", r1.val * pergram(&o));
+  setnum(L, 3, "err", r1.err * pergram(&o));
+  setnum(L, 3, "per_unit", r1.val);
+  setnum(L, 3, "radiation_length", X0);
+  setnum(L, 3, "E_over_X0", X0 > 0.0 ? (o.T + o.particle.mass) / X0 : 0.0);
+  setresult(L, 3, 4, none, units, &o, &w);
+  return 1;
+}
+
+
+#define YIELD_MAXBINS 100000
+#define THIN_SHARE    0.05   /* thin radiator: warn above this share of X0 */
+
+/*
+** brakelight.photon_yield{particle =, target =, T =, thickness =, kmin =,
+**   kmax =, bins =, spacing =}
+**   -> {edges, k_low, k_high, photons, err, total, thickness,
+**       thickness_X0, radiation_length, note, units, settings, warnings}:
+**   photons per incident particle in each bin of a thin radiator
+*/
+static int l_photon_yield (lua_State *L) {
+  static const char *const units[] = {
+    "edges", "MeV", "k_low", "MeV", "k_high", "MeV", "photons",
+    "per incident particle", "err", "per incident particle", "total",
+    "per incident particle", "thickness", "g/cm^2", "thickness_X0", "1",
+    "radiation_length", "g/cm^2", NULL
+  };
+  static const char *const none[] = {NULL};
+  static const char *const note = "thin radiator: the projectile's energy "
+    "loss and deflection inside it, photon absorption and multiple "
+    "emission are neglected";
+  char v[80];
+  Opts o;
+  KCtx x;
+  Warnings w;
+  double kmin, kmax, t, X0, perunit, total = 0.0;
+  lua_Integer nb = 1, i;
+  int logsp = 0, isint;
+  const char *sp;
+  readopts(L, "photon_yield", photon_yield_keys, 1, &o);
+  t = optrange(L, &o, "thickness", "radiator thickness in g/cm^2", 0,
+               HUGE_VAL, 1, "(0, inf) g/cm^2");
+  optwindow(L, &o, &kmin, &kmax);
+  if (lua_getfield(L, 1, "bins") != LUA_TNIL) {
+    nb = lua_tointegerx(L, -1, &isint);
+    if (!isint || nb < 1 || nb > YIELD_MAXBINS)
+      lbl_argfail(L, o.fname, "field 'bins' must be an integer in 1..%d, "
+                  "got %s", YIELD_MAXBINS, lbl_showval(L, -1, v, sizeof v));
+  }
+  lua_pop(L, 1);
+  sp = getstr(L, 1, o.fname, "spacing");
+  if (sp != NULL && strcmp(sp, "log") == 0)
+    logsp = 1;
+  else if (sp != NULL && strcmp(sp, "linear") != 0)
+    lbl_argfail(L, o.fname, "unknown spacing '%.60s' in field 'spacing'; "
+                "allowed: 'linear' (default), 'log'", sp);
+  /* all checks done */
+  kstart(L, &o, &x, &w);                 /* 2: the cases */
+  X0 = bl_radiation_length(&o.target);
+  perunit = pergram(&o) * t;             /* photons per mb */
+  lua_createtable(L, (int)nb + 1, 0);    /* 3: edges */
+  lua_createtable(L, (int)nb, 0);        /* 4: k_low */
+  lua_createtable(L, (int)nb, 0);        /* 5: k_high */
+  lua_createtable(L, (int)nb, 0);        /* 6: photons */
+  lua_createtable(L, (int)nb, 0);        /* 7: err */
+  for (i = 0; i <= nb; i++) {
+    double e = logsp ? kmin * pow(kmax / kmin, (double)i / nb)
+                     : kmin + (kmax - kmin) * i / nb;
+    if (i == nb)
+      e = kmax;   /* exact ends */
+    lua_pushnumber(L, e);
+    lua_rawseti(L, 3, i + 1);
+  }
+  for (i = 1; i <= nb; i++) {
+    bl_result r;
+    double a, b;
+    lua_rawgeti(L, 3, i);
+    lua_rawgeti(L, 3, i + 1);
+    a = lua_tonumber(L, -2);
+    b = lua_tonumber(L, -1);
+    lua_pop(L, 2);
+    kintegral(L, &x, a, b, &r, NULL);
+    total += r.val * perunit;
+    lua_pushnumber(L, a);
+    lua_rawseti(L, 4, i);
+    lua_pushnumber(L, b);
+    lua_rawseti(L, 5, i);
+    lua_pushnumber(L, r.val * perunit);
+    lua_rawseti(L, 6, i);
+    lua_pushnumber(L, r.err * perunit);
+    lua_rawseti(L, 7, i);
+  }
+  lua_createtable(L, 0, 16);             /* 8: result */
+  setresult(L, 8, 3, none, units, &o, &w);
+  lua_pushvalue(L, 3);
+  lua_setfield(L, 8, "edges");
+  lua_pushvalue(L, 4);
+  lua_setfield(L, 8, "k_low");
+  lua_pushvalue(L, 5);
+  lua_setfield(L, 8, "k_high");
+  lua_pushvalue(L, 6);
+  lua_setfield(L, 8, "photons");
+  lua_pushvalue(L, 7);
+  lua_setfield(L, 8, "err");
+  setnum(L, 8, "total", total);
+  setnum(L, 8, "thickness", t);
+  setnum(L, 8, "radiation_length", X0);
+  setnum(L, 8, "thickness_X0", X0 > 0.0 ? t / X0 : 0.0);
+  lua_pushstring(L, note);
+  lua_setfield(L, 8, "note");
+  if (X0 > 0.0 && t > THIN_SHARE * X0) {   /* one more warning */
+    char msg[MSGSIZE];
+    snprintf(msg, sizeof msg, "the radiator is %.4g radiation lengths "
+             "thick, beyond the thin-radiator range (<= %g X0): %s", t / X0,
+             THIN_SHARE, note);
+    lua_getfield(L, 8, "warnings");
+    lua_pushstring(L, msg);
+    lua_rawseti(L, -2, (lua_Integer)lua_rawlen(L, -2) + 1);
+    lua_pop(L, 1);
+  }
+  return 1;
+}
+
+/* }====================================================== */
 
 
 /*
 ** brakelight.angular{..., k =, theta = {...}}
 **   -> {k, y, theta, d2sigma, err, elwert_applied, per_gram, units,
 **       settings, warnings}
+** brakelight.angular{..., kmin =, kmax =, theta = {...}}
+**   -> {kmin, kmax, theta, dsdomega, err, ...}: integrated over the window
 */
 static int l_angular (lua_State *L) {
   static const char *const units[] = {
     "k", "MeV", "y", "1", "theta", "rad", "d2sigma", "mb/(MeV sr)",
     "err", "mb/(MeV sr)", "per_gram", "cm^2/g per mb", NULL
   };
+  static const char *const wunits[] = {
+    "kmin", "MeV", "kmax", "MeV", "theta", "rad", "dsdomega", "mb/sr",
+    "err", "mb/sr", "per_gram", "cm^2/g per mb", NULL
+  };
   static const char *const names[] = {"theta", "d2sigma", "err", NULL};
+  static const char *const wnames[] = {"theta", "dsdomega", "err", NULL};
   Opts o;
-  const Cases *cs;
-  bl_quad *q;
+  Cases *cs;
+  KCtx x;
   Warnings w;
   lua_Integer i, n;
   unsigned applied = 0;
-  double k;
+  double k = 0.0, kmin = 0.0, kmax = 0.0;
+  int hask, haswin;
   readopts(L, "angular", angular_keys, 1, &o);
   nocoulomb(L, &o);
-  k = optk(L, &o);
+  hask = lua_getfield(L, 1, "k") != LUA_TNIL;
+  haswin = lua_getfield(L, 1, "kmin") != LUA_TNIL
+           || lua_getfield(L, 1, "kmax") != LUA_TNIL;
+  lua_settop(L, 1);
+  if (hask == haswin)
+    lbl_argfail(L, o.fname, "give either field 'k' (one photon energy, MeV) "
+                "or fields 'kmin' and 'kmax' (a window, kmax = T by "
+                "default), got %s", hask ? "both" : "neither");
+  if (hask)
+    k = optk(L, &o);
+  else
+    optwindow(L, &o, &kmin, &kmax);
   n = optarray(L, &o, "theta", 0, BL_PI, 0, "[0, pi] rad");
   /* all checks done */
-  q = getquad(L, &o);
-  cs = makecases(L, &o);              /* 2: the cases */
-  initwarn(&w, &o, cs);
+  cs = kstart(L, &o, &x, &w);         /* 2: the cases */
+  x.kind = PT_ANGULAR;
   lua_getfield(L, 1, "theta");        /* 3: angles */
   lua_createtable(L, (int)n, 0);      /* 4: theta */
-  lua_createtable(L, (int)n, 0);      /* 5: d2sigma */
+  lua_createtable(L, (int)n, 0);      /* 5: d2sigma or dsdomega */
   lua_createtable(L, (int)n, 0);      /* 6: err */
   for (i = 1; i <= n; i++) {
     bl_result r;
@@ -1166,8 +1651,14 @@ static int l_angular (lua_State *L) {
     lua_rawgeti(L, 3, i);
     pt.theta = (double)lua_tonumber(L, -1);
     lua_pop(L, 1);
-    snprintf(at, sizeof at, "k = %.6g MeV, theta = %.6g rad", k, pt.theta);
-    computepoint(L, &o, cs, &pt, q, &w, at, &r);
+    if (hask) {
+      snprintf(at, sizeof at, "k = %.6g MeV, theta = %.6g rad", k, pt.theta);
+      computepoint(L, &o, cs, &pt, x.q, &w, at, &r);
+    }
+    else {
+      x.theta = pt.theta;
+      kintegral(L, &x, kmin, kmax, &r, NULL);
+    }
     applied |= r.applied;
     lua_pushnumber(L, pt.theta);
     lua_rawseti(L, 4, i);
@@ -1177,11 +1668,17 @@ static int l_angular (lua_State *L) {
     lua_rawseti(L, 6, i);
   }
   lua_createtable(L, 0, 10);          /* 7: result */
-  setresult(L, 7, 4, names, units, &o, &w);
-  lua_pushnumber(L, k);
-  lua_setfield(L, 7, "k");
-  lua_pushnumber(L, k / o.T);
-  lua_setfield(L, 7, "y");
+  setresult(L, 7, 4, hask ? names : wnames, hask ? units : wunits, &o, &w);
+  if (hask) {
+    lua_pushnumber(L, k);
+    lua_setfield(L, 7, "k");
+    lua_pushnumber(L, k / o.T);
+    lua_setfield(L, 7, "y");
+  }
+  else {
+    setnum(L, 7, "kmin", kmin);
+    setnum(L, 7, "kmax", kmax);
+  }
   lua_pushboolean(L, (applied & BL_APPLIED_ELWERT) != 0);
   lua_setfield(L, 7, "elwert_applied");
   lua_pushnumber(L, pergram(&o));
@@ -1224,6 +1721,18 @@ static int l_differential (lua_State *L) {
   pushwarnings(L, &o, &w);
   pushinfo(L, &o, &r);
   return 3;
+}
+
+
+/* brakelight.methods() -> {"born", "high-energy", "complete", "auto"} */
+static int l_methods (lua_State *L) {
+  int i;
+  lua_createtable(L, BL_METHOD_COUNT, 0);
+  for (i = 0; i < BL_METHOD_COUNT; i++) {
+    lua_pushstring(L, bl_method_name(i));
+    lua_rawseti(L, -2, i + 1);
+  }
+  return 1;
 }
 
 
@@ -1469,9 +1978,13 @@ static void newquad (lua_State *L) {
 
 static const luaL_Reg brakelight_funcs[] = {
   {"angular", l_angular},
+  {"cross_section", l_cross_section},
   {"differential", l_differential},
   {"dsdk", l_dsdk},
+  {"energy_loss", l_energy_loss},
+  {"methods", l_methods},
   {"models", l_models},
+  {"photon_yield", l_photon_yield},
   {"particle", l_particle},
   {"spectrum", l_spectrum},
   {NULL, NULL}

@@ -196,7 +196,14 @@ ang_err({ theta = { -0.1 } }, { "element #1 of 'theta'", "got -0.1" })
 ang_err({ theta = { 0.1, false } },
         { "element #2 of 'theta' is not a number", "got false" })
 ang_err({}, { "field 'theta' must be an array", "got nil" })
-ang_err({ theta = { 0.1 }, k = "<nil>" }, { "missing required field 'k'" })
+ang_err({ theta = { 0.1 }, k = "<nil>" }, { "field 'k'", "'kmin'", "neither" })
+ang_err({ theta = { 0.1 }, kmin = 1 }, { "field 'k'", "'kmin'", "both" })
+ang_err({ theta = { 0.1 }, k = "<nil>", kmin = 0 }, { "field 'kmin'", "(0, T)",
+                                                   "got 0" })
+ang_err({ theta = { 0.1 }, k = "<nil>", kmin = 1, kmax = 0.5 },
+        { "field 'kmax'", "(kmin, T]", "got 0.5" })
+ang_err({ theta = { 0.1 }, method = "high-energy" },
+        { "field 'method'", "'high-energy'", "'born'" })
 ang_err({ theta = { 0.1 }, k = 11 }, { "field 'k'", "got 11" })
 
 -- differential: angles in [0, pi], phi any finite number, no rtol
