@@ -217,8 +217,9 @@ static int integrate (bl_kfunc f, void *ud, double kmin, double kmax,
   memset(out0, 0, sizeof *out0);
   if (out1 != NULL)
     memset(out1, 0, sizeof *out1);
-  if (checkargs(f, kmin, kmax, T, rtol) != BL_SUCCESS)
-    return BL_EDOMAIN;
+  if (checkargs(f, kmin, kmax, T, rtol) != BL_SUCCESS
+      || (kmin == 0.0 && (m0 == 0 || out1 != NULL)))
+    return BL_EDOMAIN;   /* int f dk from 0 diverges like ln k */
   ws = gsl_integration_workspace_alloc(LIMIT);
   m = calloc(MEMO_SIZE, sizeof *m);
   if (ws == NULL || m == NULL) {

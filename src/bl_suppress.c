@@ -14,8 +14,9 @@
 ** Gamma = 1 + (k_p/k)^2, k_p = gamma hbar omega_p, so s -> s Gamma and the
 ** rate is divided by Gamma; without LPM this is k^2/(k^2 + k_p^2).
 ** G and phi are the fits of Stanev et al. (1982, Phys. Rev. D 25, 1291),
-** quoted from Klein's review (from memory: the tests check their limits,
-** not their digits).
+** with their large-s forms phi = 1 - 0.012/s^4 (s >= 1.549) and
+** G = 1 - 0.0230/s^4 (s >= 1.9516), quoted from Klein's review (from
+** memory: the tests check their limits, not their digits).
 */
 
 #include <math.h>
@@ -35,14 +36,14 @@
 double bl_migdal_phi (double s) {
   if (s <= 0.0)
     return 0.0;
+  if (s >= 1.549)   /* the large-s form, joined where the two meet */
+    return 1.0 - 0.012 / (s * s * s * s);
   return -expm1(-6.0 * s * (1.0 + (3.0 - BL_PI) * s)
                 + s * s * s / (0.623 + 0.796 * s + 0.658 * s * s));
 }
 
 
 static double migdal_psi (double s) {
-  if (s <= 0.0)
-    return 0.0;
   return -expm1(-4.0 * s - 8.0 * s * s / (1.0 + 3.96 * s + 4.97 * s * s
                                           - 0.05 * s * s * s
                                           + 7.5 * s * s * s * s));
@@ -50,6 +51,10 @@ static double migdal_psi (double s) {
 
 
 double bl_migdal_G (double s) {
+  if (s <= 0.0)
+    return 0.0;
+  if (s >= 1.9516)
+    return 1.0 - 0.0230 / (s * s * s * s);
   return 3.0 * migdal_psi(s) - 2.0 * bl_migdal_phi(s);
 }
 
