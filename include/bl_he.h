@@ -92,6 +92,15 @@ int bl_he_valid (const bl_case *c, double k);
 int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
                     bl_quad *q, bl_result *out);
 
+/*
+** Photon energies (MeV) where dsigma/dk of case c by `method` jumps: the
+** Coulomb correction switching off ("coulomb" automatic) and, for "auto",
+** the change of method.  Writes at most nmax into k and a bound on the
+** relative size of each jump into jump; returns the count.
+*/
+int bl_method_breaks (const bl_case *c, const bl_he *h, int method,
+                      double *k, double *jump, int nmax);
+
 #ifdef __cplusplus
 }
 #endif

@@ -22,29 +22,36 @@ extern "C" {
 */
 typedef int (*bl_kfunc) (void *ud, double k, bl_result *out);
 
-/* Most integrand evaluations one integral may take. */
-#define BL_KINT_MAXCALLS 20000
+/* Most breakpoints one integral takes. */
+#define BL_KINT_MAXBREAK 8
 
 /*
 ** out = int_kmin^kmax k^moment f(k) dk  (moment 0 or 1), T the end of the
 ** spectrum (kmax <= T).  kmin = 0 is allowed (the k -> 0 end of k f(k) is
 ** integrable and is integrated exactly, by the map k = a w^2, never cut);
 ** the range through k -> T is mapped so that a square-root edge of f is
-** smooth.  rtol is the relative tolerance of the integral; out->err adds
-** the quadrature error and the integrand's own error.  out->warn and
+** smooth.  kbreak[0..nbreak-1] (may be NULL when nbreak = 0; at most
+** BL_KINT_MAXBREAK) are photon energies where f jumps or kinks (a
+** correction switching on): the rule never straddles them.  rtol is the
+** relative tolerance of the integral: the quadrature aims at rtol/2, and
+** the points should be computed to rtol/2; out->err adds the quadrature
+** error and the worst relative error of a point times the value, and a
+** total above rtol |value| gives BL_ENOTCONV with the tolerance warning.  out->warn and
 ** out->applied unite those of every point; out->method is that of the
 ** last point if all agree, else -1.  exceptions: BL_EDOMAIN, BL_ENOMEM,
 ** BL_ENOTCONV (estimate in out), the first hard failure of f
 */
 int bl_kintegral_e (bl_kfunc f, void *ud, double kmin, double kmax, double T,
-                    int moment, double rtol, bl_result *out);
+                    const double *kbreak, int nbreak, int moment, double rtol,
+                    bl_result *out);
 
 /*
 ** Both moments at once on shared evaluations: out0 = int f, out1 =
 ** int k f, over the same range.  Same rules as bl_kintegral_e.
 */
 int bl_kintegral2_e (bl_kfunc f, void *ud, double kmin, double kmax, double T,
-                     double rtol, bl_result *out0, bl_result *out1);
+                     const double *kbreak, int nbreak, double rtol,
+                     bl_result *out0, bl_result *out1);
 
 #ifdef __cplusplus
 }

@@ -7,6 +7,10 @@
 #    T = 1 MeV ... 1 TeV, at rtol 1e-4, against the 2 ms target; then real
 #    atoms (Hartree-Fock and Thomas-Fermi screening with the atomic electrons
 #    and the uniform nucleus) at 10 MeV and 10 GeV against the 3 ms target;
+#    then the high-energy method's evaluations per second once cached
+#    (scripts/bench_he.c, target 1e6/s) and energy_loss timings
+#    (scripts/bench_integrated.lua: born at rtol 1e-3 within 50 ms, auto
+#    within 5 ms);
 # 2. if Debian's /usr/bin/python3 has SciPy, evaluates a few of the same
 #    points with the independent SciPy integration (scripts/bench_scipy.py)
 #    and prints the time ratio and the relative difference of the values.
@@ -34,6 +38,21 @@ if ! ${CC:-cc} -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L \
 fi
 "$B/bench_dsdk" -r "$RTOL" || echo "bench: bench_dsdk exited with status $?"
 "$B/bench_dsdk" -r "$RTOL" -a || echo "bench: bench_dsdk -a exited with status $?"
+
+echo
+echo "== high-energy method (scripts/bench_he.c)"
+if ${CC:-cc} -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L \
+     -Iinclude -I/usr/include/xraylib -o "$B/bench_he" scripts/bench_he.c \
+     "$B/libbrakelight.a" -lgsl -lgslcblas -lxrl -lm -pthread; then
+  "$B/bench_he" || echo "bench: bench_he exited with status $?"
+else
+  echo "bench: could not build $B/bench_he" >&2
+fi
+
+echo
+echo "== energy_loss (scripts/bench_integrated.lua)"
+"$B/brakelight" scripts/bench_integrated.lua \
+  || echo "bench: bench_integrated.lua exited with status $?"
 
 echo
 echo "== independent SciPy integration (scripts/bench_scipy.py), spin 1/2, Pb"

@@ -791,6 +791,29 @@ int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
 }
 
 
+int bl_method_breaks (const bl_case *c, const bl_he *h, int method,
+                      double *k, double *jump, int nmax) {
+  double m = c->particle.mass, E0 = 1.0 + c->t0;
+  double lambda = BL_HBARC_MEVFM / m;
+  int n = 0;
+  /* the Coulomb correction (a few per cent near the tip, up to 10 % on
+  ** the heaviest atoms) stops where the final gamma falls below 10 */
+  if (c->opts.coulomb == BL_APPLY_AUTO && E0 >= 100.0
+      && lambda >= 10.0 * bl_nucleus_radius(c->opts.A) && n < nmax
+      && method != BL_METHOD_HIGH_ENERGY && method != BL_METHOD_COMPLETE) {
+    k[n] = (E0 - 10.0) * m;
+    jump[n++] = 0.1;
+  }
+  /* "auto" changes method at the final gamma GFINAL_HE (within 1e-3) */
+  if (method == BL_METHOD_AUTO && h != NULL && h->ready && E0 > GFINAL_HE
+      && n < nmax) {
+    k[n] = (E0 - GFINAL_HE) * m;
+    jump[n++] = 1e-3;
+  }
+  return n;
+}
+
+
 static const char *const method_names[BL_METHOD_COUNT] = {
   "born", "high-energy", "complete", "auto"
 };

@@ -1333,8 +1333,8 @@ static int kpoint (void *ud, double k, bl_result *out) {
 /*
 ** Integrate the target's kind of cross section over (kmin, kmax): moment
 ** 0 into *r0 and, if r1 is not NULL, moment 1 into *r1 (on shared points);
-** if r0 is NULL, moment 1 alone into *r1.  The points take a quarter of
-** the tolerance, so that their errors leave room for the quadrature's.
+** if r0 is NULL, moment 1 alone into *r1.  The points take half the
+** tolerance, so that their errors leave room for the quadrature's.
 ** Raises on a hard failure.
 */
 static void kintegral (lua_State *L, KCtx *x, double kmin, double kmax,
@@ -1342,15 +1342,29 @@ static void kintegral (lua_State *L, KCtx *x, double kmin, double kmax,
   char at[96];
   int st;
   double rtol = x->o->rtol;
-  st = bl_quad_set_rtol(x->q, fmax(rtol / 4.0, RTOL_MIN));
+  st = bl_quad_set_rtol(x->q, fmax(rtol / 2.0, RTOL_MIN));
   if (st == BL_SUCCESS) {
     x->badZ = x->o->target.comp[0].Z;
     x->badk = kmin;
+    double kb[BL_KINT_MAXBREAK], jump[BL_KINT_MAXBREAK];
+    int nb = 0, i, j, n;
+    for (i = 0; i < x->cs->n && nb < BL_KINT_MAXBREAK && x->kind == PT_DK;
+         i++) {
+      n = bl_method_breaks(&x->cs->c[i], &x->cs->he[i], x->o->method,
+                           kb + nb, jump + nb, BL_KINT_MAXBREAK - nb);
+      for (j = nb; j < nb + n; j++)   /* a break that cannot matter: none */
+        if (jump[j] * (x->o->T - kb[j]) / x->o->T < 0.1 * rtol) {
+          kb[j] = kb[nb + n - 1];
+          jump[j--] = jump[nb + --n];
+        }
+      nb += n;
+    }
     st = r0 == NULL
-         ? bl_kintegral_e(kpoint, x, kmin, kmax, x->o->T, 1, rtol, r1)
+         ? bl_kintegral_e(kpoint, x, kmin, kmax, x->o->T, kb, nb, 1, rtol, r1)
          : r1 == NULL
-         ? bl_kintegral_e(kpoint, x, kmin, kmax, x->o->T, 0, rtol, r0)
-         : bl_kintegral2_e(kpoint, x, kmin, kmax, x->o->T, rtol, r0, r1);
+         ? bl_kintegral_e(kpoint, x, kmin, kmax, x->o->T, kb, nb, 0, rtol, r0)
+         : bl_kintegral2_e(kpoint, x, kmin, kmax, x->o->T, kb, nb, rtol, r0,
+                           r1);
   }
   bl_quad_set_rtol(x->q, rtol);
   x->o->Z = x->badZ;

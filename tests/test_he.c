@@ -312,17 +312,17 @@ static int polyf (void *ud, double k, bl_result *out) {
 Test(he, k_integrals_exact) {
   double T = 7.0;
   bl_result r0, r1;
-  cr_assert_eq(bl_kintegral_e(polyf, &T, 0.0, T, T, 1, 1e-10, &r1),
+  cr_assert_eq(bl_kintegral_e(polyf, &T, 0.0, T, T, NULL, 0, 1, 1e-10, &r1),
                BL_SUCCESS);
   cr_expect(fabs(r1.val / (2 * T) - 1) < 1e-11, "%.17g", r1.val);
-  cr_assert_eq(bl_kintegral2_e(polyf, &T, 0.01, 6.0, T, 1e-10, &r0, &r1),
+  cr_assert_eq(bl_kintegral2_e(polyf, &T, 0.01, 6.0, T, NULL, 0, 1e-10, &r0, &r1),
                BL_SUCCESS);
   cr_expect(fabs(r0.val / (log(600.0) + 2 * (6.0 - 0.01) / T) - 1) < 1e-10);
   cr_expect(fabs(r1.val / ((6.0 - 0.01) + (36.0 - 1e-4) / T) - 1) < 1e-10);
   cr_expect_eq(r0.method, BL_METHOD_COMPLETE);
-  cr_expect_eq(bl_kintegral_e(polyf, &T, 0.0, T, T, 0, 1e-6, &r0),
+  cr_expect_eq(bl_kintegral_e(polyf, &T, 0.0, T, T, NULL, 0, 0, 1e-6, &r0),
                BL_EDOMAIN, "moment 0 from k = 0 diverges: refused");
-  cr_expect_eq(bl_kintegral_e(polyf, &T, 1.0, 8.0, T, 0, 1e-6, &r0),
+  cr_expect_eq(bl_kintegral_e(polyf, &T, 1.0, 8.0, T, NULL, 0, 0, 1e-6, &r0),
                BL_EDOMAIN);
 }
 
