@@ -394,50 +394,50 @@ static void tails (int kind, const bl_yukawa *y, double m, double out[4]) {
 ** O(delta/q_N) < 1e-3 of N).  Costs 13 to 26 Born pairs once per particle
 ** mass, spin and radius.
 */
-static int nucpoint (const bl_case *bp, const bl_case *bu, double delta,
-                     double v, bl_quad *q, double *diff) {
+static int nucpoint (const bl_case *c, double delta, double v, bl_quad *q,
+                     double *diff) {
+  bl_opts o = bl_opts_bare;
+  bl_case cp, cu;
   bl_result rp, ru;
-  double gam = (1.0 - v) / (2.0 * delta), gam0 = gam / v;
-  double k = (gam0 - gam) * bp->particle.mass;   /* MeV */
-  bl_case cp = *bp, cu = *bu;
+  double m = c->particle.mass, gam = (1.0 - v) / (2.0 * delta);
+  double gam0 = gam / v, k = (gam0 - gam) * m;   /* MeV */
+  const bl_model *none = bl_model_get(BL_MODEL_NONE);
   int st;
-  cp.T = cu.T = (gam0 - 1.0) * bp->particle.mass;
-  cp.t0 = cu.t0 = gam0 - 1.0;
-  cp.qmax2 = cu.qmax2 = 4.0 * (sqrt(cp.t0 * (cp.t0 + 2.0)) + 1.0)
-                        * (sqrt(cp.t0 * (cp.t0 + 2.0)) + 1.0);
-  st = bl_dcs_dk_e(&cp, k, q, &rp);
+  o.A = c->opts.A;
+  st = bl_case_setup(&cp, &c->particle, c->Z, none, NULL, (gam0 - 1.0) * m,
+                     &o);
+  o.nucleus = BL_NUCLEUS_UNIFORM;
   if (st == BL_SUCCESS)
-    st = bl_dcs_dk_e(&cu, k, q, &ru);
-  *diff = (ru.val - rp.val) * k / bp->norm;
+    st = bl_case_setup(&cu, &c->particle, c->Z, none, NULL,
+                       (gam0 - 1.0) * m, &o);
+  if (st == BL_SUCCESS)
+    st = bl_dcs_dk_e(&cp, k, q, &rp);
+  if (st == BL_SUCCESS || st == GSL_EMAXITER || st == GSL_EROUND) {
+    int st2 = bl_dcs_dk_e(&cu, k, q, &ru);
+    if (st2 != GSL_EMAXITER && st2 != GSL_EROUND)
+      st = st2;   /* success keeps a miss of the first; failure wins */
+  }
+  if (st != BL_SUCCESS && st != GSL_EMAXITER && st != GSL_EROUND)
+    return st;
+  *diff = (ru.val - rp.val) * k / cp.norm;
   return st;
 }
 
 
 static int nucbuild (const bl_case *c, bl_quad *q, bl_nuctab *t) {
   static const double vs[2] = {0.5, 0.1};
-  bl_opts o = bl_opts_bare;
-  bl_case bp, bu;
   double qN = BL_HBARC_MEVFM / (c->R * c->particle.mass);
   int j, st;
-  o.A = c->opts.A;
-  st = bl_case_setup(&bp, &c->particle, c->Z, bl_model_get(BL_MODEL_NONE),
-                     NULL, c->T, &o);
-  o.nucleus = BL_NUCLEUS_UNIFORM;
-  if (st == BL_SUCCESS)
-    st = bl_case_setup(&bu, &c->particle, c->Z, bl_model_get(BL_MODEL_NONE),
-                       NULL, c->T, &o);
-  if (st != BL_SUCCESS)
-    return st;
   t->n = 0;
   for (j = 0; j < NUC_NODES; j++) {
     double delta = qN * pow(10.0, -3.0 + 0.25 * j), d[2], w1[2], w2[2];
     int i, nv = c->particle.spin > 0.25 ? 2 : 1;
     if (delta > NUC_TOP && t->n > 0)
       break;
-    if (delta > NUC_TOP)
-      delta = fmin(NUC_TOP, 1e-3 * qN) > 1e-4 ? 1e-4 : fmin(NUC_TOP, 1e-3 * qN);
+    if (delta > NUC_TOP)   /* q_N far above the small-angle range: one */
+      delta = 1e-4;        /* node, N is flat there */
     for (i = 0; i < nv; i++) {
-      st = nucpoint(&bp, &bu, delta, vs[i], q, &d[i]);
+      st = nucpoint(c, delta, vs[i], q, &d[i]);
       if (st != BL_SUCCESS && st != GSL_EMAXITER && st != GSL_EROUND)
         return st;   /* a tolerance miss leaves an estimate: use it */
       weights(c->particle.spin, vs[i], &w1[i], &w2[i]);
