@@ -1172,8 +1172,8 @@ static void newscratch (lua_State *L, size_t n, Scratch *s) {
 
 /*
 ** brakelight.spectrum{..., k = {...}} or {..., y = {...}}
-**   -> {k, y, dsdk, err, coulomb_applied, elwert_applied, per_gram, units,
-**       settings, warnings}
+**   -> {k, y, dsdk, err, coulomb_applied, elwert_applied, method, per_gram,
+**       threads, units, settings, warnings}
 */
 static int l_spectrum (lua_State *L) {
   static const char *const units[] = {

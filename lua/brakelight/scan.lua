@@ -92,6 +92,9 @@ scan.units = {
   T = "MeV", k = "MeV", E = "MeV", mass = "MeV", y = "1", rtol = "1",
   dsdk = "mb/MeV", d2sigma = "mb/(MeV sr)", theta = "rad", theta_k = "rad",
   theta_p = "rad", phi = "rad", charge = "e", spin = "hbar", Z = "1",
+  kmin = "MeV", kmax = "MeV", sigma = "mb", mean_k = "MeV",
+  dedx = "MeV cm^2/g", dsdomega = "mb/sr", thickness = "g/cm^2",
+  photons = "per incident particle",
 }
 
 local RESERVED = { with = true, key = true, index = true }
