@@ -55,19 +55,22 @@ local beams = {
 -- compute every spectrum; keep the warnings, each once with the runs it
 -- concerns
 local runs, warnings, seen = {}, {}, {}
+local function note(list, who)
+  for _, w in ipairs(list) do
+    if not seen[w] then
+      seen[w] = {}
+      warnings[#warnings + 1] = w
+    end
+    table.insert(seen[w], who)
+  end
+end
 local clock0 = os.clock()
 for _, b in ipairs(beams) do
   for _, s in ipairs(SCREENINGS) do
     local sp = bl.spectrum{ particle = b.particle, target = TARGET, T = b.T,
                             y = Y, screening = s, rtol = RTOL }
     runs[#runs + 1] = { beam = b, screening = s, sp = sp }
-    for _, w in ipairs(sp.warnings) do
-      if not seen[w] then
-        seen[w] = {}
-        warnings[#warnings + 1] = w
-      end
-      table.insert(seen[w], b.particle.name .. " " .. s)
-    end
+    note(sp.warnings, b.particle.name .. " " .. s)
   end
 end
 local seconds = os.clock() - clock0
@@ -127,6 +130,33 @@ print("ratios at equal y (exp = exponential screening); last column: " ..
       "at equal gamma, as the Born formula for a bare nucleus does")
 io.write(tabular.format(rcols, rrows))
 print()
+
+-- table 3: what the foil does to the beam and how many photons it makes,
+-- electrons with the module's defaults (Hartree-Fock screening, atomic
+-- electrons, uniform nucleus, corrections where they hold); the foil is
+-- 0.1 mm of tungsten, 0.193 g/cm^2 at the material's density
+do
+  local foil = bl.material(TARGET)
+  local t = 0.01 * foil.density
+  local el = bl.energy_loss{ particle = "electron", target = TARGET, T = T_E,
+                             rtol = RTOL }
+  local py = bl.photon_yield{ particle = "electron", target = TARGET, T = T_E,
+                              thickness = t, kmin = 0.1 * T_E, bins = 3,
+                              rtol = RTOL }
+  print(string.format("electrons, 0.1 mm %s foil (%.4g g/cm^2 = %.3g X0, " ..
+                      "method %s): radiated %.4g MeV cm^2/g (%.3g E/X0);",
+                      TARGET, t, py.thickness_X0, el.settings.method, el.dedx,
+                      el.dedx / el.E_over_X0))
+  io.write("photons per electron above 0.1 T:")
+  for i = 1, #py.photons do
+    io.write(string.format("  %g-%g MeV: %.4g", py.k_low[i], py.k_high[i],
+                           py.photons[i]))
+  end
+  print(string.format("  (total %.4g; %s)", py.total, py.note))
+  print()
+  note(el.warnings, "electron energy loss")
+  note(py.warnings, "electron photon yield")
+end
 
 if #warnings > 0 then
   print("warnings:")
