@@ -9,12 +9,9 @@
 
 local bl = require "brakelight"
 
-local function rel(a, b) return math.abs(a - b) / math.max(math.abs(a),
-                                                           math.abs(b)) end
-
-local function check(cond, fmt, ...)
-  if not cond then error(string.format(fmt, ...), 2) end
-end
+local numcheck = dofile((arg[0]:match("^(.*[/\\])") or "./")
+                       .. "lib/numcheck.lua")
+local rel, check = numcheck.rel, numcheck.check
 
 local check_error = dofile((arg[0]:match("^(.*[/\\])") or "./")
                            .. "lib/errcheck.lua")

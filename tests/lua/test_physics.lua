@@ -8,12 +8,9 @@
 
 local bl = require "brakelight"
 
-local function rel(a, b) return math.abs(a - b) / math.max(math.abs(a),
-                                                           math.abs(b)) end
-
-local function check(cond, fmt, ...)
-  if not cond then error(string.format(fmt, ...), 2) end
-end
+local numcheck = dofile((arg[0]:match("^(.*[/\\])") or "./")
+                       .. "lib/numcheck.lua")
+local rel, check = numcheck.rel, numcheck.check
 
 local ME = bl.particle("electron").mass
 
