@@ -33,8 +33,9 @@ int bl_method_find (const char *name);
 */
 typedef struct bl_hetab bl_hetab;
 
-/* Nuclear-size correction of phi1, phi2 for one particle mass, spin and
-** nuclear radius (cached likewise).  Opaque. */
+/* Nuclear-size correction of phi1, phi2 at one node of a grid in the
+** projectile mass times the nuclear radius, per spin (cached likewise).
+** Opaque. */
 typedef struct bl_nuctab bl_nuctab;
 
 /*
@@ -47,7 +48,9 @@ typedef struct bl_he {
   int ready;                  /* filled by bl_he_prepare */
   const bl_hetab *el, *e;     /* NULL: unscreened / no electron field */
   double tail_el[4], tail_e[4];
-  const bl_nuctab *nuc;       /* NULL: point nucleus */
+  int nnuc;                   /* 0: point nucleus; else 4 grid nodes in */
+  const bl_nuctab *nuc[4];    /* m R with cubic weights nucw */
+  double nucw[4];
   double maxerr;              /* worst interpolation error of the tables
                               ** (absolute, in units of phi) */
 } bl_he;
@@ -56,7 +59,7 @@ typedef struct bl_he {
 ** Fill *h for case c: fetch the screening tables of (Z, model) from the
 ** cache or build them (about 10 ms each, once per process; thread-safe).
 ** The nuclear-size correction of a uniform nucleus is computed from the
-** Born integral (once per particle mass, spin and radius) with the
+** Born integral (once per node of a grid in m R and spin) with the
 ** workspace q.  BL_SUCCESS, BL_ENOMEM, or the status of a failed Born
 ** calibration.
 */
