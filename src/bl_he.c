@@ -715,11 +715,8 @@ int bl_he_dk_e (const bl_case *c, const bl_he *h, double k, bl_result *out) {
     p1 += h->nucw[i] * N1;
     p2 += h->nucw[i] * N2;
   }
-  if (coul) {
-    f = bl_coulomb_f(c->particle.charge * c->Z * BL_ALPHA);
-    p1 -= 4.0 * f;
-    p2 -= 4.0 * f;
-  }
+  if (coul)   /* subtracted after the Elwert factor, as in bl_dcs.c */
+    f = 4.0 * bl_coulomb_f(c->particle.charge * c->Z * BL_ALPHA);
   if (h->e != NULL) {
     phis(h->e, h->tail_e, Delta, m, &e1, &e2);
     e1 /= c->Z;
@@ -727,14 +724,17 @@ int bl_he_dk_e (const bl_case *c, const bl_he *h, double k, bl_result *out) {
   }
   weights(kn.spin, v, &w1, &w2);
   kmev = kn.k * m;
-  out->val = c->norm / kmev * (w1 * (fe * p1 + e1) - w2 * (fe * p2 + e2));
+  out->val = c->norm / kmev * (w1 * (fe * p1 - f + e1)
+                               - w2 * (fe * p2 - f + e2));
   out->err = c->norm / kmev * (w1 + w2) * 4.0 * h->maxerr
              * (1.0 + (h->e != NULL ? 1.0 / c->Z : 0.0));
-  if (!(out->val > 0.0)) {   /* far outside the small-angle range */
-    out->val = 0.0;
-    out->warn |= BL_WARN_METHOD;
+  if (!isfinite(out->val) || !isfinite(out->err))
+    return GSL_ERANGE;
+  if (out->val <= 0.0) {   /* far outside the small-angle range, or the */
+    out->val = 0.0;        /* Coulomb correction above the rest */
+    out->warn |= coul ? BL_WARN_CLAMPED : BL_WARN_METHOD;
   }
-  return isfinite(out->val) ? BL_SUCCESS : GSL_ERANGE;
+  return BL_SUCCESS;
 }
 
 /* }====================================================== */
@@ -797,11 +797,13 @@ int bl_complete_dk_e (const bl_case *c, double k, bl_result *out) {
   weights(kn.spin, v, &w1, &w2);
   out->val = c->norm / (kn.k * m)   /* norm: z^4 Z^2 alpha r0^2 */
              * ((w1 - w2) * 4.0 * X + (4.0 / 9.0) * v * Y);
-  if (!(out->val > 0.0)) {
+  if (!isfinite(out->val))
+    return GSL_ERANGE;
+  if (out->val <= 0.0) {
     out->val = 0.0;
     out->warn |= BL_WARN_CLAMPED;
   }
-  return isfinite(out->val) ? BL_SUCCESS : GSL_ERANGE;
+  return BL_SUCCESS;
 }
 
 

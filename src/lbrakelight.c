@@ -387,7 +387,6 @@ static int optswitch (lua_State *L, const char *fname, const char *key) {
 ** them have already refused the keys.
 */
 static void optmethod (lua_State *L, Opts *o) {
-  char v[80];
   const char *s = getstr(L, 1, o->fname, "method");
   int st, mode;
   o->method = s == NULL ? METHOD_DEFAULT : bl_method_find(s);
@@ -415,7 +414,6 @@ static void optmethod (lua_State *L, Opts *o) {
   if (st != BL_SUCCESS)
     lbl_fail(L, "%s: cannot set up suppression '%s' for target %s: %s",
              o->fname, s, o->target.name, bl_strerror(st));
-  (void)v;
 }
 
 
