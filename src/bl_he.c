@@ -311,9 +311,9 @@ static double one_minus_I (double s) {
   if (s < 0.1)   /* sum_n (-1)^(n+1) s^2n (n!)^2/(2n+1)! */
     return s2 * (1.0 / 6.0 - s2 * (1.0 / 30.0 - s2 * (1.0 / 140.0
                  - s2 / 630.0)));
-  {
+  {   /* (w + 1)/(w - 1) = (w + 1)^2 s^2 / 4: no w - 1 at large s */
     double w = sqrt(1.0 + 4.0 / s2);
-    return 1.0 - 2.0 / (s2 * w) * log((w + 1.0) / (w - 1.0));
+    return 1.0 - 4.0 / (s2 * w) * log(0.5 * (w + 1.0) * s);
   }
 }
 
