@@ -79,6 +79,9 @@ static const bl_result *evaluate (kint *ki, double k) {
   if (e->used)
     return e->st == BL_SUCCESS || softstatus(e->st) ? &e->r : NULL;
   st = ki->f(ki->ud, k, &e->r);
+  if (st == BL_SUCCESS || softstatus(st))
+    if (!isfinite(e->r.val) || !isfinite(e->r.err))
+      st = GSL_ERANGE;   /* a non-finite point is a failure, never a 0 */
   e->k = k;
   e->st = st;
   e->used = 1;
@@ -87,7 +90,7 @@ static const bl_result *evaluate (kint *ki, double k) {
       ki->hard = st;
     return NULL;
   }
-  if (st != BL_SUCCESS || !isfinite(e->r.val) || !isfinite(e->r.err)) {
+  if (st != BL_SUCCESS) {
     ki->soft = 1;
     e->r.warn |= BL_WARN_TOLERANCE;
   }
@@ -129,8 +132,8 @@ static double integrand (double x, void *params) {
   if (!(k > 0.0) || !(k < ki->T))
     return 0.0;   /* only at a rounded end: measure zero */
   r = evaluate(ki, k);
-  if (r == NULL || !isfinite(r->val))
-    return 0.0;
+  if (r == NULL)
+    return 0.0;   /* a hard failure: the integral stops with it */
   return (ki->moment ? k : 1.0) * r->val * jac;
 }
 
