@@ -90,7 +90,7 @@ struct bl_hetab {
 #define NUC_NX    80                     /* ... to ln 3.8e5 */
 #define NUC_A     100.0  /* mass number of the probe nucleus of the grid */
 #define NUC_TOP   1e-2   /* no node above this delta (small angles end) */
-#define NUC_RTOL  1e-6   /* tolerance of the calibrating Born integrals */
+#define NUC_RTOL  1e-5   /* tolerance of the calibrating Born integrals */
 
 struct bl_nuctab {
   double spin;            /* the key: spin and grid index of m R */
