@@ -30,6 +30,7 @@
 ** the integrand is positive, so per-piece relative tolerance bounds the total.
 */
 
+#include <float.h>
 #include <math.h>
 
 #include <gsl/gsl_errno.h>
@@ -45,8 +46,10 @@
 ** the inner integrals get a single panel each, so a request the integrator
 ** cannot resolve in double precision ends in bounded time, flagged
 ** BL_ENOTCONV, instead of running for minutes.  Normal points use 1e3 to
-** 4e4 calls. */
+** 4e4 calls.  (The fuzzing build lowers it, Makefile "fuzz".) */
+#ifndef CALL_BUDGET
 #define CALL_BUDGET 5000000UL
+#endif
 /* Absolute tolerance of the later outer pieces, as a share of rtol times
 ** the value of the earlier ones. */
 #define TAIL_SHARE 0.1
@@ -236,11 +239,13 @@ int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
     bl_model_defaults(screening, c->params);
   c->T = T;
   c->t0 = T / p->mass;
-  if (!isfinite(c->t0) || c->t0 <= 0.0)
+  if (!(c->t0 > 0.0 && c->t0 <= BL_T0_MAX))
     return BL_EDOMAIN;
   r0 = BL_ALPHA * BL_HBARC_MEVFM / p->mass;             /* fm */
   z2 = p->charge * p->charge;
   c->norm = z2 * z2 * (double)Z * Z * BL_ALPHA * r0 * r0 / BL_FM2_PER_MB;
+  if (!(c->norm >= DBL_MIN && c->norm <= DBL_MAX))
+    return BL_EDOMAIN;   /* absurd mass or charge: no representable scale */
   if (screening->yukawa == NULL)
     return BL_EMODEL;
   c->opts = *o;
@@ -622,10 +627,10 @@ int bl_dcs_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
     return BL_EDOMAIN;
   integ_init(&it, c, q);
   st = setup(c, k, &it, &warn, &applied);
-  if (c->opts.coulomb == BL_APPLY_ON)
-    warn |= BL_WARN_COULOMB;   /* known for dsigma/dk only */
   if (st != BL_SUCCESS)
     return st;
+  if (c->opts.coulomb == BL_APPLY_ON)
+    warn |= BL_WARN_COULOMB;   /* known for dsigma/dk only */
   sh = sin(0.5 * theta_k);
   it.g.h0 = 2.0 * sh * sh;
   it.g.s0 = sin(theta_k);

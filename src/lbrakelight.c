@@ -400,6 +400,10 @@ static void readopts (lua_State *L, const char *fname,
   if (!(o->T > 0 && isfinite(o->T)))
     lbl_argfail(L, fname, "field 'T' must be > 0 MeV and finite, got %.14g",
             o->T);
+  if (o->T > BL_T0_MAX * o->particle.mass)   /* bl_case_setup's limit */
+    lbl_argfail(L, fname, "field 'T' must be at most %g times the particle "
+                "mass (%.14g MeV for %s), got %.14g", BL_T0_MAX,
+                BL_T0_MAX * o->particle.mass, o->particle.name, o->T);
   s = getstr(L, 1, fname, "screening");
   o->screening = bl_model_find(s ? s : SCREENING_DEFAULT);
   if (o->screening == NULL)
