@@ -214,3 +214,29 @@ fuzz: fuzz-build
 	./$(FUZZ_DIR)/fuzz_$(FUZZ) $(if $(filter lua,$(FUZZ)),$(FUZZ_LUA_OPTS),$(FUZZ_FORMULA_OPTS)) \
 	  -max_total_time=$(FUZZ_SECS) -print_final_stats=1 \
 	  -artifact_prefix=$(FUZZ_DIR)/ $(FUZZ_DIR)/corpus_$(FUZZ) tests/fuzz/$(FUZZ)
+
+# the Lua-level tests under valgrind memcheck (scripts/valgrind-lua.sh)
+valgrind: all
+	@bash scripts/valgrind-lua.sh
+
+# numerical health over the parameter space (scripts/sweep.lua): two
+# processes share the points, then their worst cases are merged into
+# $(SWEEP_DIR)/worst-<points>.txt.  sweep-smoke (2000 points) is in check.
+SWEEP_DIR  = build/sweep
+SWEEP_SEED ?= 6
+sweep-run: all
+	@mkdir -p $(SWEEP_DIR)
+	@./$(RUNNER) scripts/sweep.lua --points $(SWEEP_POINTS) --seed $(SWEEP_SEED) \
+	    --part 1/2 --out $(SWEEP_DIR)/part1-$(SWEEP_POINTS).txt & p1=$$!; \
+	  ./$(RUNNER) scripts/sweep.lua --points $(SWEEP_POINTS) --seed $(SWEEP_SEED) \
+	    --part 2/2 --out $(SWEEP_DIR)/part2-$(SWEEP_POINTS).txt; s=$$?; \
+	  wait $$p1 || s=1; \
+	  ./$(RUNNER) scripts/sweep.lua --seed $(SWEEP_SEED) \
+	    --out $(SWEEP_DIR)/worst-$(SWEEP_POINTS).txt --merge \
+	    $(SWEEP_DIR)/part1-$(SWEEP_POINTS).txt $(SWEEP_DIR)/part2-$(SWEEP_POINTS).txt \
+	    || s=1; exit $$s
+
+sweep:
+	@$(MAKE) --no-print-directory sweep-run SWEEP_POINTS=100000
+sweep-smoke:
+	@$(MAKE) --no-print-directory sweep-run SWEEP_POINTS=2000

@@ -345,6 +345,7 @@ static int setup (const bl_case *c, double k, integ *it, unsigned *warn,
 /* Phi(h0, h) at the current outer geometry and inner h. */
 static double phi_at (integ *it, double h) {
   bl_bracket br;
+  double v;
   if (h > 2.0) {   /* rounding at the ends of the range */
     it->g.dh += 2.0 - h;
     h = 2.0;
@@ -357,8 +358,12 @@ static double phi_at (integ *it, double h) {
   it->g.s = sqrt(h * (2.0 - h));
   bl_bracket_set(&it->kn, &it->g, &br);
   it->q->calls++;
-  return bl_bracket_azimuth(&br, it->c->npole, it->c->pole, it->single,
-                            it->nterm, it->term);
+  v = bl_bracket_azimuth(&br, it->c->npole, it->c->pole, it->single,
+                         it->nterm, it->term);
+  /* B >= 0 and W >= 0: a negative value is rounding of cancelling poles
+  ** (uniform nucleus without electrons, y -> 1; scripts/sweep.lua found
+  ** dsigma/dk < 0 there).  NaN passes on, to be reported. */
+  return v < 0.0 ? 0.0 : v;
 }
 
 
@@ -519,6 +524,19 @@ static void integ_init (integ *it, const bl_case *c, bl_quad *q) {
 
 
 /*
+** The tolerance warning whenever the reported error exceeds rtol |val|,
+** even where every integral converged (the inner errors added in finish,
+** or a Coulomb correction that leaves a small difference, can do that):
+** the error is then larger than asked for, and the result says so.  A
+** value clamped to 0 has its own warning.
+*/
+static void tolcheck (const bl_quad *q, bl_result *out) {
+  if (out->err > q->rtol * fabs(out->val) && !(out->warn & BL_WARN_CLAMPED))
+    out->warn |= BL_WARN_TOLERANCE;
+}
+
+
+/*
 ** Fill *out from a raw integral, its error and a factor; set the status
 ** warnings.  The inner integrals add their errors in the proportion they
 ** bear to their values, summed over all outer points (so an inner integral
@@ -538,6 +556,7 @@ static int finish (const integ *it, double val, double abserr, double factor,
   }
   if (it->status != GSL_SUCCESS)
     out->warn |= BL_WARN_TOLERANCE;
+  tolcheck(it->q, out);
   return it->status;
 }
 
@@ -610,6 +629,7 @@ int bl_dcs_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out) {
     coulomb(c, &it.kn, out);
     if (!isfinite(out->val) && st == BL_SUCCESS)
       st = GSL_ERANGE;
+    tolcheck(q, out);
   }
   return st;
 }
