@@ -99,6 +99,7 @@ static const char *const strings[] = {
   "mass", "atoms", "", " ", "%s%n", "x", "1", "1e3", "nan", "inf"
 };
 #define NSTRINGS (sizeof strings / sizeof strings[0])
+#define FIRST_NAME 39   /* strings[FIRST_NAME...]: models, switches, methods */
 
 
 /* Push a number: a listed one, raw bytes as a double, or an integer. */
@@ -351,10 +352,28 @@ static void genoption (lua_State *L, Bytes *b, const char *key, double T) {
   }
   else if (strcmp(key, "T") == 0)
     lua_pushnumber(L, T);   /* the T that k is scaled by */
+  else if (strncmp(key, "theta", 5) == 0 || strcmp(key, "phi") == 0)
+    lua_pushnumber(L, numbers[pick(b, NNUMBERS)]);
+  else if (strcmp(key, "screening") == 0 || strcmp(key, "nucleus") == 0
+           || strcmp(key, "method") == 0)
+    lua_pushstring(L, strings[FIRST_NAME + pick(b, NSTRINGS - FIRST_NAME)]);
   else if (pick(b, 2))   /* any other key: a number or a string */
     gennumber(L, b);
   else
     genstring(L, b);
+}
+
+
+/* Options a computation cannot do without: present more often. */
+static int required (const char *key) {
+  static const char *const req[] = {"particle", "target", "T", "k", "y",
+                                    "theta", "theta_k", "theta_p", "phi",
+                                    NULL};
+  int i;
+  for (i = 0; req[i] != NULL; i++)
+    if (strcmp(key, req[i]) == 0)
+      return 1;
+  return 0;
 }
 
 
@@ -466,7 +485,7 @@ static void onecall (lua_State *L, Bytes *b) {
         lua_setfield(L, -2, "T");
       }
       for (i = 0; i < (unsigned)nkeys[f]; i++)
-        if (pick(b, 4) != 0) {
+        if (pick(b, required(keys[f][i]) ? 16 : 3) != 0) {
           genoption(L, b, keys[f][i], T);
           lua_setfield(L, -2, keys[f][i]);
         }
