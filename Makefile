@@ -176,9 +176,10 @@ FUZZ_LUA_OPTS     = -timeout=30 -max_len=512 -rss_limit_mb=2048
 FUZZ_FORMULA_OPTS = -timeout=10 -max_len=800
 FUZZ_SMOKE_SECS  ?= 30
 
-.PHONY: test-asan fuzz-build fuzz-smoke fuzz valgrind valgrind-full sweep \
+.PHONY: test-asan fuzz-build fuzz-smoke fuzz valgrind sweep sweep-run \
         sweep-smoke
-check: test-asan fuzz-smoke valgrind sweep-smoke
+# part of make check (through test, after the quick suites)
+test: test-asan valgrind fuzz-smoke sweep-smoke
 
 # the Criterion suites under AddressSanitizer and UBSan (gcc)
 test-asan:

@@ -305,8 +305,45 @@ static void genvalue (lua_State *L, Bytes *b, int depth) {
 }
 
 
-/* Push a value meant for option `key` (mostly of the right kind). */
-static void genoption (lua_State *L, Bytes *b, const char *key, double T) {
+/* Fractions in (0, 1): photon energies k/T, angles in rad. */
+static const double fractions[] = {1e-6, 1e-3, 0.01, 0.1, 0.3, 0.5, 0.7,
+                                   0.9, 0.99, 0.999999};
+#define NFRAC (sizeof fractions / sizeof fractions[0])
+
+/*
+** Push a valid value for one of the options every computation needs, so
+** that a good share of the calls gets past the checks into the core;
+** returns 0 (nothing pushed) for other keys.
+*/
+static int genvalid (lua_State *L, Bytes *b, const char *key, double T) {
+  if (strcmp(key, "particle") == 0)
+    lua_pushstring(L, strings[pick(b, 9)]);   /* the presets */
+  else if (strcmp(key, "target") == 0)
+    lua_pushstring(L, strings[11 + pick(b, 13)]);   /* elements, formulas */
+  else if (strcmp(key, "k") == 0)
+    lua_pushnumber(L, T * fractions[pick(b, NFRAC)]);
+  else if (strcmp(key, "y") == 0 || strcmp(key, "theta") == 0) {
+    unsigned n = 1 + pick(b, MAXARRAY), i;
+    lua_createtable(L, (int)n, 0);
+    for (i = 1; i <= n; i++) {
+      lua_pushnumber(L, fractions[pick(b, NFRAC)]);
+      lua_rawseti(L, -2, (lua_Integer)i);
+    }
+  }
+  else if (strncmp(key, "theta", 5) == 0 || strcmp(key, "phi") == 0)
+    lua_pushnumber(L, 3.0 * fractions[pick(b, NFRAC)]);
+  else
+    return 0;
+  return 1;
+}
+
+
+/* Push a value meant for option `key` (mostly of the right kind); valid:
+** the options every computation needs are valid. */
+static void genoption (lua_State *L, Bytes *b, const char *key, double T,
+                       int valid) {
+  if (valid && genvalid(L, b, key, T))
+    return;
   if (pick(b, 8) == 0) {
     genvalue(L, b, 1);
     return;
@@ -462,7 +499,7 @@ static void learnkeys (lua_State *L, int i) {
 ** at index 2.  Returns nothing; aborts on a non-finite result.
 */
 static void onecall (lua_State *L, Bytes *b) {
-  unsigned f = pick(b, NFUNCS), i, nf;
+  unsigned f = pick(b, NFUNCS), i, nf, valid = pick(b, 2);
   double T = numbers[pick(b, NNUMBERS)];
   int base, nargs = 1, st;
   lua_getfield(L, 1, funcs[f]);
@@ -485,8 +522,9 @@ static void onecall (lua_State *L, Bytes *b) {
         lua_setfield(L, -2, "T");
       }
       for (i = 0; i < (unsigned)nkeys[f]; i++)
-        if (pick(b, required(keys[f][i]) ? 16 : 3) != 0) {
-          genoption(L, b, keys[f][i], T);
+        if ((valid && required(keys[f][i]))
+            || pick(b, required(keys[f][i]) ? 16 : 3) != 0) {
+          genoption(L, b, keys[f][i], T, valid);
           lua_setfield(L, -2, keys[f][i]);
         }
       nf = pick(b, MAXFIELDS) == 0 ? pick(b, MAXFIELDS) : 0;
