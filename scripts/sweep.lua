@@ -139,7 +139,9 @@ local function evaluate (i)
   elseif val < 0 or err < 0 then
     rec.verdict = "NEGATIVE"
   else
-    rec.score = val > 0 and err / (p.rtol * val) or (err > 0 and math.huge or 0)
+    -- a value clamped to 0 has no relative error: rank it last
+    rec.score = clamped and 0 or val > 0 and err / (p.rtol * val)
+                or (err > 0 and math.huge or 0)
     if rec.score > 1 and not tolwarn and not clamped then
       rec.verdict = "UNFLAGGED"   -- error above rtol without a warning
     else
@@ -190,6 +192,11 @@ local function write (summary, failures, byscore, bytime)
   assert(os.rename(opt.out .. ".tmp", opt.out))
 end
 
+-- a number as line() wrote it (%.3g writes inf)
+local function num (s)
+  return tonumber(s) or (s:find("inf", 1, true) and math.huge) or 0
+end
+
 -- read a part file back (for --merge)
 local function readpart (name, failures, byscore, bytime, totals)
   local f = assert(io.open(name))
@@ -203,8 +210,8 @@ local function readpart (name, failures, byscore, bytime, totals)
     elseif not l:match("^#") then
       local i, verdict, score, secs, val, err, text =
         l:match("^(%d+)\t([^\t]*)\t([^\t]*)\t([^\t]*)\t([^\t]*)\t([^\t]*)\t(.*)$")
-      local rec = {i = tonumber(i), verdict = verdict, score = tonumber(score),
-                   seconds = tonumber(secs), val = val, err = err, text = text}
+      local rec = {i = tonumber(i), verdict = verdict, score = num(score),
+                   seconds = num(secs), val = val, err = err, text = text}
       if section:find("failures") then failures[#failures + 1] = rec
       elseif section:find("largest") then keep(byscore, rec, "score", NWORST)
       else keep(bytime, rec, "seconds", NWORST) end
