@@ -154,3 +154,90 @@ test-install: all
 hf-table: | $(B)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -o $(B)/fit-hf scripts/fit-hf.c $(LIBS)
 	./$(B)/fit-hf -o src/bl_hf_table.c
+
+# ---- issue 6: reliability --------------------------------------------------
+# Extra compiler and linker flags for the instrumented builds below; each of
+# them builds the whole tree again in its own directory (B=build/asan,
+# B=build/fuzz) through a recursive make.
+SAN_FLAGS ?=
+CFLAGS += $(SAN_FLAGS)
+LIBS   += $(SAN_FLAGS)
+
+ASAN_DIR   = build/asan
+ASAN_FLAGS = -O1 -g -fno-omit-frame-pointer -fsanitize=address,undefined \
+             -fno-sanitize-recover=all
+FUZZ_DIR   = build/fuzz
+# the call budget of one integral is lowered so that a slow but legitimate
+# point costs well under the per-input timeout (tests/fuzz/fuzz_lua.c)
+FUZZ_FLAGS = -g -fno-omit-frame-pointer -fsanitize=fuzzer-no-link \
+             -fsanitize=address,undefined -fno-sanitize-recover=all \
+             -DCALL_BUDGET=200000UL
+FUZZ_LUA_OPTS     = -timeout=30 -max_len=512 -rss_limit_mb=2048
+FUZZ_FORMULA_OPTS = -timeout=10 -max_len=800
+FUZZ_SMOKE_SECS  ?= 30
+
+.PHONY: test-asan fuzz-build fuzz-smoke fuzz valgrind sweep sweep-run \
+        sweep-smoke
+# part of make check (through test, after the quick suites)
+test: test-asan valgrind fuzz-smoke sweep-smoke
+
+# the Criterion suites under AddressSanitizer and UBSan (gcc)
+test-asan:
+	@$(MAKE) --no-print-directory B=$(ASAN_DIR) SAN_FLAGS="$(ASAN_FLAGS)" test-c
+
+# libFuzzer harnesses (clang): tests/fuzz/fuzz_<name>.c
+$(B)/fuzz_%: tests/fuzz/fuzz_%.c $(BIND_OBJ) $(LIB)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -fsanitize=fuzzer -o $@ $< $(BIND_OBJ) $(LIB) \
+	  $(LUALIB) $(LIBS)
+
+fuzz-build:
+	@$(MAKE) --no-print-directory B=$(FUZZ_DIR) CC=clang \
+	  SAN_FLAGS="$(FUZZ_FLAGS)" $(FUZZ_DIR)/fuzz_lua $(FUZZ_DIR)/fuzz_formula
+
+# 2 x FUZZ_SMOKE_SECS seconds from the seed corpora in tests/fuzz/ (new
+# inputs go to build/fuzz/corpus_*, never into the source tree)
+fuzz-smoke: fuzz-build
+	@mkdir -p $(FUZZ_DIR)/corpus_lua $(FUZZ_DIR)/corpus_formula
+	./$(FUZZ_DIR)/fuzz_formula $(FUZZ_FORMULA_OPTS) \
+	  -max_total_time=$(FUZZ_SMOKE_SECS) -print_final_stats=1 \
+	  -artifact_prefix=$(FUZZ_DIR)/ \
+	  $(FUZZ_DIR)/corpus_formula tests/fuzz/formula
+	./$(FUZZ_DIR)/fuzz_lua $(FUZZ_LUA_OPTS) \
+	  -max_total_time=$(FUZZ_SMOKE_SECS) -print_final_stats=1 \
+	  -artifact_prefix=$(FUZZ_DIR)/ \
+	  $(FUZZ_DIR)/corpus_lua tests/fuzz/lua
+
+# long run of one harness: make fuzz FUZZ=lua FUZZ_SECS=600
+FUZZ      ?= lua
+FUZZ_SECS ?= 600
+fuzz: fuzz-build
+	@mkdir -p $(FUZZ_DIR)/corpus_$(FUZZ)
+	./$(FUZZ_DIR)/fuzz_$(FUZZ) $(if $(filter lua,$(FUZZ)),$(FUZZ_LUA_OPTS),$(FUZZ_FORMULA_OPTS)) \
+	  -max_total_time=$(FUZZ_SECS) -print_final_stats=1 \
+	  -artifact_prefix=$(FUZZ_DIR)/ $(FUZZ_DIR)/corpus_$(FUZZ) tests/fuzz/$(FUZZ)
+
+# the Lua-level tests under valgrind memcheck (scripts/valgrind-lua.sh)
+valgrind: all
+	@bash scripts/valgrind-lua.sh
+
+# numerical health over the parameter space (scripts/sweep.lua): two
+# processes share the points, then their worst cases are merged into
+# $(SWEEP_DIR)/worst-<points>.txt.  sweep-smoke (2000 points) is in check.
+SWEEP_DIR  = build/sweep
+SWEEP_SEED ?= 6
+sweep-run: all
+	@mkdir -p $(SWEEP_DIR)
+	@./$(RUNNER) scripts/sweep.lua --points $(SWEEP_POINTS) --seed $(SWEEP_SEED) \
+	    --part 1/2 --out $(SWEEP_DIR)/part1-$(SWEEP_POINTS).txt & p1=$$!; \
+	  ./$(RUNNER) scripts/sweep.lua --points $(SWEEP_POINTS) --seed $(SWEEP_SEED) \
+	    --part 2/2 --out $(SWEEP_DIR)/part2-$(SWEEP_POINTS).txt; s=$$?; \
+	  wait $$p1 || s=1; \
+	  ./$(RUNNER) scripts/sweep.lua --seed $(SWEEP_SEED) \
+	    --out $(SWEEP_DIR)/worst-$(SWEEP_POINTS).txt --merge \
+	    $(SWEEP_DIR)/part1-$(SWEEP_POINTS).txt $(SWEEP_DIR)/part2-$(SWEEP_POINTS).txt \
+	    || s=1; exit $$s
+
+sweep:
+	@$(MAKE) --no-print-directory sweep-run SWEEP_POINTS=100000
+sweep-smoke:
+	@$(MAKE) --no-print-directory sweep-run SWEEP_POINTS=2000

@@ -75,9 +75,16 @@ typedef struct bl_case {
   unsigned warn;              /* warnings that hold for every k (BL_WARN_*) */
 } bl_case;
 
+/* Largest T/m bl_case_setup accepts.  Beyond it the angular scales
+** (1/gamma^2 < 1e-30) fall below the rounding of the polar angles and the
+** integrals no longer converge; far beyond it (T/m ~ 1e154) the kinematics
+** overflow. */
+#define BL_T0_MAX 1e15
+
 /* Prepare a case.  Returns BL_SUCCESS; BL_EDOMAIN for an invalid particle,
-** Z outside 1..100 or T not in (0, inf); BL_EMODEL if the model has no
-** Yukawa form.  `params` may be NULL (defaults). */
+** Z outside 1..100, T not in (0, BL_T0_MAX m], or a particle whose
+** normalisation z^4 Z^2 alpha r0^2 is not a normal double; BL_EMODEL if
+** the model has no Yukawa form.  `params` may be NULL (defaults). */
 int bl_case_init (bl_case *c, const bl_particle *p, int Z,
                   const bl_model *screening, const double *params, double T);
 

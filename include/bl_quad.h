@@ -14,7 +14,9 @@ extern "C" {
 typedef struct bl_quad bl_quad;
 
 /* New workspace with at most `limit` subintervals per nesting level
-** (limit >= 8) and relative tolerance 1e-4.  NULL on allocation failure. */
+** (limit >= 8) and relative tolerance 1e-4.  NULL on allocation failure.
+** The first call in a process replaces GSL's default error handler (which
+** aborts) by none, unless the application has installed its own. */
 bl_quad *bl_quad_alloc (size_t limit);
 
 /* Free; NULL is a no-op. */

@@ -11,7 +11,10 @@
 # root.  Never reads standard input.
 set -euo pipefail
 
-pkgs=(liblua5.4-dev lua5.4 libgsl-dev libcriterion-dev libxrl-dev)
+# clang and its libFuzzer runtime (libclang-rt-dev): make fuzz-smoke;
+# valgrind: make valgrind (both part of make check)
+pkgs=(liblua5.4-dev lua5.4 libgsl-dev libcriterion-dev libxrl-dev clang
+      libclang-rt-dev valgrind)
 
 for opt in "$@"; do
   case "$opt" in

@@ -3,15 +3,36 @@
 ** See Copyright Notice in LICENSE
 */
 
+#include <pthread.h>
 #include <stdlib.h>
+
+#include <gsl/gsl_errno.h>
 
 #include "bl_errno.h"
 #include "bl_quad_impl.h"
 
 
+/*
+** GSL's default error handler prints and aborts; the core reads status
+** codes only.  The first bl_quad_alloc of the process switches the
+** handler off when, and only when, GSL's default is in place: a handler
+** of the application's own is put back untouched.  luaopen_brakelight and
+** the runner switch it off themselves; this covers a program that links
+** libbrakelight.a and does not (tests/test_gsl_errors.c).
+*/
+static pthread_once_t gsl_once = PTHREAD_ONCE_INIT;
+
+static void gsl_quiet (void) {
+  gsl_error_handler_t *prev = gsl_set_error_handler_off();
+  if (prev != NULL)   /* NULL: the default, which aborts */
+    gsl_set_error_handler(prev);
+}
+
+
 bl_quad *bl_quad_alloc (size_t limit) {
   bl_quad *q;
   int i;
+  pthread_once(&gsl_once, gsl_quiet);
   if (limit < 8)
     return NULL;
   q = calloc(1, sizeof *q);

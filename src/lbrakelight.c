@@ -440,6 +440,10 @@ static void readopts (lua_State *L, const char *fname,
   if (!(o->T > 0 && isfinite(o->T)))
     lbl_argfail(L, fname, "field 'T' must be > 0 MeV and finite, got %.14g",
             o->T);
+  if (o->T > BL_T0_MAX * o->particle.mass)   /* bl_case_setup's limit */
+    lbl_argfail(L, fname, "field 'T' must be at most %g times the particle "
+                "mass (%.14g MeV for %s), got %.14g", BL_T0_MAX,
+                BL_T0_MAX * o->particle.mass, o->particle.name, o->T);
   s = getstr(L, 1, fname, "screening");
   o->screening = bl_model_find(s ? s : SCREENING_DEFAULT);
   if (o->screening == NULL)
@@ -1003,6 +1007,56 @@ static void setresult (lua_State *L, int t, int first,
 
 /*
 ** {======================================================
+** Limits on the work of one call
+** A call computes all its points before it returns, and the runner sees
+** Ctrl-C only between Lua instructions, so a request that would run for
+** hours is refused up front (scans, lua/brakelight/scan.lua, save every
+** point and stop at Ctrl-C).  Estimated integrand calls per dsigma/dk
+** point, mean over electrons and muons on Pb, T = 1 MeV..100 GeV,
+** y = 0.01..0.99, default options (measured on the core, issue 6):
+** 7.4e3 at rtol 1e-2, 9.8e3 at 1e-4, 2.6e4 at 1e-8, 9.1e4 at 1e-12,
+** about 4.5e3 * 10^(0.11 log10(1/rtol)); the largest single points cost
+** 3 to 4 times the mean.  An angular point costs about 1/60 of that.
+** At roughly 0.4 microseconds per call, WORK_MAX is about an hour.
+** =======================================================
+*/
+
+#define WORK_MAX      1e10    /* integrand calls one call may plan */
+#define NS_PER_CALL   400.0   /* rough cost of one call, for the message */
+#define ANGULAR_SHARE 0.02    /* angular point / dsigma/dk point */
+
+/* Estimated integrand calls of one dsigma/dk point at tolerance rtol. */
+static double pointcost (double rtol) {
+  return 4.5e3 * pow(10.0, 0.11 * -log10(rtol));
+}
+
+
+/*
+** Refuse n points of array option `key` (each costing `share` of a
+** dsigma/dk point per element of the target) when the estimate exceeds
+** WORK_MAX, saying how many points this rtol allows.
+*/
+static void checkwork (lua_State *L, const Opts *o, const char *key,
+                       lua_Integer n, double share) {
+  double per = share * pointcost(o->rtol) * o->target.n;
+  double work = per * (double)n;
+  if (work > WORK_MAX)
+    lbl_argfail(L, o->fname, "field '%s' has %lld points: at rtol = %g on "
+                "%d element(s) that is about %.2g integrand calls (roughly "
+                "%.2g h on one core), more than one call may plan (%.0e); "
+                "allowed: at most %.0f points at this rtol; split them over "
+                "several calls or a scan (brakelight.scan), which saves "
+                "every point and can be interrupted and resumed", key,
+                (long long)n, o->rtol, o->target.n, work,
+                work * NS_PER_CALL * 1e-9 / 3600.0, WORK_MAX,
+                floor(WORK_MAX / per));
+}
+
+/* }====================================================== */
+
+
+/*
+** {======================================================
 ** Library functions
 ** =======================================================
 */
@@ -1207,6 +1261,7 @@ static int l_spectrum (lua_State *L) {
     axis = "y";
     n = optarray(L, &o, "y", 0, 1, 1, "(0, 1)");
   }
+  checkwork(L, &o, axis, n, 1.0);
   /* all checks done */
   q = getquad(L, &o);
   cs = makecases(L, &o);              /* 2: the cases */
@@ -1648,6 +1703,7 @@ static int l_angular (lua_State *L) {
   else
     optwindow(L, &o, &kmin, &kmax);
   n = optarray(L, &o, "theta", 0, BL_PI, 0, "[0, pi] rad");
+  checkwork(L, &o, "theta", n, ANGULAR_SHARE);
   /* all checks done */
   cs = kstart(L, &o, &x, &w);         /* 2: the cases */
   x.kind = PT_ANGULAR;

@@ -12,8 +12,9 @@ local scanfile = require "brakelight.scanfile"
 local scan = require "brakelight.scan"
 
 local dir = U.tmpdir()
--- a 3x3x2 scan; env STOP=N and HOW=exit|kill|error stop it when point N
--- is reached (before computing it); every computed point is logged
+-- a 3x3x2 scan; env STOP=N and HOW=exit|kill|int|error stop it when point
+-- N is reached (before computing it; int: Ctrl-C, SIGINT to the runner);
+-- every computed point is logged
 local script = dir .. "/scan.lua"
 U.write(script, [[
 local bl = require "brakelight"
@@ -28,6 +29,11 @@ local _, info = scan.run{
     if stop and pt:index() == stop then
       if how == "exit" then os.exit(3) end
       if how == "kill" then os.execute("kill -KILL $PPID") end
+      if how == "int" then  -- as Ctrl-C: a signal while Lua code runs
+        os.execute("(sleep 0.2; kill -INT $PPID) &")   -- system() ignores
+        local t = os.time()                           -- SIGINT until then
+        while os.time() - t < 10 do end
+      end
       error("planned failure at point " .. pt:index())
     end
     local f = assert(io.open(log, "a"))
@@ -47,16 +53,18 @@ local function lines(path)
 end
 
 local ok, err = pcall(function()
-  for _, how in ipairs({ "exit", "kill", "error" }) do
+  for _, how in ipairs({ "exit", "kill", "int", "error" }) do
     local out, log = dir .. "/r-" .. how .. ".csv", dir .. "/log-" .. how
     local args = U.q(out) .. " " .. U.q(log)
     local code, so, se = U.run("-q", script, args, "STOP=8 HOW=" .. how)
     U.check(code ~= 0, "%s: the stopped run exited with 0", how)
     if how == "error" then U.has(se, "planned failure at point 8", how) end
+    if how == "int" then U.has(se, "interrupted by signal 2", how) end
     local part = assert(scanfile.read(out), how .. ": no output after the stop")
     U.check(#part.records >= 1 and #part.records <= 7,
             "%s: %d records after stopping at point 8", how, #part.records)
-    if how == "error" then  -- an error in a point saves every earlier point
+    if how == "error" or how == "int" then
+      -- an error in a point, or Ctrl-C, saves every earlier point
       U.check(#part.records == 7, "error: %d records saved, expected 7",
               #part.records)
     end
