@@ -1024,6 +1024,8 @@ static void setresult (lua_State *L, int t, int first,
 #define WORK_MAX      1e10    /* integrand calls one call may plan */
 #define NS_PER_CALL   400.0   /* rough cost of one call, for the message */
 #define ANGULAR_SHARE 0.02    /* angular point / dsigma/dk point */
+#define KINT_POINTS   45.0    /* points of one integral over k (three
+                              ** 15-point segments, typical; issue 4) */
 
 /* Estimated integrand calls of one dsigma/dk point at tolerance rtol. */
 static double pointcost (double rtol) {
@@ -1586,6 +1588,7 @@ static int l_photon_yield (lua_State *L) {
                   "got %s", YIELD_MAXBINS, lbl_showval(L, -1, v, sizeof v));
   }
   lua_pop(L, 1);
+  checkwork(L, &o, "bins", nb, KINT_POINTS);
   sp = getstr(L, 1, o.fname, "spacing");
   if (sp != NULL && strcmp(sp, "log") == 0)
     logsp = 1;
@@ -1703,7 +1706,8 @@ static int l_angular (lua_State *L) {
   else
     optwindow(L, &o, &kmin, &kmax);
   n = optarray(L, &o, "theta", 0, BL_PI, 0, "[0, pi] rad");
-  checkwork(L, &o, "theta", n, ANGULAR_SHARE);
+  checkwork(L, &o, "theta", n, hask ? ANGULAR_SHARE
+                                    : ANGULAR_SHARE * KINT_POINTS);
   /* all checks done */
   cs = kstart(L, &o, &x, &w);         /* 2: the cases */
   x.kind = PT_ANGULAR;

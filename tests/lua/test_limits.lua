@@ -47,6 +47,17 @@ expect_error("angular", bl.angular,
    theta = fractions(200000, 0, math.pi)},
   {"field 'theta' has 200000 points", "on 32 element(s)", "allowed: at most"})
 
+-- photon yields and angular windows integrate over k for every bin or
+-- angle: each costs dozens of points (issue 4)
+expect_error("photon_yield", bl.photon_yield,
+  {particle = "electron", target = "Pb", T = 100, thickness = 1, kmin = 1,
+   bins = 100000, rtol = 1e-8},
+  {"field 'bins' has 100000 points", "allowed: at most"})
+expect_error("angular", bl.angular,
+  {particle = "electron", target = "W", T = 20, kmin = 1, rtol = 1e-12,
+   theta = fractions(300000, 0, math.pi)},
+  {"field 'theta' has 300000 points", "allowed: at most"})
+
 -- ordinary requests are not refused
 local s = bl.spectrum{particle = "electron", target = "W", T = 20,
                       y = {0.2, 0.8}, rtol = 1e-6}
