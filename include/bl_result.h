@@ -18,7 +18,8 @@ enum {
   BL_WARN_COULOMB   = 1u << 4,  /* Coulomb correction requested outside its validity */
   BL_WARN_ELWERT    = 1u << 5,  /* Elwert factor requested outside its validity */
   BL_WARN_STATIC_E  = 1u << 6,  /* atomic electrons as static charges: no recoil */
-  BL_WARN_CLAMPED   = 1u << 7,  /* Coulomb correction exceeded the Born value: 0 */
+  BL_WARN_CLAMPED   = 1u << 7,  /* value below zero (Coulomb correction, or the
+                                ** high-energy form outside its range): 0 */
   BL_WARN_METHOD    = 1u << 8,  /* high-energy or complete-screening form used
                                 ** where it does not hold */
   BL_WARN_SUPPRESS  = 1u << 9   /* LPM/dielectric suppression: an approximate

@@ -89,7 +89,14 @@ local function drawpoint (i)
   if math.random() < 0.5 then y = 1 - y end
   p.y = y
   p.k = y * p.T
-  if bl.methods then p.method = choice(methods) end
+  if bl.methods then
+    p.method = choice(methods)
+    if p.method == "complete" and p.screening == "none" then
+      -- refused by design (no complete-screening limit without screening;
+      -- tests/lua/test_integrated.lua checks the message): screen it
+      p.screening = choice{"exponential", "thomas-fermi", "hartree-fock"}
+    end
+  end
   return p
 end
 

@@ -41,7 +41,9 @@ const char *bl_warn_text (unsigned bit) {
       return "atomic electrons treated as static charges (no recoil): their "
              "share is overestimated for heavy projectiles";
     case BL_WARN_CLAMPED:
-      return "the Coulomb correction exceeds the Born value; result set to 0";
+      return "the Coulomb correction exceeds the Born value, or the "
+             "high-energy form went below zero far outside its range; "
+             "result set to 0";
     case BL_WARN_METHOD:
       return "the high-energy (small-angle) or complete-screening form is used "
              "where it does not hold";

@@ -726,13 +726,13 @@ int bl_he_dk_e (const bl_case *c, const bl_he *h, double k, bl_result *out) {
   kmev = kn.k * m;
   out->val = c->norm / kmev * (w1 * (fe * p1 - f + e1)
                                - w2 * (fe * p2 - f + e2));
-  out->err = c->norm / kmev * (w1 + w2) * 4.0 * h->maxerr
-             * (1.0 + (h->e != NULL ? 1.0 / c->Z : 0.0));
+  out->err = c->norm / kmev * (w1 + w2) * 4.0 * h->maxerr   /* tables */
+             * (fe + (h->e != NULL ? 1.0 / c->Z : 0.0));
   if (!isfinite(out->val) || !isfinite(out->err))
     return GSL_ERANGE;
   if (out->val <= 0.0) {   /* far outside the small-angle range, or the */
     out->val = 0.0;        /* Coulomb correction above the rest */
-    out->warn |= coul ? BL_WARN_CLAMPED : BL_WARN_METHOD;
+    out->warn |= BL_WARN_CLAMPED;
   }
   return BL_SUCCESS;
 }

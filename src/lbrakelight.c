@@ -852,8 +852,9 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
       break;
     case BL_WARN_CLAMPED:
       snprintf(msg, sizeof msg, "%s (%s on %s at T = %g MeV, near the tip of "
-               "the spectrum; coulomb = false gives the Born value)", text,
-               p->name, o->target.name, o->T);
+               "the spectrum; coulomb = false gives the uncorrected value, "
+               "method = 'born' the exact integral)", text, p->name,
+               o->target.name, o->T);
       break;
     default:
       snprintf(msg, sizeof msg, "%s (warning bit 0x%x)", text, bit);
