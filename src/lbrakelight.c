@@ -1424,8 +1424,12 @@ static void kintegral (lua_State *L, KCtx *x, double kmin, double kmax,
   }
   bl_quad_set_rtol(x->q, rtol);
   x->o->Z = x->badZ;
-  snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV (at k = "
-           "%.6g MeV)", kmin, kmax, x->badk);
+  if (st != BL_SUCCESS && !notconverged(st))   /* where it failed */
+    snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV, at "
+             "k = %.6g MeV", kmin, kmax, x->badk);
+  else
+    snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV", kmin,
+             kmax);
   if (r0 != NULL) {
     checkresult(L, x->o, st, r0, at);
     addwarn(x->w, r0, kmax, at);
