@@ -62,6 +62,23 @@ static int softstatus (int st) {
 }
 
 
+/* Add a usable point to the integral's warnings, methods and error. */
+static void account (kint *ki, const memo *e) {
+  if (e->st != BL_SUCCESS)
+    ki->soft = 1;   /* a point that did not converge: flagged at the end */
+  /* a point's own tolerance warning is not the integral's: its error is
+  ** in relerr, and the integral decides from its total error */
+  ki->warn |= e->r.warn & ~(unsigned)BL_WARN_TOLERANCE;
+  ki->applied |= e->r.applied;
+  if (ki->method == -2)
+    ki->method = e->r.method;
+  else if (ki->method != e->r.method)
+    ki->method = -1;
+  if (e->r.val != 0.0 && e->r.err / fabs(e->r.val) > ki->relerr)
+    ki->relerr = e->r.err / fabs(e->r.val);
+}
+
+
 /* f at k through the memo: NULL result pointer on a hard failure. */
 static const bl_result *evaluate (kint *ki, double k) {
   unsigned long long bits;
@@ -76,8 +93,12 @@ static const bl_result *evaluate (kint *ki, double k) {
     if (!e->used || e->k == k)
       break;
   }
-  if (e->used)
-    return e->st == BL_SUCCESS || softstatus(e->st) ? &e->r : NULL;
+  if (e->used) {   /* remembered: counted again for this moment */
+    if (e->st != BL_SUCCESS && !softstatus(e->st))
+      return NULL;
+    account(ki, e);
+    return &e->r;
+  }
   st = ki->f(ki->ud, k, &e->r);
   if (st == BL_SUCCESS || softstatus(st))
     if (!isfinite(e->r.val) || !isfinite(e->r.err))
@@ -90,18 +111,7 @@ static const bl_result *evaluate (kint *ki, double k) {
       ki->hard = st;
     return NULL;
   }
-  if (st != BL_SUCCESS) {
-    ki->soft = 1;
-    e->r.warn |= BL_WARN_TOLERANCE;
-  }
-  ki->warn |= e->r.warn;
-  ki->applied |= e->r.applied;
-  if (ki->method == -2)
-    ki->method = e->r.method;
-  else if (ki->method != e->r.method)
-    ki->method = -1;
-  if (e->r.val != 0.0 && e->r.err / fabs(e->r.val) > ki->relerr)
-    ki->relerr = e->r.err / fabs(e->r.val);
+  account(ki, e);
   return &e->r;
 }
 
