@@ -807,18 +807,32 @@ int bl_complete_dk_e (const bl_case *c, double k, bl_result *out) {
 }
 
 
+/*
+** The closed forms' error is that of their tables; where the value has
+** nearly cancelled (a method forced far outside its range) it can exceed
+** the requested tolerance, and then the result says so, as a Born point
+** does (bl_dcs.c, tolcheck).
+*/
+static int closedform (int st, const bl_quad *q, bl_result *out) {
+  if (st == BL_SUCCESS && q != NULL && !(out->warn & BL_WARN_CLAMPED)
+      && out->err > bl_quad_rtol(q) * fabs(out->val))
+    out->warn |= BL_WARN_TOLERANCE;
+  return st;
+}
+
+
 int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
                     bl_quad *q, bl_result *out) {
   switch (method) {
     case BL_METHOD_BORN:
       return bl_dcs_dk_e(c, k, q, out);
     case BL_METHOD_HIGH_ENERGY:
-      return bl_he_dk_e(c, h, k, out);
+      return closedform(bl_he_dk_e(c, h, k, out), q, out);
     case BL_METHOD_COMPLETE:
-      return bl_complete_dk_e(c, k, out);
+      return closedform(bl_complete_dk_e(c, k, out), q, out);
     case BL_METHOD_AUTO:
       if (c != NULL && h != NULL && h->ready && bl_he_valid(c, k))
-        return bl_he_dk_e(c, h, k, out);
+        return closedform(bl_he_dk_e(c, h, k, out), q, out);
       return bl_dcs_dk_e(c, k, q, out);
     default:
       clearresult(out, BL_METHOD_BORN);
