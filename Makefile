@@ -2,67 +2,54 @@
 #
 #   make          library, Lua module and runner under build/
 #   make demo     install missing Debian packages, build, run the demo recipe
-#   make check    install missing Debian packages, build, run every test
+#   make check    install missing Debian packages, build, lint, run every test
 #   make bench    timing benchmark (never part of the tests)
+#
+# Sections: configuration; the core library; the Lua module; the runner;
+# tests; reliability (sanitizers, valgrind, fuzzing, sweep); install;
+# benchmarks and generators.  Every object file has its dependency file
+# (-MMD), so a changed header rebuilds exactly what includes it.
 
+# ---- configuration ---------------------------------------------------------
 CC      ?= cc
 CFLAGS  ?= -O2
-CFLAGS  += -std=c11 -Wall -Wextra -Werror -fPIC -D_POSIX_C_SOURCE=200809L
-CPPFLAGS = -Iinclude -I/usr/include/lua5.4 -I/usr/include/xraylib
-LIBS     = -lgsl -lgslcblas -lxrl -lm
+CFLAGS  += -std=c11 -Wall -Wextra -Werror -fPIC -D_POSIX_C_SOURCE=200809L \
+           -pthread -MMD -MP
+LUAINC   = /usr/include/lua5.4
+CPPFLAGS = -Iinclude -Isrc/core -I/usr/include/xraylib
+LIBS     = -lgsl -lgslcblas -lxrl -lm -pthread
 LUALIB   = -llua5.4
+# Extra compiler and linker flags of the instrumented builds (test-asan,
+# fuzz-build): each builds the whole tree again in its own directory B.
+SAN_FLAGS ?=
+CFLAGS   += $(SAN_FLAGS)
+LIBS     += $(SAN_FLAGS)
 
 B = build
 
-CORE_SRC = $(sort $(wildcard src/bl_*.c))
+CORE_SRC = $(sort $(wildcard src/core/*/*.c))
 CORE_OBJ = $(CORE_SRC:src/%.c=$(B)/%.o)
+BIND_SRC = $(sort $(wildcard src/binding/*.c))
+BIND_OBJ = $(BIND_SRC:src/%.c=$(B)/%.o)
+RUN_SRC  = $(sort $(wildcard src/runner/*.c))
+RUN_OBJ  = $(RUN_SRC:src/%.c=$(B)/%.o)
 TEST_SRC = $(sort $(wildcard tests/test_*.c))
 TEST_BIN = $(TEST_SRC:tests/%.c=$(B)/%)
 REF_SRC  = $(sort $(wildcard tests/ref/*.c))
-REF_OBJ  = $(REF_SRC:tests/ref/%.c=$(B)/ref_%.o)
-
-BIND_SRC = $(sort $(wildcard src/l*.c))
-BIND_OBJ = $(BIND_SRC:src/%.c=$(B)/%.o)
+REF_OBJ  = $(REF_SRC:tests/ref/%.c=$(B)/ref/%.o)
 
 LIB    = $(B)/libbrakelight.a
 MODULE = $(B)/brakelight.so
 RUNNER = $(B)/brakelight
 
+.PHONY: all deps demo check test lint clean
 # keep the reference objects between test builds
 .SECONDARY:
-
-.PHONY: all deps demo check test test-c test-lua lint bench clean
 
 all: $(LIB) $(MODULE) $(RUNNER)
 
 deps:
 	@bash scripts/install-deps.sh
-
-$(B):
-	@mkdir -p $(B)
-
-$(B)/%.o: src/%.c $(wildcard include/*.h) $(wildcard src/*.h) | $(B)
-	$(CC) $(CPPFLAGS) $(CFLAGS) -c $< -o $@
-
-# The azimuthal closed form is the hot loop: at -O3 without errno from sqrt
-# (never read) GCC vectorizes its per-pole part; 15-20 % faster per point.
-$(B)/bl_kin.o: CFLAGS += -O3 -fno-math-errno
-
-$(B)/ref_%.o: tests/ref/%.c $(wildcard tests/ref/*.h) $(wildcard include/*.h) | $(B)
-	$(CC) $(CPPFLAGS) $(CFLAGS) -Itests/ref -c $< -o $@
-
-$(LIB): $(CORE_OBJ)
-	rm -f $@
-	ar rcs $@ $^
-
-$(MODULE): $(BIND_OBJ) $(LIB)
-	$(CC) -shared -o $@ $(BIND_OBJ) $(LIB) $(LIBS)
-
-$(RUNNER): $(B)/brakelight.o $(BIND_OBJ) $(LIB)
-	$(CC) -o $@ $(B)/brakelight.o $(BIND_OBJ) $(LIB) $(LUALIB) $(LIBS) -Wl,-E
-
-$(B)/test_%: tests/test_%.c $(REF_OBJ) $(LIB) $(wildcard tests/ref/*.h)
-	$(CC) $(CPPFLAGS) $(CFLAGS) -Itests/ref -o $@ $< $(REF_OBJ) $(LIB) -lcriterion $(LIBS)
 
 demo: deps
 	@$(MAKE) --no-print-directory all
@@ -71,98 +58,84 @@ demo: deps
 check: deps
 	@$(MAKE) --no-print-directory all lint test
 
-test: test-c test-lua
+clean:
+	rm -rf $(B)
 
+-include $(wildcard $(B)/*.d $(B)/*/*.d $(B)/*/*/*.d)
+
+# ---- the core library (no Lua inside) --------------------------------------
+$(B)/core/%.o: src/core/%.c
+	@mkdir -p $(@D)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -c $< -o $@
+
+# The azimuthal closed form is the hot loop: at -O3 without errno from sqrt
+# (never read) GCC vectorizes its per-pole part; 15-20 % faster per point.
+$(B)/core/born/kin.o: CFLAGS += -O3 -fno-math-errno
+
+$(LIB): $(CORE_OBJ)
+	rm -f $@
+	ar rcs $@ $^
+
+# ---- the Lua module --------------------------------------------------------
+$(B)/binding/%.o: src/binding/%.c
+	@mkdir -p $(@D)
+	$(CC) $(CPPFLAGS) -I$(LUAINC) $(CFLAGS) -c $< -o $@
+
+$(MODULE): $(BIND_OBJ) $(LIB)
+	$(CC) -shared -o $@ $(BIND_OBJ) $(LIB) $(LIBS)
+
+# ---- the runner --------------------------------------------------------------
+$(B)/runner/%.o: src/runner/%.c
+	@mkdir -p $(@D)
+	$(CC) $(CPPFLAGS) -I$(LUAINC) $(CFLAGS) -c $< -o $@
+
+$(RUNNER): $(RUN_OBJ) $(BIND_OBJ) $(LIB)
+	$(CC) -o $@ $(RUN_OBJ) $(BIND_OBJ) $(LIB) $(LUALIB) $(LIBS) -Wl,-E
+
+# ---- tests -------------------------------------------------------------------
+# Every part of the suite; make check runs them all after lint.
+.PHONY: test-c test-lua test-embed test-install
+test: test-c test-lua test-embed test-install test-asan valgrind fuzz-smoke \
+      sweep-smoke
+
+# The core must not know Lua: no file of src/core/ or include/brakelight/bl_*
+# includes a Lua header.
 lint:
-	@! grep -l 'lua\.h\|lauxlib\.h' src/bl_*.c include/bl_*.h \
-	  || { echo "lint: a core file (src/bl_*.c, include/bl_*.h) includes Lua"; exit 1; }
+	@! grep -rl 'lua\.h\|lauxlib\.h' src/core include/brakelight/bl_*.h \
+	  include/brakelight.h \
+	  || { echo "lint: a core file (src/core/, include/brakelight/bl_*.h) includes Lua"; exit 1; }
 	@echo "lint: core files are free of Lua"
+
+# Criterion suites, one per room, core only
+$(B)/ref/%.o: tests/ref/%.c
+	@mkdir -p $(@D)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -Itests/ref -c $< -o $@
+
+$(B)/test_%: tests/test_%.c $(REF_OBJ) $(LIB)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -Itests/ref -o $@ $< $(REF_OBJ) $(LIB) \
+	  -lcriterion $(LIBS)
 
 test-c: $(TEST_BIN)
 	@set -e; for t in $(TEST_BIN); do echo "== $$t"; ./$$t --jobs 2; done
 
+# tests/lua/*.lua through the runner, and the stock interpreter
 test-lua: $(MODULE) $(RUNNER)
 	@bash scripts/run-lua-tests.sh
 
-bench: all
-	@bash scripts/bench.sh
-
-clean:
-	rm -rf $(B)
-
-# ---- issue 5: threads, install, scans -------------------------------------
-# the core starts POSIX threads (src/bl_spectrum.c)
-CFLAGS += -pthread
-LIBS   += -pthread
-
 # a C program that embeds Lua and loads the module (tests/embed/embed.c)
-$(B)/embed: tests/embed/embed.c | $(B)
-	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $< $(LUALIB) -lm -ldl -Wl,-E
+$(B)/embed: tests/embed/embed.c
+	@mkdir -p $(@D)
+	$(CC) $(CPPFLAGS) -I$(LUAINC) $(CFLAGS) -o $@ $< $(LUALIB) -lm -ldl -Wl,-E
 
-.PHONY: test-embed install uninstall rock-install
-test: test-embed
 test-embed: $(B)/embed $(MODULE)
 	@./$(B)/embed "$(CURDIR)/"
 
-# make install PREFIX=... [DESTDIR=...]: library, headers, Lua module, Lua
-# helpers and recipes, runner, man page
-PREFIX  ?= /usr/local
-LUAVER   = 5.4
-BINDIR   = $(DESTDIR)$(PREFIX)/bin
-LIBDIR   = $(DESTDIR)$(PREFIX)/lib
-INCDIR   = $(DESTDIR)$(PREFIX)/include
-CMODDIR  = $(DESTDIR)$(PREFIX)/lib/lua/$(LUAVER)
-LMODDIR  = $(DESTDIR)$(PREFIX)/share/lua/$(LUAVER)
-SHAREDIR = $(DESTDIR)$(PREFIX)/share/brakelight
-MANDIR   = $(DESTDIR)$(PREFIX)/share/man/man1
-
-install: all
-	install -d $(BINDIR) $(LIBDIR) $(INCDIR) $(CMODDIR) $(LMODDIR)/brakelight \
-	  $(SHAREDIR)/lua/recipes $(MANDIR)
-	install -m 755 $(RUNNER) $(BINDIR)/brakelight
-	install -m 644 $(LIB) $(LIBDIR)/libbrakelight.a
-	install -m 644 include/*.h $(INCDIR)/
-	install -m 755 $(MODULE) $(CMODDIR)/brakelight.so
-	install -m 644 lua/brakelight/*.lua $(LMODDIR)/brakelight/
-	install -m 644 lua/recipes/*.lua $(SHAREDIR)/lua/recipes/
-	install -m 644 scripts/brakelight.1 $(MANDIR)/brakelight.1
-
-uninstall:
-	rm -f $(BINDIR)/brakelight $(LIBDIR)/libbrakelight.a $(CMODDIR)/brakelight.so \
-	  $(MANDIR)/brakelight.1
-	rm -f $(addprefix $(INCDIR)/,$(notdir $(wildcard include/*.h)))
-	rm -rf $(LMODDIR)/brakelight $(SHAREDIR)
-
-# luarocks make scripts/brakelight-0.1.0-1.rockspec ("make" build type):
-# luarocks passes its directories as INST_*
-rock-install: all
-	install -d $(INST_LIBDIR) $(INST_LUADIR)/brakelight $(INST_BINDIR)
-	install -m 755 $(MODULE) $(INST_LIBDIR)/brakelight.so
-	install -m 644 lua/brakelight/*.lua $(INST_LUADIR)/brakelight/
-	install -m 755 $(RUNNER) $(INST_BINDIR)/brakelight
-
 # make install into a scratch prefix, then use the installed runner and the
 # installed module from the stock interpreter
-test: test-install
 test-install: all
 	@bash scripts/check-install.sh
 
-.PHONY: hf-table
-
-# Regenerate src/bl_hf_table.c: Yukawa fits of xraylib's F and S for the
-# "hartree-fock" model (about 2 min). Never part of all or check.
-hf-table: | $(B)
-	$(CC) $(CPPFLAGS) $(CFLAGS) -o $(B)/fit-hf scripts/fit-hf.c $(LIBS)
-	./$(B)/fit-hf -o src/bl_hf_table.c
-
-# ---- issue 6: reliability --------------------------------------------------
-# Extra compiler and linker flags for the instrumented builds below; each of
-# them builds the whole tree again in its own directory (B=build/asan,
-# B=build/fuzz) through a recursive make.
-SAN_FLAGS ?=
-CFLAGS += $(SAN_FLAGS)
-LIBS   += $(SAN_FLAGS)
-
+# ---- reliability -------------------------------------------------------------
 ASAN_DIR   = build/asan
 ASAN_FLAGS = -O1 -g -fno-omit-frame-pointer -fsanitize=address,undefined \
              -fno-sanitize-recover=all
@@ -178,8 +151,6 @@ FUZZ_SMOKE_SECS  ?= 30
 
 .PHONY: test-asan fuzz-build fuzz-smoke fuzz valgrind sweep sweep-run \
         sweep-smoke
-# part of make check (through test, after the quick suites)
-test: test-asan valgrind fuzz-smoke sweep-smoke
 
 # the Criterion suites under AddressSanitizer and UBSan (gcc)
 test-asan:
@@ -187,8 +158,8 @@ test-asan:
 
 # libFuzzer harnesses (clang): tests/fuzz/fuzz_<name>.c
 $(B)/fuzz_%: tests/fuzz/fuzz_%.c $(BIND_OBJ) $(LIB)
-	$(CC) $(CPPFLAGS) $(CFLAGS) -fsanitize=fuzzer -o $@ $< $(BIND_OBJ) $(LIB) \
-	  $(LUALIB) $(LIBS)
+	$(CC) $(CPPFLAGS) -I$(LUAINC) $(CFLAGS) -fsanitize=fuzzer -o $@ $< \
+	  $(BIND_OBJ) $(LIB) $(LUALIB) $(LIBS)
 
 fuzz-build:
 	@$(MAKE) --no-print-directory B=$(FUZZ_DIR) CC=clang \
@@ -241,3 +212,54 @@ sweep:
 	@$(MAKE) --no-print-directory sweep-run SWEEP_POINTS=100000
 sweep-smoke:
 	@$(MAKE) --no-print-directory sweep-run SWEEP_POINTS=2000
+
+# ---- install -----------------------------------------------------------------
+# make install PREFIX=... [DESTDIR=...]: library, headers, Lua module, Lua
+# helpers and recipes, runner, man page
+.PHONY: install uninstall rock-install
+PREFIX  ?= /usr/local
+LUAVER   = 5.4
+BINDIR   = $(DESTDIR)$(PREFIX)/bin
+LIBDIR   = $(DESTDIR)$(PREFIX)/lib
+INCDIR   = $(DESTDIR)$(PREFIX)/include
+CMODDIR  = $(DESTDIR)$(PREFIX)/lib/lua/$(LUAVER)
+LMODDIR  = $(DESTDIR)$(PREFIX)/share/lua/$(LUAVER)
+SHAREDIR = $(DESTDIR)$(PREFIX)/share/brakelight
+MANDIR   = $(DESTDIR)$(PREFIX)/share/man/man1
+
+install: all
+	install -d $(BINDIR) $(LIBDIR) $(INCDIR)/brakelight $(CMODDIR) \
+	  $(LMODDIR)/brakelight $(SHAREDIR)/lua/recipes $(MANDIR)
+	install -m 755 $(RUNNER) $(BINDIR)/brakelight
+	install -m 644 $(LIB) $(LIBDIR)/libbrakelight.a
+	install -m 644 include/brakelight.h $(INCDIR)/
+	install -m 644 include/brakelight/*.h $(INCDIR)/brakelight/
+	install -m 755 $(MODULE) $(CMODDIR)/brakelight.so
+	install -m 644 lua/brakelight/*.lua $(LMODDIR)/brakelight/
+	install -m 644 lua/recipes/*.lua $(SHAREDIR)/lua/recipes/
+	install -m 644 scripts/brakelight.1 $(MANDIR)/brakelight.1
+
+uninstall:
+	rm -f $(BINDIR)/brakelight $(LIBDIR)/libbrakelight.a $(CMODDIR)/brakelight.so \
+	  $(MANDIR)/brakelight.1 $(INCDIR)/brakelight.h
+	rm -rf $(INCDIR)/brakelight $(LMODDIR)/brakelight $(SHAREDIR)
+
+# luarocks make scripts/brakelight-0.1.0-1.rockspec ("make" build type):
+# luarocks passes its directories as INST_*
+rock-install: all
+	install -d $(INST_LIBDIR) $(INST_LUADIR)/brakelight $(INST_BINDIR)
+	install -m 755 $(MODULE) $(INST_LIBDIR)/brakelight.so
+	install -m 644 lua/brakelight/*.lua $(INST_LUADIR)/brakelight/
+	install -m 755 $(RUNNER) $(INST_BINDIR)/brakelight
+
+# ---- benchmarks and generators ---------------------------------------------
+.PHONY: bench hf-table
+bench: all
+	@bash scripts/bench.sh
+
+# Regenerate src/core/models/hf_table.c: Yukawa fits of xraylib's F and S
+# for the "hartree-fock" model (about 2 min). Never part of all or check.
+hf-table:
+	@mkdir -p $(B)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -o $(B)/fit-hf scripts/fit-hf.c $(LIBS)
+	./$(B)/fit-hf -o src/core/models/hf_table.c

@@ -1,24 +1,25 @@
 /*
-** brakelight.h -- umbrella header of the brakelight core
+** brakelight.h -- umbrella header of the brakelight core: every public
+** header of include/brakelight/
 ** See Copyright Notice in LICENSE
 */
 #ifndef BRAKELIGHT_H
 #define BRAKELIGHT_H
 
-#define BL_VERSION "0.1.0"
-
-#include "bl_const.h"
-#include "bl_errno.h"
-#include "bl_result.h"
-#include "bl_particle.h"
-#include "bl_element.h"
-#include "bl_models.h"
-#include "bl_quad.h"
-#include "bl_dcs.h"
-#include "bl_material.h"
-#include "bl_spectrum.h"
-#include "bl_he.h"
-#include "bl_integral.h"
-#include "bl_suppress.h"
+#include "brakelight/bl_version.h"
+#include "brakelight/bl_const.h"
+#include "brakelight/bl_errno.h"
+#include "brakelight/bl_result.h"
+#include "brakelight/bl_particle.h"
+#include "brakelight/bl_element.h"
+#include "brakelight/bl_models.h"
+#include "brakelight/bl_quad.h"
+#include "brakelight/bl_dcs.h"
+#include "brakelight/bl_corrections.h"
+#include "brakelight/bl_material.h"
+#include "brakelight/bl_method.h"
+#include "brakelight/bl_spectrum.h"
+#include "brakelight/bl_integral.h"
+#include "brakelight/bl_suppress.h"
 
 #endif

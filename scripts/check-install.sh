@@ -25,6 +25,6 @@ lua5.4 -e "
   assert(bl._VERSION and plot.draw)
   assert(package.searchpath('brakelight', package.cpath):find('inst-test', 1, true))"
 test -f "$prefix/share/man/man1/brakelight.1"
-test -f "$prefix/include/bl_spectrum.h" -a -f "$prefix/lib/libbrakelight.a"
+test -f "$prefix/include/brakelight/bl_spectrum.h" -a -f "$prefix/lib/libbrakelight.a"
 test -f "$prefix/share/brakelight/lua/recipes/sharded_scan.lua"
 echo "test-install: make install PREFIX=... gives a working runner and module"

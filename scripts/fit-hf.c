@@ -1,12 +1,12 @@
 /*
 ** fit-hf.c -- Yukawa sums fitted to xraylib's tabulated F and S; writes the
-** generated table of the "hartree-fock" screening model (src/bl_hf_table.c)
+** generated table of the "hartree-fock" screening model (src/core/models/hf_table.c)
 ** See Copyright Notice in LICENSE
 **
 ** Run through `make hf-table` (never by `make` or `make check`):
 **
 **   fit-hf [-n NF NS] [-o FILE]   fit Z = 1..100 and write FILE (default
-**                                 src/bl_hf_table.c); summary on stderr;
+**                                 src/core/models/hf_table.c); summary on stderr;
 **                                 default 4 terms for F and 4 for S
 **   fit-hf -s                     summary only, nothing written
 **   fit-hf -c                     the scan behind the cut (below), then exit
@@ -20,7 +20,7 @@
 ** (SF_Compt) of the free atoms Z = 1..98, x = sin(theta/2)/lambda in 1/A,
 ** i.e. x = |q| / (4 pi) with |q| in 1/A, |q| [1/A] = q [MeV] / (hbar c),
 ** hbar c = 1.973269804e-3 MeV A.  The core needs them as Yukawa sums
-** (include/bl_models.h):
+** (include/brakelight/bl_models.h):
 **
 **   F(x)/Z = sum_i alpha_i b_i^2 / (b_i^2 + x^2),
 **   S(x)/Z = sum_i alpha_i x^2 / (b_i^2 + x^2),     sum_i alpha_i = 1,
@@ -110,7 +110,7 @@
 #include <gsl/gsl_version.h>
 #include <xraylib.h>
 
-#include "bl_const.h"
+#include "brakelight/bl_const.h"
 
 #define ZTAB      98          /* last element xraylib tabulates */
 #define ZOUT      100         /* elements written (BL_ZMAX) */
@@ -946,7 +946,7 @@ static void usage (void) {
           "usage: fit-hf [-n NF NS] [-o FILE] [-s] [-c] [-v Z] [-z LIST] "
           "[-p] [-l LAMBDA] [-w N]\n"
           "  -n NF NS   terms of the F and S sums (1..%d; default %d %d)\n"
-          "  -o FILE    output (default src/bl_hf_table.c)\n"
+          "  -o FILE    output (default src/core/models/hf_table.c)\n"
           "  -s         summary only, write nothing\n"
           "  -c         print the scan behind the cut and exit\n"
           "  -v Z       print table and fit of element Z (stdout)\n"
@@ -1003,7 +1003,7 @@ static int write_table (const char *path, int nf, int ns,
   }
   fprintf(out,
     "/*\n"
-    "** bl_hf_table.c -- Yukawa fits of the Hartree-Fock F and S per element\n"
+    "** hf_table.c -- Yukawa fits of the Hartree-Fock F and S per element\n"
     "** See Copyright Notice in LICENSE\n"
     "**\n"
     "** GENERATED FILE, do not edit: made by scripts/fit-hf.c through\n"
@@ -1032,7 +1032,7 @@ static int write_table (const char *path, int nf, int ns,
     "**   max rel.: %.2e with F (Z = %d), %.2e with S (Z = %d)\n"
     "**   largest sum |alpha_i|: %.2f (F, Z = %d), %.2f (S, Z = %d)\n"
     "*/\n\n"
-    "#include \"bl_internal.h\"\n\n"
+    "#include \"models/internal.h\"\n\n"
     "/* The cut in MeV (x = %g 1/A). */\n"
     "const double bl_hf_qmax = %.17g;\n\n"
     "/* Index Z - 1: F terms (alpha, b), S terms (alpha, b), the Z whose\n"
@@ -1070,7 +1070,7 @@ static int write_table (const char *path, int nf, int ns,
 int main (int argc, char **argv) {
   static fit fits[2][ZOUT + 1];
   static check chk[2][ZOUT + 1];
-  const char *path = "src/bl_hf_table.c";
+  const char *path = "src/core/models/hf_table.c";
   int nf = 4, ns = 4, only_summary = 0, verbose_z = 0, a, Z, k;
   summary sf, ss;
   for (a = 1; a < argc; a++) {

@@ -82,7 +82,7 @@ check() {
 
 version_line() {
   local v
-  v=$(sed -n 's/^#define BL_VERSION "\(.*\)".*/\1/p' include/brakelight.h)
+  v=$(sed -n 's/^#define BL_VERSION "\(.*\)".*/\1/p' include/brakelight/bl_version.h)
   out=$("$runner" --version) || return 1
   echo "got: $out"
   [ "$out" = "brakelight $v (Lua 5.4)" ]

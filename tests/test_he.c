@@ -84,7 +84,7 @@ Test(he, matches_born_above_1e3_m) {
 
 
 /*
-** The switch of "auto" (final gamma = 500, bl_he.c): there the two methods
+** The switch of "auto" (final gamma = 500, src/core/methods/): there the two methods
 ** agree within 1e-3 (the issue's requirement), for e, mu and pi on light
 ** to the heaviest atoms, every model.  Source: internal consistency.
 */
@@ -315,7 +315,7 @@ static int polyf (void *ud, double k, bl_result *out) {
 
 /* Source: elementary integrals.  int_0^T k f = T + T = 2T exactly (the
 ** k -> 0 end handled by the map, never cut; the last 1e-12 T below T is
-** left out, bl_integral.c, hence 1e-11); int_a^b f = ln(b/a) +
+** left out, src/core/target/integral.c, hence 1e-11); int_a^b f = ln(b/a) +
 ** 2(b - a)/T. */
 Test(he, k_integrals_exact) {
   double T = 7.0;

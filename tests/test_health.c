@@ -5,7 +5,7 @@
 ** Internal consistency, no outside source: a cross section is never
 ** negative, and a result whose error exceeds rtol |value| carries the
 ** tolerance warning.  The points are from `make sweep-smoke` (seed 6),
-** before the fixes in src/bl_dcs.c (phi_at, tolcheck); the T/m limit and
+** before the fixes in src/core/born/dcs.c (phi_at, tolcheck); the T/m limit and
 ** the normalisation check of bl_case_setup were found by the fuzzer.
 */
 

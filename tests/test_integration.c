@@ -162,7 +162,7 @@ Test(integration, high_energy_both_spins) {
 ** Far corners of the parameter space (beyond the 1e6 m of the accuracy
 ** claim too): every dsigma/dk is finite and positive with a finite error;
 ** a point that misses the tolerance says so; none runs away (the call
-** budget of bl_dcs.c bounds the work).  Inside T/m <= 1e6 with screening,
+** budget of src/core/born/dcs.c bounds the work).  Inside T/m <= 1e6 with screening,
 ** the tolerance is met.  Regression: h rounded below 0 once gave NaN here.
 */
 Test(integration, corners_finite) {

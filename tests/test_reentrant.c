@@ -19,7 +19,6 @@
 #include <criterion/criterion.h>
 
 #include "brakelight.h"
-#include "bl_spectrum.h"
 #include "testutil.h"
 
 TestSuite(reentrant, .init = setup);

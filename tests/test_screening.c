@@ -10,7 +10,7 @@
 **   L  = 1 + int_0^1 (1 - F/Z)^2 dq/q,   L' = 1 + int_0^1 S/Z dq/q.
 ** The Hartree-Fock fits are compared with the xraylib library present
 ** (FF_Rayl, SF_Compt), so a table regenerated from another library version
-** or a stale src/bl_hf_table.c fails here.
+** or a stale src/core/models/hf_table.c fails here.
 */
 #include <math.h>
 #include <stdio.h>
@@ -31,7 +31,7 @@ TestSuite(screening, .init = setup);
 
 /*
 ** Stated accuracy of the Hartree-Fock fits over the fitted range
-** x = 1e-3 ... 100 1/A (the header of src/bl_hf_table.c gives the measured
+** x = 1e-3 ... 100 1/A (the header of src/core/models/hf_table.c gives the measured
 ** worst cases; these bounds round them up).
 */
 #define HF_XMIN      1e-3
@@ -305,7 +305,7 @@ Test(screening, hartree_fock_matches_xraylib) {
 ** rejects others): on q = 1e-8 ... 1e3 MeV, 40 points per decade,
 ** 0 <= F/Z <= 1 non-increasing and 0 <= S/Z <= 1 non-decreasing (slack
 ** 1e-13 for rounding); the terms: sum alpha = 1 (1e-12), sum |alpha| <= 10,
-** b > 0 and b_{i+1}/b_i >= 1.1 (documented in src/bl_hf_table.c and
+** b > 0 and b_{i+1}/b_i >= 1.1 (documented in src/core/models/hf_table.c and
 ** scripts/fit-hf.c), for Z = 1..100 and both sums.
 */
 Test(screening, hartree_fock_fits_are_valid) {
@@ -450,7 +450,7 @@ Test(screening, hartree_fock_near_thomas_fermi) {
 /*
 ** Beyond the tables (Z = 99, 100) the fits are Z = 98's with the momenta
 ** scaled by (Z/98)^(1/3) (F) and (Z/98)^(2/3) (S), the Thomas-Fermi
-** scalings behind Tsai's L_rad and L'_rad (src/bl_hf_table.c): same
+** scalings behind Tsai's L_rad and L'_rad (src/core/models/hf_table.c): same
 ** weights, momenta in that ratio (1e-14).
 */
 Test(screening, hartree_fock_beyond_tables) {

@@ -13,7 +13,6 @@
 #include <criterion/criterion.h>
 
 #include "brakelight.h"
-#include "bl_spectrum.h"
 #include "testutil.h"
 
 TestSuite(spectrum_threads, .init = setup);

@@ -40,7 +40,7 @@ static double dsdk (const char *particle, int Z, const char *model, double T,
 }
 
 
-/* ---- the uniform-sphere fit (bl_nucleus.c) ---- */
+/* ---- the uniform-sphere fit (src/core/born/nucleus.c) ---- */
 
 static double logmoment_f (double x, void *p) {
   (void)p;
@@ -50,7 +50,7 @@ static double logmoment_f (double x, void *p) {
 
 /* Source: the form factor of a uniformly charged sphere, 3 (sin x - x cos x)
 ** / x^3 (common practice, R = 1.2 A^1/3 fm).  Bounds: the errors measured
-** when the fit was made (bl_nucleus.c header), rounded up. */
+** when the fit was made (src/core/born/nucleus.c header), rounded up. */
 Test(target, nucleus_fit) {
   gsl_integration_workspace *w = gsl_integration_workspace_alloc(2000);
   gsl_function f = {logmoment_f, NULL};
@@ -222,7 +222,7 @@ Test(target, tsai_complete_screening, .timeout = 120) {
 
 
 /* The electron part alone: with the inelastic radius fixed by L'_rad
-** (bl_model_exponential.c, bl_model_thomas_fermi.c), electrons on minus off
+** (src/core/models/exponential.c, src/core/models/thomas_fermi.c), electrons on minus off
 ** is Tsai's Z L'_rad term at complete screening, within 1 %. */
 Test(target, electron_part_complete_screening) {
   static const char *const models[] = {"exponential", "thomas-fermi"};

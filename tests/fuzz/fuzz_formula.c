@@ -6,7 +6,7 @@
 ** Each goes through bl_material_formula, bl_material_lookup and
 ** bl_material_suggest; the parsed ones are mixed by bl_material_mixture
 ** with fractions taken from the last bytes.  Beyond the sanitizers, the
-** harness checks the contracts of include/bl_material.h and aborts when
+** harness checks the contracts of include/brakelight/bl_material.h and aborts when
 ** one is broken:
 **   success -> 1..BL_MATERIAL_MAXCOMP components, ordered by Z, each Z in
 **              1..100 with atoms > 0 and finite, mass fractions summing to

@@ -31,7 +31,7 @@
 #include "lauxlib.h"
 #include "lualib.h"
 
-#include "lbrakelight.h"
+#include "brakelight/lbrakelight.h"
 
 #define MAXARRAY 4     /* abscissae per call */
 #define MAXPARTS 4     /* parts of a mixture */

@@ -44,7 +44,7 @@ for name, want in pairs(presets) do
   assert(p.mass > 0)
   assert(tostring(p):find(name, 1, true))
 end
--- masses: CODATA 2018 electron, PDG muon (as in include/bl_const.h)
+-- masses: CODATA 2018 electron, PDG muon (as in include/brakelight/bl_const.h)
 assert(close(bl.particle("electron").mass, 0.51099895, 1e-9))
 assert(close(bl.particle("muon").mass, 105.6583755, 1e-9))
 assert(bl.particle("electron") == bl.particle("electron"))

@@ -1,0 +1,38 @@
+/*
+** bl_corrections.h -- where the corrections beyond the first Born
+** approximation hold: the bounds the core applies, exported so that
+** messages and documentation take their numbers from here
+** See Copyright Notice in LICENSE
+*/
+#ifndef BL_CORRECTIONS_H
+#define BL_CORRECTIONS_H
+
+#include "bl_const.h"
+
+/*
+** Elwert factor: slow projectiles, gamma0 <= BL_ELWERT_GAMMA0_MAX (Koch &
+** Motz's recommendation for electrons up to T = 2 MeV, from memory); the
+** factor is a ratio of Sommerfeld factors, so the bound is on the velocity.
+*/
+#define BL_ELWERT_T_ELECTRON 2.0   /* MeV: the bound for electrons */
+#define BL_ELWERT_GAMMA0_MAX (1.0 + BL_ELWERT_T_ELECTRON / BL_ME_MEV)
+
+/*
+** Coulomb correction (Davies, Bethe & Maximon 1954): gamma0 >=
+** BL_COULOMB_GAMMA0_MIN before and gamma >= BL_COULOMB_GAMMA_MIN after
+** emission, and a Compton wavelength hbar/(m c) of at least
+** BL_COULOMB_RADII nuclear radii (the correction comes from distances
+** ~ hbar/(m c), where the field must still be a point Coulomb field).
+*/
+#define BL_COULOMB_GAMMA0_MIN 100.0
+#define BL_COULOMB_GAMMA_MIN  10.0
+#define BL_COULOMB_RADII      10.0
+
+/*
+** Born validity: Koch & Motz (1959) require 2 pi |z| Z alpha / beta << 1
+** for both velocities; the core warns (BL_WARN_BORN) where it exceeds
+** BL_BORN_XI_MAX after emission.
+*/
+#define BL_BORN_XI_MAX 1.0
+
+#endif

@@ -1,0 +1,123 @@
+/*
+** bl_dcs.h -- Born bremsstrahlung cross sections of a projectile on an atom
+** See Copyright Notice in LICENSE
+*/
+#ifndef BL_DCS_H
+#define BL_DCS_H
+
+#include "bl_models.h"
+#include "bl_particle.h"
+#include "bl_quad.h"
+#include "bl_result.h"
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/* Nucleus models and the three-way switch of the corrections. */
+enum { BL_NUCLEUS_POINT = 0, BL_NUCLEUS_UNIFORM = 1 };
+enum { BL_APPLY_OFF = 0, BL_APPLY_ON = 1, BL_APPLY_AUTO = 2 };
+
+/* What the target factor and the corrections include. */
+typedef struct bl_opts {
+  int electrons;   /* 1: add the field of the atomic electrons, S(q) */
+  int nucleus;     /* BL_NUCLEUS_POINT or BL_NUCLEUS_UNIFORM */
+  double A;        /* mass number for R = 1.2 A^1/3 fm; 0: the standard
+                   ** atomic weight rounded */
+  int coulomb;     /* BL_APPLY_*: Davies-Bethe-Maximon correction */
+  int elwert;      /* BL_APPLY_*: Elwert factor */
+} bl_opts;
+
+/* The plain Born cross section in the screened field of the model: point
+** nucleus, no electrons, no corrections (what bl_case_init uses). */
+extern const bl_opts bl_opts_bare;
+
+/* The defaults of the Lua module: electrons, uniform nucleus, both
+** corrections where valid. */
+extern const bl_opts bl_opts_default;
+
+#define BL_POLE_MAX 24
+#define BL_TERM_MAX 200
+
+/* One term c w_i w_j of the target factor, w_i = 1/(pole_i + q^2), with
+** pole_i <= pole_j. */
+typedef struct bl_term {
+  int i, j;
+  double c;
+} bl_term;
+
+/* One computation: projectile, target atom, kinetic energy.  Filled by
+** bl_case_init; plain data, may be copied; nothing to free. */
+typedef struct bl_case {
+  bl_particle particle;
+  int Z;                      /* atomic number of the target */
+  const bl_model *screening;
+  double params[8];           /* screening-model parameters (defaults filled) */
+  double T;                   /* kinetic energy, MeV */
+  /* derived */
+  double t0;                  /* T / m */
+  double norm;                /* z^4 Z^2 alpha r0^2, mb; r0 = alpha hbar/(m c) */
+  bl_opts opts;
+  double R;                   /* nuclear radius, fm (0: point) */
+  /* Target factor W(q^2) = G(q) / (Z^2 q^4) = sum_i s_i w_i
+  ** + sum_t c_t w_i w_j, q in units of m; pairs of far-apart poles are
+  ** split into singles s_i (partial fractions), the elastic and electron
+  ** parts kept apart: */
+  int npole;
+  double pole[BL_POLE_MAX];   /* in units of m^2 */
+  double single_el[BL_POLE_MAX], single_e[BL_POLE_MAX];
+  double qmax2;               /* bound on q^2 in the case, units of m^2 */
+  int nterm;
+  bl_term term[BL_TERM_MAX];
+  int nelastic;               /* the first nelastic terms are the nuclear
+                              ** (elastic) part, the rest the electrons' */
+  double ridge_b;             /* smallest screening pole of the elastic part */
+  unsigned warn;              /* warnings that hold for every k (BL_WARN_*) */
+} bl_case;
+
+/* Largest T/m bl_case_setup accepts.  Beyond it the angular scales
+** (1/gamma^2 < 1e-30) fall below the rounding of the polar angles and the
+** integrals no longer converge; far beyond it (T/m ~ 1e154) the kinematics
+** overflow. */
+#define BL_T0_MAX 1e15
+
+/* Prepare a case.  Returns BL_SUCCESS; BL_EDOMAIN for an invalid particle,
+** Z outside 1..100, T not in (0, BL_T0_MAX m], or a particle whose
+** normalisation z^4 Z^2 alpha r0^2 is not a normal double; BL_EMODEL if
+** the model has no Yukawa form.  `params` may be NULL (defaults). */
+int bl_case_init (bl_case *c, const bl_particle *p, int Z,
+                  const bl_model *screening, const double *params, double T);
+
+/* The same with the target options o (NULL: bl_opts_bare).  Also
+** BL_EDOMAIN for A outside [0, 300] or unknown switch values; BL_EMODEL
+** for electrons with a model that has no electron field. */
+int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
+                   const bl_model *screening, const double *params, double T,
+                   const bl_opts *o);
+
+/* Uniform sphere of radius R: F_N(x)^2 with x = q R, and the rational
+** approximation the core integrates (src/core/born/nucleus.c). */
+double bl_nucleus_ff2 (double x);
+double bl_nucleus_ff2_fit (double x);
+
+/* Fully differential d3sigma/(dk dOmega_k dOmega_p), mb/(MeV sr^2), at photon
+** energy k (MeV, 0 < k < T), photon polar angle theta_k and final-particle
+** polar angle theta_p (radians from the beam axis, in [0, pi]) and azimuth
+** phi between them around the beam axis.  exceptions: BL_EDOMAIN */
+int bl_dcs_full_e (const bl_case *c, double k, double theta_k,
+                   double theta_p, double phi, bl_result *out);
+
+/* d2sigma/(dk dOmega_k), mb/(MeV sr), integrated over the final particle.
+** exceptions: BL_EDOMAIN, GSL_EMAXITER, GSL_EROUND (out still filled) */
+int bl_dcs_angular_e (const bl_case *c, double k, double theta_k,
+                      bl_quad *q, bl_result *out);
+
+/* dsigma/dk, mb/MeV, integrated over photon and particle directions.
+** exceptions: BL_EDOMAIN, GSL_EMAXITER, GSL_EROUND (out still filled) */
+int bl_dcs_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out);
+
+#ifdef __cplusplus
+}
+#endif
+
+#endif

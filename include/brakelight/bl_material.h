@@ -1,0 +1,122 @@
+/*
+** bl_material.h -- targets: elements, chemical formulas, mixtures, standard
+** compositions; Tsai's radiation length
+** See Copyright Notice in LICENSE
+*/
+#ifndef BL_MATERIAL_H
+#define BL_MATERIAL_H
+
+#include <stddef.h>
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+#define BL_MATERIAL_MAXCOMP 32   /* distinct elements in one material */
+#define BL_MATERIAL_NAMELEN 96
+
+/* One element of a material. */
+typedef struct bl_component {
+  int Z;
+  double A;              /* standard atomic weight, g/mol */
+  double atoms;          /* atoms of this element per formula unit */
+  double mass_fraction;  /* share of the mass, sums to 1 over components */
+} bl_component;
+
+/*
+** A target material: plain data, may be copied, nothing to free.
+** Cross sections of a material are per formula unit ("molecule"): the sum
+** over components of atoms * (cross section per atom).  For an element the
+** formula unit is one atom; for a formula ("H2O") it is the molecule; for a
+** mixture it is one average atom (sum of atoms = 1), so that mixtures given
+** by mass and by atom fractions agree.
+*/
+typedef struct bl_material {
+  char name[BL_MATERIAL_NAMELEN];
+  int n;                                 /* components, ordered by Z */
+  bl_component comp[BL_MATERIAL_MAXCOMP];
+  double molar_mass;                     /* g/mol per formula unit */
+  double density;                        /* g/cm^3; 0 when unknown */
+} bl_material;
+
+/* Where a parse failed: byte offset into the input and a short reason
+** (static storage). */
+typedef struct bl_parse_error {
+  size_t pos;
+  const char *reason;
+} bl_parse_error;
+
+/* One element by atomic number, named by its symbol, with xraylib's
+** density (ElementDensity, g/cm^3; gases at room temperature and 1 atm;
+** 0 where it has none).  BL_SUCCESS or BL_EDOMAIN (Z outside 1..BL_ZMAX). */
+int bl_material_element (bl_material *m, int Z);
+
+/* Atomic number of an element symbol ("Pb", case as in the periodic table,
+** so that "CO" stays a formula) or English name in any case ("lead",
+** "Aluminium", "aluminum"); 0 if none.  Also declared in bl_element.h. */
+int bl_element_lookup (const char *name);
+
+/*
+** A chemical formula: element symbols (case as in the periodic table) with
+** optional counts (integers or decimals, > 0), parentheses and brackets with
+** counts, and hydrates joined by '.' or '*' with an optional leading count:
+** "H2O", "C8H8", "CaCO3", "Ca(OH)2", "CuSO4(H2O)5", "CuSO4.5H2O".
+** A '.' between digits is a decimal point inside brackets, after a zero
+** integer part ("Fe0.5Ni0.5") or when no element or bracket follows the
+** next number ("YBa2Cu3O6.5"); otherwise it separates a hydrate ("4.5H2O"):
+** write "(Cu1.5)Se" for a decimal count before more elements.  No blanks.
+** Limits: 32 elements, counts <= 1e9, 1e12 atoms per element, 16 levels
+** of brackets.  The name is the formula; density 0 (unknown).
+** BL_SUCCESS, or BL_EDOMAIN with *err filled (err may be NULL): err->pos
+** is the 0-based byte offset of the offending character.
+*/
+int bl_material_formula (bl_material *m, const char *formula,
+                         bl_parse_error *err);
+
+/*
+** A mixture of n parts given by fractions: by mass (by_mass = 1) or by
+** numbers of formula units (by_mass = 0).  Each fraction must be finite and
+** > 0; the fractions must sum to 1 within 1e-6 unless normalize is set, in
+** which case they are scaled to sum 1.  The result has one average atom per
+** formula unit.  BL_SUCCESS or BL_EDOMAIN; on failure *bad is the index of
+** the offending part, or -1 for the sum (bad may be NULL).
+*/
+int bl_material_mixture (bl_material *m, int n, const bl_material *parts,
+                         const double *fractions, int by_mass, int normalize,
+                         int *bad);
+
+/* A standard composition carried by xraylib, by its name (exact, then
+** case-insensitive).  BL_SUCCESS or BL_EUNKNOWN.  Density is set.  One
+** average atom per formula unit, as for mixtures. */
+int bl_material_standard (bl_material *m, const char *name);
+
+/*
+** A material named by a string, trying in this order: element symbol (case
+** as in the periodic table), element name (any case), chemical formula,
+** standard composition (exact, then any case).  Elements carry xraylib's
+** density (ElementDensity; 0 for Es and Fm), formulas none.  BL_SUCCESS, or
+** BL_EUNKNOWN with *err the formula parser's complaint (err may be NULL).
+*/
+int bl_material_lookup (bl_material *m, const char *spec,
+                        bl_parse_error *err);
+
+/* Up to nmax (at most 8) standard-composition names closest to `name`
+** (edit distance on lowercase: to the best-matching piece of the name
+** first, then to the whole name), written to out[] (static storage);
+** returns the count. */
+int bl_material_suggest (const char *name, const char **out, int nmax);
+
+/* Number of standard compositions and the i-th name (0-based, static
+** storage; NULL outside). */
+int bl_material_standard_count (void);
+const char *bl_material_standard_name (int i);
+
+/* Radiation length in g/cm^2 (Tsai; 1/X0 = sum_i w_i / X0_i over mass
+** fractions).  Returns 0 for an empty material. */
+double bl_radiation_length (const bl_material *m);
+
+#ifdef __cplusplus
+}
+#endif
+
+#endif

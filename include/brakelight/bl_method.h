@@ -1,0 +1,125 @@
+/*
+** bl_method.h -- high-energy (small-angle) dsigma/dk from screening functions,
+** Tsai's complete-screening formula, and the choice between methods
+** See Copyright Notice in LICENSE
+*/
+
+#ifndef BL_METHOD_H
+#define BL_METHOD_H
+
+#include "bl_dcs.h"
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/* Methods of dsigma/dk.  Stable ids. */
+enum {
+  BL_METHOD_BORN        = 0,   /* exact first-order Born integral */
+  BL_METHOD_HIGH_ENERGY = 1,   /* screening functions, small angles */
+  BL_METHOD_COMPLETE    = 2,   /* Tsai's complete-screening formula */
+  BL_METHOD_AUTO        = 3    /* born or high-energy, per point */
+};
+#define BL_METHOD_COUNT 4
+
+/*
+** Where the closed forms hold.  "auto" takes the high-energy method where
+** the final gamma = E/m is at least BL_HE_GAMMA_MIN: there it agrees with
+** the Born integral within 5.3e-4 for e, mu and pi, Z = 1...100, every
+** screening model, nucleus uniform (tests/test_methods.c); the difference
+** falls like 0.27/gamma.  Complete screening also needs Tsai's screening
+** variable 100 m_e k / (E0 E Z^1/3) <= BL_COMPLETE_TSAI_GAMMA_MAX (where
+** the Thomas-Fermi form departs from its limit by about 0.5 %) and a
+** nucleus point-like at q ~ m: m R <= BL_COMPLETE_MR_MAX hbar c.
+*/
+#define BL_HE_GAMMA_MIN            500.0
+#define BL_COMPLETE_TSAI_GAMMA_MAX 0.02
+#define BL_COMPLETE_MR_MAX         0.1
+
+/* Lua-facing name of a method id ("born", "high-energy", ...); NULL if
+** unknown.  Method id of a name; -1 if unknown. */
+const char *bl_method_name (int method);
+int bl_method_find (const char *name);
+
+/*
+** Tabulated screening integrals of one Yukawa representation (cached,
+** shared, never freed; see src/core/methods/).  Opaque.
+*/
+typedef struct bl_hetab bl_hetab;
+
+/* Nuclear-size correction of phi1, phi2 at one node of a grid in the
+** projectile mass times the nuclear radius, per spin (cached likewise).
+** Opaque. */
+typedef struct bl_nuctab bl_nuctab;
+
+/*
+** What the high-energy method needs besides the case: the screening
+** tables of the nuclear (elastic) part and of the atomic electrons, the
+** tails of their integrals beyond q = m, and the nuclear-size correction.
+** Plain data; the pointers are borrowed from the process-wide cache.
+*/
+typedef struct bl_he {
+  int ready;                  /* filled by bl_he_prepare */
+  const bl_hetab *el, *e;     /* NULL: unscreened / no electron field */
+  double tail_el[4], tail_e[4];
+  int nnuc;                   /* 0: point nucleus; else 4 grid nodes in */
+  const bl_nuctab *nuc[4];    /* m R with cubic weights nucw */
+  double nucw[4];
+  double maxerr;              /* worst interpolation error of the tables
+                              ** (absolute, in units of phi) */
+} bl_he;
+
+/*
+** Fill *h for case c: fetch the screening tables of (Z, model) from the
+** cache or build them (about 10 ms each, once per process; thread-safe).
+** The nuclear-size correction of a uniform nucleus is computed from the
+** Born integral (once per node of a grid in m R and spin) with the
+** workspace q.  BL_SUCCESS, BL_ENOMEM, or the status of a failed Born
+** calibration.
+*/
+int bl_he_prepare (const bl_case *c, bl_quad *q, bl_he *h);
+
+/*
+** Prepare *h for `method` on case c: bl_he_prepare for high-energy, and
+** for auto where some photon energy can take it (gamma0 >= the switch);
+** otherwise h is cleared (h->ready = 0) at no cost.  Status as
+** bl_he_prepare.
+*/
+int bl_method_prepare (const bl_case *c, int method, bl_quad *q, bl_he *h);
+
+/* dsigma/dk (mb/MeV) by the screening-function form.  Warns
+** (BL_WARN_METHOD) where the small-angle form does not hold.
+** exceptions: BL_EDOMAIN */
+int bl_he_dk_e (const bl_case *c, const bl_he *h, double k,
+                bl_result *out);
+
+/* dsigma/dk (mb/MeV) by Tsai's complete-screening formula (Tsai 1974,
+** eq. 3.83), spin 0 through 1 + v^2 -> 2 v.  exceptions: BL_EDOMAIN */
+int bl_complete_dk_e (const bl_case *c, double k, bl_result *out);
+
+/* 1 if the high-energy method holds at photon energy k of case c to
+** 1e-3 (the switch of method "auto"); 0 otherwise. */
+int bl_he_valid (const bl_case *c, double k);
+
+/*
+** dsigma/dk by `method` (BL_METHOD_*); h may be NULL for born and
+** complete.  out->method is the method actually used.
+** exceptions: as the method's function
+*/
+int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
+                    bl_quad *q, bl_result *out);
+
+/*
+** Photon energies (MeV) where dsigma/dk of case c by `method` jumps: the
+** Coulomb correction switching off ("coulomb" automatic) and, for "auto",
+** the change of method.  Writes at most nmax into k and a bound on the
+** relative size of each jump into jump; returns the count.
+*/
+int bl_method_breaks (const bl_case *c, const bl_he *h, int method,
+                      double *k, double *jump, int nmax);
+
+#ifdef __cplusplus
+}
+#endif
+
+#endif

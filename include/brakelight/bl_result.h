@@ -1,0 +1,51 @@
+/*
+** bl_result.h -- value, error estimate and warning bits
+** See Copyright Notice in LICENSE
+*/
+#ifndef BL_RESULT_H
+#define BL_RESULT_H
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/* Warning bits carried by a result; several may be set at once. */
+enum {
+  BL_WARN_TOLERANCE = 1u << 0,  /* requested tolerance not reached: err says how far */
+  BL_WARN_POINTLIKE = 1u << 1,  /* composite projectile treated as a point charge */
+  BL_WARN_BORN      = 1u << 2,  /* z Z alpha / beta not small: first Born approximation poor */
+  BL_WARN_VALIDITY  = 1u << 3,  /* a model or correction used outside its validity */
+  BL_WARN_COULOMB   = 1u << 4,  /* Coulomb correction requested outside its validity */
+  BL_WARN_ELWERT    = 1u << 5,  /* Elwert factor requested outside its validity */
+  BL_WARN_STATIC_E  = 1u << 6,  /* atomic electrons as static charges: no recoil */
+  BL_WARN_CLAMPED   = 1u << 7,  /* value below zero (Coulomb correction, or the
+                                ** high-energy form outside its range): 0 */
+  BL_WARN_METHOD    = 1u << 8,  /* high-energy or complete-screening form used
+                                ** where it does not hold */
+  BL_WARN_SUPPRESS  = 1u << 9   /* LPM/dielectric suppression: an approximate
+                                ** treatment, see its warning */
+};
+#define BL_WARN_COUNT 10
+
+/* Corrections actually applied to a result (bl_result.applied). */
+enum {
+  BL_APPLIED_COULOMB = 1u << 0,  /* Davies-Bethe-Maximon, subtracted */
+  BL_APPLIED_ELWERT  = 1u << 1   /* Elwert factor, nuclear part */
+};
+
+typedef struct bl_result {
+  double val;     /* best estimate */
+  double err;     /* absolute error estimate (>= 0) */
+  unsigned warn;  /* BL_WARN_* bits */
+  unsigned applied;  /* BL_APPLIED_* bits */
+  int method;     /* BL_METHOD_* actually used (bl_method.h); 0: born */
+} bl_result;
+
+/* Short English text for one warning bit (e.g. BL_WARN_BORN); NULL if unknown. */
+const char *bl_warn_text (unsigned bit);
+
+#ifdef __cplusplus
+}
+#endif
+
+#endif

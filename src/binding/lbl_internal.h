@@ -1,0 +1,38 @@
+/*
+** lbl_internal.h -- declarations shared by the binding files (src/l*.c),
+** not public
+** See Copyright Notice in LICENSE
+*/
+#ifndef LBL_INTERNAL_H
+#define LBL_INTERNAL_H
+
+#include "lua.h"
+
+#include "brakelight/bl_material.h"
+
+#define LBL_MATMETA "brakelight.Material"   /* material object */
+
+/* Raise a Lua error with a printf-style message.  Never returns. */
+int lbl_fail (lua_State *L, const char *fmt, ...);
+
+/* Raise "bad argument #1 to 'fname' (msg)".  Never returns. */
+int lbl_argfail (lua_State *L, const char *fname, const char *fmt, ...);
+
+/* The Lua value at idx described for a message, into buf (size n). */
+const char *lbl_showval (lua_State *L, int idx, char *buf, size_t n);
+
+/*
+** Materials (src/binding/lmaterial.c).
+** lbl_material_open: create the material metatable and add the material
+** functions to the module table at the top of the stack.
+** lbl_totarget: read the Lua value at idx as a target -- a material object,
+** an element symbol or name, a chemical formula, a standard-composition
+** name, or an integer Z -- into *out; on bad input raise
+** "bad argument #1 to 'fname' (field 'field' ...)" naming the value and what
+** is allowed.
+*/
+void lbl_material_open (lua_State *L);
+void lbl_totarget (lua_State *L, int idx, const char *fname,
+                   const char *field, bl_material *out);
+
+#endif

@@ -1,0 +1,56 @@
+/*
+** errno.c -- messages for status codes and warning bits
+** See Copyright Notice in LICENSE
+*/
+
+#include <gsl/gsl_errno.h>
+
+#include "brakelight/bl_errno.h"
+#include "brakelight/bl_result.h"
+
+
+const char *bl_strerror (int status) {
+  switch (status) {
+    case BL_SUCCESS:  return "success";
+    case BL_EDOMAIN:  return "argument outside its allowed range";
+    case BL_EUNKNOWN: return "unknown name";
+    case BL_ENOMEM:   return "out of memory";
+    case BL_EMODEL:   return "the model cannot serve this request";
+    case BL_ENOTCONV: return "integral did not reach the requested tolerance";
+    default:          return gsl_strerror(status);
+  }
+}
+
+
+const char *bl_warn_text (unsigned bit) {
+  switch (bit) {
+    case BL_WARN_TOLERANCE:
+      return "requested tolerance not reached; the error estimate says how far";
+    case BL_WARN_POINTLIKE:
+      return "composite projectile treated as a point charge (no form factor)";
+    case BL_WARN_BORN:
+      return "first Born approximation poor: 2 pi z Z alpha / beta is not small";
+    case BL_WARN_VALIDITY:
+      return "a model or correction is used outside its validity";
+    case BL_WARN_COULOMB:
+      return "Coulomb correction applied outside its validity (high energy, "
+             "light projectile)";
+    case BL_WARN_ELWERT:
+      return "Elwert factor applied outside its validity (low energy)";
+    case BL_WARN_STATIC_E:
+      return "atomic electrons treated as static charges (no recoil): their "
+             "share is overestimated for heavy projectiles";
+    case BL_WARN_CLAMPED:
+      return "the Coulomb correction exceeds the Born value, or the "
+             "high-energy form went below zero far outside its range; "
+             "result set to 0";
+    case BL_WARN_METHOD:
+      return "the high-energy (small-angle) or complete-screening form is used "
+             "where it does not hold";
+    case BL_WARN_SUPPRESS:
+      return "LPM and dielectric suppression follow Migdal's approximate "
+             "treatment";
+    default:
+      return NULL;
+  }
+}

@@ -1,0 +1,192 @@
+/*
+** case.c -- one computation (projectile, atom, kinetic energy) and its
+** target factor W(q^2) = G(q)/(Z^2 q^4) as simple poles and pole products
+** See Copyright Notice in LICENSE
+**
+** G = [Z F_N - F]^2 + S from the screening model's Yukawa form, the
+** uniform-sphere fit of nucleus.c and the model's incoherent function; see
+** DEVELOPERS.md, "Target factor".
+*/
+
+#include <float.h>
+#include <math.h>
+
+#include "born/internal.h"
+
+
+const bl_opts bl_opts_bare = {0, BL_NUCLEUS_POINT, 0.0, BL_APPLY_OFF,
+                               BL_APPLY_OFF};
+const bl_opts bl_opts_default = {1, BL_NUCLEUS_UNIFORM, 0.0, BL_APPLY_AUTO,
+                                  BL_APPLY_AUTO};
+
+
+/* Index of pole value x in c->pole, added if new; -1 when full. */
+static int addpole (bl_case *c, double x) {
+  int i;
+  for (i = 0; i < c->npole; i++)
+    if (c->pole[i] == x)
+      return i;
+  if (c->npole == BL_POLE_MAX)
+    return -1;
+  c->pole[c->npole] = x;
+  c->single_el[c->npole] = c->single_e[c->npole] = 0.0;
+  return c->npole++;
+}
+
+
+/*
+** Add the term coef w(x1) w(x2) of the elastic (el = 1) or electron part.
+** Poles far apart (the larger >= SPLIT_RATIO times the smaller) become
+** singles, coef (w_i - w_j)/(x_j - x_i): cheaper.  The subtraction loses
+** the relative accuracy 1e-16 q^2 / x_j where q^2 >> x_j, so it is done
+** only when that stays below 1e-8 up to the largest q^2 of the case,
+** (p0 + p + k)^2 < 4 (p0 + 1)^2: in practice, the nuclear poles of a
+** light projectile.  Poles closer than that (ratio >= SPLIT_NEAR) are split
+** when both are large, pole >= 1e-6 q^2 max: the error is then below
+** 1e-10 pole/(pole_j - pole_i); this turns the ten products of the nuclear
+** fit into four singles and four squares.
+*/
+#define SPLIT_RATIO 1e3
+#define SPLIT_NEAR  1.5
+static int addterm (bl_case *c, int el, double x1, double x2, double coef) {
+  double lo = x1 < x2 ? x1 : x2, hi = x1 < x2 ? x2 : x1;
+  int i, j;
+  bl_term *t;
+  i = addpole(c, lo);
+  j = addpole(c, hi);
+  if (i < 0 || j < 0)
+    return BL_EMODEL;
+  if ((hi >= SPLIT_RATIO * lo && hi >= 1e-8 * c->qmax2)
+      || (hi >= SPLIT_NEAR * lo && lo >= 1e-6 * c->qmax2)) {
+    double *s = el ? c->single_el : c->single_e, f = coef / (hi - lo);
+    s[i] += f;
+    s[j] -= f;
+    return BL_SUCCESS;
+  }
+  if (c->nterm == BL_TERM_MAX)
+    return BL_EMODEL;
+  t = &c->term[c->nterm++];
+  t->i = i;
+  t->j = j;
+  t->c = coef;
+  return BL_SUCCESS;
+}
+
+
+/*
+** The target factor W = G / (Z^2 q^4) as terms c w_i w_j (units m = 1):
+**   elastic:   ((Z F_N - F) / (Z q^2))^2 = (sum_i a_i w_i - sum_j c_j u_j)^2,
+**     1 - F/Z = sum_i a_i q^2 w_i from the model (Yukawa form), and
+**     (1 - F_N)/q^2 = sum_j c_j u_j from the uniform-sphere fit
+**     (src/core/born/nucleus.c), u_j = 1/(l_j / R^2 + q^2);
+**   electrons: S / (Z^2 q^4) = (1/Z) sum_k g_k w_0 w_k,
+**     S/Z = sum_k g_k q^2 w_k from the model's incoherent function,
+**     w_0 = 1/q^2.
+*/
+static int targetfactor (bl_case *c) {
+  bl_yukawa y;
+  double vp[BL_YUKAWA_MAX + BL_NUCLEUS_NPOLE];   /* poles of the vector */
+  double va[BL_YUKAWA_MAX + BL_NUCLEUS_NPOLE];   /* and their weights */
+  double m = c->particle.mass;
+  int n = 0, i, j, st;
+  st = c->screening->yukawa(c->Z, c->params, &y);
+  if (st != BL_SUCCESS)
+    return st;
+  if (y.n < 1 || y.n > BL_YUKAWA_MAX)
+    return BL_EMODEL;
+  c->ridge_b = HUGE_VAL;
+  for (i = 0; i < y.n; i++) {
+    double b = y.b[i] / m;
+    vp[n] = b * b;
+    va[n++] = y.alpha[i];
+    if (b * b < c->ridge_b)
+      c->ridge_b = b * b;
+  }
+  if (c->R > 0.0) {
+    double Rm = c->R * m / BL_HBARC_MEVFM;   /* R in units of 1/m */
+    for (j = 0; j < BL_NUCLEUS_NPOLE; j++) {
+      vp[n] = bl_nucleus_pole[j] / (Rm * Rm);
+      va[n++] = -bl_nucleus_coef[j];
+    }
+  }
+  c->npole = c->nterm = 0;
+  c->qmax2 = 4.0 * (sqrt(c->t0 * (c->t0 + 2.0)) + 1.0)
+             * (sqrt(c->t0 * (c->t0 + 2.0)) + 1.0);
+  for (i = 0; i < n; i++)
+    for (j = i; j < n; j++) {
+      st = addterm(c, 1, vp[i], vp[j], va[i] * va[j] * (i == j ? 1.0 : 2.0));
+      if (st != BL_SUCCESS)
+        return st;
+    }
+  c->nelastic = c->nterm;   /* electron pair terms follow */
+  if (c->opts.electrons) {
+    st = c->screening->incoherent(c->Z, c->params, &y);
+    if (st != BL_SUCCESS)
+      return st;
+    if (y.n < 1 || y.n > BL_YUKAWA_MAX)
+      return BL_EMODEL;
+    for (i = 0; i < y.n; i++) {
+      double b = y.b[i] / m;
+      st = addterm(c, 0, 0.0, b * b, y.alpha[i] / c->Z);
+      if (st != BL_SUCCESS)
+        return st;
+    }
+  }
+  return BL_SUCCESS;
+}
+
+
+int bl_case_init (bl_case *c, const bl_particle *p, int Z,
+                  const bl_model *screening, const double *params, double T) {
+  return bl_case_setup(c, p, Z, screening, params, T, NULL);
+}
+
+
+int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
+                   const bl_model *screening, const double *params, double T,
+                   const bl_opts *o) {
+  double r0, z2, A;
+  int i;
+  if (c == NULL || bl_particle_check(p) != BL_SUCCESS)
+    return BL_EDOMAIN;
+  if (Z < 1 || Z > BL_ZMAX || !isfinite(T) || T <= 0.0 || screening == NULL)
+    return BL_EDOMAIN;
+  if (screening->nparams > (int)(sizeof c->params / sizeof c->params[0]))
+    return BL_EMODEL;
+  if (o == NULL)
+    o = &bl_opts_bare;
+  if (!(o->A >= 0.0 && o->A <= 300.0)
+      || (o->nucleus != BL_NUCLEUS_POINT && o->nucleus != BL_NUCLEUS_UNIFORM)
+      || o->coulomb < BL_APPLY_OFF || o->coulomb > BL_APPLY_AUTO
+      || o->elwert < BL_APPLY_OFF || o->elwert > BL_APPLY_AUTO)
+    return BL_EDOMAIN;
+  c->particle = *p;
+  c->Z = Z;
+  c->screening = screening;
+  if (params != NULL)
+    for (i = 0; i < screening->nparams; i++)
+      c->params[i] = params[i];
+  else
+    bl_model_defaults(screening, c->params);
+  c->T = T;
+  c->t0 = T / p->mass;
+  if (!(c->t0 > 0.0 && c->t0 <= BL_T0_MAX))
+    return BL_EDOMAIN;
+  r0 = BL_ALPHA * BL_HBARC_MEVFM / p->mass;             /* fm */
+  z2 = p->charge * p->charge;
+  c->norm = z2 * z2 * (double)Z * Z * BL_ALPHA * r0 * r0 / BL_FM2_PER_MB;
+  if (!(c->norm >= DBL_MIN && c->norm <= DBL_MAX))
+    return BL_EDOMAIN;   /* absurd mass or charge: no representable scale */
+  if (screening->yukawa == NULL)
+    return BL_EMODEL;
+  c->opts = *o;
+  if (screening->incoherent == NULL)
+    c->opts.electrons = 0;   /* the model has no electron field (none) */
+  A = o->A > 0.0 ? o->A : floor(bl_element_mass(Z) + 0.5);
+  c->opts.A = A;
+  c->R = o->nucleus == BL_NUCLEUS_UNIFORM ? bl_nucleus_radius(A) : 0.0;
+  c->warn = (p->flags & BL_PARTICLE_COMPOSITE) ? BL_WARN_POINTLIKE : 0u;
+  if (c->opts.electrons && p->mass > 2.0 * BL_ME_MEV)
+    c->warn |= BL_WARN_STATIC_E;
+  return targetfactor(c);
+}

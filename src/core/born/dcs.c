@@ -1,0 +1,474 @@
+/*
+** dcs.c -- Born bremsstrahlung cross sections: fully differential, photon
+** angular distribution and photon spectrum
+** See Copyright Notice in LICENSE
+**
+** The fully differential first-order Born cross section of a projectile of
+** mass m and charge z e in the static field of an atom (units m = 1):
+**
+**   d3sigma / (dk dOmega_k dOmega_p) = (norm / (4 pi^2)) (p / (p0 k)) W(q^2) B
+**
+** norm = z^4 Z^2 alpha r0^2, r0 = alpha hbar/(m c); W(q^2) = G(q)/(Z^2 q^4)
+** is the target factor as single poles and pole products (targetfactor
+** in case.c: screening, nuclear size, atomic electrons); B is the bracket of
+** kin.c (Bethe & Heitler 1934 for spin 1/2, its scalar-QED
+** analogue for spin 0).  The azimuth phi is integrated in closed form
+** (bl_bracket_azimuth); the two polar angles numerically:
+**
+**   dsigma/dk = norm (p/(p0 k)) (1/pi) int_0^2 dh0 int_0^2 dh Phi(h0, h),
+**   Phi = int_0^pi B W dphi,  h0 = 1 - cos(theta0),  h = 1 - cos(theta).
+**
+** Maps.  E - p cos(theta) = p (h + hc) with hc = 1/(p (E + p)) ~ 1/(2 E^2):
+** the integrand varies on the scale hc, so the variable is
+** sigma = ln(1 + h/hc), smooth down to theta = 0.  For fixed theta0 the
+** integrand has a second, narrow ridge where the transverse momenta balance,
+** p sin(theta) = p0 sin(theta0); there q^2 is smallest and the integrand goes
+** like (q_z^2 + p^2 cos^2(theta*) (theta - theta*)^2)^(-3/2).  The inner range
+** is split at the ridge and each side mapped by sigma = sigma* +- w sinh(u),
+** w the ridge width, which turns the peak into a smooth e^(-2u) tail.
+** Every piece is integrated with GSL's adaptive Gauss-Kronrod rule (qag);
+** the integrand is positive, so per-piece relative tolerance bounds the total.
+*/
+
+#include <float.h>
+#include <math.h>
+
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_integration.h>
+
+#include "base/internal.h"
+#include "corrections/internal.h"
+
+
+#ifndef INNER_SHARE
+#define INNER_SHARE 0.2   /* inner tolerance as a share of the outer one */
+#endif
+/* Work budget of one dsigma/dk, in integrand calls (about 0.3 s).  Past it
+** the inner integrals get a single panel each, so a request the integrator
+** cannot resolve in double precision ends in bounded time, flagged
+** BL_ENOTCONV, instead of running for minutes.  Normal points use 1e3 to
+** 4e4 calls.  (The fuzzing build lowers it, Makefile "fuzz".) */
+#ifndef CALL_BUDGET
+#define CALL_BUDGET 5000000UL
+#endif
+/* Absolute tolerance of the later outer pieces, as a share of rtol times
+** the value of the earlier ones. */
+#define TAIL_SHARE 0.1
+/* An inner error is negligible below this share of rtol times the
+** largest outer integrand value seen so far (see piece). */
+#define NEGL_SHARE 1e-3
+#ifndef QAG_KEY
+#define QAG_KEY GSL_INTEG_GAUSS21
+#endif
+#ifndef QAG_KEY_INNER
+#define QAG_KEY_INNER QAG_KEY
+#endif
+
+
+/* State of one integration, carried in gsl_function params. */
+typedef struct integ {
+  const bl_case *c;
+  bl_kin kn;
+  bl_polar g;
+  bl_quad *q;
+  double sstar, w, side;    /* inner map: sigma = sstar + side w sinh(u) */
+  double last_err;          /* error estimate of the latest inner integral */
+  unsigned long calls0;     /* q->calls when this integral began */
+  double fpeak;             /* largest outer integrand value so far */
+  double inner_err, inner_val;  /* sums of inner errors and values, each
+                                ** times the outer Jacobian, over all calls */
+  int status;               /* first failure of any integral */
+  int nterm;                /* the target factor, Elwert factor applied */
+  bl_term term[BL_TERM_MAX];
+  double single[BL_POLE_MAX];
+} integ;
+
+
+/*
+** Check k and set the kinematics, the target factor for this k (the Elwert
+** factor scales the nuclear part) and the warnings that depend on k (Born
+** validity: Koch & Motz 1959 require 2 pi z Z alpha / beta << 1 for both
+** velocities; we warn once it exceeds 1).
+*/
+static int setup (const bl_case *c, double k, integ *it, unsigned *warn,
+                  unsigned *applied) {
+  bl_kin *kn = &it->kn;
+  double fe = 1.0;
+  int t;
+  if (!isfinite(k) || k <= 0.0 || k >= c->T)
+    return BL_EDOMAIN;
+  bl_kin_set(kn, c->t0, k / c->particle.mass, c->particle.spin);
+  if (!(kn->p > 0.0))
+    return BL_EDOMAIN;   /* k so close to T that nothing is left */
+  *warn = bl_point_warn(c, kn);
+  *applied = 0;
+  if (bl_wanted(c->opts.elwert, bl_elwert_valid(kn),
+             BL_WARN_ELWERT, warn)) {
+    fe = bl_elwert(c, kn);
+    *applied |= BL_APPLIED_ELWERT;
+  }
+  for (t = 0; t < c->npole; t++)
+    it->single[t] = fe * c->single_el[t] + c->single_e[t];
+  it->nterm = c->nterm;
+  for (t = 0; t < c->nterm; t++) {
+    it->term[t] = c->term[t];
+    if (t < c->nelastic)
+      it->term[t].c *= fe;
+  }
+  return BL_SUCCESS;
+}
+
+
+/* Phi(h0, h) at the current outer geometry and inner h. */
+static double phi_at (integ *it, double h) {
+  bl_bracket br;
+  double v;
+  if (h > 2.0) {   /* rounding at the ends of the range */
+    it->g.dh += 2.0 - h;
+    h = 2.0;
+  }
+  else if (h < 0.0) {
+    it->g.dh -= h;
+    h = 0.0;
+  }
+  it->g.h = h;
+  it->g.s = sqrt(h * (2.0 - h));
+  bl_bracket_set(&it->kn, &it->g, &br);
+  it->q->calls++;
+  v = bl_bracket_azimuth(&br, it->c->npole, it->c->pole, it->single,
+                         it->nterm, it->term);
+  /* B >= 0 and W >= 0: a negative value is rounding of cancelling poles
+  ** (uniform nucleus without electrons, y -> 1; scripts/sweep.lua found
+  ** dsigma/dk < 0 there).  NaN passes on, to be reported. */
+  return v < 0.0 ? 0.0 : v;
+}
+
+
+/*
+** Inner integrand in u: sigma = sstar + side w sinh(u), dh/dsigma = h + hc.
+** Near the ridge (|sigma - sstar| < 1/2) h - h* = (h* + hc) expm1(sigma -
+** sstar) keeps the digits of the small difference and h = h* + (h - h*)
+** loses none (h + hc >= 0.6 (h* + hc)); elsewhere h = hc expm1(sigma) keeps
+** those of a small h (the forward peak) and h - h* is no small difference.
+** One expm1 per call either way.
+*/
+static double inner_f (double u, void *params) {
+  integ *it = params;
+  double eu = exp(u), sh = 0.5 * (eu - 1.0 / eu), ch = sh + 1.0 / eu;
+  double ds, h, hc = it->kn.hc;
+  if (u < 1e-3)   /* sinh without cancellation near 0 */
+    sh = sinh(u);
+  ds = it->side * it->w * sh;
+  if (fabs(ds) < 0.5) {
+    it->g.dh = (it->g.hs + hc) * expm1(ds);
+    h = it->g.hs + it->g.dh;
+  }
+  else {
+    h = hc * expm1(it->sstar + ds);
+    it->g.dh = h - it->g.hs;
+  }
+  return phi_at(it, h) * (h + hc) * it->w * ch;
+}
+
+
+/* Plain inner integrand in sigma; dh/dsigma = h + hc. */
+static double inner_plain (double sg, void *params) {
+  integ *it = params;
+  double h = it->kn.hc * expm1(sg);
+  return phi_at(it, h) * (h + it->kn.hc);
+}
+
+
+static void note (integ *it, int st) {
+  if (st != GSL_SUCCESS && it->status == GSL_SUCCESS)
+    it->status = st;
+}
+
+
+/*
+** One inner piece by qag.  First with at most SMALL_LIMIT subintervals
+** (enough for every ordinary piece); if that fails but its error is below
+** `negl` it is accepted as it is: where the integrand is small (large
+** angles, or an elastic field that a nuclear form factor cancels far below
+** the rounding of its parts) its own relative accuracy does not matter,
+** and chasing it in rounding noise would cost the whole call budget.  The
+** error still enters the reported one.  Otherwise qag runs again with the
+** full limit and its status counts.
+*/
+#define SMALL_LIMIT 16
+static double piece (integ *it, gsl_function *f, double a, double b,
+                     double eps, double negl, size_t limit, double *abserr) {
+  double val;
+  int st;
+  if (limit > SMALL_LIMIT && negl > 0.0) {
+    st = gsl_integration_qag(f, a, b, 0.0, eps, SMALL_LIMIT, QAG_KEY_INNER,
+                             it->q->ws[1], &val, abserr);
+    if (st == GSL_SUCCESS || *abserr <= negl)
+      return val;
+  }
+  st = gsl_integration_qag(f, a, b, 0.0, eps, limit, QAG_KEY_INNER,
+                           it->q->ws[1], &val, abserr);
+  note(it, st);
+  return val;
+}
+
+
+/*
+** int_0^2 dh Phi(h0, h) for the polar geometry already in it->g (h0, s0),
+** to relative tolerance eps; pieces whose error is below negl need not
+** reach it (piece).
+*/
+static double inner_integral (integ *it, double eps, double negl) {
+  const bl_kin *kn = &it->kn;
+  double smax = log1p(2.0 / kn->hc), r = kn->p0 * it->g.s0 / kn->p;
+  double total = 0.0, abserr_total = 0.0, val, abserr;
+  gsl_function f;
+  size_t limit = it->q->limit;
+  f.params = it;
+  if (it->q->calls - it->calls0 > CALL_BUDGET) {
+    limit = 1;
+    if (it->status == GSL_SUCCESS)
+      it->status = BL_ENOTCONV;
+  }
+  if (r < 1.0) {   /* a forward ridge p sin(theta*) = p0 sin(theta0) */
+    double cs = sqrt((1.0 - r) * (1.0 + r));
+    double hs = r * r / (1.0 + cs);
+    double qz = kn->delta - kn->p0 * it->g.h0 + kn->p * hs;
+    double wh;
+    int side;
+    /* q >= delta for every geometry, so |q_z| >= delta at the ridge; a
+    ** smaller value is rounding of the three terms (forward photons) */
+    if (fabs(qz) < kn->delta)
+      qz = kn->delta;
+    wh = hypot(qz, sqrt(it->c->ridge_b)) * r
+         / (kn->p * (cs > 1e-300 ? cs : 1e-300));
+    it->sstar = log1p(hs / kn->hc);
+    it->g.ridge = 1;
+    it->g.hs = hs;
+    it->g.ss = r;
+    it->g.qzs = qz;
+    it->w = wh / (hs + kn->hc);
+    if (!(it->w > 1e-300))
+      it->w = 1e-300;
+    f.function = inner_f;
+    for (side = -1; side <= 1; side += 2) {
+      double len = side < 0 ? it->sstar : smax - it->sstar;
+      if (len <= 0.0)
+        continue;
+      it->side = side;
+      val = piece(it, &f, 0.0, asinh(len / it->w), eps, 0.5 * negl, limit,
+                  &abserr);
+      total += val;
+      abserr_total += abserr;
+    }
+  }
+  else {
+    it->g.ridge = 0;
+    f.function = inner_plain;
+    total = piece(it, &f, 0.0, smax, eps, negl, limit, &abserr_total);
+  }
+  it->last_err = abserr_total;
+  return total;
+}
+
+
+/* Outer integrand in sigma0 = ln(1 + h0/hc0). */
+static double outer_f (double sg, void *params) {
+  integ *it = params;
+  double hc0 = it->kn.hc0, jac = hc0 * exp(sg);
+  double h0 = hc0 * expm1(sg);
+  if (h0 > 2.0)
+    h0 = 2.0;
+  it->g.h0 = h0;
+  it->g.s0 = sqrt(h0 * (2.0 - h0));
+  double negl = NEGL_SHARE * it->q->rtol * it->fpeak / jac;
+  double v = inner_integral(it, INNER_SHARE * it->q->rtol, negl) * jac;
+  if (fabs(v) > it->fpeak)
+    it->fpeak = fabs(v);
+  it->inner_val += fabs(v);
+  it->inner_err += it->last_err * jac;
+  return v;
+}
+
+
+static void integ_init (integ *it, const bl_case *c, bl_quad *q) {
+  it->c = c;
+  it->q = q;
+  it->inner_err = it->inner_val = it->last_err = it->fpeak = 0.0;
+  it->calls0 = q->calls;
+  it->status = GSL_SUCCESS;
+}
+
+
+/*
+** The tolerance warning whenever the reported error exceeds rtol |val|,
+** even where every integral converged (the inner errors added in finish,
+** or a Coulomb correction that leaves a small difference, can do that):
+** the error is then larger than asked for, and the result says so.  A
+** value clamped to 0 has its own warning.
+*/
+static void tolcheck (const bl_quad *q, bl_result *out) {
+  if (out->err > q->rtol * fabs(out->val) && !(out->warn & BL_WARN_CLAMPED))
+    out->warn |= BL_WARN_TOLERANCE;
+}
+
+
+/*
+** Fill *out from a raw integral, its error and a factor; set the status
+** warnings.  The inner integrals add their errors in the proportion they
+** bear to their values, summed over all outer points (so an inner integral
+** that struggled where the integrand is negligible costs little).
+*/
+static int finish (const integ *it, double val, double abserr, double factor,
+                   unsigned warn, unsigned applied, bl_result *out) {
+  if (it->inner_val > 0.0)
+    abserr += it->inner_err / it->inner_val * fabs(val);
+  out->val = val * factor;
+  out->err = abserr * fabs(factor);
+  out->warn = warn;
+  out->applied = applied;
+  if (!isfinite(out->val) || !isfinite(out->err)) {
+    out->warn |= BL_WARN_TOLERANCE;
+    return GSL_ERANGE;
+  }
+  if (it->status != GSL_SUCCESS)
+    out->warn |= BL_WARN_TOLERANCE;
+  tolcheck(it->q, out);
+  return it->status;
+}
+
+
+int bl_dcs_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out) {
+  integ it;
+  gsl_function f;
+  double pts[2], val = 0.0, abserr = 0.0, smax, ratio;
+  unsigned warn, applied;
+  int st, n = 0, i;
+  out->val = out->err = 0.0;
+  out->warn = out->applied = 0;
+  out->method = 0;   /* BL_METHOD_BORN */
+  if (c == NULL || q == NULL)
+    return BL_EDOMAIN;
+  integ_init(&it, c, q);
+  st = setup(c, k, &it, &warn, &applied);
+  if (st != BL_SUCCESS)
+    return st;
+  f.function = outer_f;
+  f.params = &it;
+  smax = log1p(2.0 / it.kn.hc0);
+  /* beyond sin(theta0) = p/p0 the ridge no longer exists: a kink */
+  ratio = it.kn.p / it.kn.p0;
+  pts[n++] = 0.0;
+  if (ratio < 1.0) {
+    double hr = ratio * ratio / (1.0 + sqrt((1.0 - ratio) * (1.0 + ratio)));
+    double sr = log1p(hr / it.kn.hc0);
+    if (sr > 0.0 && sr < smax)
+      pts[n++] = sr;
+  }
+  for (i = 0; i < n; i++) {
+    double a = pts[i], b = (i + 1 < n) ? pts[i + 1] : smax, v, e;
+    /* a later piece (beyond the kink: backward photons) may be negligible
+    ** next to the first; it needs only an absolute share of the tolerance */
+    st = gsl_integration_qag(&f, a, b, TAIL_SHARE * q->rtol * fabs(val),
+                             q->rtol, q->limit, QAG_KEY, q->ws[0], &v, &e);
+    note(&it, st);
+    val += v;
+    abserr += e;
+  }
+  st = finish(&it, val, abserr,
+              c->norm * it.kn.p / (it.kn.p0 * it.kn.k) / BL_PI
+              / c->particle.mass, warn, applied, out);
+  if (bl_wanted(c->opts.coulomb, bl_coulomb_valid(c, &it.kn), BL_WARN_COULOMB,
+             &out->warn)) {
+    bl_coulomb_subtract(c, &it.kn, out);
+    if (!isfinite(out->val) && st == BL_SUCCESS)
+      st = GSL_ERANGE;
+    tolcheck(q, out);
+  }
+  return st;
+}
+
+
+int bl_dcs_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
+                      bl_result *out) {
+  integ it;
+  double sh, val;
+  unsigned warn, applied;
+  int st;
+  out->val = out->err = 0.0;
+  out->warn = out->applied = 0;
+  out->method = 0;   /* BL_METHOD_BORN */
+  if (c == NULL || q == NULL || !(theta_k >= 0.0 && theta_k <= BL_PI))
+    return BL_EDOMAIN;
+  integ_init(&it, c, q);
+  st = setup(c, k, &it, &warn, &applied);
+  if (st != BL_SUCCESS)
+    return st;
+  if (c->opts.coulomb == BL_APPLY_ON)
+    warn |= BL_WARN_COULOMB;   /* known for dsigma/dk only */
+  sh = sin(0.5 * theta_k);
+  it.g.h0 = 2.0 * sh * sh;
+  it.g.s0 = sin(theta_k);
+  val = inner_integral(&it, q->rtol, 0.0);  /* the whole tolerance */
+  return finish(&it, val, it.last_err,
+                c->norm * it.kn.p / (it.kn.p0 * it.kn.k) / (2.0 * BL_PI * BL_PI)
+                / c->particle.mass, warn, applied, out);
+}
+
+
+/*
+** Beam-frame angles (photon theta_k, particle theta_p, azimuth phi between
+** them around the beam) to the photon frame: with e1 = unit p0_perp and
+** e2 = k x e1, the final direction has perpendicular components
+**   X = sin(theta_k - theta_p) + 2 cos(theta_k) sin(theta_p) sin^2(phi/2),
+**   Y = -sin(theta_p) sin(phi),
+** and h = 1 - cos(theta) = 2 sin^2((theta_k - theta_p)/2)
+**                         + 2 sin(theta_k) sin(theta_p) sin^2(phi/2).
+*/
+int bl_dcs_full_e (const bl_case *c, double k, double theta_k, double theta_p,
+                   double phi, bl_result *out) {
+  integ it;
+  bl_kin *kn = &it.kn;
+  bl_polar g;
+  bl_bracket br;
+  double sd, sp, X, Y, rho, v, val;
+  unsigned warn, applied;
+  int st;
+  out->val = out->err = 0.0;
+  out->warn = out->applied = 0;
+  out->method = 0;   /* BL_METHOD_BORN */
+  if (c == NULL || !(theta_k >= 0.0 && theta_k <= BL_PI)
+      || !(theta_p >= 0.0 && theta_p <= BL_PI) || !isfinite(phi))
+    return BL_EDOMAIN;
+  st = setup(c, k, &it, &warn, &applied);
+  if (st != BL_SUCCESS)
+    return st;
+  if (c->opts.coulomb == BL_APPLY_ON)
+    warn |= BL_WARN_COULOMB;   /* known for dsigma/dk only */
+  sd = sin(0.5 * (theta_k - theta_p));
+  sp = sin(0.5 * phi);
+  g.ridge = 0;
+  g.h0 = 2.0 * sin(0.5 * theta_k) * sin(0.5 * theta_k);
+  g.s0 = sin(theta_k);
+  g.h = 2.0 * sd * sd + 2.0 * g.s0 * sin(theta_p) * sp * sp;
+  X = sin(theta_k - theta_p) + 2.0 * cos(theta_k) * sin(theta_p) * sp * sp;
+  Y = -sin(theta_p) * sin(phi);
+  rho = hypot(X, Y);
+  g.s = rho;
+  if (rho == 0.0)
+    v = 0.0;
+  else if (X > 0.0)
+    v = Y * Y / (rho * (rho + X));  /* 1 - cos(phi_k) without cancellation */
+  else
+    v = (rho - X) / rho;
+  bl_bracket_set(kn, &g, &br);
+  val = bl_bracket_point(&br, v, c->npole, c->pole, it.single, it.nterm,
+                         it.term);
+  out->val = val * c->norm * kn->p / (kn->p0 * kn->k) / (4.0 * BL_PI * BL_PI)
+             / c->particle.mass;
+  out->warn = warn;
+  out->applied = applied;
+  if (!isfinite(out->val))
+    return GSL_ERANGE;
+  return BL_SUCCESS;
+}

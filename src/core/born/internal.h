@@ -1,0 +1,77 @@
+/*
+** born/internal.h -- kinematics, the Born bracket and the nucleus fit,
+** shared inside the core, not public
+** See Copyright Notice in LICENSE
+*/
+
+#ifndef BL_BORN_INTERNAL_H
+#define BL_BORN_INTERNAL_H
+
+#include "brakelight.h"
+
+/* The uniform-sphere fit of nucleus.c: poles in units of R^-2. */
+#define BL_NUCLEUS_NPOLE 4
+extern const double bl_nucleus_pole[BL_NUCLEUS_NPOLE];
+extern const double bl_nucleus_coef[BL_NUCLEUS_NPOLE];
+
+/* R = 1.2 A^1/3 fm. */
+double bl_nucleus_radius (double A);
+
+/*
+** Kinematics of one photon energy, in units of the projectile mass
+** (hbar = c = m = 1).  Filled by bl_kin_set; read-only afterwards.
+*/
+typedef struct bl_kin {
+  double E0, p0;      /* initial total energy and momentum */
+  double E, p;        /* final */
+  double k;           /* photon energy */
+  double delta;       /* p0 - p - k > 0, smallest momentum transfer */
+  double hc0, hc;     /* 1/(p0 (E0+p0)), 1/(p (E+p)): D0 = p0 (h0 + hc0) */
+  double spin;        /* 0 or 0.5 */
+} bl_kin;
+
+/* Polar geometry in the frame with the photon along z: h = 1 - cos(theta),
+** s = sin(theta), for the initial (h0, s0) and final (h, s) directions. */
+typedef struct bl_polar {
+  double h0, s0, h, s;
+  /* Near the ridge p s = p0 s0 (set ridge = 1): h* and s* = p0 s0 / p of the
+  ** ridge, q_z there, and dh = h - h* known without rounding. */
+  int ridge;
+  double hs, ss, qzs, dh;
+} bl_polar;
+
+/*
+** The bracket B of the Born cross section, written for fixed polar angles as
+**   B(v) = L0 + L1 v - x (M0 + M1 v),   x = q^2 = Q0 + b v,   v = 1 - cos(phi),
+** with every coefficient >= 0 (M0 = M1 = 0 for spin 0).
+*/
+typedef struct bl_bracket {
+  double L0, L1, M0, M1;
+  double Q0, b;
+} bl_bracket;
+
+/* Kinematics for kinetic energy t0 and photon energy k (units of m);
+** requires 0 < k < t0. */
+void bl_kin_set (bl_kin *kn, double t0, double k, double spin);
+
+/* Bracket coefficients at the polar geometry g. */
+void bl_bracket_set (const bl_kin *kn, const bl_polar *g, bl_bracket *br);
+
+/* Azimuthal integral  int_0^pi B(v) W(x) dphi  with
+** W(x) = sum_i single[i] w_i + sum_t c_t w_i w_j, w_i = 1/(pole[i] + x),
+** pole[i] >= 0 and pole[i] <= pole[j] in every term; closed form. */
+double bl_bracket_azimuth (const bl_bracket *br, int npole,
+                           const double *pole, const double *single,
+                           int nterm, const bl_term *term);
+
+/* B(v) W(x) at one azimuth. */
+double bl_bracket_point (const bl_bracket *br, double v, int npole,
+                         const double *pole, const double *single, int nterm,
+                         const bl_term *term);
+
+/* Kinematics of photon energy k (MeV) of case c, with the checks every
+** method makes: BL_EDOMAIN unless 0 < k < T and the final momentum is
+** positive. */
+int bl_kin_case (const bl_case *c, double k, bl_kin *kn);
+
+#endif

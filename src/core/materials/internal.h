@@ -1,0 +1,26 @@
+/*
+** materials/internal.h -- declarations shared by the material files, not
+** public: fill.c makes every material; formula.c, standard.c and lookup.c
+** build on it (never the other way round)
+** See Copyright Notice in LICENSE
+*/
+#ifndef BL_MATERIALS_INTERNAL_H
+#define BL_MATERIALS_INTERNAL_H
+
+#include "brakelight/bl_element.h"
+#include "brakelight/bl_material.h"
+
+/*
+** Fill *m from atoms[Z] (atoms of element Z per formula unit, Z =
+** 0..BL_ZMAX, entry 0 ignored, entries <= 0 skipped): components ordered by
+** Z, molar mass, mass fractions; name copied (truncated to fit), density 0.
+** BL_SUCCESS, or BL_EDOMAIN when there is no element or more than
+** BL_MATERIAL_MAXCOMP of them (*m is then emptied: n = 0).
+*/
+int bl_mat_fill (bl_material *m, const double atoms[BL_ZMAX + 1],
+                 const char *name);
+
+/* Copy src into dst (size BL_MATERIAL_NAMELEN), truncating. */
+void bl_mat_setname (char *dst, const char *src);
+
+#endif

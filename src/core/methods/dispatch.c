@@ -1,0 +1,106 @@
+/*
+** dispatch.c -- the methods of dsigma/dk by name and id, the choice of
+** method "auto", and the photon energies where a result jumps
+** See Copyright Notice in LICENSE
+*/
+
+#include <math.h>
+#include <string.h>
+#include <strings.h>
+
+#include "methods/internal.h"
+
+
+int bl_method_prepare (const bl_case *c, int method, bl_quad *q, bl_he *h) {
+  memset(h, 0, sizeof *h);
+  if (method == BL_METHOD_HIGH_ENERGY
+      || (method == BL_METHOD_AUTO && 1.0 + c->t0 > BL_HE_GAMMA_MIN))
+    return bl_he_prepare(c, q, h);
+  return BL_SUCCESS;
+}
+
+
+/*
+** The closed forms' error is that of their tables; where the value has
+** nearly cancelled (a method forced far outside its range) it can exceed
+** the requested tolerance, and then the result says so, as a Born point
+** does (src/core/born/dcs.c, tolcheck).
+*/
+static int closedform (int st, const bl_quad *q, bl_result *out) {
+  if (st == BL_SUCCESS && q != NULL && !(out->warn & BL_WARN_CLAMPED)
+      && out->err > bl_quad_rtol(q) * fabs(out->val))
+    out->warn |= BL_WARN_TOLERANCE;
+  return st;
+}
+
+
+int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
+                    bl_quad *q, bl_result *out) {
+  switch (method) {
+    case BL_METHOD_BORN:
+      return bl_dcs_dk_e(c, k, q, out);
+    case BL_METHOD_HIGH_ENERGY:
+      return closedform(bl_he_dk_e(c, h, k, out), q, out);
+    case BL_METHOD_COMPLETE:
+      return closedform(bl_complete_dk_e(c, k, out), q, out);
+    case BL_METHOD_AUTO:
+      if (c != NULL && h != NULL && h->ready && bl_he_valid(c, k))
+        return closedform(bl_he_dk_e(c, h, k, out), q, out);
+      return bl_dcs_dk_e(c, k, q, out);
+    default:
+      bl_method_clear(out, BL_METHOD_BORN);
+      return BL_EDOMAIN;
+  }
+}
+
+
+int bl_method_breaks (const bl_case *c, const bl_he *h, int method,
+                      double *k, double *jump, int nmax) {
+  double m = c->particle.mass, E0 = 1.0 + c->t0;
+  int n = 0;
+  /* the Coulomb correction (a few per cent near the tip, up to 10 % on
+  ** the heaviest atoms) stops where the final gamma falls below
+  ** BL_COULOMB_GAMMA_MIN */
+  if (c->opts.coulomb == BL_APPLY_AUTO && bl_coulomb_case_valid(c)
+      && n < nmax
+      && method != BL_METHOD_HIGH_ENERGY && method != BL_METHOD_COMPLETE) {
+    k[n] = bl_coulomb_kend(c);
+    jump[n++] = 0.1;
+  }
+  /* "auto" changes method at the final gamma BL_HE_GAMMA_MIN (within 1e-3) */
+  if (method == BL_METHOD_AUTO && h != NULL && h->ready && E0 > BL_HE_GAMMA_MIN
+      && n < nmax) {
+    k[n] = (E0 - BL_HE_GAMMA_MIN) * m;
+    jump[n++] = 1e-3;
+  }
+  return n;
+}
+
+
+static const char *const method_names[BL_METHOD_COUNT] = {
+  "born", "high-energy", "complete", "auto"
+};
+
+
+const char *bl_method_name (int method) {
+  return method >= 0 && method < BL_METHOD_COUNT ? method_names[method]
+                                                 : NULL;
+}
+
+
+int bl_method_find (const char *name) {
+  int i;
+  if (name == NULL)
+    return -1;
+  for (i = 0; i < BL_METHOD_COUNT; i++)
+    if (strcasecmp(name, method_names[i]) == 0)
+      return i;
+  return -1;
+}
+
+
+void bl_method_clear (bl_result *out, int method) {
+  out->val = out->err = 0.0;
+  out->warn = out->applied = 0;
+  out->method = method;
+}

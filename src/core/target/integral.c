@@ -1,0 +1,389 @@
+/*
+** integral.c -- integrals over the photon energy
+** See Copyright Notice in LICENSE
+**
+** dsigma/dk behaves like 1/k at small k (times a logarithm without
+** screening, like k^-1/2 under LPM suppression) and may fall to zero like
+** sqrt(T - k) at the tip.  Each range is mapped so that the integrand is
+** smooth for Gauss-Kronrod rules:
+**   from k = 0 (moment 1 only): k = kmax sin^2(pi u / 2), u in (0, 1), so
+**               k f(k) -> const (or a logarithm) is integrated exactly,
+**               never cut, and a square-root edge at kmax = T becomes
+**               linear in u; one piece, 15 points when the integrand is
+**               smooth;
+**   otherwise the range is cut at T/2: below, k = e^x; above,
+**               T - k = s^2 (the tip edge becomes linear in s), leaving
+**               out the last 1e-12 T below T, where dsigma/dk is finite.
+** Evaluations are remembered by k, so two moments over one range share
+** their points when the rules pick the same ones.
+*/
+
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include <gsl/gsl_errno.h>
+
+#include "brakelight/bl_const.h"
+#include "brakelight/bl_errno.h"
+#include "brakelight/bl_integral.h"
+
+
+#define LIMIT     200     /* subintervals per piece */
+#define MEMO_SIZE 8192    /* remembered evaluations (power of 2) */
+#define TIP_GAP   1e-12   /* relative gap left below T */
+#define TAIL_SHARE 0.25   /* second piece: absolute share of the first */
+
+enum { MAP_LOG, MAP_TIP, MAP_SINE };
+
+typedef struct memo {
+  double k;
+  bl_result r;
+  int st, used;
+} memo;
+
+typedef struct kint {
+  bl_kfunc f;
+  void *ud;
+  double T, a;        /* the map: k = a sin^2(pi u/2) (MAP_SINE) */
+  int map, moment;
+  int hard;           /* first hard failure, or BL_SUCCESS */
+  int soft;           /* a point short of its tolerance */
+  unsigned warn, applied;
+  int method;         /* method of the points, -1 when they differ, -2 none */
+  double relerr;      /* worst relative error of a point */
+  memo *memo;
+} kint;
+
+
+static int softstatus (int st) {
+  return st == GSL_EMAXITER || st == GSL_EROUND || st == GSL_ESING
+      || st == GSL_ETOL || st == GSL_EDIVERGE || st == BL_ENOTCONV;
+}
+
+
+/* Add a usable point to the integral's warnings, methods and error. */
+static void account (kint *ki, const memo *e) {
+  if (e->st != BL_SUCCESS)
+    ki->soft = 1;   /* a point that did not converge: flagged at the end */
+  /* a point's own tolerance warning is not the integral's: its error is
+  ** in relerr, and the integral decides from its total error */
+  ki->warn |= e->r.warn & ~(unsigned)BL_WARN_TOLERANCE;
+  ki->applied |= e->r.applied;
+  if (ki->method == -2)
+    ki->method = e->r.method;
+  else if (ki->method != e->r.method)
+    ki->method = -1;
+  if (e->r.val != 0.0 && e->r.err / fabs(e->r.val) > ki->relerr)
+    ki->relerr = e->r.err / fabs(e->r.val);
+}
+
+
+/* f at k through the memo: NULL result pointer on a hard failure. */
+static const bl_result *evaluate (kint *ki, double k) {
+  unsigned long long bits;
+  size_t i;
+  memo *e;
+  int st;
+  memcpy(&bits, &k, sizeof bits);
+  i = (size_t)((bits ^ (bits >> 29)) * 0x9E3779B97F4A7C15ull >> 40)
+      & (MEMO_SIZE - 1);
+  for (;; i = (i + 1) & (MEMO_SIZE - 1)) {   /* linear probing */
+    e = &ki->memo[i];
+    if (!e->used || e->k == k)
+      break;
+  }
+  if (e->used) {   /* remembered: counted again for this moment */
+    if (e->st != BL_SUCCESS && !softstatus(e->st))
+      return NULL;
+    account(ki, e);
+    return &e->r;
+  }
+  st = ki->f(ki->ud, k, &e->r);
+  if (st == BL_SUCCESS || softstatus(st))
+    if (!isfinite(e->r.val) || !isfinite(e->r.err))
+      st = GSL_ERANGE;   /* a non-finite point is a failure, never a 0 */
+  e->k = k;
+  e->st = st;
+  e->used = 1;
+  if (st != BL_SUCCESS && !softstatus(st)) {
+    if (ki->hard == BL_SUCCESS)
+      ki->hard = st;
+    return NULL;
+  }
+  account(ki, e);
+  return &e->r;
+}
+
+
+/* The mapped integrand: k^moment f(k) dk/dx. */
+static double integrand (double x, void *params) {
+  kint *ki = params;
+  const bl_result *r;
+  double k, jac;
+  if (ki->hard != BL_SUCCESS)
+    return 0.0;
+  switch (ki->map) {
+    case MAP_LOG:
+      k = exp(x);
+      jac = k;
+      break;
+    case MAP_SINE: {
+      double sn = sin(0.5 * BL_PI * x);
+      k = ki->a * sn * sn;
+      jac = 0.5 * BL_PI * ki->a * sin(BL_PI * x);
+      break;
+    }
+    default:
+      k = ki->T - x * x;
+      jac = 2.0 * x;
+      break;
+  }
+  if (!(k > 0.0) || !(k < ki->T))
+    return 0.0;   /* only at a rounded end: measure zero */
+  r = evaluate(ki, k);
+  if (r == NULL)
+    return 0.0;   /* a hard failure: the integral stops with it */
+  return (ki->moment ? k : 1.0) * r->val * jac;
+}
+
+
+/* Gauss-Kronrod 15-point nodes on [-1, 1] (the non-negative half, node
+** 7 at 0) and weights; the 7-point Gauss rule uses the odd nodes
+** (QUADPACK's qk15 constants). */
+static const double xgk[8] = {
+  0.991455371120812639206854697526329, 0.949107912342758524526189684047851,
+  0.864864423359769072789712788640926, 0.741531185599394439863864773280788,
+  0.586087235467691130294144845693013, 0.405845151377397166906606412076961,
+  0.207784955007898467600689403773245, 0.0
+};
+static const double wgk[8] = {
+  0.022935322010529224963732008058970, 0.063092092629978553290700663189204,
+  0.104790010322250183839876322541518, 0.140653259715525918745189590510238,
+  0.169004726639267902826583426598550, 0.190350578064785409913256402421014,
+  0.204432940075298892414161999234649, 0.209482141084727828012999174891714
+};
+static const double wg[4] = {
+  0.129484966168869693270611432679082, 0.279705391489276667901467771423780,
+  0.381830050505118944950369775488975, 0.417959183673469387755102040816327
+};
+
+typedef struct seg {
+  double a, b, val, err;
+} seg;
+
+
+/*
+** The 15-point Kronrod value of [a, b] with |K15 - G7| as its error: the
+** error of the 7-point rule, so a generous bound for the 15-point one on
+** a smooth integrand (QUADPACK's sharper heuristic scaling would bisect
+** integrands whose points carry their own small quadrature noise).
+*/
+static void gk15 (kint *ki, seg *g) {
+  double c = 0.5 * (g->a + g->b), h = 0.5 * (g->b - g->a);
+  double fc = integrand(c, ki), k = wgk[7] * fc, gs = wg[3] * fc;
+  int j;
+  for (j = 0; j < 7; j++) {
+    double f = integrand(c - h * xgk[j], ki) + integrand(c + h * xgk[j], ki);
+    k += wgk[j] * f;
+    if (j % 2 == 1)
+      gs += wg[j / 2] * f;
+  }
+  g->val = k * h;
+  g->err = fabs((k - gs) * h);
+}
+
+
+/*
+** Adaptive integral over [x0, x1] cut first at the interior points bx[]
+** (increasing), bisecting the segment of largest error until the total
+** error is at most max(epsabs, rtol |total|).  GSL_SUCCESS, or
+** GSL_EMAXITER when LIMIT segments do not suffice (best estimate kept).
+*/
+static int piece (kint *ki, int map, double x0, double x1, const double *bx,
+                  int nb, double epsabs, double rtol, seg *sg, double *val,
+                  double *err) {
+  int n = 0, i;
+  double lo = x0;
+  ki->map = map;
+  *val = *err = 0.0;
+  if (!(x1 > x0))
+    return GSL_SUCCESS;
+  for (i = 0; i <= nb; i++) {   /* initial segments at the breakpoints */
+    double hi = i < nb ? bx[i] : x1;
+    if (hi > lo && hi <= x1) {
+      sg[n].a = lo;
+      sg[n].b = hi;
+      gk15(ki, &sg[n++]);
+      lo = hi;
+    }
+  }
+  for (;;) {
+    int worst = 0;
+    double v = 0.0, e = 0.0;
+    for (i = 0; i < n; i++) {
+      v += sg[i].val;
+      e += sg[i].err;
+      if (sg[i].err > sg[worst].err)
+        worst = i;
+    }
+    *val = v;
+    *err = e;
+    if (e <= fmax(epsabs, rtol * fabs(v)) || ki->hard != BL_SUCCESS)
+      return GSL_SUCCESS;
+    if (n == LIMIT
+        || sg[worst].b - sg[worst].a <= 1e-13 * fabs(x1 - x0))
+      return GSL_EMAXITER;
+    sg[n].a = 0.5 * (sg[worst].a + sg[worst].b);
+    sg[n].b = sg[worst].b;
+    sg[worst].b = sg[n].a;
+    gk15(ki, &sg[worst]);
+    gk15(ki, &sg[n++]);
+  }
+}
+
+
+/* The breakpoints of (kmin, kmax) mapped by x = map(k), increasing. */
+static int mapbreaks (const kint *ki, int map, const double *kb, int nkb,
+                      double kmin, double kmax, double *bx) {
+  int i, j, n = 0;
+  for (i = 0; i < nkb; i++) {
+    double k = kb[i], x;
+    if (!(k > kmin && k < kmax))
+      continue;
+    x = map == MAP_SINE ? asin(sqrt(k / ki->a)) / (0.5 * BL_PI)
+      : map == MAP_LOG ? log(k) : sqrt(ki->T - k);
+    for (j = n; j > 0 && bx[j - 1] > x; j--)   /* insertion sort */
+      bx[j] = bx[j - 1];
+    bx[j] = x;
+    n++;
+  }
+  return n;
+}
+
+
+static int run (kint *ki, double kmin, double kmax, double rtol,
+                const double *kb, int nkb, seg *sg, bl_result *out) {
+  double half = 0.5 * ki->T, v1 = 0.0, e1 = 0.0, v2 = 0.0, e2 = 0.0;
+  double bx[BL_KINT_MAXBREAK];
+  int st1 = GSL_SUCCESS, st2 = GSL_SUCCESS, nb;
+  if (kmin == 0.0) {   /* one piece: both ends mapped at once */
+    ki->a = kmax;
+    nb = mapbreaks(ki, MAP_SINE, kb, nkb, kmin, kmax, bx);
+    st1 = piece(ki, MAP_SINE, 0.0, 1.0, bx, nb, 0.0, 0.5 * rtol, sg, &v1,
+                &e1);
+  }
+  else if (kmin < half) {   /* the lower piece */
+    double top = fmin(kmax, half);
+    nb = mapbreaks(ki, MAP_LOG, kb, nkb, kmin, top, bx);
+    st1 = piece(ki, MAP_LOG, log(kmin), log(top), bx, nb, 0.0, 0.5 * rtol,
+                sg, &v1, &e1);
+  }
+  if (kmin > 0.0 && kmax > half && ki->hard == BL_SUCCESS) {   /* upper */
+    double lo = fmax(kmin, half), gap = TIP_GAP * ki->T;
+    double s0 = sqrt(fmax(ki->T - kmax, gap)), s1 = sqrt(ki->T - lo);
+    double rev[BL_KINT_MAXBREAK];
+    int i;
+    nb = mapbreaks(ki, MAP_TIP, kb, nkb, lo, kmax, rev);
+    for (i = 0; i < nb; i++)   /* s falls as k rises: reverse */
+      bx[i] = rev[i];
+    st2 = piece(ki, MAP_TIP, s0, s1, bx, nb, TAIL_SHARE * rtol * fabs(v1),
+                0.5 * rtol, sg, &v2, &e2);
+  }
+  out->val = v1 + v2;
+  out->err = e1 + e2 + ki->relerr * fabs(out->val);
+  out->warn = ki->warn;
+  out->applied = ki->applied;
+  out->method = ki->method;
+  if (ki->hard != BL_SUCCESS)
+    return ki->hard;
+  if (st1 != GSL_SUCCESS || st2 != GSL_SUCCESS || ki->soft
+      || !isfinite(out->val) || out->err > rtol * fabs(out->val)) {
+    out->warn |= BL_WARN_TOLERANCE;
+    return BL_ENOTCONV;
+  }
+  return BL_SUCCESS;
+}
+
+
+static int checkargs (bl_kfunc f, double kmin, double kmax, double T,
+                      double rtol) {
+  if (f == NULL || !isfinite(T) || !(T > 0.0) || !(kmin >= 0.0)
+      || !(kmax > kmin) || !(kmax <= T) || !(rtol >= 1e-12 && rtol <= 0.5))
+    return BL_EDOMAIN;
+  return BL_SUCCESS;
+}
+
+
+static void kint_init (kint *ki, bl_kfunc f, void *ud, double T,
+                       memo *m) {
+  memset(ki, 0, sizeof *ki);
+  ki->f = f;
+  ki->ud = ud;
+  ki->T = T;
+  ki->hard = BL_SUCCESS;
+  ki->method = -2;
+  ki->memo = m;
+}
+
+
+/*
+** The moment m0 of f into out0 and, when out1 is not NULL, moment 1 into
+** out1 on the remembered points.  The quadrature aims at rtol/2: the
+** points' own errors (asked at rtol/2 by the callers) take the rest.
+*/
+static int integrate (bl_kfunc f, void *ud, double kmin, double kmax,
+                      double T, double rtol, const double *kb, int nkb,
+                      int m0, bl_result *out0, bl_result *out1) {
+  seg *sg;
+  memo *m;
+  kint ki;
+  int st0, st1 = BL_SUCCESS;
+  memset(out0, 0, sizeof *out0);
+  if (out1 != NULL)
+    memset(out1, 0, sizeof *out1);
+  if (checkargs(f, kmin, kmax, T, rtol) != BL_SUCCESS
+      || (kmin == 0.0 && (m0 == 0 || out1 != NULL))
+      || nkb < 0 || nkb > BL_KINT_MAXBREAK || (nkb > 0 && kb == NULL))
+    return BL_EDOMAIN;   /* also: int f dk from 0 diverges like ln k */
+  sg = malloc(LIMIT * sizeof *sg);
+  m = calloc(MEMO_SIZE, sizeof *m);
+  if (sg == NULL || m == NULL) {
+    free(sg);
+    free(m);
+    return BL_ENOMEM;
+  }
+  kint_init(&ki, f, ud, T, m);
+  ki.moment = m0;
+  st0 = run(&ki, kmin, kmax, rtol, kb, nkb, sg, out0);
+  if (out1 != NULL && ki.hard == BL_SUCCESS) {
+    ki.moment = 1;
+    ki.relerr = 0.0;
+    ki.soft = 0;
+    st1 = run(&ki, kmin, kmax, rtol, kb, nkb, sg, out1);
+  }
+  free(sg);
+  free(m);
+  if (st0 != BL_SUCCESS && st0 != BL_ENOTCONV)
+    return st0;
+  return st0 != BL_SUCCESS ? st0 : st1;
+}
+
+
+int bl_kintegral2_e (bl_kfunc f, void *ud, double kmin, double kmax, double T,
+                     const double *kbreak, int nbreak, double rtol,
+                     bl_result *out0, bl_result *out1) {
+  return integrate(f, ud, kmin, kmax, T, rtol, kbreak, nbreak, 0, out0, out1);
+}
+
+
+int bl_kintegral_e (bl_kfunc f, void *ud, double kmin, double kmax, double T,
+                    const double *kbreak, int nbreak, int moment, double rtol,
+                    bl_result *out) {
+  if (moment != 0 && moment != 1) {
+    memset(out, 0, sizeof *out);
+    return BL_EDOMAIN;
+  }
+  return integrate(f, ud, kmin, kmax, T, rtol, kbreak, nbreak, moment, out,
+                   NULL);
+}
