@@ -21,5 +21,6 @@
 #include "brakelight/bl_spectrum.h"
 #include "brakelight/bl_integral.h"
 #include "brakelight/bl_suppress.h"
+#include "brakelight/bl_target.h"
 
 #endif

@@ -35,4 +35,16 @@
 */
 #define BL_BORN_XI_MAX 1.0
 
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/* The Born parameter 2 pi |z| Z alpha / beta of a projectile of charge z
+** and mass m (MeV) at kinetic energy T (MeV) in the field of charge Z. */
+double bl_born_xi (double z, int Z, double T, double m);
+
+#ifdef __cplusplus
+}
+#endif
+
 #endif

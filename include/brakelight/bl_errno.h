@@ -20,11 +20,17 @@ enum {
   BL_EUNKNOWN = 1002,   /* unknown name (particle, element, model) */
   BL_ENOMEM   = 1003,   /* allocation failed */
   BL_EMODEL   = 1004,   /* model cannot serve this request */
-  BL_ENOTCONV = 1005    /* integral did not reach the requested tolerance */
+  BL_ENOTCONV = 1005,   /* integral did not reach the requested tolerance */
+  BL_ENONFINITE = 1006  /* a computation gave a non-finite value */
 };
 
 /* Message for a status code: ours or GSL's.  Never NULL, static storage. */
 const char *bl_strerror (int status);
+
+/* 1 if status means "best estimate available, tolerance not reached"
+** (BL_ENOTCONV and GSL's EMAXITER, EROUND, ESING, ETOL, EDIVERGE), 0
+** otherwise (success or a hard failure). */
+int bl_status_soft (int status);
 
 #ifdef __cplusplus
 }

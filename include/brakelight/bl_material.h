@@ -115,6 +115,10 @@ const char *bl_material_standard_name (int i);
 ** fractions).  Returns 0 for an empty material. */
 double bl_radiation_length (const bl_material *m);
 
+/* The factor from mb per formula unit to cm^2/g: N_A / molar mass * 1e-27
+** (0 for an empty material). */
+double bl_material_per_gram (const bl_material *m);
+
 #ifdef __cplusplus
 }
 #endif

@@ -14,7 +14,7 @@ extern "C" {
 typedef struct bl_quad bl_quad;
 
 /* New workspace with at most `limit` subintervals per nesting level
-** (limit >= 8) and relative tolerance 1e-4.  NULL on allocation failure.
+** (limit >= 8) and relative tolerance BL_QUAD_RTOL_DEFAULT.  NULL on allocation failure.
 ** The first call in a process replaces GSL's default error handler (which
 ** aborts) by none, unless the application has installed its own. */
 bl_quad *bl_quad_alloc (size_t limit);
@@ -22,8 +22,13 @@ bl_quad *bl_quad_alloc (size_t limit);
 /* Free; NULL is a no-op. */
 void bl_quad_free (bl_quad *q);
 
+/* The range of relative tolerances a workspace accepts, and its default. */
+#define BL_QUAD_RTOL_MIN     1e-12
+#define BL_QUAD_RTOL_MAX     0.5
+#define BL_QUAD_RTOL_DEFAULT 1e-4
+
 /* Relative tolerance for the next integrals: BL_EDOMAIN unless
-** 1e-12 <= rtol <= 0.5. */
+** BL_QUAD_RTOL_MIN <= rtol <= BL_QUAD_RTOL_MAX. */
 int bl_quad_set_rtol (bl_quad *q, double rtol);
 double bl_quad_rtol (const bl_quad *q);
 

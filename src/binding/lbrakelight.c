@@ -28,14 +28,15 @@
 
 #define QUADMETA  "brakelight.Quad"       /* integration workspace */
 #define PARTMETA  "brakelight.Particle"   /* particle object */
+#define TARGETMETA "brakelight.Target"    /* a call's target (internal) */
 
 #define QUAD_LIMIT   1000     /* subintervals per nesting level */
 #define MSGSIZE      1024     /* longest error or warning message */
 #define NAMESIZE     512      /* longest "allowed: ..." list */
 
-#define RTOL_DEFAULT 1e-4     /* default relative tolerance */
-#define RTOL_MIN     1e-12    /* range accepted by bl_quad_set_rtol */
-#define RTOL_MAX     0.5
+#define RTOL_DEFAULT BL_QUAD_RTOL_DEFAULT
+#define RTOL_MIN     BL_QUAD_RTOL_MIN
+#define RTOL_MAX     BL_QUAD_RTOL_MAX
 #define SCREENING_DEFAULT "hartree-fock"
 #define METHOD_DEFAULT    BL_METHOD_AUTO
 #define CUSTOM_NAME       "custom"   /* name of a particle made without one */
@@ -498,37 +499,63 @@ static double optrange (lua_State *L, const Opts *o, const char *key,
 
 
 /*
-** Check the array option `key` (must be present): a non-empty sequence of
-** numbers each in (lo, hi) (open = 1) or [lo, hi] (open = 0), `range`
-** describing the interval.  Returns its length.  Stack unchanged.
+** Read the array option `key` (must be present) once into C: a non-empty
+** sequence of numbers each in (lo, hi) (open = 1) or [lo, hi] (open = 0),
+** `range` describing the interval in the message; a key that is not one
+** of 1..n (a hole, a name) is refused, never skipped.  The values go into a
+** new userdata pushed on the stack (collected with it on any error); *n
+** receives the count.
 */
-static lua_Integer optarray (lua_State *L, const Opts *o, const char *key,
-                             double lo, double hi, int open,
-                             const char *range) {
+static double *optarray (lua_State *L, const Opts *o, const char *key,
+                         double lo, double hi, int open, const char *range,
+                         lua_Integer *n) {
   char v[80];
-  lua_Integer i, n;
+  lua_Integer i, len, count = 0;
+  double *x;
   if (lua_getfield(L, 1, key) != LUA_TTABLE)
     lbl_argfail(L, o->fname, "field '%s' must be an array of numbers, got %s",
             key, lbl_showval(L, -1, v, sizeof v));
-  n = (lua_Integer)lua_rawlen(L, -1);
-  if (n < 1)
+  len = (lua_Integer)lua_rawlen(L, -1);
+  if (len < 1)
     lbl_argfail(L, o->fname, "field '%s' must be a non-empty array of numbers, "
             "got an empty table", key);
-  for (i = 1; i <= n; i++) {
-    double x;
+  lua_pushnil(L);
+  while (lua_next(L, -2) != 0) {      /* every key must be one of 1..len */
+    int isint = 0;
+    lua_Integer ki = lua_type(L, -2) == LUA_TNUMBER
+                     ? lua_tointegerx(L, -2, &isint) : 0;
+    if (!isint || ki < 1 || ki > len)
+      lbl_argfail(L, o->fname, "field '%s' must be an array (keys 1..%lld "
+                  "without holes), got key %s", key, (long long)len,
+                  lbl_showval(L, -2, v, sizeof v));
+    count++;
+    lua_pop(L, 1);
+  }
+  if (count != len)
+    lbl_argfail(L, o->fname, "field '%s' must be an array without holes, "
+                "got %lld values for length %lld", key, (long long)count,
+                (long long)len);
+  if ((size_t)len > ((size_t)-1) / sizeof *x)
+    lbl_argfail(L, o->fname, "field '%s' has too many elements (%lld)", key,
+                (long long)len);
+  x = (double *)lua_newuserdatauv(L, (size_t)len * sizeof *x, 0);
+  lua_insert(L, -2);                  /* values below the table */
+  for (i = 1; i <= len; i++) {
     int ok;
     if (lua_rawgeti(L, -1, i) != LUA_TNUMBER)
       lbl_argfail(L, o->fname, "element #%lld of '%s' is not a number, got %s",
               (long long)i, key, lbl_showval(L, -1, v, sizeof v));
-    x = (double)lua_tonumber(L, -1);
-    ok = open ? (x > lo && x < hi) : (x >= lo && x <= hi);
-    if (!ok || !isfinite(x))
+    x[i - 1] = (double)lua_tonumber(L, -1);
+    ok = open ? (x[i - 1] > lo && x[i - 1] < hi)
+              : (x[i - 1] >= lo && x[i - 1] <= hi);
+    if (!ok || !isfinite(x[i - 1]))
       lbl_argfail(L, o->fname, "element #%lld of '%s' must be in %s, got %.14g",
-              (long long)i, key, range, x);
+              (long long)i, key, range, x[i - 1]);
     lua_pop(L, 1);
   }
-  lua_pop(L, 1);
-  return n;
+  lua_pop(L, 1);                      /* the table; the values stay */
+  *n = len;
+  return x;
 }
 
 /* }====================================================== */
@@ -564,78 +591,54 @@ static bl_quad *getquad (lua_State *L, const Opts *o) {
 
 
 /*
-** The cases of every element of the target with their weights (atoms per
-** formula unit).  Held in a userdata (bl_case is large), collected with
-** the stack on any error.
+** The target of a call: a core bl_target (the cases of every element,
+** the method's tables, the suppression) in a userdata, so that the
+** collector releases it on any error.
 */
-typedef struct Cases {
-  int n;
-  double atoms[BL_MATERIAL_MAXCOMP];
-  bl_case c[BL_MATERIAL_MAXCOMP];
-  bl_he he[BL_MATERIAL_MAXCOMP];     /* high-energy tables, per method */
-} Cases;
-
-
-/* Push a new Cases for *o; raises if the core refuses an element. */
-static Cases *makecases (lua_State *L, Opts *o) {
-  Cases *cs = (Cases *)lua_newuserdatauv(L, sizeof *cs, 0);
-  int i;
-  cs->n = o->target.n;
-  for (i = 0; i < cs->n; i++) {
-    int Z = o->target.comp[i].Z;
-    int st = bl_case_setup(&cs->c[i], &o->particle, Z, o->screening, NULL,
-                           o->T, &o->bo);
-    if (st != BL_SUCCESS)
-      lbl_fail(L, "%s: cannot set up %s on Z = %d at T = %g MeV with "
-               "screening '%s': %s", o->fname, o->particle.name, Z, o->T,
-               o->screening->name, bl_strerror(st));
-    cs->atoms[i] = o->target.comp[i].atoms;
-    memset(&cs->he[i], 0, sizeof cs->he[i]);
-  }
-  return cs;
+static int target_gc (lua_State *L) {
+  bl_target *t = (bl_target *)luaL_checkudata(L, 1, TARGETMETA);
+  bl_target_release(t);
+  return 0;
 }
 
 
-/*
-** Prepare the cases for the method of *o (the high-energy tables, built
-** once per process and element); raises if the core cannot.
-*/
-static void prepcases (lua_State *L, const Opts *o, Cases *cs, bl_quad *q) {
-  int i;
-  for (i = 0; i < cs->n; i++) {
-    int st = bl_method_prepare(&cs->c[i], o->method, q, &cs->he[i]);
+/* Push a new target for *o, set up and prepared with q (NULL: set up
+** only); raises if the core refuses an element. */
+static bl_target *maketarget (lua_State *L, Opts *o, bl_quad *q) {
+  bl_target *t = (bl_target *)lua_newuserdatauv(L, sizeof *t, 0);
+  int st, Z;
+  memset(t, 0, sizeof *t);
+  luaL_setmetatable(L, TARGETMETA);
+  st = bl_target_setup(t, &o->particle, &o->target, o->screening, NULL, o->T,
+                       &o->bo, o->method, &o->sup, &Z);
+  if (st != BL_SUCCESS)
+    lbl_fail(L, "%s: cannot set up %s on Z = %d at T = %g MeV with "
+             "screening '%s': %s", o->fname, o->particle.name, Z, o->T,
+             o->screening->name, bl_strerror(st));
+  if (q != NULL) {
+    st = bl_target_prepare(t, q, &Z);
     if (st != BL_SUCCESS)
       lbl_fail(L, "%s: cannot prepare method '%s' for %s on Z = %d at "
                "T = %g MeV: %s", o->fname, bl_method_name(o->method),
-               o->particle.name, cs->c[i].Z, o->T, bl_strerror(st));
+               o->particle.name, Z, o->T, bl_strerror(st));
   }
-}
-
-
-/* Statuses that mean "best estimate available, tolerance not reached". */
-static int notconverged (int st) {
-  return st == GSL_EMAXITER || st == GSL_EROUND || st == GSL_ESING
-      || st == GSL_ETOL || st == GSL_EDIVERGE || st == BL_ENOTCONV;
+  return t;
 }
 
 
 /*
-** Accept a core result or raise: a non-convergence status becomes the
-** tolerance warning on the best estimate; any other failure, and any
+** Accept a core result or raise: a soft status is a result with the
+** tolerance warning (set by the core); any other failure, and any
 ** non-finite value or error, is a Lua error with the numbers.  `where`
-** describes the point ("k = 5 MeV").
+** describes the point ("k = 5 MeV"); r is the estimate to report.
 */
-static void checkresult (lua_State *L, const Opts *o, int st, bl_result *r,
-                         const char *where) {
-  if (st != BL_SUCCESS) {
-    if (notconverged(st))
-      r->warn |= BL_WARN_TOLERANCE;
-    else
-      lbl_fail(L, "%s: %s for %s on Z = %d at T = %g MeV, %s (estimate %g +- %g)",
-           o->fname, bl_strerror(st), o->particle.name, o->Z, o->T, where,
-           r->val, r->err);
-  }
-  if (!isfinite(r->val) || !isfinite(r->err))
+static void checkresult (lua_State *L, const Opts *o, int st,
+                         const bl_result *r, const char *where) {
+  if (st != BL_SUCCESS && st != BL_ENONFINITE && !bl_status_soft(st))
+    lbl_fail(L, "%s: %s for %s on Z = %d at T = %g MeV, %s (estimate %g +- %g)",
+         o->fname, bl_strerror(st), o->particle.name, o->Z, o->T, where,
+         r->val, r->err);
+  if (st == BL_ENONFINITE || !isfinite(r->val) || !isfinite(r->err))
     lbl_fail(L, "%s: non-finite result %g +- %g for %s on Z = %d at T = %g MeV, "
          "%s (please report this case)", o->fname, r->val, r->err,
          o->particle.name, o->Z, o->T, where);
@@ -655,15 +658,10 @@ typedef struct Warnings {
 } Warnings;
 
 
-/* Start a collection with the case's own warnings (and point-like for
-** composite projectiles, whatever the core says). */
-static void initwarn (Warnings *w, const Opts *o, const Cases *cs) {
-  int i;
+/* Start a collection with the target's own warnings. */
+static void initwarn (Warnings *w, const bl_target *t) {
   memset(w, 0, sizeof *w);
-  for (i = 0; i < cs->n; i++)
-    w->bits |= cs->c[i].warn;
-  if (o->particle.flags & BL_PARTICLE_COMPOSITE)
-    w->bits |= BL_WARN_POINTLIKE;
+  w->bits = t->warn;
   w->kborn = -1;
   w->minsup = 1.0;
 }
@@ -688,88 +686,37 @@ static void addwarn (Warnings *w, const bl_result *r, double k,
 }
 
 
-/* What one point asks of the core. */
-enum { PT_DK, PT_ANGULAR, PT_FULL };
-typedef struct Point {
-  int kind;
-  double k, theta, theta_p, phi;   /* photon energy (MeV) and angles (rad) */
-} Point;
-
-
 /*
-** Add the result r of element Z, present `atoms` times per formula unit,
-** to the sum over the target: errors add, warnings and applied
-** corrections unite; note Z for the Born warning.
+** Take what a target result gathered over its elements into the call's
+** record: the Born element, the smallest suppression factor, the methods
+** used, and the element the messages name.
 */
-static void addelement (Warnings *w, int Z, double atoms, const bl_result *r,
-                        bl_result *sum) {
-  if ((r->warn & BL_WARN_BORN) && Z > w->zborn)
-    w->zborn = Z;
-  sum->val += atoms * r->val;
-  sum->err += atoms * r->err;
-  sum->warn |= r->warn;
-  sum->applied |= r->applied;
+static void addtarget (Opts *o, Warnings *w, const bl_tresult *tr) {
+  if (tr->zborn > w->zborn)
+    w->zborn = tr->zborn;
+  if (tr->supp < w->minsup)
+    w->minsup = tr->supp;
+  o->used |= tr->used;
+  o->Z = tr->Z;
 }
 
 
 /*
-** Apply the suppression of *o to the target's dsigma/dk at photon energy
-** k; note the smallest factor.
+** One point of the target (bl_target_point_e) with the call's record;
+** raises on a hard failure.
 */
-static void suppress (const Opts *o, Warnings *w, double k, bl_result *sum) {
-  double f;
-  if (o->sup.mode == BL_SUPPRESS_NONE)
-    return;
-  f = bl_suppress_factor(&o->sup, o->T + o->particle.mass, k);
-  sum->val *= f;
-  sum->err *= f;
-  sum->warn |= BL_WARN_SUPPRESS;
-  if (f < w->minsup)
-    w->minsup = f;
-}
-
-
-/*
-** Compute one point for every element of the target and sum them with
-** their weights: errors add, warnings and applied corrections unite.
-** Raises on a hard failure (checkresult).
-*/
-static void computepoint (lua_State *L, Opts *o, const Cases *cs,
-                          const Point *pt, bl_quad *q, Warnings *w,
+static void computepoint (lua_State *L, Opts *o, const bl_target *t, int kind,
+                          double k, double theta_k, double theta_p,
+                          double phi, bl_quad *q, Warnings *w,
                           const char *at, bl_result *sum) {
-  int i;
-  sum->val = sum->err = 0.0;
-  sum->warn = sum->applied = 0;
-  for (i = 0; i < cs->n; i++) {
-    const bl_case *c = &cs->c[i];
-    bl_result r;
-    int st;
-    switch (pt->kind) {
-      case PT_DK:
-        st = bl_method_dk_e(c, &cs->he[i], o->method, pt->k, q, &r);
-        break;
-      case PT_ANGULAR:
-        st = bl_dcs_angular_e(c, pt->k, pt->theta, q, &r);
-        break;
-      default:
-        st = bl_dcs_full_e(c, pt->k, pt->theta, pt->theta_p, pt->phi, &r);
-        break;
-    }
-    o->Z = c->Z;
-    checkresult(L, o, st, &r, at);
-    o->used |= 1u << r.method;
-    addelement(w, c->Z, cs->atoms[i], &r, sum);
-  }
-  if (pt->kind == PT_DK)
-    suppress(o, w, pt->k, sum);
-  addwarn(w, sum, pt->k, at);
-}
-
-
-/* Speed v/c of a particle of mass m (MeV) and kinetic energy t (MeV). */
-static double beta (double t, double m) {
-  double x = t / m;
-  return sqrt(x * (x + 2)) / (x + 1);
+  bl_tresult tr;
+  int st = bl_target_point_e(t, kind, k, theta_k, theta_p, phi, q, &tr);
+  o->Z = tr.Z;
+  if (st != BL_SUCCESS && !bl_status_soft(st))
+    checkresult(L, o, st, &tr.fail, at);
+  addtarget(o, w, &tr);
+  *sum = tr.r;
+  addwarn(w, sum, k, at);
 }
 
 
@@ -780,7 +727,6 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
   const char *text = bl_warn_text(bit);
   const bl_particle *p = &o->particle;
   int zb = w->zborn > 0 ? w->zborn : o->Z;
-  double xi = 2 * BL_PI * fabs(p->charge) * zb * BL_ALPHA;
   double g0 = 1.0 + o->T / p->mass;
   if (text == NULL)
     text = "warning";
@@ -806,12 +752,15 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
       if (w->kborn > 0 && w->kborn < o->T)
         snprintf(msg, sizeof msg, "%s (2 pi |z| Z alpha/beta = %.3g before "
                  "emission, %.3g after emitting k = %g MeV; z = %g, Z = %d, "
-                 "T = %g MeV); %s", text, xi / beta(o->T, p->mass),
-                 xi / beta(o->T - w->kborn, p->mass), w->kborn, p->charge,
+                 "T = %g MeV); %s", text,
+                 bl_born_xi(p->charge, zb, o->T, p->mass),
+                 bl_born_xi(p->charge, zb, o->T - w->kborn, p->mass),
+                 w->kborn, p->charge,
                  zb, o->T, corr);
       else
         snprintf(msg, sizeof msg, "%s (2 pi |z| Z alpha/beta = %.3g; z = %g, "
-                 "Z = %d, T = %g MeV); %s", text, xi / beta(o->T, p->mass),
+                 "Z = %d, T = %g MeV); %s", text,
+                 bl_born_xi(p->charge, zb, o->T, p->mass),
                  p->charge, zb, o->T, corr);
       break;
     }
@@ -821,16 +770,17 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                o->target.name, o->T);
       break;
     case BL_WARN_COULOMB:
-      snprintf(msg, sizeof msg, "%s: it holds for gamma >= 100 before and "
-               ">= 10 after emission and hbar/(m c) >= 10 nuclear radii; here "
+      snprintf(msg, sizeof msg, "%s: it holds for gamma >= %g before and "
+               ">= %g after emission and hbar/(m c) >= %g nuclear radii; here "
                "gamma0 = %.4g, hbar/(m c) = %.3g fm (%s, target %s; for "
-               "angular distributions it is not available at all)", text, g0,
-               BL_HBARC_MEVFM / p->mass, p->name, o->target.name);
+               "angular distributions it is not available at all)", text,
+               BL_COULOMB_GAMMA0_MIN, BL_COULOMB_GAMMA_MIN, BL_COULOMB_RADII,
+               g0, BL_HBARC_MEVFM / p->mass, p->name, o->target.name);
       break;
     case BL_WARN_ELWERT:
-      snprintf(msg, sizeof msg, "%s: it holds for gamma0 <= %.4g (T <= 2 MeV "
+      snprintf(msg, sizeof msg, "%s: it holds for gamma0 <= %.4g (T <= %g MeV "
                "for electrons); here gamma0 = %.4g (%s, T = %g MeV)", text,
-               1.0 + 2.0 / BL_ME_MEV, g0, p->name, o->T);
+               BL_ELWERT_GAMMA0_MAX, BL_ELWERT_T_ELECTRON, g0, p->name, o->T);
       break;
     case BL_WARN_STATIC_E:
       snprintf(msg, sizeof msg, "%s (%s, mass %g MeV; electrons = false "
@@ -838,10 +788,11 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
       break;
     case BL_WARN_METHOD:
       snprintf(msg, sizeof msg, "%s: method '%s' holds for a final gamma = "
-               "E/m >= 500 (complete screening also needs Tsai's gamma <= "
-               "0.02 and a point-like nucleus); here gamma0 = %.4g (%s, "
+               "E/m >= %g (complete screening also needs Tsai's gamma <= "
+               "%g and a point-like nucleus); here gamma0 = %.4g (%s, "
                "target %s); method 'born' or 'auto' is exact", text,
-               bl_method_name(o->method), g0, p->name, o->target.name);
+               bl_method_name(o->method), BL_HE_GAMMA_MIN,
+               BL_COMPLETE_TSAI_GAMMA_MAX, g0, p->name, o->target.name);
       break;
     case BL_WARN_SUPPRESS:
       snprintf(msg, sizeof msg, "%s (Stanev et al. fits, Klein 1999 review); "
@@ -898,7 +849,7 @@ static void pushparticletable (lua_State *L, const bl_particle *p) {
 
 /* The factor from mb per formula unit to cm^2/g. */
 static double pergram (const Opts *o) {
-  return BL_NA / o->target.molar_mass * 1e-27;
+  return bl_material_per_gram(&o->target);
 }
 
 
@@ -1022,18 +973,6 @@ static void setresult (lua_State *L, int t, int first,
 ** =======================================================
 */
 
-#define WORK_MAX      1e10    /* integrand calls one call may plan */
-#define NS_PER_CALL   400.0   /* rough cost of one call, for the message */
-#define ANGULAR_SHARE 0.02    /* angular point / dsigma/dk point */
-#define KINT_POINTS   45.0    /* points of one integral over k (three
-                              ** 15-point segments, typical; issue 4) */
-
-/* Estimated integrand calls of one dsigma/dk point at tolerance rtol. */
-static double pointcost (double rtol) {
-  return 4.5e3 * pow(10.0, 0.11 * -log10(rtol));
-}
-
-
 /*
 ** Refuse n points of array option `key` (each costing `share` of a
 ** dsigma/dk point per element of the target) when the estimate exceeds
@@ -1041,9 +980,9 @@ static double pointcost (double rtol) {
 */
 static void checkwork (lua_State *L, const Opts *o, const char *key,
                        lua_Integer n, double share) {
-  double per = share * pointcost(o->rtol) * o->target.n;
+  double per = bl_work_estimate(o->rtol, o->target.n, 1.0, share);
   double work = per * (double)n;
-  if (work > WORK_MAX)
+  if (work > BL_WORK_MAX)
     lbl_argfail(L, o->fname, "field '%s' has %lld points: at rtol = %g on "
                 "%d element(s) that is about %.2g integrand calls (roughly "
                 "%.2g h on one core), more than one call may plan (%.0e); "
@@ -1051,8 +990,8 @@ static void checkwork (lua_State *L, const Opts *o, const char *key,
                 "several calls or a scan (brakelight.scan), which saves "
                 "every point and can be interrupted and resumed", key,
                 (long long)n, o->rtol, o->target.n, work,
-                work * NS_PER_CALL * 1e-9 / 3600.0, WORK_MAX,
-                floor(WORK_MAX / per));
+                work * BL_WORK_NS_PER_CALL * 1e-9 / 3600.0, BL_WORK_MAX,
+                floor(BL_WORK_MAX / per));
 }
 
 /* }====================================================== */
@@ -1142,21 +1081,20 @@ static double optk (lua_State *L, const Opts *o) {
 */
 static int l_dsdk (lua_State *L) {
   Opts o;
-  Cases *cs;
+  bl_target *t;
   bl_result r;
   bl_quad *q;
   Warnings w;
-  Point pt = {PT_DK, 0, 0, 0, 0};
+  double k;
   char at[64];
   readopts(L, "dsdk", dsdk_keys, 1, &o);
-  pt.k = optk(L, &o);
+  k = optk(L, &o);
   /* all checks done */
   q = getquad(L, &o);
-  cs = makecases(L, &o);
-  prepcases(L, &o, cs, q);
-  initwarn(&w, &o, cs);
-  snprintf(at, sizeof at, "k = %.6g MeV", pt.k);
-  computepoint(L, &o, cs, &pt, q, &w, at, &r);
+  t = maketarget(L, &o, q);
+  initwarn(&w, t);
+  snprintf(at, sizeof at, "k = %.6g MeV", k);
+  computepoint(L, &o, t, BL_TARGET_DK, k, 0.0, 0.0, 0.0, q, &w, at, &r);
   lua_pushnumber(L, r.val);
   lua_pushnumber(L, r.err);
   pushwarnings(L, &o, &w);
@@ -1206,25 +1144,6 @@ static int optthreads (lua_State *L, const Opts *o) {
 }
 
 
-/* Scratch space of one spectrum, a userdata (freed by the collector even
-** when an error interrupts the call). */
-typedef struct Scratch {
-  double *k;
-  bl_result *sum, *r;
-  int *st;
-} Scratch;
-
-static void newscratch (lua_State *L, size_t n, Scratch *s) {
-  char *p = (char *)lua_newuserdatauv(L, n * (sizeof(double)
-                                      + 2 * sizeof(bl_result) + sizeof(int)),
-                                      0);
-  s->sum = (bl_result *)p;
-  s->r = s->sum + n;
-  s->k = (double *)(s->r + n);
-  s->st = (int *)(s->k + n);
-}
-
-
 /*
 ** brakelight.spectrum{..., k = {...}} or {..., y = {...}}
 **   -> {k, y, dsdk, err, coulomb_applied, elwert_applied, method, per_gram,
@@ -1239,14 +1158,14 @@ static int l_spectrum (lua_State *L) {
                                       "coulomb_applied", "elwert_applied",
                                       "method", NULL};
   Opts o;
-  Cases *cs;
-  Scratch sc;
+  bl_target *t;
+  bl_tresult *res;
+  double *x, *k;
   bl_quad *q;
   Warnings w;
   char range[96], at[64];
-  const char *axis;
   lua_Integer i, n;
-  int hask, hasy, nthreads, j;
+  int hask, hasy, nthreads, st, *sts;
   readopts(L, "spectrum", spectrum_keys, 1, &o);
   nthreads = optthreads(L, &o);
   hask = (lua_getfield(L, 1, "k") != LUA_TNIL);
@@ -1256,79 +1175,64 @@ static int l_spectrum (lua_State *L) {
     lbl_argfail(L, o.fname, "give exactly one of fields 'k' (photon energies, "
             "MeV) and 'y' (fractions k/T), got %s", hask ? "both" : "neither");
   if (hask) {
-    axis = "k";
     snprintf(range, sizeof range, "(0, T) = (0, %.14g) MeV", o.T);
-    n = optarray(L, &o, "k", 0, o.T, 1, range);
+    x = optarray(L, &o, "k", 0, o.T, 1, range, &n);   /* 2: the values */
   }
-  else {
-    axis = "y";
-    n = optarray(L, &o, "y", 0, 1, 1, "(0, 1)");
-  }
-  checkwork(L, &o, axis, n, 1.0);
+  else
+    x = optarray(L, &o, "y", 0, 1, 1, "(0, 1)", &n);  /* 2: the values */
+  checkwork(L, &o, hask ? "k" : "y", n, 1.0);
   /* all checks done */
   q = getquad(L, &o);
-  cs = makecases(L, &o);              /* 2: the cases */
-  prepcases(L, &o, cs, q);
-  initwarn(&w, &o, cs);
-  newscratch(L, (size_t)n, &sc);      /* 3: scratch */
-  lua_getfield(L, 1, axis);           /* 4: abscissae */
-  for (i = 1; i <= n; i++) {
-    lua_rawgeti(L, 4, i);
-    sc.k[i - 1] = hask ? (double)lua_tonumber(L, -1)
-                       : (double)lua_tonumber(L, -1) * o.T;
-    lua_pop(L, 1);
-    memset(&sc.sum[i - 1], 0, sizeof sc.sum[i - 1]);
-  }
-  for (j = 0; j < cs->n; j++) {       /* each element, all points */
-    const bl_case *c = &cs->c[j];
-    bl_spectrum_method_e(c, &cs->he[j], o.method, (size_t)n, sc.k,
-                         nthreads, q, sc.r, sc.st);
-    o.Z = c->Z;
-    for (i = 0; i < n; i++) {
-      snprintf(at, sizeof at, "k = %.6g MeV", sc.k[i]);
-      checkresult(L, &o, sc.st[i], &sc.r[i], at);
-      addelement(&w, c->Z, cs->atoms[j], &sc.r[i], &sc.sum[i]);
-      sc.sum[i].method = sc.r[i].method;   /* one rule for every element */
-      o.used |= 1u << sc.r[i].method;
-    }
-  }
+  t = maketarget(L, &o, q);                     /* 3: the target */
+  initwarn(&w, t);
+  k = (double *)lua_newuserdatauv(L, (size_t)n * sizeof *k, 0);  /* 4 */
+  res = (bl_tresult *)lua_newuserdatauv(L, (size_t)n * sizeof *res, 0);
+  for (i = 0; i < n; i++)                       /* 5: results */
+    k[i] = hask ? x[i] : x[i] * o.T;
+  sts = (int *)lua_newuserdatauv(L, (size_t)n * sizeof *sts, 0);  /* 6 */
+  st = bl_target_spectrum_e(t, (size_t)n, k, nthreads, q, res, sts);
+  if (st == BL_ENOMEM)
+    lbl_fail(L, "%s: out of memory for %lld points", o.fname, (long long)n);
+  if (st != BL_SUCCESS)               /* the point that failed */
+    for (i = 0; i < n; i++)
+      if (sts[i] != BL_SUCCESS && !bl_status_soft(sts[i])) {
+        o.Z = res[i].Z;
+        snprintf(at, sizeof at, "k = %.6g MeV", k[i]);
+        checkresult(L, &o, sts[i], &res[i].fail, at);
+      }
   for (i = 0; i < n; i++)
-    suppress(&o, &w, sc.k[i], &sc.sum[i]);
-  lua_createtable(L, (int)n, 0);      /* 5: k */
-  lua_createtable(L, (int)n, 0);      /* 6: y */
-  lua_createtable(L, (int)n, 0);      /* 7: dsdk */
-  lua_createtable(L, (int)n, 0);      /* 8: err */
-  lua_createtable(L, (int)n, 0);      /* 9: coulomb_applied */
-  lua_createtable(L, (int)n, 0);      /* 10: elwert_applied */
-  lua_createtable(L, (int)n, 0);      /* 11: method */
+    addtarget(&o, &w, &res[i]);
+  lua_createtable(L, (int)n, 0);      /* 7: k */
+  lua_createtable(L, (int)n, 0);      /* 8: y */
+  lua_createtable(L, (int)n, 0);      /* 9: dsdk */
+  lua_createtable(L, (int)n, 0);      /* 10: err */
+  lua_createtable(L, (int)n, 0);      /* 11: coulomb_applied */
+  lua_createtable(L, (int)n, 0);      /* 12: elwert_applied */
+  lua_createtable(L, (int)n, 0);      /* 13: method */
   for (i = 1; i <= n; i++) {
-    const bl_result *r = &sc.sum[i - 1];
-    double k = sc.k[i - 1];
-    snprintf(at, sizeof at, "k = %.6g MeV", k);
-    addwarn(&w, r, k, at);
-    lua_pushnumber(L, k);
-    lua_rawseti(L, 5, i);
-    lua_rawgeti(L, 4, i);             /* y as given, or k / T */
-    if (hask) {
-      lua_pop(L, 1);
-      lua_pushnumber(L, k / o.T);
-    }
-    lua_rawseti(L, 6, i);
-    lua_pushnumber(L, r->val);
+    const bl_result *r = &res[i - 1].r;
+    double ki = k[i - 1];
+    snprintf(at, sizeof at, "k = %.6g MeV", ki);
+    addwarn(&w, r, ki, at);
+    lua_pushnumber(L, ki);
     lua_rawseti(L, 7, i);
-    lua_pushnumber(L, r->err);
+    lua_pushnumber(L, hask ? ki / o.T : x[i - 1]);   /* y as given */
     lua_rawseti(L, 8, i);
-    setbool(L, 9, i, (r->applied & BL_APPLIED_COULOMB) != 0);
-    setbool(L, 10, i, (r->applied & BL_APPLIED_ELWERT) != 0);
+    lua_pushnumber(L, r->val);
+    lua_rawseti(L, 9, i);
+    lua_pushnumber(L, r->err);
+    lua_rawseti(L, 10, i);
+    setbool(L, 11, i, (r->applied & BL_APPLIED_COULOMB) != 0);
+    setbool(L, 12, i, (r->applied & BL_APPLIED_ELWERT) != 0);
     lua_pushstring(L, bl_method_name(r->method));
-    lua_rawseti(L, 11, i);
+    lua_rawseti(L, 13, i);
   }
-  lua_createtable(L, 0, 12);          /* 12: result */
-  setresult(L, 12, 5, names, units, &o, &w);
+  lua_createtable(L, 0, 12);          /* 14: result */
+  setresult(L, 14, 7, names, units, &o, &w);
   lua_pushnumber(L, pergram(&o));
-  lua_setfield(L, 12, "per_gram");
+  lua_setfield(L, 14, "per_gram");
   lua_pushinteger(L, nthreads);
-  lua_setfield(L, 12, "threads");
+  lua_setfield(L, 14, "threads");
   return 1;
 }
 
@@ -1339,104 +1243,36 @@ static int l_spectrum (lua_State *L) {
 ** =======================================================
 */
 
-/* What one integrand evaluation needs: the target, the workspace of the
-** points, the collected warnings, and where a hard failure happened. */
-typedef struct KCtx {
-  Opts *o;
-  const Cases *cs;
-  bl_quad *q;
-  Warnings *w;
-  int kind;          /* PT_DK or PT_ANGULAR */
-  double theta;      /* photon angle of PT_ANGULAR */
-  int badZ;          /* element of a hard failure */
-  double badk;
-} KCtx;
-
-
 /*
-** The target's dsigma/dk (or d2sigma/(dk dOmega) at theta) at k for the
-** integrator: sums the elements, applies the suppression; never raises
-** (a hard failure is returned with its element noted).
+** An integral of the target over (kmin, kmax) (bl_target_kintegral_e):
+** moment 0 into *r0 and, if r1 is not NULL, moment 1 into *r1; if r0 is
+** NULL, moment 1 alone.  Raises on a hard failure, naming where.
 */
-static int kpoint (void *ud, double k, bl_result *out) {
-  KCtx *x = ud;
-  int i, soft = 0;
-  out->val = out->err = 0.0;
-  out->warn = out->applied = 0;
-  out->method = BL_METHOD_BORN;
-  for (i = 0; i < x->cs->n; i++) {
-    const bl_case *c = &x->cs->c[i];
-    bl_result r;
-    int st = x->kind == PT_DK
-             ? bl_method_dk_e(c, &x->cs->he[i], x->o->method, k, x->q, &r)
-             : bl_dcs_angular_e(c, k, x->theta, x->q, &r);
-    if (st != BL_SUCCESS && !notconverged(st)) {
-      x->badZ = c->Z;
-      x->badk = k;
-      return st;
-    }
-    soft |= st != BL_SUCCESS;
-    x->o->used |= 1u << r.method;
-    addelement(x->w, c->Z, x->cs->atoms[i], &r, out);
-    out->method = r.method;
-  }
-  if (x->kind == PT_DK)
-    suppress(x->o, x->w, k, out);
-  return soft ? BL_ENOTCONV : BL_SUCCESS;
-}
-
-
-/*
-** Integrate the target's kind of cross section over (kmin, kmax): moment
-** 0 into *r0 and, if r1 is not NULL, moment 1 into *r1 (on shared points);
-** if r0 is NULL, moment 1 alone into *r1.  The points take half the
-** tolerance, so that their errors leave room for the quadrature's.
-** Raises on a hard failure.
-*/
-static void kintegral (lua_State *L, KCtx *x, double kmin, double kmax,
-                       bl_result *r0, bl_result *r1) {
+static void kintegral (lua_State *L, Opts *o, const bl_target *t, int kind,
+                       double theta, double kmin, double kmax, bl_quad *q,
+                       Warnings *w, bl_result *r0, bl_result *r1) {
+  bl_tresult t0, t1;
   char at[96];
-  int st;
-  double rtol = x->o->rtol;
-  st = bl_quad_set_rtol(x->q, fmax(rtol / 2.0, RTOL_MIN));
-  if (st == BL_SUCCESS) {
-    x->badZ = x->o->target.comp[0].Z;
-    x->badk = kmin;
-    double kb[BL_KINT_MAXBREAK], jump[BL_KINT_MAXBREAK];
-    int nb = 0, i, j, n;
-    for (i = 0; i < x->cs->n && nb < BL_KINT_MAXBREAK && x->kind == PT_DK;
-         i++) {
-      n = bl_method_breaks(&x->cs->c[i], &x->cs->he[i], x->o->method,
-                           kb + nb, jump + nb, BL_KINT_MAXBREAK - nb);
-      for (j = nb; j < nb + n; j++)   /* a break that cannot matter: none */
-        if (jump[j] * (x->o->T - kb[j]) / x->o->T < 0.1 * rtol) {
-          kb[j] = kb[nb + n - 1];
-          jump[j--] = jump[nb + --n];
-        }
-      nb += n;
-    }
-    st = r0 == NULL
-         ? bl_kintegral_e(kpoint, x, kmin, kmax, x->o->T, kb, nb, 1, rtol, r1)
-         : r1 == NULL
-         ? bl_kintegral_e(kpoint, x, kmin, kmax, x->o->T, kb, nb, 0, rtol, r0)
-         : bl_kintegral2_e(kpoint, x, kmin, kmax, x->o->T, kb, nb, rtol, r0,
-                           r1);
-  }
-  bl_quad_set_rtol(x->q, rtol);
-  x->o->Z = x->badZ;
-  if (st != BL_SUCCESS && !notconverged(st))   /* where it failed */
+  int st = bl_target_kintegral_e(t, kind, theta, kmin, kmax, q,
+                                 r0 != NULL ? &t0 : NULL,
+                                 r1 != NULL ? &t1 : NULL);
+  const bl_tresult *any = r0 != NULL ? &t0 : &t1;
+  addtarget(o, w, any);
+  if (st != BL_SUCCESS && !bl_status_soft(st))   /* where it failed */
     snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV, at "
-             "k = %.6g MeV", kmin, kmax, x->badk);
+             "k = %.6g MeV", kmin, kmax, any->k);
   else
     snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV", kmin,
              kmax);
   if (r0 != NULL) {
-    checkresult(L, x->o, st, r0, at);
-    addwarn(x->w, r0, kmax, at);
+    checkresult(L, o, st, &t0.r, at);
+    *r0 = t0.r;
+    addwarn(w, r0, kmax, at);
   }
   if (r1 != NULL) {
-    checkresult(L, x->o, st, r1, at);
-    addwarn(x->w, r1, kmax, at);
+    checkresult(L, o, st, &t1.r, at);
+    *r1 = t1.r;
+    addwarn(w, r1, kmax, at);
   }
 }
 
@@ -1462,18 +1298,12 @@ static void optwindow (lua_State *L, const Opts *o, double *kmin,
 
 
 /* Set up the target, workspace and warnings of one integrating call. */
-static Cases *kstart (lua_State *L, Opts *o, KCtx *x, Warnings *w) {
-  Cases *cs;
-  x->q = getquad(L, o);
-  cs = makecases(L, o);
-  prepcases(L, o, cs, x->q);
-  initwarn(w, o, cs);
-  x->o = o;
-  x->cs = cs;
-  x->w = w;
-  x->kind = PT_DK;
-  x->theta = 0.0;
-  return cs;
+static bl_target *kstart (lua_State *L, Opts *o, bl_quad **q, Warnings *w) {
+  bl_target *t;
+  *q = getquad(L, o);
+  t = maketarget(L, o, *q);
+  initwarn(w, t);
+  return t;
 }
 
 
@@ -1496,22 +1326,22 @@ static int l_cross_section (lua_State *L) {
   };
   static const char *const none[] = {NULL};
   Opts o;
-  KCtx x;
+  bl_target *t;
+  bl_quad *q;
   Warnings w;
   bl_result r0, r1;
-  double kmin, kmax, mean;
+  double kmin, kmax, mean, meanerr;
   readopts(L, "cross_section", cross_section_keys, 1, &o);
   optwindow(L, &o, &kmin, &kmax);
   /* all checks done */
-  kstart(L, &o, &x, &w);                 /* 2: the cases */
-  kintegral(L, &x, kmin, kmax, &r0, &r1);
-  mean = r0.val > 0.0 ? r1.val / r0.val : 0.5 * (kmin + kmax);
+  t = kstart(L, &o, &q, &w);             /* 2: the target */
+  kintegral(L, &o, t, BL_TARGET_DK, 0.0, kmin, kmax, q, &w, &r0, &r1);
+  bl_target_mean_k(&r0, &r1, kmin, kmax, &mean, &meanerr);
   lua_createtable(L, 0, 12);             /* 3: result */
   setnum(L, 3, "sigma", r0.val);
   setnum(L, 3, "err", r0.err);
   setnum(L, 3, "mean_k", mean);
-  setnum(L, 3, "mean_k_err", r0.val > 0.0 && r1.val > 0.0
-         ? mean * (r0.err / r0.val + r1.err / r1.val) : 0.0);
+  setnum(L, 3, "mean_k_err", meanerr);
   setnum(L, 3, "kmin", kmin);
   setnum(L, 3, "kmax", kmax);
   setnum(L, 3, "per_gram", pergram(&o));
@@ -1533,14 +1363,15 @@ static int l_energy_loss (lua_State *L) {
   };
   static const char *const none[] = {NULL};
   Opts o;
-  KCtx x;
+  bl_target *t;
+  bl_quad *q;
   Warnings w;
   bl_result r1;
   double X0;
   readopts(L, "energy_loss", energy_loss_keys, 1, &o);
   /* all checks done */
-  kstart(L, &o, &x, &w);                 /* 2: the cases */
-  kintegral(L, &x, 0.0, o.T, NULL, &r1);
+  t = kstart(L, &o, &q, &w);             /* 2: the target */
+  kintegral(L, &o, t, BL_TARGET_DK, 0.0, 0.0, o.T, q, &w, NULL, &r1);
   X0 = bl_radiation_length(&o.target);
   lua_createtable(L, 0, 10);             /* 3: result */
   setnum(L, 3, "dedx", r1.val * pergram(&o));
@@ -1552,9 +1383,6 @@ static int l_energy_loss (lua_State *L) {
   return 1;
 }
 
-
-#define YIELD_MAXBINS 100000
-#define THIN_SHARE    0.05   /* thin radiator: warn above this share of X0 */
 
 /*
 ** brakelight.photon_yield{particle =, target =, T =, thickness =, kmin =,
@@ -1574,26 +1402,28 @@ static int l_photon_yield (lua_State *L) {
   static const char *const note = "thin radiator: the projectile's energy "
     "loss and deflection inside it, photon absorption and multiple "
     "emission are neglected";
-  char v[80];
+  char v[80], at[96];
   Opts o;
-  KCtx x;
+  bl_target *t;
+  bl_quad *q;
   Warnings w;
-  double kmin, kmax, t, X0, perunit, total = 0.0;
+  bl_tresult *res;
+  double kmin, kmax, th, X0, total = 0.0, *edges;
   lua_Integer nb = 1, i;
-  int logsp = 0, isint;
+  int logsp = 0, isint, st, failbin;
   const char *sp;
   readopts(L, "photon_yield", photon_yield_keys, 1, &o);
-  t = optrange(L, &o, "thickness", "radiator thickness in g/cm^2", 0,
-               HUGE_VAL, 1, "(0, inf) g/cm^2");
+  th = optrange(L, &o, "thickness", "radiator thickness in g/cm^2", 0,
+                HUGE_VAL, 1, "(0, inf) g/cm^2");
   optwindow(L, &o, &kmin, &kmax);
   if (lua_getfield(L, 1, "bins") != LUA_TNIL) {
     nb = lua_tointegerx(L, -1, &isint);
-    if (!isint || nb < 1 || nb > YIELD_MAXBINS)
+    if (!isint || nb < 1 || nb > BL_YIELD_MAXBINS)
       lbl_argfail(L, o.fname, "field 'bins' must be an integer in 1..%d, "
-                  "got %s", YIELD_MAXBINS, lbl_showval(L, -1, v, sizeof v));
+                  "got %s", BL_YIELD_MAXBINS, lbl_showval(L, -1, v, sizeof v));
   }
   lua_pop(L, 1);
-  checkwork(L, &o, "bins", nb, KINT_POINTS);
+  checkwork(L, &o, "bins", nb, BL_WORK_KINTEGRAL);
   sp = getstr(L, 1, o.fname, "spacing");
   if (sp != NULL && strcmp(sp, "log") == 0)
     logsp = 1;
@@ -1601,65 +1431,70 @@ static int l_photon_yield (lua_State *L) {
     lbl_argfail(L, o.fname, "unknown spacing '%.60s' in field 'spacing'; "
                 "allowed: 'linear' (default), 'log'", sp);
   /* all checks done */
-  kstart(L, &o, &x, &w);                 /* 2: the cases */
+  t = kstart(L, &o, &q, &w);             /* 2: the target */
   X0 = bl_radiation_length(&o.target);
-  perunit = pergram(&o) * t;             /* photons per mb */
-  lua_createtable(L, (int)nb + 1, 0);    /* 3: edges */
-  lua_createtable(L, (int)nb, 0);        /* 4: k_low */
-  lua_createtable(L, (int)nb, 0);        /* 5: k_high */
-  lua_createtable(L, (int)nb, 0);        /* 6: photons */
-  lua_createtable(L, (int)nb, 0);        /* 7: err */
+  edges = (double *)lua_newuserdatauv(L, (size_t)(nb + 1) * sizeof *edges,
+                                      0);            /* 3 */
+  res = (bl_tresult *)lua_newuserdatauv(L, (size_t)nb * sizeof *res, 0);
+  st = bl_target_photon_yield_e(t, th, kmin, kmax, (int)nb,
+                                logsp ? BL_SPACING_LOG : BL_SPACING_LINEAR, q,
+                                edges, res, &failbin);   /* 4: results */
+  for (i = 0; i < nb && (failbin < 0 || i <= failbin); i++) {
+    int sti = i == failbin ? st : BL_SUCCESS;
+    addtarget(&o, &w, &res[i]);
+    if (sti != BL_SUCCESS)
+      snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV, at "
+               "k = %.6g MeV", edges[i], edges[i + 1], res[i].k);
+    else
+      snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV",
+               edges[i], edges[i + 1]);
+    checkresult(L, &o, sti, &res[i].r, at);
+    addwarn(&w, &res[i].r, edges[i + 1], at);
+  }
+  lua_createtable(L, (int)nb + 1, 0);    /* 5: edges */
+  lua_createtable(L, (int)nb, 0);        /* 6: k_low */
+  lua_createtable(L, (int)nb, 0);        /* 7: k_high */
+  lua_createtable(L, (int)nb, 0);        /* 8: photons */
+  lua_createtable(L, (int)nb, 0);        /* 9: err */
   for (i = 0; i <= nb; i++) {
-    double e = logsp ? kmin * pow(kmax / kmin, (double)i / nb)
-                     : kmin + (kmax - kmin) * i / nb;
-    if (i == nb)
-      e = kmax;   /* exact ends */
-    lua_pushnumber(L, e);
-    lua_rawseti(L, 3, i + 1);
+    lua_pushnumber(L, edges[i]);
+    lua_rawseti(L, 5, i + 1);
   }
   for (i = 1; i <= nb; i++) {
-    bl_result r;
-    double a, b;
-    lua_rawgeti(L, 3, i);
-    lua_rawgeti(L, 3, i + 1);
-    a = lua_tonumber(L, -2);
-    b = lua_tonumber(L, -1);
-    lua_pop(L, 2);
-    kintegral(L, &x, a, b, &r, NULL);
-    total += r.val * perunit;
-    lua_pushnumber(L, a);
-    lua_rawseti(L, 4, i);
-    lua_pushnumber(L, b);
-    lua_rawseti(L, 5, i);
-    lua_pushnumber(L, r.val * perunit);
+    total += res[i - 1].r.val;
+    lua_pushnumber(L, edges[i - 1]);
     lua_rawseti(L, 6, i);
-    lua_pushnumber(L, r.err * perunit);
+    lua_pushnumber(L, edges[i]);
     lua_rawseti(L, 7, i);
+    lua_pushnumber(L, res[i - 1].r.val);
+    lua_rawseti(L, 8, i);
+    lua_pushnumber(L, res[i - 1].r.err);
+    lua_rawseti(L, 9, i);
   }
-  lua_createtable(L, 0, 16);             /* 8: result */
-  setresult(L, 8, 3, none, units, &o, &w);
-  lua_pushvalue(L, 3);
-  lua_setfield(L, 8, "edges");
-  lua_pushvalue(L, 4);
-  lua_setfield(L, 8, "k_low");
+  lua_createtable(L, 0, 16);             /* 10: result */
+  setresult(L, 10, 5, none, units, &o, &w);
   lua_pushvalue(L, 5);
-  lua_setfield(L, 8, "k_high");
+  lua_setfield(L, 10, "edges");
   lua_pushvalue(L, 6);
-  lua_setfield(L, 8, "photons");
+  lua_setfield(L, 10, "k_low");
   lua_pushvalue(L, 7);
-  lua_setfield(L, 8, "err");
-  setnum(L, 8, "total", total);
-  setnum(L, 8, "thickness", t);
-  setnum(L, 8, "radiation_length", X0);
-  setnum(L, 8, "thickness_X0", X0 > 0.0 ? t / X0 : 0.0);
+  lua_setfield(L, 10, "k_high");
+  lua_pushvalue(L, 8);
+  lua_setfield(L, 10, "photons");
+  lua_pushvalue(L, 9);
+  lua_setfield(L, 10, "err");
+  setnum(L, 10, "total", total);
+  setnum(L, 10, "thickness", th);
+  setnum(L, 10, "radiation_length", X0);
+  setnum(L, 10, "thickness_X0", X0 > 0.0 ? th / X0 : 0.0);
   lua_pushstring(L, note);
-  lua_setfield(L, 8, "note");
-  if (X0 > 0.0 && t > THIN_SHARE * X0) {   /* one more warning */
+  lua_setfield(L, 10, "note");
+  if (X0 > 0.0 && th > BL_YIELD_THIN_X0 * X0) {   /* one more warning */
     char msg[MSGSIZE];
     snprintf(msg, sizeof msg, "the radiator is %.4g radiation lengths "
-             "thick, beyond the thin-radiator range (<= %g X0): %s", t / X0,
-             THIN_SHARE, note);
-    lua_getfield(L, 8, "warnings");
+             "thick, beyond the thin-radiator range (<= %g X0): %s", th / X0,
+             BL_YIELD_THIN_X0, note);
+    lua_getfield(L, 10, "warnings");
     lua_pushstring(L, msg);
     lua_rawseti(L, -2, (lua_Integer)lua_rawlen(L, -2) + 1);
     lua_pop(L, 1);
@@ -1689,12 +1524,12 @@ static int l_angular (lua_State *L) {
   static const char *const names[] = {"theta", "d2sigma", "err", NULL};
   static const char *const wnames[] = {"theta", "dsdomega", "err", NULL};
   Opts o;
-  Cases *cs;
-  KCtx x;
+  bl_target *t;
+  bl_quad *q;
   Warnings w;
   lua_Integer i, n;
   unsigned applied = 0;
-  double k = 0.0, kmin = 0.0, kmax = 0.0;
+  double k = 0.0, kmin = 0.0, kmax = 0.0, *theta;
   int hask, haswin;
   readopts(L, "angular", angular_keys, 1, &o);
   nocoulomb(L, &o);
@@ -1710,34 +1545,28 @@ static int l_angular (lua_State *L) {
     k = optk(L, &o);
   else
     optwindow(L, &o, &kmin, &kmax);
-  n = optarray(L, &o, "theta", 0, BL_PI, 0, "[0, pi] rad");
-  checkwork(L, &o, "theta", n, hask ? ANGULAR_SHARE
-                                    : ANGULAR_SHARE * KINT_POINTS);
+  theta = optarray(L, &o, "theta", 0, BL_PI, 0, "[0, pi] rad", &n);  /* 2 */
+  checkwork(L, &o, "theta", n, hask ? BL_WORK_ANGULAR
+                                    : BL_WORK_ANGULAR * BL_WORK_KINTEGRAL);
   /* all checks done */
-  cs = kstart(L, &o, &x, &w);         /* 2: the cases */
-  x.kind = PT_ANGULAR;
-  lua_getfield(L, 1, "theta");        /* 3: angles */
+  t = kstart(L, &o, &q, &w);          /* 3: the target */
   lua_createtable(L, (int)n, 0);      /* 4: theta */
   lua_createtable(L, (int)n, 0);      /* 5: d2sigma or dsdomega */
   lua_createtable(L, (int)n, 0);      /* 6: err */
   for (i = 1; i <= n; i++) {
     bl_result r;
-    Point pt = {PT_ANGULAR, 0, 0, 0, 0};
+    double th = theta[i - 1];
     char at[64];
-    pt.k = k;
-    lua_rawgeti(L, 3, i);
-    pt.theta = (double)lua_tonumber(L, -1);
-    lua_pop(L, 1);
     if (hask) {
-      snprintf(at, sizeof at, "k = %.6g MeV, theta = %.6g rad", k, pt.theta);
-      computepoint(L, &o, cs, &pt, x.q, &w, at, &r);
+      snprintf(at, sizeof at, "k = %.6g MeV, theta = %.6g rad", k, th);
+      computepoint(L, &o, t, BL_TARGET_ANGULAR, k, th, 0.0, 0.0, q, &w, at,
+                   &r);
     }
-    else {
-      x.theta = pt.theta;
-      kintegral(L, &x, kmin, kmax, &r, NULL);
-    }
+    else
+      kintegral(L, &o, t, BL_TARGET_ANGULAR, th, kmin, kmax, q, &w, &r,
+                NULL);
     applied |= r.applied;
-    lua_pushnumber(L, pt.theta);
+    lua_pushnumber(L, th);
     lua_rawseti(L, 4, i);
     lua_pushnumber(L, r.val);
     lua_rawseti(L, 5, i);
@@ -1771,29 +1600,30 @@ static int l_angular (lua_State *L) {
 */
 static int l_differential (lua_State *L) {
   Opts o;
-  const Cases *cs;
+  const bl_target *t;
   bl_result r;
   Warnings w;
-  Point pt = {PT_FULL, 0, 0, 0, 0};
+  double k, theta_k, theta_p, phi;
   char at[128];
   readopts(L, "differential", differential_keys, 0, &o);
   nocoulomb(L, &o);
-  pt.k = optk(L, &o);
-  pt.theta = optrange(L, &o, "theta_k", "photon polar angle in rad", 0, BL_PI,
-                      0, "[0, pi] rad");
-  pt.theta_p = optrange(L, &o, "theta_p", "final-particle polar angle in rad",
-                        0, BL_PI, 0, "[0, pi] rad");
-  pt.phi = neednum(L, 1, o.fname, "", "phi", "azimuth between photon and "
-                   "particle in rad");
-  if (!isfinite(pt.phi))
+  k = optk(L, &o);
+  theta_k = optrange(L, &o, "theta_k", "photon polar angle in rad", 0, BL_PI,
+                     0, "[0, pi] rad");
+  theta_p = optrange(L, &o, "theta_p", "final-particle polar angle in rad",
+                     0, BL_PI, 0, "[0, pi] rad");
+  phi = neednum(L, 1, o.fname, "", "phi", "azimuth between photon and "
+                "particle in rad");
+  if (!isfinite(phi))
     lbl_argfail(L, o.fname, "field 'phi' must be a finite angle in rad, got "
-            "%.14g", pt.phi);
+            "%.14g", phi);
   /* all checks done */
-  cs = makecases(L, &o);
-  initwarn(&w, &o, cs);
+  t = maketarget(L, &o, NULL);
+  initwarn(&w, t);
   snprintf(at, sizeof at, "k = %.6g MeV, theta_k = %.6g, theta_p = %.6g, "
-           "phi = %.6g rad", pt.k, pt.theta, pt.theta_p, pt.phi);
-  computepoint(L, &o, cs, &pt, NULL, &w, at, &r);
+           "phi = %.6g rad", k, theta_k, theta_p, phi);
+  computepoint(L, &o, t, BL_TARGET_FULL, k, theta_k, theta_p, phi, NULL, &w,
+               at, &r);
   lua_pushnumber(L, r.val);
   pushwarnings(L, &o, &w);
   pushinfo(L, &o, &r);
@@ -2033,6 +1863,10 @@ static void createmeta (lua_State *L) {
   lua_pop(L, 1);
   luaL_newmetatable(L, PARTMETA);        /* metatable for particles */
   luaL_setfuncs(L, particle_meta, 0);
+  lua_pop(L, 1);
+  luaL_newmetatable(L, TARGETMETA);      /* metatable for call targets */
+  lua_pushcfunction(L, target_gc);
+  lua_setfield(L, -2, "__gc");
   lua_pop(L, 1);
 }
 

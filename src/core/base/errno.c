@@ -17,6 +17,7 @@ const char *bl_strerror (int status) {
     case BL_ENOMEM:   return "out of memory";
     case BL_EMODEL:   return "the model cannot serve this request";
     case BL_ENOTCONV: return "integral did not reach the requested tolerance";
+    case BL_ENONFINITE: return "non-finite result";
     default:          return gsl_strerror(status);
   }
 }
@@ -53,4 +54,11 @@ const char *bl_warn_text (unsigned bit) {
     default:
       return NULL;
   }
+}
+
+
+int bl_status_soft (int status) {
+  return status == GSL_EMAXITER || status == GSL_EROUND || status == GSL_ESING
+      || status == GSL_ETOL || status == GSL_EDIVERGE
+      || status == BL_ENOTCONV;
 }

@@ -46,7 +46,7 @@ bl_quad *bl_quad_alloc (size_t limit) {
     }
   }
   q->limit = limit;
-  q->rtol = 1e-4;
+  q->rtol = BL_QUAD_RTOL_DEFAULT;
   return q;
 }
 
@@ -63,7 +63,7 @@ void bl_quad_free (bl_quad *q) {
 
 
 int bl_quad_set_rtol (bl_quad *q, double rtol) {
-  if (!(rtol >= 1e-12 && rtol <= 0.5))
+  if (!(rtol >= BL_QUAD_RTOL_MIN && rtol <= BL_QUAD_RTOL_MAX))
     return BL_EDOMAIN;
   q->rtol = rtol;
   return BL_SUCCESS;

@@ -121,3 +121,11 @@ double bl_corrections_closed (const bl_case *c, const bl_kin *kn,
     out->applied |= BL_APPLIED_COULOMB;
   return fe;
 }
+
+
+double bl_born_xi (double z, int Z, double T, double m) {
+  double x = T / m;
+  double beta = sqrt(x * (x + 2)) / (x + 1);
+  double xi = 2 * BL_PI * fabs(z) * Z * BL_ALPHA;
+  return xi / beta;
+}

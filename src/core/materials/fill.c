@@ -164,3 +164,10 @@ double bl_radiation_length (const bl_material *m) {
   }
   return inv > 0 ? 1 / inv : 0;
 }
+
+
+double bl_material_per_gram (const bl_material *m) {
+  if (m == NULL || !(m->molar_mass > 0.0))
+    return 0.0;
+  return BL_NA / m->molar_mass * 1e-27;   /* 1 mb = 1e-27 cm^2 */
+}
