@@ -241,3 +241,42 @@ sweep:
 	@$(MAKE) --no-print-directory sweep-run SWEEP_POINTS=100000
 sweep-smoke:
 	@$(MAKE) --no-print-directory sweep-run SWEEP_POINTS=2000
+
+# ---- before/after comparison -----------------------------------------------
+# make compare-points [BASE=<git rev>] [COMPARE_POINTS=N] [COMPARE_SEED=S]
+# Builds BASE in a git worktree build/base/<commit> (its own `make all`, run
+# there), runs scripts/compare-points.lua of THIS tree with BASE's runner and
+# with ours (in parallel), and compares the two records: exit 1 with the
+# first differing points, field by field, if any result, warning, setting or
+# error message differs.  Not part of check (it builds a second tree).
+# The records stay in build/compare/ (base.txt, here.txt) for a plain diff.
+BASE           ?= 80a380536e90fdf664400a6191627b57c7038bf7
+COMPARE_POINTS ?= 1000
+COMPARE_SEED   ?= 1
+COMPARE_DIR     = build/compare
+COMPARE_ARGS    = scripts/compare-points.lua --points $(COMPARE_POINTS) \
+                  --seed $(COMPARE_SEED)
+
+.PHONY: compare-points
+compare-points: $(RUNNER)
+	@set -e; \
+	rev=$$(git rev-parse --verify -q '$(BASE)^{commit}') \
+	  || { echo "compare-points: BASE=$(BASE) is not a commit"; exit 2; }; \
+	wt=build/base/$$rev; mkdir -p build/base $(COMPARE_DIR); \
+	if [ ! -e $$wt/.git ]; then \
+	  git worktree prune; \
+	  git worktree add -q --detach -f $$wt $$rev; \
+	fi; \
+	git -C $$wt checkout -q --detach $$rev; \
+	echo "compare-points: building BASE $(BASE) ($$rev) in $$wt"; \
+	$(MAKE) --no-print-directory -C $$wt B=build SAN_FLAGS= all \
+	  >$(COMPARE_DIR)/base-build.log 2>&1 \
+	  || { tail -n 20 $(COMPARE_DIR)/base-build.log; \
+	       echo "compare-points: the build of BASE failed"; exit 2; }; \
+	echo "compare-points: $(COMPARE_POINTS) points (seed $(COMPARE_SEED)), BASE and here"; \
+	s=0; ./$$wt/build/brakelight $(COMPARE_ARGS) --out $(COMPARE_DIR)/base.txt & p=$$!; \
+	./$(RUNNER) $(COMPARE_ARGS) --out $(COMPARE_DIR)/here.txt || s=1; \
+	wait $$p || s=1; \
+	[ $$s = 0 ] || { echo "compare-points: a run failed"; exit 2; }; \
+	./$(RUNNER) scripts/compare-points.lua --diff $(COMPARE_DIR)/base.txt \
+	  $(COMPARE_DIR)/here.txt --label "BASE $(BASE)"
