@@ -280,3 +280,25 @@ compare-points: $(RUNNER)
 	[ $$s = 0 ] || { echo "compare-points: a run failed"; exit 2; }; \
 	./$(RUNNER) scripts/compare-points.lua --diff $(COMPARE_DIR)/base.txt \
 	  $(COMPARE_DIR)/here.txt --label "BASE $(BASE)"
+
+# ---- ThreadSanitizer --------------------------------------------------------
+# tests/tsan/tsan_spectra.c: spectra of every method on several application
+# threads at once, each spectrum itself threaded, against serial results bit
+# for bit.  The core is built again with gcc's -fsanitize=thread in
+# build/tsan (a recursive make, as test-asan does); a TSan report stops the
+# program (halt_on_error) with a non-zero status.  Part of make test.
+TSAN_DIR   = build/tsan
+TSAN_FLAGS = -O1 -g -fno-omit-frame-pointer -fsanitize=thread
+
+.PHONY: test-tsan tsan-build
+test: test-tsan
+
+$(B)/tsan_%: tests/tsan/tsan_%.c $(LIB)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $< $(LIB) $(LIBS)
+
+tsan-build:
+	@$(MAKE) --no-print-directory B=$(TSAN_DIR) CC=gcc \
+	  SAN_FLAGS="$(TSAN_FLAGS)" $(TSAN_DIR)/tsan_spectra
+
+test-tsan: tsan-build
+	TSAN_OPTIONS="halt_on_error=1 $(TSAN_OPTIONS)" ./$(TSAN_DIR)/tsan_spectra
