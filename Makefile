@@ -95,8 +95,8 @@ $(RUNNER): $(RUN_OBJ) $(BIND_OBJ) $(LIB)
 # ---- tests -------------------------------------------------------------------
 # Every part of the suite; make check runs them all after lint.
 .PHONY: test-c test-lua test-embed test-install
-test: test-c test-lua test-embed test-install test-asan valgrind fuzz-smoke \
-      sweep-smoke
+test: test-c test-lua test-embed test-install test-asan test-tsan valgrind \
+      fuzz-smoke sweep-smoke
 
 # The core must not know Lua: no file of src/core/ or include/brakelight/bl_*
 # includes a Lua header.
@@ -213,6 +213,26 @@ sweep:
 sweep-smoke:
 	@$(MAKE) --no-print-directory sweep-run SWEEP_POINTS=2000
 
+# ThreadSanitizer: tests/tsan/tsan_spectra.c, spectra of every method on several application
+# threads at once, each spectrum itself threaded, against serial results bit
+# for bit.  The core is built again with gcc's -fsanitize=thread in
+# build/tsan (a recursive make, as test-asan does); a TSan report stops the
+# program (halt_on_error) with a non-zero status.  Part of make test.
+TSAN_DIR   = build/tsan
+TSAN_FLAGS = -O1 -g -fno-omit-frame-pointer -fsanitize=thread
+
+.PHONY: test-tsan tsan-build
+
+$(B)/tsan_%: tests/tsan/tsan_%.c $(LIB)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $< $(LIB) $(LIBS)
+
+tsan-build:
+	@$(MAKE) --no-print-directory B=$(TSAN_DIR) CC=gcc \
+	  SAN_FLAGS="$(TSAN_FLAGS)" $(TSAN_DIR)/tsan_spectra
+
+test-tsan: tsan-build
+	TSAN_OPTIONS="halt_on_error=1 $(TSAN_OPTIONS)" ./$(TSAN_DIR)/tsan_spectra
+
 # ---- install -----------------------------------------------------------------
 # make install PREFIX=... [DESTDIR=...]: library, headers, Lua module, Lua
 # helpers and recipes, runner, man page
@@ -263,3 +283,42 @@ hf-table:
 	@mkdir -p $(B)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -o $(B)/fit-hf scripts/fit-hf.c $(LIBS)
 	./$(B)/fit-hf -o src/core/models/hf_table.c
+
+# before/after comparison
+# make compare-points [BASE=<git rev>] [COMPARE_POINTS=N] [COMPARE_SEED=S]
+# Builds BASE in a git worktree build/base/<commit> (its own `make all`, run
+# there), runs scripts/compare-points.lua of THIS tree with BASE's runner and
+# with ours (in parallel), and compares the two records: exit 1 with the
+# first differing points, field by field, if any result, warning, setting or
+# error message differs.  Not part of check (it builds a second tree).
+# The records stay in build/compare/ (base.txt, here.txt) for a plain diff.
+BASE           ?= 80a380536e90fdf664400a6191627b57c7038bf7
+COMPARE_POINTS ?= 1000
+COMPARE_SEED   ?= 1
+COMPARE_DIR     = build/compare
+COMPARE_ARGS    = scripts/compare-points.lua --points $(COMPARE_POINTS) \
+                  --seed $(COMPARE_SEED)
+
+.PHONY: compare-points
+compare-points: $(RUNNER)
+	@set -e; \
+	rev=$$(git rev-parse --verify -q '$(BASE)^{commit}') \
+	  || { echo "compare-points: BASE=$(BASE) is not a commit"; exit 2; }; \
+	wt=build/base/$$rev; mkdir -p build/base $(COMPARE_DIR); \
+	if [ ! -e $$wt/.git ]; then \
+	  git worktree prune; \
+	  git worktree add -q --detach -f $$wt $$rev; \
+	fi; \
+	git -C $$wt checkout -q --detach $$rev; \
+	echo "compare-points: building BASE $(BASE) ($$rev) in $$wt"; \
+	$(MAKE) --no-print-directory -C $$wt B=build SAN_FLAGS= all \
+	  >$(COMPARE_DIR)/base-build.log 2>&1 \
+	  || { tail -n 20 $(COMPARE_DIR)/base-build.log; \
+	       echo "compare-points: the build of BASE failed"; exit 2; }; \
+	echo "compare-points: $(COMPARE_POINTS) points (seed $(COMPARE_SEED)), BASE and here"; \
+	s=0; ./$$wt/build/brakelight $(COMPARE_ARGS) --out $(COMPARE_DIR)/base.txt & p=$$!; \
+	./$(RUNNER) $(COMPARE_ARGS) --out $(COMPARE_DIR)/here.txt || s=1; \
+	wait $$p || s=1; \
+	[ $$s = 0 ] || { echo "compare-points: a run failed"; exit 2; }; \
+	./$(RUNNER) scripts/compare-points.lua --diff $(COMPARE_DIR)/base.txt \
+	  $(COMPARE_DIR)/here.txt --label "BASE $(BASE)"

@@ -12,9 +12,10 @@
 set -euo pipefail
 
 # clang and its libFuzzer runtime (libclang-rt-dev): make fuzz-smoke;
-# valgrind: make valgrind (both part of make check)
+# valgrind: make valgrind; libtsan2 (gcc's ThreadSanitizer runtime, usually
+# pulled in by gcc already): make test-tsan (all part of make check)
 pkgs=(liblua5.4-dev lua5.4 libgsl-dev libcriterion-dev libxrl-dev clang
-      libclang-rt-dev valgrind)
+      libclang-rt-dev valgrind libtsan2)
 
 for opt in "$@"; do
   case "$opt" in
