@@ -118,8 +118,13 @@ $(B)/test_%: tests/test_%.c $(REF_OBJ) $(LIB)
 test-c: $(TEST_BIN)
 	@set -e; for t in $(TEST_BIN); do echo "== $$t"; ./$$t --jobs 2; done
 
+# a program of the C API alone (tests/capi/), compared with the module by
+# tests/lua/test_c_api.lua
+$(B)/target_values: tests/capi/target_values.c $(LIB)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $< $(LIB) $(LIBS)
+
 # tests/lua/*.lua through the runner, and the stock interpreter
-test-lua: $(MODULE) $(RUNNER)
+test-lua: $(MODULE) $(RUNNER) $(B)/target_values
 	@bash scripts/run-lua-tests.sh
 
 # a C program that embeds Lua and loads the module (tests/embed/embed.c)
