@@ -31,7 +31,6 @@
 #include <gsl/gsl_errno.h>
 
 #include "brakelight.h"
-#include "bl_spectrum.h"
 
 #define NK    6      /* photon energies per spectrum */
 #define LIMIT 200    /* subintervals per nesting level */
