@@ -241,3 +241,54 @@ sweep:
 	@$(MAKE) --no-print-directory sweep-run SWEEP_POINTS=100000
 sweep-smoke:
 	@$(MAKE) --no-print-directory sweep-run SWEEP_POINTS=2000
+
+# ---- Lua hosts -------------------------------------------------------------
+# The module for every Lua host: build/<host>/brakelight.so for Lua 5.1, 5.2,
+# 5.3, 5.4 and LuaJIT 2.1 (build/brakelight.so stays the 5.4 one, and the
+# runner stays a Lua 5.4 program).  The core (build/libbrakelight.a) includes
+# no Lua header and is shared; only the binding objects (src/l*.c) are
+# compiled per host, with that host's headers and src/lbl_compat.h bridging
+# the API (Debian's compat-5.3 for 5.1, 5.2 and LuaJIT).  A Lua C module
+# does not link liblua: the interpreter that loads it provides the API.
+# The Lua headers come in with -isystem, so that compat-5.3's static
+# functions, compiled into each binding object, are not held to -Werror.
+LUA_HOSTS = lua5.1 lua5.2 lua5.3 lua5.4 luajit
+LUA_INC_lua5.1 = -isystem /usr/include/lua5.1
+LUA_INC_lua5.2 = -isystem /usr/include/lua5.2
+LUA_INC_lua5.3 = -isystem /usr/include/lua5.3
+LUA_INC_lua5.4 = -isystem /usr/include/lua5.4
+# LuaJIT's include directory has no compat-5.3.h: the lua5.1 copy is found
+# after LuaJIT's own lua.h (see src/lbl_compat.h)
+LUA_INC_luajit = -isystem /usr/include/luajit-2.1 -idirafter /usr/include/lua5.1
+HOST_CPPFLAGS  = -Iinclude -I/usr/include/xraylib
+HOST_MODULES   = $(LUA_HOSTS:%=$(B)/%/brakelight.so)
+
+# lua_host_rules HOST: the binding objects and the module of one host
+define lua_host_rules
+$(B)/$(1)/%.o: src/%.c $(wildcard include/*.h) $(wildcard src/*.h)
+	@mkdir -p $$(@D)
+	$$(CC) $$(HOST_CPPFLAGS) $$(LUA_INC_$(1)) $$(CFLAGS) -c $$< -o $$@
+$(B)/$(1)/brakelight.so: $$(BIND_SRC:src/%.c=$(B)/$(1)/%.o) $$(LIB)
+	$$(CC) -shared -o $$@ $$(BIND_SRC:src/%.c=$(B)/$(1)/%.o) $$(LIB) $$(LIBS)
+endef
+$(foreach h,$(LUA_HOSTS),$(eval $(call lua_host_rules,$(h))))
+
+.PHONY: lua-hosts test-lua-hosts test-rock
+all: lua-hosts
+lua-hosts: $(HOST_MODULES)
+
+# tests/lua/*.lua once per host, with the host's stock interpreter (named
+# as the host: lua5.1 ... luajit) and its module (scripts/run-lua-tests.sh
+# --lua INTERP --cpath DIR); tests about
+# the runner itself still start build/brakelight
+test: test-lua-hosts test-rock
+test-lua-hosts: $(HOST_MODULES) $(MODULE) $(RUNNER)
+	@s=0; for h in $(LUA_HOSTS); do \
+	  echo "== Lua host $$h"; \
+	  bash scripts/run-lua-tests.sh --lua $$h --cpath $(B)/$$h || s=1; \
+	done; exit $$s
+
+# luarocks make with Debian's luarocks (it targets the Lua it was set up
+# for) into a scratch tree, offline; then require the installed module
+test-rock:
+	@bash scripts/check-rock.sh
