@@ -260,8 +260,19 @@ LUA_INC_lua5.4 = -isystem /usr/include/lua5.4
 # LuaJIT's include directory has no compat-5.3.h: the lua5.1 copy is found
 # after LuaJIT's own lua.h (see src/lbl_compat.h)
 LUA_INC_luajit = -isystem /usr/include/luajit-2.1 -idirafter /usr/include/lua5.1
-HOST_CPPFLAGS  = -Iinclude -I/usr/include/xraylib
+XRL_INCDIR    ?= /usr/include
+HOST_CPPFLAGS  = -Iinclude -I$(XRL_INCDIR)/xraylib
 HOST_MODULES   = $(LUA_HOSTS:%=$(B)/%/brakelight.so)
+# luarocks (scripts/brakelight-0.1.0-1.rockspec) passes the include
+# directory of the Lua it targets as LUA_INCDIR (to both of its make
+# runs): that module is built in build/rock-<last part of LUA_INCDIR>/, so
+# a build for another Lua never reuses these objects.  COMPAT53_INCDIR:
+# where compat-5.3.h is when LUA_INCDIR has none (LuaJIT); unused for 5.3
+# and 5.4
+LUA_INCDIR      ?= /usr/include/lua5.4
+COMPAT53_INCDIR ?= /usr/include/lua5.1
+ROCK_HOST        = rock-$(notdir $(patsubst %/,%,$(LUA_INCDIR)))
+LUA_INC_$(ROCK_HOST) = -isystem $(LUA_INCDIR) -idirafter $(COMPAT53_INCDIR)
 
 # lua_host_rules HOST: the binding objects and the module of one host
 define lua_host_rules
@@ -271,7 +282,7 @@ $(B)/$(1)/%.o: src/%.c $(wildcard include/*.h) $(wildcard src/*.h)
 $(B)/$(1)/brakelight.so: $$(BIND_SRC:src/%.c=$(B)/$(1)/%.o) $$(LIB)
 	$$(CC) -shared -o $$@ $$(BIND_SRC:src/%.c=$(B)/$(1)/%.o) $$(LIB) $$(LIBS)
 endef
-$(foreach h,$(LUA_HOSTS),$(eval $(call lua_host_rules,$(h))))
+$(foreach h,$(LUA_HOSTS) $(ROCK_HOST),$(eval $(call lua_host_rules,$(h))))
 
 .PHONY: lua-hosts test-lua-hosts test-rock
 all: lua-hosts
@@ -288,7 +299,23 @@ test-lua-hosts: $(HOST_MODULES) $(MODULE) $(RUNNER)
 	  bash scripts/run-lua-tests.sh --lua $$h --cpath $(B)/$$h || s=1; \
 	done; exit $$s
 
-# luarocks make with Debian's luarocks (it targets the Lua it was set up
-# for) into a scratch tree, offline; then require the installed module
-test-rock:
+# the rockspec's build and install targets (build type "make"): the module
+# for luarocks' Lua, the helpers, and the runner (a Lua 5.4 program
+# whatever Lua luarocks targets); luarocks passes its directories as INST_*
+.PHONY: rock-build rock-install-host
+rock-build: $(B)/$(ROCK_HOST)/brakelight.so $(RUNNER)
+rock-install-host: rock-build
+	install -d $(INST_LIBDIR) $(INST_LUADIR)/brakelight $(INST_BINDIR)
+	install -m 755 $(B)/$(ROCK_HOST)/brakelight.so $(INST_LIBDIR)/brakelight.so
+	install -m 644 lua/brakelight/*.lua $(INST_LUADIR)/brakelight/
+	install -m 755 $(RUNNER) $(INST_BINDIR)/brakelight
+
+# luarocks make with Debian's luarocks as it comes (it targets 5.1 on
+# Debian 12), then for the other Luas it is set up for, each into a scratch
+# tree, offline; then require the installed module and a helper with that
+# Lua (scripts/check-rock.sh)
+ROCK_LUAS = 5.2 5.3 5.4
+test-rock: $(RUNNER)
 	@bash scripts/check-rock.sh
+	@set -e; for v in $(ROCK_LUAS); do \
+	  LUAROCKS="luarocks --lua-version $$v" bash scripts/check-rock.sh; done

@@ -110,6 +110,34 @@ if [ -n "$interp" ]; then
     end
     assert(bl.nosuchfield == nil)' >"$log" 2>&1 </dev/null
   record "$interp: require \"brakelight\", helper fields" "$?" "$(elapsed "$start")"
+  # every recipe but the demo (it prints its timing) in small mode: the
+  # same printout and files as through the runner (the output directory,
+  # and the files' tool and script lines, which name the Lua and the path,
+  # aside)
+  recipes_same() {
+    local r name st=0
+    for r in lua/recipes/*.lua; do
+      name=$(basename "$r" .lua)
+      [ "$name" = demo ] && continue
+      BRAKELIGHT_SMALL=1 "${run[@]}" "$r" "$tmp/host/$name" >"$tmp/host-$name.out" \
+        2>/dev/null </dev/null || { echo "$name failed in $interp"; st=1; continue; }
+      BRAKELIGHT_SMALL=1 "$runner" -q "$r" "$tmp/runner/$name" >"$tmp/runner-$name.out" \
+        2>/dev/null </dev/null || { echo "$name failed in the runner"; st=1; continue; }
+      diff <(sed "s#$tmp/host/#OUT/#g" "$tmp/host-$name.out") \
+           <(sed "s#$tmp/runner/#OUT/#g" "$tmp/runner-$name.out") || st=1
+      diff -r -I '^# tool: \|^# script: \|"tool": \|"script": ' \
+        "$tmp/host/$name" "$tmp/runner/$name" || st=1
+    done
+    return $st
+  }
+  start=$(now)
+  recipes_same >"$log" 2>&1
+  record "$interp: recipes as through the runner" "$?" "$(elapsed "$start")"
+  # a Lua C module takes the API from the interpreter that loads it
+  start=$(now)
+  { ldd "$cpath/brakelight.so"; ! ldd "$cpath/brakelight.so" | grep -q 'lua'; } \
+    >"$log" 2>&1 </dev/null
+  record "$interp: $cpath/brakelight.so links no liblua" "$?" "$(elapsed "$start")"
   echo "$passed passed, $failed failed"
   [ "$failed" -eq 0 ]
   exit

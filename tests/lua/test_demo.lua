@@ -2,6 +2,8 @@
   test_demo.lua -- the `make demo` recipe runs, prints an aligned table and
   writes a CSV in the layout it documents (lua/recipes/demo.lua).
   Run: build/brakelight tests/lua/test_demo.lua
+  Needs the runner: the demo runs in build/brakelight, as `make demo` runs
+  it; the checks of its output run in any Lua host.
 ]]
 
 local root = (arg and arg[0] or ""):match("^(.-)tests[/\\]lua[/\\][^/\\]+%.lua$")
