@@ -46,7 +46,7 @@ RUNNER = $(B)/brakelight
 # keep the reference objects between test builds
 .SECONDARY:
 
-all: $(LIB) $(MODULE) $(RUNNER)
+all: $(LIB) $(MODULE) $(RUNNER) lua-hosts
 
 deps:
 	@bash scripts/install-deps.sh
@@ -92,11 +92,87 @@ $(B)/runner/%.o: src/runner/%.c
 $(RUNNER): $(RUN_OBJ) $(BIND_OBJ) $(LIB)
 	$(CC) -o $@ $(RUN_OBJ) $(BIND_OBJ) $(LIB) $(LUALIB) $(LIBS) -Wl,-E
 
+# ---- Lua hosts -------------------------------------------------------------
+# The module for every Lua host: build/<host>/brakelight.so for Lua 5.1, 5.2,
+# 5.3, 5.4 and LuaJIT 2.1 (build/brakelight.so stays the 5.4 one, and the
+# runner stays a Lua 5.4 program).  The core (build/libbrakelight.a) includes
+# no Lua header and is shared; only the binding objects (src/binding/) are
+# compiled per host, with that host's headers and src/binding/lbl_compat.h bridging
+# the API (Debian's compat-5.3 for 5.1, 5.2 and LuaJIT).  A Lua C module
+# does not link liblua: the interpreter that loads it provides the API.
+# The Lua headers come in with -isystem, so that compat-5.3's static
+# functions, compiled into each binding object, are not held to -Werror.
+LUA_HOSTS = lua5.1 lua5.2 lua5.3 lua5.4 luajit
+LUA_INC_lua5.1 = -isystem /usr/include/lua5.1
+LUA_INC_lua5.2 = -isystem /usr/include/lua5.2
+LUA_INC_lua5.3 = -isystem /usr/include/lua5.3
+LUA_INC_lua5.4 = -isystem /usr/include/lua5.4
+# LuaJIT's include directory has no compat-5.3.h: the lua5.1 copy is found
+# after LuaJIT's own lua.h (see src/binding/lbl_compat.h)
+LUA_INC_luajit = -isystem /usr/include/luajit-2.1 -idirafter /usr/include/lua5.1
+XRL_INCDIR    ?= /usr/include
+HOST_CPPFLAGS  = -Iinclude -I$(XRL_INCDIR)/xraylib
+HOST_MODULES   = $(LUA_HOSTS:%=$(B)/%/brakelight.so)
+# luarocks (scripts/brakelight-0.1.0-1.rockspec) passes the include
+# directory of the Lua it targets as LUA_INCDIR (to both of its make
+# runs): that module is built in build/rock-<last part of LUA_INCDIR>/, so
+# a build for another Lua never reuses these objects.  COMPAT53_INCDIR:
+# where compat-5.3.h is when LUA_INCDIR has none (LuaJIT); unused for 5.3
+# and 5.4
+LUA_INCDIR      ?= /usr/include/lua5.4
+COMPAT53_INCDIR ?= /usr/include/lua5.1
+ROCK_HOST        = rock-$(notdir $(patsubst %/,%,$(LUA_INCDIR)))
+LUA_INC_$(ROCK_HOST) = -isystem $(LUA_INCDIR) -idirafter $(COMPAT53_INCDIR)
+
+# lua_host_rules HOST: the binding objects and the module of one host
+define lua_host_rules
+$(B)/$(1)/%.o: src/%.c
+	@mkdir -p $$(@D)
+	$$(CC) $$(HOST_CPPFLAGS) $$(LUA_INC_$(1)) $$(CFLAGS) -c $$< -o $$@
+$(B)/$(1)/brakelight.so: $$(BIND_SRC:src/%.c=$(B)/$(1)/%.o) $$(LIB)
+	$$(CC) -shared -o $$@ $$(BIND_SRC:src/%.c=$(B)/$(1)/%.o) $$(LIB) $$(LIBS)
+endef
+$(foreach h,$(LUA_HOSTS) $(ROCK_HOST),$(eval $(call lua_host_rules,$(h))))
+
+.PHONY: lua-hosts test-lua-hosts test-rock
+lua-hosts: $(HOST_MODULES)
+
+# tests/lua/*.lua once per host, with the host's stock interpreter (named
+# as the host: lua5.1 ... luajit) and its module (scripts/run-lua-tests.sh
+# --lua INTERP --cpath DIR); tests about
+# the runner itself still start build/brakelight
+test-lua-hosts: $(HOST_MODULES) $(MODULE) $(RUNNER)
+	@s=0; for h in $(LUA_HOSTS); do \
+	  echo "== Lua host $$h"; \
+	  bash scripts/run-lua-tests.sh --lua $$h --cpath $(B)/$$h || s=1; \
+	done; exit $$s
+
+# the rockspec's build and install targets (build type "make"): the module
+# for luarocks' Lua, the helpers, and the runner (a Lua 5.4 program
+# whatever Lua luarocks targets); luarocks passes its directories as INST_*
+.PHONY: rock-build rock-install-host
+rock-build: $(B)/$(ROCK_HOST)/brakelight.so $(RUNNER)
+rock-install-host: rock-build
+	install -d $(INST_LIBDIR) $(INST_LUADIR)/brakelight $(INST_BINDIR)
+	install -m 755 $(B)/$(ROCK_HOST)/brakelight.so $(INST_LIBDIR)/brakelight.so
+	install -m 644 lua/brakelight/*.lua $(INST_LUADIR)/brakelight/
+	install -m 755 $(RUNNER) $(INST_BINDIR)/brakelight
+
+# luarocks make with Debian's luarocks as it comes (it targets 5.1 on
+# Debian 12), then for the other Luas it is set up for, each into a scratch
+# tree, offline; then require the installed module and a helper with that
+# Lua (scripts/check-rock.sh)
+ROCK_LUAS = 5.2 5.3 5.4
+test-rock: $(RUNNER)
+	@bash scripts/check-rock.sh
+	@set -e; for v in $(ROCK_LUAS); do \
+	  LUAROCKS="luarocks --lua-version $$v" bash scripts/check-rock.sh; done
+
 # ---- tests -------------------------------------------------------------------
 # Every part of the suite; make check runs them all after lint.
 .PHONY: test-c test-lua test-embed test-install
-test: test-c test-lua test-embed test-install test-asan test-tsan valgrind \
-      fuzz-smoke sweep-smoke
+test: test-c test-lua test-lua-hosts test-embed test-install test-rock \
+      test-asan test-tsan valgrind fuzz-smoke sweep-smoke
 
 # The core must not know Lua: no file of src/core/ or include/brakelight/bl_*
 # includes a Lua header.
@@ -241,7 +317,7 @@ test-tsan: tsan-build
 # ---- install -----------------------------------------------------------------
 # make install PREFIX=... [DESTDIR=...]: library, headers, Lua module, Lua
 # helpers and recipes, runner, man page
-.PHONY: install uninstall rock-install
+.PHONY: install uninstall
 PREFIX  ?= /usr/local
 LUAVER   = 5.4
 BINDIR   = $(DESTDIR)$(PREFIX)/bin
@@ -268,14 +344,6 @@ uninstall:
 	rm -f $(BINDIR)/brakelight $(LIBDIR)/libbrakelight.a $(CMODDIR)/brakelight.so \
 	  $(MANDIR)/brakelight.1 $(INCDIR)/brakelight.h
 	rm -rf $(INCDIR)/brakelight $(LMODDIR)/brakelight $(SHAREDIR)
-
-# luarocks make scripts/brakelight-0.1.0-1.rockspec ("make" build type):
-# luarocks passes its directories as INST_*
-rock-install: all
-	install -d $(INST_LIBDIR) $(INST_LUADIR)/brakelight $(INST_BINDIR)
-	install -m 755 $(MODULE) $(INST_LIBDIR)/brakelight.so
-	install -m 644 lua/brakelight/*.lua $(INST_LUADIR)/brakelight/
-	install -m 755 $(RUNNER) $(INST_BINDIR)/brakelight
 
 # ---- benchmarks and generators ---------------------------------------------
 .PHONY: bench hf-table

@@ -13,10 +13,32 @@
 # With the environment variable BL_TEST_WRAP set (a command prefix, e.g.
 # "valgrind --error-exitcode=99 ..."), each tests/lua/*.lua file runs under
 # it and the other checks are skipped (scripts/valgrind-lua.sh uses this).
+#
+#   run-lua-tests.sh --lua INTERP --cpath DIR     (make test-lua-hosts)
+# runs every tests/lua/*.lua with the stock interpreter INTERP (lua5.1,
+# lua5.2, lua5.3, lua5.4, luajit) instead of the runner, with DIR/?.so
+# (e.g. build/lua5.1) first on package.cpath and lua/?.lua first on
+# package.path, then checks that require "brakelight" there gives the
+# module and its helper fields; the runner's own checks are skipped (tests
+# that start the runner as a program still need build/brakelight).
 set -uo pipefail
 
 cd "$(dirname "$0")/.."
 runner=build/brakelight
+interp=
+cpath=
+while [ $# -gt 0 ]; do
+  case "$1" in
+    --lua) interp=${2:?--lua needs an interpreter}; shift 2 ;;
+    --cpath) cpath=${2:?--cpath needs a directory}; shift 2 ;;
+    *) echo "run-lua-tests: unknown option '$1' (allowed: --lua INTERP, --cpath DIR)" >&2
+       exit 2 ;;
+  esac
+done
+if [ -n "$interp" ] && [ -z "$cpath" ]; then
+  echo "run-lua-tests: --lua needs --cpath DIR (the directory of that host's brakelight.so)" >&2
+  exit 2
+fi
 passed=0
 failed=0
 log=$(mktemp)
@@ -46,13 +68,76 @@ fi
 
 shopt -s nullglob
 read -r -a wrap <<<"${BL_TEST_WRAP:-}"
+# the command that runs one test file: the runner, or INTERP with the paths
+if [ -n "$interp" ]; then
+  if ! command -v "$interp" >/dev/null 2>&1; then
+    echo "run-lua-tests: $interp not found (make deps installs it)" >&2
+    exit 1
+  fi
+  if [ ! -f "$cpath/brakelight.so" ]; then
+    echo "run-lua-tests: $cpath/brakelight.so is missing: run make lua-hosts first" >&2
+    exit 1
+  fi
+  paths="package.path = '$PWD/lua/?.lua;' .. package.path; package.cpath = '$PWD/$cpath/?.so;' .. package.cpath"
+  run=("$interp" -e "$paths")
+  tag="$interp: "
+else
+  run=("$runner")
+  tag=
+fi
 for t in tests/lua/*.lua; do
   start=$(now)
-  "${wrap[@]}" "$runner" "$t" >"$log" 2>&1 </dev/null
+  "${wrap[@]}" "${run[@]}" "$t" >"$log" 2>&1 </dev/null
   st=$?
-  record "$t" "$st" "$(elapsed "$start")"
+  record "$tag$t" "$st" "$(elapsed "$start")"
 done
 if [ ${#wrap[@]} -gt 0 ]; then
+  echo "$passed passed, $failed failed"
+  [ "$failed" -eq 0 ]
+  exit
+fi
+
+# a host: the module and its lazily loaded helpers, nothing loaded before
+if [ -n "$interp" ]; then
+  start=$(now)
+  "${run[@]}" -e '
+    local bl = require "brakelight"
+    assert(type(bl.dsdk) == "function", "not the C module")
+    assert(package.loaded["brakelight.scan"] == nil, "scan loaded too early")
+    for _, k in ipairs{ "scan", "plot", "merge", "json" } do
+      assert(bl[k] == require("brakelight." .. k), "brakelight." .. k)
+      assert(rawget(bl, k) == bl[k], "brakelight." .. k .. " not kept")
+    end
+    assert(bl.nosuchfield == nil)' >"$log" 2>&1 </dev/null
+  record "$interp: require \"brakelight\", helper fields" "$?" "$(elapsed "$start")"
+  # every recipe but the demo (it prints its timing) in small mode: the
+  # same printout and files as through the runner (the output directory,
+  # and the files' tool and script lines, which name the Lua and the path,
+  # aside)
+  recipes_same() {
+    local r name st=0
+    for r in lua/recipes/*.lua; do
+      name=$(basename "$r" .lua)
+      [ "$name" = demo ] && continue
+      BRAKELIGHT_SMALL=1 "${run[@]}" "$r" "$tmp/host/$name" >"$tmp/host-$name.out" \
+        2>/dev/null </dev/null || { echo "$name failed in $interp"; st=1; continue; }
+      BRAKELIGHT_SMALL=1 "$runner" -q "$r" "$tmp/runner/$name" >"$tmp/runner-$name.out" \
+        2>/dev/null </dev/null || { echo "$name failed in the runner"; st=1; continue; }
+      diff <(sed "s#$tmp/host/#OUT/#g" "$tmp/host-$name.out") \
+           <(sed "s#$tmp/runner/#OUT/#g" "$tmp/runner-$name.out") || st=1
+      diff -r -I '^# tool: \|^# script: \|"tool": \|"script": ' \
+        "$tmp/host/$name" "$tmp/runner/$name" || st=1
+    done
+    return $st
+  }
+  start=$(now)
+  recipes_same >"$log" 2>&1
+  record "$interp: recipes as through the runner" "$?" "$(elapsed "$start")"
+  # a Lua C module takes the API from the interpreter that loads it
+  start=$(now)
+  { ldd "$cpath/brakelight.so"; ! ldd "$cpath/brakelight.so" | grep -q 'lua'; } \
+    >"$log" 2>&1 </dev/null
+  record "$interp: $cpath/brakelight.so links no liblua" "$?" "$(elapsed "$start")"
   echo "$passed passed, $failed failed"
   [ "$failed" -eq 0 ]
   exit

@@ -5,7 +5,8 @@
   exactly (cjson keeps 14 significant digits by default), must come out
   byte for byte the same from the same data (cjson writes object keys in
   hash order, so two identical runs give different files), and the
-  helpers must work in a stock lua5.4 without extra packages.  This file
+  helpers must work in a stock interpreter (Lua 5.1 to 5.4, LuaJIT)
+  without extra packages.  This file
   is small and only needs what scan files use.
 
   json.encode(value [, opts])  -> string
@@ -26,14 +27,15 @@ local json = {}
 
 local format, concat, byte, char, sub = string.format, table.concat,
   string.byte, string.char, string.sub
-local mtype = math.type
+local compat = require "brakelight.compat"
+local mtype = compat.mtype
 
 json.null = setmetatable({}, { __tostring = function() return "null" end })
 
 
 --[[ Shortest decimal text of x that reads back to the same number. ]]
 function json.number(x)
-  if mtype(x) == "integer" then return tostring(x) end
+  if mtype(x) == "integer" then return compat.inttext(x) end
   if x ~= x then return "nan" end
   if x == math.huge then return "inf" end
   if x == -math.huge then return "-inf" end
@@ -143,9 +145,7 @@ end
 
 local decodeval
 
-local function utf8char(cp)
-  return utf8.char(cp)
-end
+local utf8char = compat.utf8char
 
 local function decstring(s, pos)
   local out, i = {}, pos + 1
@@ -223,8 +223,8 @@ function decodeval(s, pos)
   else
     local num = s:match("^-?%d+%.?%d*[eE]?[-+]?%d*", pos)
     if not num or num == "" or num == "-" then fail(pos, "value expected") end
-    local v = math.tointeger(tonumber(num)) and not num:find("[.eE]")
-              and math.tointeger(tonumber(num)) or tonumber(num)
+    local v = compat.tointeger(tonumber(num)) and not num:find("[.eE]")
+              and compat.tointeger(tonumber(num)) or tonumber(num)
     if v == nil then fail(pos, "bad number '" .. num .. "'") end
     return v, pos + #num
   end

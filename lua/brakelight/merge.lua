@@ -17,6 +17,7 @@
      which are then removed.
 ]]
 
+local compat = require "brakelight.compat"
 local scanfile = require "brakelight.scanfile"
 
 local merge = {}
@@ -46,7 +47,7 @@ local function allkeys(doc)
     for i = #doc.axes, 1, -1 do
       local m = #doc.axes[i].labels
       labels[i] = doc.axes[i].labels[r % m + 1]
-      r = r // m
+      r = compat.idiv(r, m)
     end
     keys[p] = scanfile.key(names, labels)
   end

@@ -34,6 +34,7 @@
 
 local plot = {}
 local format, concat = string.format, table.concat
+local compat = require "brakelight.compat"
 
 -- our palette: deep teal, brick, ochre, slate blue, olive, plum, graphite
 plot.palette = { "#00717a", "#b5442f", "#c98d1c", "#4a5fa8", "#6b8a2a",
@@ -96,11 +97,11 @@ local function autolog(series, field)
   local lo, hi = math.huge, -math.huge
   for _, s in ipairs(series) do
     for _, v in ipairs(s[field]) do
-      if v ~= v then goto continue end
-      if v <= 0 then return false end
-      if v < lo then lo = v end
-      if v > hi then hi = v end
-      ::continue::
+      if v == v then  -- NaN skipped
+        if v <= 0 then return false end
+        if v < lo then lo = v end
+        if v > hi then hi = v end
+      end
     end
   end
   return hi > 0 and lo > 0 and hi / lo >= 100
@@ -115,8 +116,7 @@ end
 
 --[[ Is gnuplot on the PATH? ]]
 function plot.have_gnuplot()
-  local ok = os.execute("command -v gnuplot >/dev/null 2>&1")
-  return ok == true or ok == 0
+  return compat.execute("command -v gnuplot >/dev/null 2>&1")
 end
 
 
@@ -213,10 +213,8 @@ function plot.draw(spec)
   else
     local cmd = format("cd %s && gnuplot %s 2>&1", shq(dir ~= "" and dir or "."),
                        shq(gpname))
-    local p = io.popen(cmd)
-    local text = p:read("a")
-    local ok = p:close()
-    if not ok then why = "gnuplot failed: " .. text:gsub("%s+$", "") end
+    local text, code = compat.capture(cmd)
+    if code ~= 0 then why = "gnuplot failed: " .. text:gsub("%s+$", "") end
   end
   if why then
     local m = format("plot: %s; the data (%s) and the gnuplot script (%s) " ..

@@ -23,14 +23,14 @@
 local progress = {}
 progress.__index = progress
 
-local format = string.format
+local format, floor = string.format, math.floor
 
 
 --[[ h:mm:ss or m:ss of a duration in seconds. ]]
 local function hms(s)
   if s ~= s or s == math.huge then return "?" end
   s = math.floor(s + 0.5)
-  local h, m = s // 3600, (s % 3600) // 60
+  local h, m = floor(s / 3600), floor((s % 3600) / 60)
   if h > 0 then return format("%d:%02d:%02d", h, m, s % 60) end
   return format("%d:%02d", m, s % 60)
 end

@@ -79,6 +79,7 @@
   scan.omit          -> sentinel for pt:with
 ]]
 
+local compat = require "brakelight.compat"
 local scanfile = require "brakelight.scanfile"
 local progress = require "brakelight.progress"
 
@@ -181,7 +182,7 @@ local function describe(spec, fname)
     local n = values.n or #values
     if n == 0 then argerr(fname, "axis '%s' has no values", name) end
     for k in pairs(values) do
-      if k ~= "n" and not (math.type(k) == "integer" and k >= 1 and k <= n) then
+      if k ~= "n" and not (compat.mtype(k) == "integer" and k >= 1 and k <= n) then
         argerr(fname, "axis '%s': values must be a list (1..n), found key %s",
                name, tostring(k))
       end
@@ -276,7 +277,7 @@ local function indices(d, p)
   for i = #d.axes, 1, -1 do
     local n = d.axes[i].n
     idx[i] = r % n + 1
-    r = r // n
+    r = compat.idiv(r, n)
   end
   return idx
 end
@@ -346,8 +347,8 @@ end
 local function getshard(spec, fname)
   local s = spec.shard
   if s ~= nil then
-    if type(s) ~= "table" or math.type(s[1]) ~= "integer" or
-       math.type(s[2]) ~= "integer" or s[2] < 1 or s[1] < 1 or s[1] > s[2] then
+    if type(s) ~= "table" or compat.mtype(s[1]) ~= "integer" or
+       compat.mtype(s[2]) ~= "integer" or s[2] < 1 or s[1] < 1 or s[1] > s[2] then
       argerr(fname, "field 'shard' must be {i, n} with 1 <= i <= n, got %s",
              type(s) == "table" and format("{%s, %s}", tostring(s[1]),
                                            tostring(s[2])) or tostring(s))
@@ -648,7 +649,8 @@ function scan.run(spec)
     for _, o in ipairs(order) do
       if not done[o.key] then
         local pt = makepoint(d, o.p, o.idx, o.key)
-        local ok, ret = xpcall(spec.each, debug.traceback, pt)
+        local ok, ret = xpcall(function() return spec.each(pt) end,
+                              debug.traceback)  -- 5.1: no arguments
         if not ok then
           error(format("%s: point %d (%s): %s", fname, o.p, o.key,
                        tostring(ret)), 0)

@@ -49,7 +49,6 @@ local json = require "brakelight.json"
 
 local scanfile = {}
 local format, concat = string.format, table.concat
-local mtype = math.type
 
 scanfile.LAYOUT = 1
 
@@ -455,7 +454,7 @@ function scanfile.read(path)
     local missing = tostring(msg):find("No such file", 1, true) ~= nil
     return nil, msg, missing and "missing" or nil
   end
-  local text = f:read("a")
+  local text = f:read("*a")
   f:close()
   if text == nil then return nil, "cannot read " .. path end
   return scanfile.decode(text, scanfile.format(path), path)

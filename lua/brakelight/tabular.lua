@@ -26,7 +26,8 @@
 local tabular = {}
 
 local format, rep, concat = string.format, string.rep, table.concat
-local mtype = math.type
+local compat = require "brakelight.compat"
+local mtype = compat.mtype
 
 
 --[[ Text of one cell: numbers by `fmt` (or `default`), strings as is. ]]
@@ -35,7 +36,7 @@ local function cell(value, fmt, default)
     return ""
   elseif type(value) == "number" then
     if fmt then return format(fmt, value) end
-    if mtype(value) == "integer" then return tostring(value) end
+    if mtype(value) == "integer" then return compat.inttext(value) end
     return format(default, value)
   else
     return tostring(value)

@@ -6,7 +6,7 @@
 #ifndef LBL_INTERNAL_H
 #define LBL_INTERNAL_H
 
-#include "lua.h"
+#include "lbl_compat.h"
 
 #include "brakelight/bl_material.h"
 
@@ -34,5 +34,12 @@ const char *lbl_showval (lua_State *L, int idx, char *buf, size_t n);
 void lbl_material_open (lua_State *L);
 void lbl_totarget (lua_State *L, int idx, const char *fname,
                    const char *field, bl_material *out);
+
+/*
+** Helpers (src/lhelpers.c).  lbl_helpers_open: give the module table at the
+** top of the stack the __index metamethod that loads brakelight.scan,
+** .plot, .merge, .json ("brakelight.<name>") on first use.
+*/
+void lbl_helpers_open (lua_State *L);
 
 #endif

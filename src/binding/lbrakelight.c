@@ -18,8 +18,7 @@
 
 #include <gsl/gsl_errno.h>
 
-#include "lua.h"
-#include "lauxlib.h"
+#include "lbl_compat.h"   /* lua.h, lauxlib.h and the 5.4 API on every host */
 
 #include "brakelight.h"
 #include "brakelight/lbrakelight.h"
@@ -1905,7 +1904,8 @@ static const luaL_Reg brakelight_funcs[] = {
 /*
 ** Open the module: the GSL error handler is switched off (process-wide:
 ** GSL's default handler aborts), and the library functions share one
-** integration workspace as upvalue 1.  Returns the module table.
+** integration workspace as upvalue 1; the pure-Lua helpers are fields
+** loaded on first use (src/lhelpers.c).  Returns the module table.
 */
 LUAMOD_API int luaopen_brakelight (lua_State *L) {
   gsl_set_error_handler_off();
@@ -1917,5 +1917,6 @@ LUAMOD_API int luaopen_brakelight (lua_State *L) {
   lua_pushliteral(L, BL_VERSION);
   lua_setfield(L, -2, "_VERSION");
   lbl_material_open(L);                   /* material functions */
+  lbl_helpers_open(L);                    /* brakelight.scan, .plot, ... */
   return 1;
 }

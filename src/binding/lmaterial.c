@@ -26,8 +26,7 @@
 #include <stdio.h>
 #include <string.h>
 
-#include "lua.h"
-#include "lauxlib.h"
+#include "lbl_compat.h"   /* lua.h, lauxlib.h and the 5.4 API on every host */
 
 #include "brakelight.h"
 #include "lbl_internal.h"

@@ -900,29 +900,6 @@ static int makesession (const options *o, session *ss) {
 
 
 /*
-** Let the module reach its pure-Lua helpers as fields: brakelight.scan,
-** brakelight.plot, brakelight.merge load "brakelight.<name>" on first use
-** (an __index metamethod on the module table; nothing is loaded before).
-*/
-static void helperfields (lua_State *L) {
-  static const char code[] =
-    "local bl = require '" BL_MODNAME "'\n"
-    "local lazy = { scan = true, plot = true, merge = true, json = true }\n"
-    "if getmetatable(bl) == nil then\n"
-    "  setmetatable(bl, { __index = function(t, k)\n"
-    "    if lazy[k] then\n"
-    "      local m = require('" BL_MODNAME ".' .. k)\n"
-    "      rawset(t, k, m)\n"
-    "      return m\n"
-    "    end\n"
-    "  end })\n"
-    "end\n";
-  if (luaL_dostring(L, code) != LUA_OK)
-    lua_pop(L, 1);  /* helpers unavailable: leave the module as it is */
-}
-
-
-/*
 ** Main body, run in protected mode so that errors in the set-up are caught
 ** too.  Receives argc (integer) and argv (light userdata); returns true
 ** (pushes a boolean) when everything ran without error.
@@ -956,8 +933,7 @@ static int pmain (lua_State *L) {
   luaL_openlibs(L);  /* open standard libraries */
   luaL_requiref(L, BL_MODNAME, luaopen_brakelight, 0);  /* LOADED[modname] = module */
   lua_pop(L, 1);  /* remove module; 'require' finds it in LOADED */
-  setluapath(L, argv[0]);
-  helperfields(L);
+  setluapath(L, argv[0]);  /* brakelight.scan, ... come from luaopen_brakelight */
   globalL = L;
   setsignals(laction);
   if (o.merge) {

@@ -5,6 +5,7 @@
 ]]
 
 local bl = require "brakelight"
+local compat = require "brakelight.compat"  -- math.type before 5.3
 
 local function close(a, b, rel)
   return math.abs(a - b) <= rel * math.max(math.abs(a), math.abs(b))
@@ -181,7 +182,7 @@ do
   for i, m in ipairs(ms) do
     assert(type(m.name) == "string" and m.name == m.name:lower())
     assert(type(m.description) == "string" and #m.description > 0)
-    assert(math.type(m.id) == "integer")
+    assert(compat.mtype(m.id) == "integer")
     assert(not byname[m.name], "duplicate model " .. m.name)
     byname[m.name] = m
     assert(#m.references >= 1, m.name .. " has no reference")

@@ -3,6 +3,8 @@
   which test_demo.lua runs) runs through the runner in its small mode
   (BRAKELIGHT_SMALL=1) and writes its files; run twice, the second run
   resumes from the first run's output and gives the same printout.
+  Needs the runner (-q, -j 2).  That the recipes give the same in every
+  stock interpreter is checked by scripts/run-lua-tests.sh --lua.
 ]]
 
 local root = (arg[0]):match("^(.-)tests[/\\]lua[/\\][^/\\]+%.lua$")

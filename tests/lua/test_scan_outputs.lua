@@ -2,6 +2,8 @@
   test_scan_outputs.lua -- issue 5: the JSON writer/reader round-trips
   every double; scan files carry version, settings and units; atomic
   writes; plots through gnuplot, and without it the data and the script.
+  The plot without gnuplot runs in the runner (a changed PATH); the rest in
+  any Lua host.
 ]]
 
 local root = (arg[0]):match("^(.-)tests[/\\]lua[/\\][^/\\]+%.lua$")

@@ -3,6 +3,9 @@
   and completes with every point exactly once; bad axis values and
   unwritable outputs give errors naming them; existing results are never
   overwritten by a failed run; --quiet silences progress.
+  Needs the runner: the scans that are stopped (exit, SIGKILL, SIGINT,
+  error) and resumed run in build/brakelight (its signal handling and -q
+  are tested); the checks of their files run in any Lua host.
 ]]
 
 local root = (arg[0]):match("^(.-)tests[/\\]lua[/\\][^/\\]+%.lua$")

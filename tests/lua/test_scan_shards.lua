@@ -3,6 +3,9 @@
   --shard, by the Slurm job-array variables, by -j) and merged equals the
   unsharded run record for record; merge fails loudly on a missing or a
   duplicated point.  Cheap points: dsigma/dk at k = T/2, rtol 1e-3.
+  Needs the runner: every scan here runs in build/brakelight (its --shard,
+  -j, --merge and Slurm handling are what is tested); the checks run in
+  any Lua host.
 ]]
 
 local root = (arg[0]):match("^(.-)tests[/\\]lua[/\\][^/\\]+%.lua$")

@@ -6,6 +6,7 @@
 ]]
 
 local bl = require "brakelight"
+local compat = require "brakelight.compat"
 
 local root = (arg and arg[0] or ""):match("^(.-)tests[/\\]lua[/\\][^/\\]+%.lua$")
 assert(root, "cannot find the project root from arg[0] = " .. tostring(arg and arg[0]))
@@ -44,16 +45,14 @@ local tmp = os.tmpname()
 local f = assert(io.open(tmp, "w"))
 f:write(script)
 f:close()
-local p = assert(io.popen("lua5.4 " .. quote(tmp) .. " " .. quote(root) .. " 2>&1"))
-local out = p:read("a")
-local ok, how, code = p:close()
+local out, code = compat.capture("lua5.4 " .. quote(tmp) .. " " .. quote(root) .. " 2>&1")
 os.remove(tmp)
-assert(ok, string.format("stock lua5.4 failed (%s %s):\n%s", tostring(how),
-                         tostring(code), out))
+assert(code == 0, string.format("stock lua5.4 failed (exit status %s):\n%s",
+                                tostring(code), out))
 local version, value = out:match("^([^\n]*)\n([^\n]*)\n$")
 assert(version == bl._VERSION, "version from stock lua5.4: " .. out)
-local here = bl.dsdk(load("return { " .. opts .. " }")())
+local here = bl.dsdk(compat.loadstring("return { " .. opts .. " }")())
 assert(tonumber(value) == here, string.format("stock lua5.4 gives %s, the " ..
-       "runner %.17g", tostring(value), here))
+       "this interpreter %.17g", tostring(value), here))
 
 print("test_stock_lua: ok")

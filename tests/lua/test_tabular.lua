@@ -66,7 +66,7 @@ do
                                     { "first comment", "two\nlines" })
   assert(ok, err)
   local f = assert(io.open(path))
-  local text = f:read("a")
+  local text = f:read("*a")
   f:close()
   os.remove(path)
   local lines = {}

@@ -10,13 +10,15 @@ U.root = (arg and arg[0] or ""):match("^(.-)tests[/\\]lua[/\\][^/\\]+%.lua$")
 assert(U.root, "cannot find the project root from arg[0]")
 if U.root == "" then U.root = "./" end
 U.runner = U.root .. "build/brakelight"
+package.path = U.root .. "lua/?.lua;" .. package.path
+local compat = require "brakelight.compat"
 
 function U.q(s) return "'" .. tostring(s):gsub("'", "'\\''") .. "'" end
 
 --[[ A fresh temporary directory. ]]
 function U.tmpdir()
   local p = io.popen("mktemp -d")
-  local d = p:read("l")
+  local d = p:read("*l")
   p:close()
   return d
 end
@@ -26,11 +28,9 @@ function U.rmdir(d) os.execute("rm -rf " .. U.q(d)) end
 --[[ Run a shell command; returns exit code, stdout, stderr. ]]
 function U.sh(cmd)
   local errf = os.tmpname()
-  local p = io.popen(cmd .. " 2>" .. U.q(errf))
-  local out = p:read("a")
-  local _, _, code = p:close()
+  local out, code = compat.capture(cmd .. " 2>" .. U.q(errf))
   local f = io.open(errf)
-  local err = f:read("a")
+  local err = f:read("*a")
   f:close()
   os.remove(errf)
   return code, out, err
@@ -51,7 +51,7 @@ end
 function U.read(path)
   local f = io.open(path, "rb")
   if not f then return nil end
-  local t = f:read("a")
+  local t = f:read("*a")
   f:close()
   return t
 end
