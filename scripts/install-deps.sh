@@ -12,9 +12,10 @@
 set -euo pipefail
 
 # clang and its libFuzzer runtime (libclang-rt-dev): make fuzz-smoke;
-# valgrind: make valgrind (both part of make check)
+# valgrind: make valgrind; pkgconf (pkg-config; Debian 12's pkg-config is a
+# transitional package for it): make test-install (all part of make check)
 pkgs=(liblua5.4-dev lua5.4 libgsl-dev libcriterion-dev libxrl-dev clang
-      libclang-rt-dev valgrind)
+      libclang-rt-dev valgrind pkgconf)
 
 for opt in "$@"; do
   case "$opt" in
