@@ -62,8 +62,8 @@ cmp -s "$scratch/dynsym" "$scratch/globals" \
   || fail "$so exports other symbols than the archive's globals:
 $(diff "$scratch/globals" "$scratch/dynsym")"
 # every function and object declared in the public headers is exported
-{ grep -ho '\bbl_[a-z0-9_]* *(' include/brakelight/bl_*.h | tr -d ' ('
-  sed -n 's/^extern .*\b\(bl_[a-z0-9_]*\)\(\[\]\)\{0,1\};.*/\1/p' \
+{ grep -ho '\bbl_[A-Za-z0-9_]* *(' include/brakelight/bl_*.h | tr -d ' ('
+  sed -n 's/^extern .*\b\(bl_[A-Za-z0-9_]*\)\(\[\]\)\{0,1\};.*/\1/p' \
     include/brakelight/bl_*.h; } | sort -u >"$scratch/api"
 missing=$(comm -23 "$scratch/api" "$scratch/dynsym")
 [ -z "$missing" ] || fail "$so does not export: $(echo $missing)"
