@@ -76,6 +76,38 @@ $(LIB): $(CORE_OBJ)
 	rm -f $@
 	ar rcs $@ $^
 
+# The version, defined once in include/brakelight/bl_version.h (sed on its
+# lines "#define BL_VERSION_MAJOR 0" ... "#define BL_VERSION "0.1.0"").
+VERSION_H := include/brakelight/bl_version.h
+blversion  = $(shell sed -n 's/^.define BL_VERSION$(1)  *\(.*\)/\1/p' $(VERSION_H))
+VERSION   := $(patsubst "%",%,$(call blversion,))
+V_MAJOR   := $(call blversion,_MAJOR)
+V_MINOR   := $(call blversion,_MINOR)
+V_PATCH   := $(call blversion,_PATCH)
+ifneq ($(VERSION),$(V_MAJOR).$(V_MINOR).$(V_PATCH))
+$(error $(VERSION_H): BL_VERSION "$(VERSION)" is not BL_VERSION_MAJOR.MINOR.PATCH = $(V_MAJOR).$(V_MINOR).$(V_PATCH))
+endif
+
+# The shared library, from the same (-fPIC) objects: real name
+# libbrakelight.so.MAJOR.MINOR.PATCH, soname libbrakelight.so.MAJOR (what a
+# program records), and libbrakelight.so for -lbrakelight.  It links its own
+# dependencies (--no-undefined checks that none is missing), so ldd shows them.
+SONAME = libbrakelight.so.$(V_MAJOR)
+SHLIB  = $(B)/libbrakelight.so.$(VERSION)
+
+all: $(SHLIB) $(B)/$(SONAME) $(B)/libbrakelight.so
+
+# (bl_version.h names it: a new version relinks it and remakes the symlinks)
+$(SHLIB): $(CORE_OBJ) $(VERSION_H)
+	$(CC) -shared -Wl,-soname,$(SONAME) -Wl,--no-undefined -o $@ $(CORE_OBJ) \
+	  $(LIBS)
+
+$(B)/$(SONAME): $(SHLIB)
+	ln -sf $(<F) $@
+
+$(B)/libbrakelight.so: $(B)/$(SONAME)
+	ln -sf $(<F) $@
+
 # ---- the Lua module --------------------------------------------------------
 $(B)/binding/%.o: src/binding/%.c
 	@mkdir -p $(@D)
@@ -315,35 +347,74 @@ test-tsan: tsan-build
 	TSAN_OPTIONS="halt_on_error=1 $(TSAN_OPTIONS)" ./$(TSAN_DIR)/tsan_spectra
 
 # ---- install -----------------------------------------------------------------
-# make install PREFIX=... [DESTDIR=...]: library, headers, Lua module, Lua
-# helpers and recipes, runner, man page
+# make install PREFIX=... [DESTDIR=...]: static and shared library,
+# pkg-config file (written with the real PREFIX, never DESTDIR), headers, Lua
+# module, Lua helpers and recipes, runner, man page.  make uninstall (same
+# PREFIX and DESTDIR) removes exactly these, then the directories that are
+# left empty (never PREFIX itself).  Without DESTDIR, install ends with
+# $(LDCONFIG) (refreshes the loader's cache; fails quietly when not root).
 .PHONY: install uninstall
 PREFIX  ?= /usr/local
 LUAVER   = 5.4
+LDCONFIG ?= ldconfig
 BINDIR   = $(DESTDIR)$(PREFIX)/bin
 LIBDIR   = $(DESTDIR)$(PREFIX)/lib
+PCDIR    = $(LIBDIR)/pkgconfig
 INCDIR   = $(DESTDIR)$(PREFIX)/include
 CMODDIR  = $(DESTDIR)$(PREFIX)/lib/lua/$(LUAVER)
 LMODDIR  = $(DESTDIR)$(PREFIX)/share/lua/$(LUAVER)
 SHAREDIR = $(DESTDIR)$(PREFIX)/share/brakelight
 MANDIR   = $(DESTDIR)$(PREFIX)/share/man/man1
+# every directory install may create, deepest first (uninstall removes the
+# empty ones)
+INSTDIRS = $(MANDIR) $(DESTDIR)$(PREFIX)/share/man $(SHAREDIR)/lua/recipes \
+           $(SHAREDIR)/lua $(SHAREDIR) $(LMODDIR)/brakelight $(LMODDIR) \
+           $(DESTDIR)$(PREFIX)/share/lua $(DESTDIR)$(PREFIX)/share $(CMODDIR) \
+           $(DESTDIR)$(PREFIX)/lib/lua $(PCDIR) $(LIBDIR) \
+           $(INCDIR)/brakelight $(INCDIR) $(BINDIR)
 
-install: all
-	install -d $(BINDIR) $(LIBDIR) $(INCDIR)/brakelight $(CMODDIR) \
+install: all $(B)/brakelight.1
+	install -d $(BINDIR) $(LIBDIR) $(PCDIR) $(INCDIR)/brakelight $(CMODDIR) \
 	  $(LMODDIR)/brakelight $(SHAREDIR)/lua/recipes $(MANDIR)
 	install -m 755 $(RUNNER) $(BINDIR)/brakelight
 	install -m 644 $(LIB) $(LIBDIR)/libbrakelight.a
+	install -m 755 $(SHLIB) $(LIBDIR)/$(notdir $(SHLIB))
+	ln -sf $(notdir $(SHLIB)) $(LIBDIR)/$(SONAME)
+	ln -sf $(SONAME) $(LIBDIR)/libbrakelight.so
+	sed -e 's|@PREFIX@|$(PREFIX)|g' -e 's|@VERSION@|$(VERSION)|g' \
+	  scripts/brakelight.pc.in > $(B)/brakelight.pc
+	install -m 644 $(B)/brakelight.pc $(PCDIR)/brakelight.pc
 	install -m 644 include/brakelight.h $(INCDIR)/
 	install -m 644 include/brakelight/*.h $(INCDIR)/brakelight/
 	install -m 755 $(MODULE) $(CMODDIR)/brakelight.so
 	install -m 644 lua/brakelight/*.lua $(LMODDIR)/brakelight/
 	install -m 644 lua/recipes/*.lua $(SHAREDIR)/lua/recipes/
-	install -m 644 scripts/brakelight.1 $(MANDIR)/brakelight.1
+	install -m 644 $(B)/brakelight.1 $(MANDIR)/brakelight.1
+	@if [ -z "$(DESTDIR)" ]; then $(LDCONFIG) >/dev/null 2>&1 || true; fi
 
 uninstall:
-	rm -f $(BINDIR)/brakelight $(LIBDIR)/libbrakelight.a $(CMODDIR)/brakelight.so \
-	  $(MANDIR)/brakelight.1 $(INCDIR)/brakelight.h
+	rm -f $(BINDIR)/brakelight $(LIBDIR)/libbrakelight.a \
+	  $(LIBDIR)/libbrakelight.so $(LIBDIR)/$(SONAME) $(LIBDIR)/$(notdir $(SHLIB)) \
+	  $(PCDIR)/brakelight.pc $(CMODDIR)/brakelight.so $(MANDIR)/brakelight.1 \
+	  $(INCDIR)/brakelight.h
 	rm -rf $(INCDIR)/brakelight $(LMODDIR)/brakelight $(SHAREDIR)
+	@for d in $(INSTDIRS); do \
+	  if [ -d "$$d" ]; then rmdir --ignore-fail-on-non-empty "$$d"; fi; done
+
+# ---- versioned files ---------------------------------------------------------
+# The man page and the rockspec carry the version of bl_version.h: made from
+# their templates scripts/*.in (@VERSION@), by `make`.
+ROCKSPEC = $(B)/brakelight-$(VERSION)-1.rockspec
+
+all: $(B)/brakelight.1 $(ROCKSPEC)
+
+$(B)/brakelight.1: scripts/brakelight.1.in $(VERSION_H)
+	@mkdir -p $(@D)
+	sed 's|@VERSION@|$(VERSION)|g' $< > $@
+
+$(ROCKSPEC): scripts/brakelight.rockspec.in $(VERSION_H)
+	@mkdir -p $(@D)
+	sed 's|@VERSION@|$(VERSION)|g' $< > $@
 
 # ---- benchmarks and generators ---------------------------------------------
 .PHONY: bench hf-table

@@ -14,8 +14,9 @@
 ** element's estimate (.fail).  A non-convergence status (bl_status_soft)
 ** means the result is the best estimate, with BL_WARN_TOLERANCE set.
 **
-** Ownership: the caller owns the bl_target (stack or heap; it is large,
-** about 0.5 MB with BL_MATERIAL_MAXCOMP elements), fills it with
+** Ownership: the caller owns each bl_target, on the stack or the heap
+** (it is large: about 0.5 MB with BL_MATERIAL_MAXCOMP elements), fills it
+** with
 ** bl_target_setup and bl_target_prepare and gives back the references it
 ** holds with bl_target_release.  Thread safety: a prepared target is read
 ** only; several threads may compute with one target at once, each with its
