@@ -18,7 +18,7 @@
 ** handler off when, and only when, GSL's default is in place: a handler
 ** of the application's own is put back untouched.  luaopen_brakelight and
 ** the runner switch it off themselves; this covers a program that links
-** libbrakelight.a and does not (tests/test_gsl_errors.c).
+** libbrakelight.a and does not (tests/test_base.c, suite gsl_errors).
 */
 static pthread_once_t gsl_once = PTHREAD_ONCE_INIT;
 

@@ -11,7 +11,7 @@
 ** Why: a mixture has no molecule, and any other choice would depend on how
 ** it was written; with one average atom, the same brass given by mass
 ** fractions or by atom fractions is the same material to the last digits
-** (tests/test_material.c), and per-gram results (per_gram factor,
+** (tests/test_materials.c), and per-gram results (per_gram factor,
 ** N_A / molar_mass) never depend on the choice anyway.
 */
 

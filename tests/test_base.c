@@ -1,10 +1,13 @@
 /*
-** test_particle.c -- projectile presets, particle checks, constants, elements
+** test_base.c -- the base room: projectiles, constants, elements and status
+** codes; GSL failures never abort; the points found by the sweep and the
+** fuzzer, and pointer arguments that are NULL
 ** See Copyright Notice in LICENSE
 **
-** Published values are quoted from memory (marked so); their tolerances
-** cover the last quoted digits and small revisions between editions.
+** Suites: particle, gsl_errors (GSL's default handler on: no init),
+** health.
 */
+
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -15,6 +18,14 @@
 
 #include "brakelight.h"
 #include "testutil.h"
+
+/* ==================================================================
+** projectile presets, particle checks, constants, elements
+**
+** Published values are quoted from memory (marked so); their tolerances
+** cover the last quoted digits and small revisions between editions.
+** (formerly tests/test_particle.c)
+*/
 
 TestSuite(particle, .init = setup);
 
@@ -218,4 +229,154 @@ Test(particle, status_codes) {
               gsl_strerror(gsl[i]));
   }
   cr_expect(bl_strerror(123456) != NULL, "unknown code gives NULL");
+}
+
+
+/* ==================================================================
+** no GSL failure aborts, none passes silently
+**
+** Internal consistency, no outside source.  These suites do NOT switch
+** GSL's handler off in their init (unlike the others): they start from
+** GSL's default handler, which prints and aborts, as a program that links
+** libbrakelight.a without calling gsl_set_error_handler_off() would.
+** Criterion runs each test in its own process, so an abort would show as a
+** crash.  An integral forced to fail (2 panels per level for a 1e-12
+** tolerance) must come back with a non-convergence status, a finite
+** estimate and the tolerance warning; a handler of the application's own
+** must be kept and called.
+** (formerly tests/test_gsl_errors.c)
+*/
+
+TestSuite(gsl_errors);
+
+/* A case and a starved workspace (limit 8, rtol 1e-12). */
+static bl_quad *starved (bl_case *c) {
+  bl_quad *q;
+  cr_assert(bl_case_setup(c, bl_particle_find("electron"), 82,
+                          bl_model_find("hartree-fock"), NULL, 10.0,
+                          &bl_opts_default) == BL_SUCCESS);
+  q = bl_quad_alloc(8);
+  cr_assert(q != NULL);
+  cr_assert(bl_quad_set_rtol(q, 1e-12) == BL_SUCCESS);
+  return q;
+}
+
+/* The failure is reported, never aborted, never silent. */
+static void expect_reported (int st, const bl_result *r) {
+  cr_expect(st != BL_SUCCESS, "a starved integral claims success");
+  cr_expect(st == GSL_EMAXITER || st == GSL_EROUND || st == GSL_ESING
+            || st == BL_ENOTCONV, "unexpected status %d (%s)", st,
+            bl_strerror(st));
+  cr_expect(isfinite(r->val) && r->val > 0.0 && isfinite(r->err),
+            "no usable estimate: %g +- %g", r->val, r->err);
+  cr_expect(r->warn & BL_WARN_TOLERANCE, "tolerance warning missing");
+}
+
+/* GSL's default handler in place: the first bl_quad_alloc replaces it. */
+Test(gsl_errors, default_handler_does_not_abort) {
+  bl_case c;
+  bl_quad *q;
+  bl_result r;
+  gsl_set_error_handler(NULL);   /* GSL's default: abort */
+  q = starved(&c);
+  expect_reported(bl_dcs_dk_e(&c, 3.0, q, &r), &r);
+  expect_reported(bl_dcs_angular_e(&c, 3.0, 0.0, q, &r), &r);
+  bl_quad_free(q);
+}
+
+static int calls;
+
+static void counting_handler (const char *reason, const char *file, int line,
+                              int gsl_errno) {
+  (void)reason; (void)file; (void)line; (void)gsl_errno;
+  calls++;
+}
+
+/* An application's own handler stays and sees the failures. */
+Test(gsl_errors, own_handler_kept) {
+  bl_case c;
+  bl_quad *q;
+  bl_result r;
+  gsl_set_error_handler(counting_handler);
+  q = starved(&c);
+  expect_reported(bl_dcs_dk_e(&c, 3.0, q, &r), &r);
+  cr_expect(calls > 0, "the application's handler was replaced");
+  cr_expect(gsl_set_error_handler(NULL) == counting_handler);
+  bl_quad_free(q);
+}
+
+
+/* ==================================================================
+** points found by the parameter sweep (scripts/sweep.lua)
+**
+** Internal consistency, no outside source: a cross section is never
+** negative, and a result whose error exceeds rtol |value| carries the
+** tolerance warning.  The points are from `make sweep-smoke` (seed 6),
+** before the fixes in src/core/born/dcs.c (phi_at, tolcheck); the T/m limit and
+** the normalisation check of bl_case_setup were found by the fuzzer.
+** (formerly tests/test_health.c)
+*/
+
+TestSuite(health, .init = setup);
+
+/* Set up a custom projectile on Z with model `model` and options o. */
+static void mkcase (bl_case *c, double mass, double charge, double spin,
+                    int Z, const char *model, double T, const bl_opts *o) {
+  bl_particle p = {"sweep", mass, charge, spin, 0};
+  int st = bl_case_setup(c, &p, Z, bl_model_find(model), NULL, T, o);
+  cr_assert(st == BL_SUCCESS, "bl_case_setup: %s", bl_strerror(st));
+}
+
+static bl_quad *mkquad (double rtol) {
+  bl_quad *q = bl_quad_alloc(1000);
+  cr_assert(q != NULL && bl_quad_set_rtol(q, rtol) == BL_SUCCESS);
+  return q;
+}
+
+/* Sweep point 1592: a heavy spin-0 projectile near the tip on a uniform
+** nucleus without electrons, where the poles cancel to rounding; the sum
+** of the noise came out as -4.4e-60 +- 2.2e-59 mb/MeV. */
+Test(health, never_negative_near_the_tip) {
+  bl_opts o = {0, BL_NUCLEUS_UNIFORM, 0.0, BL_APPLY_OFF, BL_APPLY_ON};
+  bl_case c;
+  bl_result r;
+  bl_quad *q = mkquad(1e-3);
+  int st;
+  mkcase(&c, 96837.098348704749, 1, 0, 59, "none", 1253191.8850314913, &o);
+  st = bl_dcs_dk_e(&c, 1253139.977011384, q, &r);
+  cr_expect(r.val >= 0.0 && isfinite(r.err), "dsdk = %g +- %g (status %d)",
+            r.val, r.err, st);
+  bl_quad_free(q);
+}
+
+/* Sweep point 600: every integral converged, yet the error (inner errors
+** included) was 1.02 rtol |value| without a warning. */
+Test(health, error_above_rtol_is_flagged) {
+  bl_opts o = {1, BL_NUCLEUS_POINT, 0.0, BL_APPLY_OFF, BL_APPLY_AUTO};
+  bl_case c;
+  bl_result r;
+  bl_quad *q = mkquad(1e-4);
+  mkcase(&c, 0.56587557282744128, 1, 0.5, 31, "thomas-fermi",
+         28847331.742228892, &o);
+  bl_dcs_dk_e(&c, 28847062.689308908, q, &r);
+  cr_expect(r.err <= 1e-4 * r.val || (r.warn & BL_WARN_TOLERANCE),
+            "err %g > rtol * val = %g without the tolerance warning", r.err,
+            1e-4 * r.val);
+  bl_quad_free(q);
+}
+
+/* Found by the fuzzer: a particle of 4.6e-246 MeV gave NaN; now T/m and
+** the normalisation are checked up front. */
+Test(health, absurd_particles_refused) {
+  bl_particle tiny = {"tiny", 4.6e-246, 2.3e-52, 0.0, 0};
+  bl_particle e = *bl_particle_find("electron");
+  bl_case c;
+  const bl_model *m = bl_model_find("hartree-fock");
+  cr_expect(bl_case_setup(&c, &tiny, 1, m, NULL, 0.01, NULL) == BL_EDOMAIN);
+  cr_expect(bl_case_setup(&c, &e, 1, m, NULL, 1.01 * BL_T0_MAX * e.mass,
+                          NULL) == BL_EDOMAIN);
+  cr_expect(bl_case_setup(&c, &e, 1, m, NULL, 0.99 * BL_T0_MAX * e.mass,
+                          NULL) == BL_SUCCESS);
+  e.charge = 1e90;   /* z^4 overflows */
+  cr_expect(bl_case_setup(&c, &e, 1, m, NULL, 10.0, NULL) == BL_EDOMAIN);
 }
