@@ -8,6 +8,7 @@
 
 #include <math.h>
 #include <pthread.h>
+#include <stdlib.h>
 #include <string.h>
 
 #include <criterion/criterion.h>
@@ -199,6 +200,82 @@ Test(target, k_integrals_exact) {
                BL_EDOMAIN, "moment 0 from k = 0 diverges: refused");
   cr_expect_eq(bl_kintegral_e(polyf, &T, 1.0, 8.0, T, NULL, 0, 0, 1e-6, &r0),
                BL_EDOMAIN);
+}
+
+
+/*
+** A noisy integrand: 1/k times 1 + 1e-3 noise(k), the noise a hash of the
+** bits of k, so |K15 - G7| never falls below rtol 1e-12 and every piece
+** bisects until its LIMIT (200) segments, about 6000 points per piece.
+** Records every k it is called with.
+*/
+typedef struct noisy {
+  double T;
+  size_t n, cap;
+  double *k;
+} noisy;
+
+static int noisyf (void *ud, double k, bl_result *out) {
+  noisy *z = ud;
+  unsigned long long b;
+  memcpy(&b, &k, sizeof b);
+  b ^= b >> 31;
+  b *= 0xBF58476D1CE4E5B9ull;
+  b ^= b >> 27;
+  if (z->n == z->cap) {
+    z->cap = z->cap ? 2 * z->cap : 1024;
+    z->k = realloc(z->k, z->cap * sizeof *z->k);
+    cr_assert(z->k != NULL);
+  }
+  z->k[z->n++] = k;
+  out->val = (1.0 + 1e-3 * ((double)(b >> 11) / 9007199254740992.0 - 0.5))
+             / k;
+  out->err = 0.0;
+  out->warn = out->applied = 0;
+  out->method = BL_METHOD_BORN;
+  return BL_SUCCESS;
+}
+
+static int cmpd (const void *a, const void *b) {
+  double x = *(const double *)a, y = *(const double *)b;
+  return (x > y) - (x < y);
+}
+
+/* Distinct values among z's recorded k (sorts them). */
+static size_t distinct (noisy *z) {
+  size_t i, n = z->n > 0;
+  qsort(z->k, z->n, sizeof *z->k, cmpd);
+  for (i = 1; i < z->n; i++)
+    n += z->k[i] != z->k[i - 1];
+  return n;
+}
+
+/*
+** Internal consistency: an integral that needs more points than the
+** memo of src/core/target/integral.c used to hold (8192) ends (it looped
+** forever), with the tolerance warning and a finite estimate, and each
+** of its points is computed once.  Both moments together need more
+** points (16620) than the memo holds at its largest (16384): they still
+** end, the rest computed without being remembered.
+*/
+Test(target, k_integral_many_points, .timeout = 60) {
+  noisy z = {10.0, 0, 0, NULL};
+  bl_result r0, r1;
+  size_t nd;
+  cr_assert_eq(bl_kintegral_e(noisyf, &z, 1e-3, z.T, z.T, NULL, 0, 0, 1e-12,
+                              &r0), BL_ENOTCONV);
+  cr_expect(isfinite(r0.val) && (r0.warn & BL_WARN_TOLERANCE));
+  cr_expect(fabs(r0.val / (log(z.T / 1e-3)) - 1) < 1e-3, "%.17g", r0.val);
+  nd = distinct(&z);
+  cr_expect(nd > 8192, "%zu distinct points", nd);
+  cr_expect_eq(z.n, nd, "%zu calls for %zu points", z.n, nd);
+  z.n = 0;
+  cr_assert_eq(bl_kintegral2_e(noisyf, &z, 1e-3, z.T, z.T, NULL, 0, 1e-12,
+                               &r0, &r1), BL_ENOTCONV);
+  cr_expect(isfinite(r0.val) && isfinite(r1.val));
+  cr_expect(z.n > 16384, "%zu calls: the memo filled up", z.n);
+  cr_expect(fabs(r1.val / (z.T - 1e-3) - 1) < 1e-3, "%.17g", r1.val);
+  free(z.k);
 }
 
 
