@@ -380,3 +380,166 @@ Test(health, absurd_particles_refused) {
   e.charge = 1e90;   /* z^4 overflows */
   cr_expect(bl_case_setup(&c, &e, 1, m, NULL, 10.0, NULL) == BL_EDOMAIN);
 }
+
+
+/*
+** Internal consistency: every public function of include/brakelight/ that
+** takes a pointer, given NULL in each pointer argument that may not be NULL
+** (one at a time, the others valid), returns BL_EDOMAIN (functions with a
+** status) or its documented "none" value (0, -1, NULL, no change): never a
+** crash.  Pointers documented as optional (options, params, err, bad,
+** status, kbreak with nbreak = 0, user data) are not tried here.
+*/
+static void nullsetup (bl_case *c, bl_quad **q) {
+  mkcase(c, BL_ME_MEV, -1.0, 0.5, 29, "thomas-fermi", 1e5,
+         &bl_opts_default);
+  *q = mkquad(1e-3);
+}
+
+Test(health, null_cases_and_cross_sections) {
+  const bl_particle *e = bl_particle_find("electron");
+  const bl_model *m = bl_model_find("exponential");
+  bl_case c;
+  bl_quad *q;
+  bl_result r;
+  nullsetup(&c, &q);
+  cr_expect_eq(bl_case_init(NULL, e, 29, m, NULL, 10.0), BL_EDOMAIN);
+  cr_expect_eq(bl_case_init(&c, NULL, 29, m, NULL, 10.0), BL_EDOMAIN);
+  cr_expect_eq(bl_case_init(&c, e, 29, NULL, NULL, 10.0), BL_EDOMAIN);
+  cr_expect_eq(bl_case_setup(NULL, e, 29, m, NULL, 10.0, NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_case_setup(&c, NULL, 29, m, NULL, 10.0, NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_case_setup(&c, e, 29, NULL, NULL, 10.0, NULL), BL_EDOMAIN);
+  nullsetup(&c, &q);
+  cr_expect_eq(bl_dcs_full_e(NULL, 1.0, 0.1, 0.1, 0.0, &r), BL_EDOMAIN);
+  cr_expect_eq(bl_dcs_full_e(&c, 1.0, 0.1, 0.1, 0.0, NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_dcs_angular_e(NULL, 1.0, 1e-5, q, &r), BL_EDOMAIN);
+  cr_expect_eq(bl_dcs_angular_e(&c, 1.0, 1e-5, NULL, &r), BL_EDOMAIN);
+  cr_expect_eq(bl_dcs_angular_e(&c, 1.0, 1e-5, q, NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_dcs_dk_e(NULL, 1.0, q, &r), BL_EDOMAIN);
+  cr_expect_eq(bl_dcs_dk_e(&c, 1.0, NULL, &r), BL_EDOMAIN);
+  cr_expect_eq(bl_dcs_dk_e(&c, 1.0, q, NULL), BL_EDOMAIN);
+  bl_quad_free(q);
+}
+
+Test(health, null_methods) {
+  bl_case c;
+  bl_quad *q;
+  bl_he h;
+  bl_result r;
+  double kb[4], jump[4];
+  int meth;
+  nullsetup(&c, &q);
+  cr_expect_eq(bl_he_prepare(NULL, q, &h), BL_EDOMAIN);
+  cr_expect_eq(bl_he_prepare(&c, q, NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_method_prepare(NULL, BL_METHOD_AUTO, q, &h), BL_EDOMAIN);
+  cr_expect_eq(bl_method_prepare(&c, BL_METHOD_AUTO, q, NULL), BL_EDOMAIN);
+  cr_assert_eq(bl_he_prepare(&c, q, &h), BL_SUCCESS);
+  cr_expect_eq(bl_he_dk_e(NULL, &h, 1.0, &r), BL_EDOMAIN);
+  cr_expect_eq(bl_he_dk_e(&c, NULL, 1.0, &r), BL_EDOMAIN);
+  cr_expect_eq(bl_he_dk_e(&c, &h, 1.0, NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_complete_dk_e(NULL, 1.0, &r), BL_EDOMAIN);
+  cr_expect_eq(bl_complete_dk_e(&c, 1.0, NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_he_valid(NULL, 1.0), 0);
+  for (meth = 0; meth < BL_METHOD_COUNT; meth++) {
+    cr_expect_eq(bl_method_dk_e(NULL, NULL, meth, 1.0, q, &r), BL_EDOMAIN,
+                 "method %d", meth);
+    cr_expect_eq(bl_method_dk_e(NULL, &h, meth, 1.0, q, &r), BL_EDOMAIN,
+                 "method %d", meth);
+    cr_expect_eq(bl_method_dk_e(&c, &h, meth, 1.0, q, NULL), BL_EDOMAIN,
+                 "method %d", meth);
+    cr_expect_eq(bl_method_breaks(NULL, &h, meth, kb, jump, 4), 0);
+    cr_expect_eq(bl_method_breaks(&c, &h, meth, NULL, jump, 4), 0);
+    cr_expect_eq(bl_method_breaks(&c, &h, meth, kb, NULL, 4), 0);
+  }
+  cr_expect_eq(bl_method_dk_e(&c, NULL, BL_METHOD_HIGH_ENERGY, 1.0, q, &r),
+               BL_EDOMAIN);
+  cr_expect_eq(bl_method_find(NULL), -1);
+  bl_quad_free(q);
+}
+
+static int onef (void *ud, double k, bl_result *out) {
+  (void)ud;
+  out->val = 1.0 / k;
+  out->err = 0.0;
+  out->warn = out->applied = 0;
+  out->method = BL_METHOD_BORN;
+  return BL_SUCCESS;
+}
+
+Test(health, null_integrals_and_spectra) {
+  bl_case c;
+  bl_quad *q;
+  bl_he h;
+  bl_result r, r1, rs[2];
+  double k[2] = {1.0, 2.0};
+  int st[2];
+  nullsetup(&c, &q);
+  cr_expect_eq(bl_kintegral_e(NULL, NULL, 1.0, 2.0, 3.0, NULL, 0, 0, 1e-3, &r),
+               BL_EDOMAIN);
+  cr_expect_eq(bl_kintegral_e(onef, NULL, 1.0, 2.0, 3.0, NULL, 0, 0, 1e-3,
+                              NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_kintegral_e(onef, NULL, 1.0, 2.0, 3.0, NULL, 1, 0, 1e-3,
+                              &r), BL_EDOMAIN, "breakpoints NULL");
+  cr_expect_eq(bl_kintegral2_e(NULL, NULL, 1.0, 2.0, 3.0, NULL, 0, 1e-3, &r,
+                               &r1), BL_EDOMAIN);
+  cr_expect_eq(bl_kintegral2_e(onef, NULL, 1.0, 2.0, 3.0, NULL, 0, 1e-3, NULL,
+                               &r1), BL_EDOMAIN);
+  cr_expect_eq(bl_spectrum_dk_e(NULL, 2, k, 1, q, rs, st), BL_EDOMAIN);
+  cr_expect_eq(bl_spectrum_dk_e(&c, 2, NULL, 1, q, rs, st), BL_EDOMAIN);
+  cr_expect_eq(bl_spectrum_dk_e(&c, 2, k, 1, NULL, rs, st), BL_EDOMAIN);
+  cr_expect_eq(bl_spectrum_dk_e(&c, 2, k, 1, q, NULL, st), BL_EDOMAIN);
+  cr_assert_eq(bl_he_prepare(&c, q, &h), BL_SUCCESS);
+  cr_expect_eq(bl_spectrum_method_e(NULL, &h, BL_METHOD_AUTO, 2, k, 1, q, rs,
+                                    st), BL_EDOMAIN);
+  cr_expect_eq(bl_spectrum_method_e(&c, &h, BL_METHOD_AUTO, 2, NULL, 1, q, rs,
+                                    st), BL_EDOMAIN);
+  cr_expect_eq(bl_spectrum_method_e(&c, &h, BL_METHOD_AUTO, 2, k, 1, NULL,
+                                    rs, st), BL_EDOMAIN);
+  cr_expect_eq(bl_spectrum_method_e(&c, &h, BL_METHOD_AUTO, 2, k, 1, q, NULL,
+                                    st), BL_EDOMAIN);
+  bl_quad_free(q);
+}
+
+Test(health, null_materials_models_and_workspaces) {
+  bl_material m, parts[2];
+  bl_suppress s;
+  const char *names[4];
+  double w[2] = {0.5, 0.5}, p[8];
+  const bl_particle *e = bl_particle_find("electron");
+  cr_assert_eq(bl_material_element(&parts[0], 6), BL_SUCCESS);
+  cr_assert_eq(bl_material_element(&parts[1], 8), BL_SUCCESS);
+  cr_expect_eq(bl_material_element(NULL, 6), BL_EDOMAIN);
+  cr_expect_eq(bl_material_formula(NULL, "H2O", NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_material_formula(&m, NULL, NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_material_mixture(NULL, 2, parts, w, 1, 0, NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_material_mixture(&m, 2, NULL, w, 1, 0, NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_material_mixture(&m, 2, parts, NULL, 1, 0, NULL),
+               BL_EDOMAIN);
+  cr_expect_eq(bl_material_standard(NULL, "Air, Dry (near sea level)"),
+               BL_EDOMAIN);
+  cr_expect_eq(bl_material_standard(&m, NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_material_lookup(NULL, "Pb", NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_material_lookup(&m, NULL, NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_material_suggest(NULL, names, 4), 0);
+  cr_expect_eq(bl_material_suggest("water", NULL, 4), 0);
+  cr_expect_eq(bl_radiation_length(NULL), 0.0);
+  cr_expect_eq(bl_element_find(NULL), 0);
+  cr_expect_eq(bl_element_lookup(NULL), 0);
+  cr_expect_eq(bl_suppress_init(NULL, BL_SUPPRESS_LPM, &parts[0], e),
+               BL_EDOMAIN);
+  cr_expect_eq(bl_suppress_init(&s, BL_SUPPRESS_LPM, NULL, e), BL_EDOMAIN);
+  cr_expect_eq(bl_suppress_init(&s, BL_SUPPRESS_LPM, &parts[0], NULL),
+               BL_EDOMAIN);
+  cr_expect_eq(bl_suppress_factor(NULL, 1e3, 1.0), 1.0);
+  cr_expect_eq(bl_suppress_find(NULL), -1);
+  cr_expect(bl_model_find(NULL) == NULL);
+  bl_model_defaults(NULL, p);
+  bl_model_defaults(bl_model_find("exponential"), NULL);
+  cr_expect(bl_particle_find(NULL) == NULL);
+  cr_expect_eq(bl_particle_check(NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_quad_set_rtol(NULL, 1e-3), BL_EDOMAIN);
+  cr_expect_eq(bl_quad_calls(NULL), 0ul);
+  bl_quad_reset_calls(NULL);
+  bl_quad_free(NULL);
+  cr_expect(bl_quad_rtol(NULL) == 0.0);
+}

@@ -63,7 +63,7 @@ void bl_quad_free (bl_quad *q) {
 
 
 int bl_quad_set_rtol (bl_quad *q, double rtol) {
-  if (!(rtol >= 1e-12 && rtol <= 0.5))
+  if (q == NULL || !(rtol >= 1e-12 && rtol <= 0.5))
     return BL_EDOMAIN;
   q->rtol = rtol;
   return BL_SUCCESS;
@@ -71,15 +71,16 @@ int bl_quad_set_rtol (bl_quad *q, double rtol) {
 
 
 double bl_quad_rtol (const bl_quad *q) {
-  return q->rtol;
+  return q != NULL ? q->rtol : 0.0;
 }
 
 
 unsigned long bl_quad_calls (const bl_quad *q) {
-  return q->calls;
+  return q != NULL ? q->calls : 0;
 }
 
 
 void bl_quad_reset_calls (bl_quad *q) {
-  q->calls = 0;
+  if (q != NULL)
+    q->calls = 0;
 }

@@ -73,6 +73,8 @@ int bl_mat_fill (bl_material *m, const double atoms[BL_ZMAX + 1],
 int bl_material_element (bl_material *m, int Z) {
   double atoms[BL_ZMAX + 1] = {0};
   double rho;
+  if (m == NULL)
+    return BL_EDOMAIN;
   if (Z < 1 || Z > BL_ZMAX) {
     memset(m, 0, sizeof *m);
     return BL_EDOMAIN;
@@ -100,6 +102,8 @@ int bl_material_mixture (bl_material *m, int n, const bl_material *parts,
   if (bad == NULL)
     bad = &dummy;
   *bad = -1;
+  if (m == NULL)
+    return BL_EDOMAIN;
   memset(m, 0, sizeof *m);
   if (n < 1 || parts == NULL || fractions == NULL)
     return BL_EDOMAIN;

@@ -85,8 +85,12 @@ int bl_material_standard (bl_material *m, const char *name) {
   xrl_error *e = NULL;
   double total = 0, rho;
   int i, idx, st = BL_SUCCESS;
+  if (m == NULL)
+    return BL_EDOMAIN;
   memset(m, 0, sizeof *m);
-  if (name == NULL || (idx = findstd(name)) < 0)
+  if (name == NULL)
+    return BL_EDOMAIN;
+  if ((idx = findstd(name)) < 0)
     return BL_EUNKNOWN;
   c = GetCompoundDataNISTByName(stdnames[idx], &e);
   if (e != NULL)

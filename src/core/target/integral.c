@@ -394,6 +394,8 @@ static int integrate (bl_kfunc f, void *ud, double kmin, double kmax,
   memo m[MEMO_MIN];   /* the first memo; grows on the heap if needed */
   kint ki;
   int st0, st1 = BL_SUCCESS;
+  if (out0 == NULL)
+    return BL_EDOMAIN;
   memset(out0, 0, sizeof *out0);
   if (out1 != NULL)
     memset(out1, 0, sizeof *out1);
@@ -433,7 +435,8 @@ int bl_kintegral_e (bl_kfunc f, void *ud, double kmin, double kmax, double T,
                     const double *kbreak, int nbreak, int moment, double rtol,
                     bl_result *out) {
   if (moment != 0 && moment != 1) {
-    memset(out, 0, sizeof *out);
+    if (out != NULL)
+      memset(out, 0, sizeof *out);
     return BL_EDOMAIN;
   }
   return integrate(f, ud, kmin, kmax, T, rtol, kbreak, nbreak, moment, out,
