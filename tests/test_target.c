@@ -1,264 +1,346 @@
 /*
-** test_target.c -- real atoms: nuclear size, atomic electrons, Coulomb and
-** Elwert corrections, and the complete-screening limit
+** test_target.c -- the target room: spectra on threads, integrals over k and
+** LPM / dielectric suppression
 ** See Copyright Notice in LICENSE
+**
+** Suites: spectrum_threads, target.
 */
 
 #include <math.h>
+#include <pthread.h>
+#include <stdlib.h>
+#include <string.h>
 
 #include <criterion/criterion.h>
-#include <gsl/gsl_errno.h>
-#include <gsl/gsl_integration.h>
 
 #include "brakelight.h"
 #include "testutil.h"
 
+/* ==================================================================
+** bl_spectrum_dk_e: threads change nothing
+**
+** Internal consistency, no outside source: a spectrum computed on 2, 3 or
+** "all" threads must equal the serial loop of bl_dcs_dk_e bit for bit
+** (value, error, warnings and status of every point), and the call counter
+** must see the work of every thread.
+** (formerly tests/test_spectrum_threads.c)
+*/
+
+TestSuite(spectrum_threads, .init = setup);
+
+#define NK 9
+#define RTOL 1e-3
+
+
+/* A case: particle preset `name` on element Z, exponential screening, T MeV. */
+static bl_case make_case (const char *name, int Z, double T) {
+  bl_case c;
+  const bl_particle *p = bl_particle_find(name);
+  const bl_model *m = bl_model_find("exponential");
+  int st;
+  cr_assert(p != NULL && m != NULL);
+  st = bl_case_init(&c, p, Z, m, NULL, T);
+  cr_assert(st == BL_SUCCESS, "bl_case_init: %s", bl_strerror(st));
+  return c;
+}
+
+/* A workspace with tolerance RTOL; aborts the test if it cannot be made. */
+static bl_quad *make_quad (void) {
+  bl_quad *q = bl_quad_alloc(200);
+  cr_assert(q != NULL);
+  cr_assert(bl_quad_set_rtol(q, RTOL) == BL_SUCCESS);
+  return q;
+}
+
+/* The serial reference: bl_dcs_dk_e point by point with one workspace. */
+static void serial (const bl_case *c, const double *k, size_t n,
+                    bl_result *out, int *st, unsigned long *calls) {
+  bl_quad *q = make_quad();
+  size_t i;
+  for (i = 0; i < n; i++)
+    st[i] = bl_dcs_dk_e(c, k[i], q, &out[i]);
+  *calls = bl_quad_calls(q);
+  bl_quad_free(q);
+}
+
+/* Bitwise equality of two results (value, error, warnings). */
+static void expect_same (const bl_result *a, const bl_result *b, size_t i,
+                         int threads) {
+  cr_expect(memcmp(&a->val, &b->val, sizeof a->val) == 0 &&
+            memcmp(&a->err, &b->err, sizeof a->err) == 0 &&
+            a->warn == b->warn,
+            "point %zu, %d threads: %.17g +- %.17g (warn %u) vs serial "
+            "%.17g +- %.17g (warn %u)", i, threads, b->val, b->err, b->warn,
+            a->val, a->err, a->warn);
+}
+
+
+/* Serial versus 1, 2, 3 and automatic threads, bit for bit (the issue's
+** check); the counter of the caller's workspace holds every call. */
+Test(spectrum_threads, bitwise_equal_to_serial) {
+  bl_case c = make_case("electron", 82, 100.0);
+  double k[NK];
+  bl_result ref[NK], got[NK];
+  int rst[NK], gst[NK];
+  unsigned long rcalls;
+  int threads[] = { 1, 2, 3, 0 };
+  size_t i, j;
+  for (i = 0; i < NK; i++)
+    k[i] = 100.0 * (0.02 + 0.96 * (double)i / (NK - 1));
+  serial(&c, k, NK, ref, rst, &rcalls);
+  for (j = 0; j < sizeof threads / sizeof threads[0]; j++) {
+    bl_quad *q = make_quad();
+    int st;
+    memset(got, 0xff, sizeof got);
+    memset(gst, 0xff, sizeof gst);
+    st = bl_spectrum_dk_e(&c, NK, k, threads[j], q, got, gst);
+    cr_expect(st == BL_SUCCESS, "%d threads: status %s", threads[j],
+              bl_strerror(st));
+    for (i = 0; i < NK; i++) {
+      expect_same(&ref[i], &got[i], i, threads[j]);
+      cr_expect(gst[i] == rst[i], "point %zu: status %d vs %d", i, gst[i],
+                rst[i]);
+    }
+    cr_expect(bl_quad_calls(q) == rcalls, "%d threads: %lu calls, serial %lu",
+              threads[j], bl_quad_calls(q), rcalls);
+    cr_expect(bl_quad_rtol(q) == RTOL);
+    bl_quad_free(q);
+  }
+}
+
+
+/* Spin 0, a heavy projectile, more threads than points, no status array. */
+Test(spectrum_threads, more_threads_than_points) {
+  bl_case c = make_case("pion+", 6, 5000.0);
+  double k[3] = { 50.0, 2500.0, 4900.0 };
+  bl_result ref[3], got[3];
+  int rst[3];
+  unsigned long rcalls;
+  bl_quad *q = make_quad();
+  size_t i;
+  serial(&c, k, 3, ref, rst, &rcalls);
+  cr_expect(bl_spectrum_dk_e(&c, 3, k, 8, q, got, NULL) == BL_SUCCESS);
+  for (i = 0; i < 3; i++)
+    expect_same(&ref[i], &got[i], i, 8);
+  bl_quad_free(q);
+}
+
+
+/* A bad energy: the returned status is that of the lowest failing index,
+** whatever the thread count; the other points are still computed. */
+Test(spectrum_threads, failure_is_deterministic) {
+  bl_case c = make_case("electron", 29, 10.0);
+  double k[6] = { 1.0, 2.0, 12.0, 4.0, -1.0, 9.0 };  /* #2, #4 outside (0, T) */
+  int threads[] = { 1, 2, 4 };
+  size_t j;
+  for (j = 0; j < 3; j++) {
+    bl_result got[6];
+    int gst[6];
+    bl_quad *q = make_quad();
+    int st = bl_spectrum_dk_e(&c, 6, k, threads[j], q, got, gst);
+    cr_expect(st == BL_EDOMAIN, "%d threads: status %d", threads[j], st);
+    cr_expect(gst[2] == BL_EDOMAIN && gst[4] == BL_EDOMAIN);
+    cr_expect(gst[0] == BL_SUCCESS && gst[5] == BL_SUCCESS && got[5].val > 0);
+    bl_quad_free(q);
+  }
+}
+
+
+/* Argument checks: negative thread count, NULL arrays; n = 0 is a no-op. */
+Test(spectrum_threads, arguments) {
+  bl_case c = make_case("electron", 29, 10.0);
+  double k[1] = { 5.0 };
+  bl_result r[1];
+  bl_quad *q = make_quad();
+  cr_expect(bl_spectrum_dk_e(&c, 1, k, -1, q, r, NULL) == BL_EDOMAIN);
+  cr_expect(bl_spectrum_dk_e(&c, 1, NULL, 1, q, r, NULL) == BL_EDOMAIN);
+  cr_expect(bl_spectrum_dk_e(&c, 1, k, 1, NULL, r, NULL) == BL_EDOMAIN);
+  cr_expect(bl_spectrum_dk_e(&c, 1, k, 1, q, NULL, NULL) == BL_EDOMAIN);
+  cr_expect(bl_spectrum_dk_e(&c, 0, NULL, 2, q, NULL, NULL) == BL_SUCCESS);
+  cr_expect(bl_spectrum_threads_auto() >= 1);
+  bl_quad_free(q);
+}
+
+
+/* ==================================================================
+** the integrals over k and LPM / dielectric suppression (moved from
+** the high-energy suite)
+** (formerly tests/test_he.c)
+*/
+
 TestSuite(target, .init = setup);
 
-#define RE2_MB (BL_RE_FM * BL_RE_FM / BL_FM2_PER_MB)   /* r_e^2 in mb */
+/* ---- k integrals ---- */
 
+static int polyf (void *ud, double k, bl_result *out) {
+  double T = *(double *)ud;
+  out->val = (1.0 + 2.0 * k / T) / k;  /* 1/k soft end, like dsigma/dk */
+  out->err = 0.0;
+  out->warn = out->applied = 0;
+  out->method = BL_METHOD_COMPLETE;
+  return BL_SUCCESS;
+}
 
-/* dsigma/dk (mb/MeV) with options o; asserts success. */
-static double dsdk (const char *particle, int Z, const char *model, double T,
-                    double y, const bl_opts *o, double rtol, bl_result *out) {
-  bl_quad *q = bl_quad_alloc(1000);
-  bl_case c;
-  bl_result r;
-  int st;
-  cr_assert(q != NULL);
-  cr_assert_eq(bl_quad_set_rtol(q, rtol), BL_SUCCESS);
-  cr_assert_eq(bl_case_setup(&c, bl_particle_find(particle), Z,
-                             bl_model_find(model), NULL, T, o), BL_SUCCESS,
-               "case %s Z=%d %s T=%g", particle, Z, model, T);
-  st = bl_dcs_dk_e(&c, y * T, q, &r);
-  cr_assert_eq(st, BL_SUCCESS, "%s Z=%d %s T=%g y=%g: status %d", particle, Z,
-               model, T, y, st);
-  bl_quad_free(q);
-  if (out != NULL)
-    *out = r;
-  return r.val;
+/* Source: elementary integrals.  int_0^T k f = T + T = 2T exactly (the
+** k -> 0 end handled by the map, never cut; the last 1e-12 T below T is
+** left out, src/core/target/integral.c, hence 1e-11); int_a^b f = ln(b/a) +
+** 2(b - a)/T. */
+Test(target, k_integrals_exact) {
+  double T = 7.0;
+  bl_result r0, r1;
+  cr_assert_eq(bl_kintegral_e(polyf, &T, 0.0, T, T, NULL, 0, 1, 1e-10, &r1),
+               BL_SUCCESS);
+  cr_expect(fabs(r1.val / (2 * T) - 1) < 1e-11, "%.17g", r1.val);
+  cr_assert_eq(bl_kintegral2_e(polyf, &T, 0.01, 6.0, T, NULL, 0, 1e-10, &r0, &r1),
+               BL_SUCCESS);
+  cr_expect(fabs(r0.val / (log(600.0) + 2 * (6.0 - 0.01) / T) - 1) < 1e-10);
+  cr_expect(fabs(r1.val / ((6.0 - 0.01) + (36.0 - 1e-4) / T) - 1) < 1e-10);
+  cr_expect_eq(r0.method, BL_METHOD_COMPLETE);
+  cr_expect_eq(bl_kintegral_e(polyf, &T, 0.0, T, T, NULL, 0, 0, 1e-6, &r0),
+               BL_EDOMAIN, "moment 0 from k = 0 diverges: refused");
+  cr_expect_eq(bl_kintegral_e(polyf, &T, 1.0, 8.0, T, NULL, 0, 0, 1e-6, &r0),
+               BL_EDOMAIN);
 }
 
 
-/* ---- the uniform-sphere fit (src/core/born/nucleus.c) ---- */
+/*
+** A noisy integrand: 1/k times 1 + 1e-3 noise(k), the noise a hash of the
+** bits of k, so |K15 - G7| never falls below rtol 1e-12 and every piece
+** bisects until its LIMIT (200) segments, about 6000 points per piece.
+** Records every k it is called with.
+*/
+typedef struct noisy {
+  double T;
+  size_t n, cap;
+  double *k;
+} noisy;
 
-static double logmoment_f (double x, void *p) {
-  (void)p;
-  return (bl_nucleus_ff2(x) - bl_nucleus_ff2_fit(x)) / x;
-}
-
-
-/* Source: the form factor of a uniformly charged sphere, 3 (sin x - x cos x)
-** / x^3 (common practice, R = 1.2 A^1/3 fm).  Bounds: the errors measured
-** when the fit was made (src/core/born/nucleus.c header), rounded up. */
-Test(target, nucleus_fit) {
-  gsl_integration_workspace *w = gsl_integration_workspace_alloc(2000);
-  gsl_function f = {logmoment_f, NULL};
-  double worst = 0.0, a, b, e;
-  int i;
-  for (i = 0; i <= 20000; i++) {
-    double x = 100.0 * i / 20000.0;
-    double d = fabs(bl_nucleus_ff2_fit(x) - bl_nucleus_ff2(x));
-    if (d > worst)
-      worst = d;
+static int noisyf (void *ud, double k, bl_result *out) {
+  noisy *z = ud;
+  unsigned long long b;
+  memcpy(&b, &k, sizeof b);
+  b ^= b >> 31;
+  b *= 0xBF58476D1CE4E5B9ull;
+  b ^= b >> 27;
+  if (z->n == z->cap) {
+    z->cap = z->cap ? 2 * z->cap : 1024;
+    z->k = realloc(z->k, z->cap * sizeof *z->k);
+    cr_assert(z->k != NULL);
   }
-  cr_expect(worst < 0.009, "max |fit^2 - F_N^2| = %g", worst);
-  EXPECT_REL(bl_nucleus_ff2_fit(0.0), 1.0, 1e-12, "F_N(0)^2");
-  /* the same mean square radius: F_N^2 = 1 - x^2/5 + ... */
-  EXPECT_REL((1.0 - bl_nucleus_ff2_fit(1e-3)) / 1e-6, 0.2, 1e-4, "slope");
-  gsl_integration_qag(&f, 1e-8, 100.0, 0.0, 1e-10, 2000, GSL_INTEG_GAUSS61, w,
-                      &a, &e);
-  gsl_integration_qagiu(&f, 100.0, 0.0, 1e-10, 2000, w, &b, &e);
-  cr_expect(fabs(a + b) < 0.004, "log moment of the fit error %g", a + b);
-  gsl_integration_workspace_free(w);
+  z->k[z->n++] = k;
+  out->val = (1.0 + 1e-3 * ((double)(b >> 11) / 9007199254740992.0 - 0.5))
+             / k;
+  out->err = 0.0;
+  out->warn = out->applied = 0;
+  out->method = BL_METHOD_BORN;
+  return BL_SUCCESS;
+}
+
+static int cmpd (const void *a, const void *b) {
+  double x = *(const double *)a, y = *(const double *)b;
+  return (x > y) - (x < y);
+}
+
+/* Distinct values among z's recorded k (sorts them). */
+static size_t distinct (noisy *z) {
+  size_t i, n = z->n > 0;
+  qsort(z->k, z->n, sizeof *z->k, cmpd);
+  for (i = 1; i < z->n; i++)
+    n += z->k[i] != z->k[i - 1];
+  return n;
+}
+
+/*
+** Internal consistency: an integral that needs more points than the
+** memo of src/core/target/integral.c used to hold (8192) ends (it looped
+** forever), with the tolerance warning and a finite estimate, and each
+** of its points is computed once.  Both moments together need more
+** points (16620) than the memo holds at its largest (16384): they still
+** end, the rest computed without being remembered.
+*/
+Test(target, k_integral_many_points, .timeout = 60) {
+  noisy z = {10.0, 0, 0, NULL};
+  bl_result r0, r1;
+  size_t nd;
+  cr_assert_eq(bl_kintegral_e(noisyf, &z, 1e-3, z.T, z.T, NULL, 0, 0, 1e-12,
+                              &r0), BL_ENOTCONV);
+  cr_expect(isfinite(r0.val) && (r0.warn & BL_WARN_TOLERANCE));
+  cr_expect(fabs(r0.val / (log(z.T / 1e-3)) - 1) < 1e-3, "%.17g", r0.val);
+  nd = distinct(&z);
+  cr_expect(nd > 8192, "%zu distinct points", nd);
+  cr_expect_eq(z.n, nd, "%zu calls for %zu points", z.n, nd);
+  z.n = 0;
+  cr_assert_eq(bl_kintegral2_e(noisyf, &z, 1e-3, z.T, z.T, NULL, 0, 1e-12,
+                               &r0, &r1), BL_ENOTCONV);
+  cr_expect(isfinite(r0.val) && isfinite(r1.val));
+  cr_expect(z.n > 16384, "%zu calls: the memo filled up", z.n);
+  cr_expect(fabs(r1.val / (z.T - 1e-3) - 1) < 1e-3, "%.17g", r1.val);
+  free(z.k);
 }
 
 
-/* ---- nuclear size: where it matters and where it does not ---- */
+/* ---- suppression ---- */
 
-/* Source: physics.md (F_N matters for muons and heavier projectiles at
-** high energy); the issue's checks.  Measured: muon 1 TeV on Pb, y = 0.5:
-** uniform / point = 0.78; electron 100 MeV on Pb, y = 0.5, Born:
-** 1 - 9.7e-4 (y = 0.1: 1 - 1.05e-3), from the large-angle hard
-** scatterings, q > hbar c / R, that the exact Born integral keeps.  The
-** comparison is made without the Coulomb correction, which is a
-** point-nucleus quantity subtracted from both: with it the same absolute
-** change is 1.06e-3 of the smaller corrected value. */
-Test(target, nuclear_size) {
-  bl_opts p = bl_opts_default, u = bl_opts_default;
-  double a, b;
-  p.coulomb = u.coulomb = BL_APPLY_OFF;
-  p.nucleus = BL_NUCLEUS_POINT;
-  a = dsdk("muon", 82, "thomas-fermi", 1e6, 0.5, &p, 1e-6, NULL);
-  b = dsdk("muon", 82, "thomas-fermi", 1e6, 0.5, &u, 1e-6, NULL);
-  cr_expect(b < 0.9 * a, "muon 1 TeV Pb: uniform %g vs point %g", b, a);
-  a = dsdk("electron", 82, "thomas-fermi", 100.0, 0.5, &p, 1e-7, NULL);
-  b = dsdk("electron", 82, "thomas-fermi", 100.0, 0.5, &u, 1e-7, NULL);
-  cr_expect(fabs(b / a - 1.0) < 1e-3, "electron 100 MeV Pb: uniform/point "
-            "- 1 = %g", b / a - 1.0);
+static bl_material element (int Z) {
+  bl_material m;
+  cr_assert_eq(bl_material_element(&m, Z), BL_SUCCESS);
+  return m;
+}
+
+/*
+** Source: Review of Particle Physics, passage of particles through matter
+** (from memory): E_LPM = m_e^2 c^3 alpha X0 / (4 pi hbar) = 7.7 TeV per
+** cm of radiation length; hbar omega_p = 28.816 eV sqrt(rho <Z/A>), for
+** lead 61.07 eV (from memory: 1 %).
+*/
+Test(target, lpm_energy_and_plasma) {
+  bl_material pb = element(82);
+  bl_suppress s;
+  cr_assert(pb.density > 11 && pb.density < 12, "xraylib's lead density");
+  cr_assert_eq(bl_suppress_init(&s, BL_SUPPRESS_DIELECTRIC, &pb,
+                                bl_particle_find("electron")), BL_SUCCESS);
+  cr_expect(fabs(s.elpm / s.X0cm / 7.7e6 - 1) < 0.01, "E_LPM/X0 = %.4g MeV/cm",
+            s.elpm / s.X0cm);
+  cr_expect(fabs(s.plasma / 61.07e-6 - 1) < 0.01, "plasma %.5g eV",
+            s.plasma * 1e6);
+  pb.density = 0;
+  cr_expect_eq(bl_suppress_init(&s, BL_SUPPRESS_LPM, &pb,
+                                bl_particle_find("electron")), BL_EDOMAIN,
+               "no density: refused");
 }
 
 
-/* ---- Elwert factor ---- */
-
-/* The published closed form (Elwert 1939; Koch & Motz 1959, section II),
-** written out here independently of the core: for electrons
-**   F_E = (beta0/beta) (1 - exp(-2 pi Z alpha/beta0))
-**                      / (1 - exp(-2 pi Z alpha/beta)),
-** and Z alpha -> -Z alpha for positrons. */
-static double elwert_ref (double T, double k, int Z, double sign) {
-  double m = BL_ME_MEV, g0 = 1.0 + T / m, g = 1.0 + (T - k) / m;
-  double b0 = sqrt(1.0 - 1.0 / (g0 * g0)), b = sqrt(1.0 - 1.0 / (g * g));
-  double a = sign * 2.0 * BL_PI * Z * BL_ALPHA;
-  return (b0 / b) * (1.0 - exp(-a / b0)) / (1.0 - exp(-a / b));
-}
-
-
-Test(target, elwert_closed_form) {
-  static const struct { const char *p; int Z; double T, y, sign; } pts[] = {
-    {"electron", 13, 0.5, 0.5, 1.0},
-    {"electron", 82, 1.5, 0.9, 1.0},
-    {"positron", 29, 1.0, 0.7, -1.0}
-  };
-  size_t i;
-  for (i = 0; i < sizeof pts / sizeof pts[0]; i++) {
-    bl_opts on = bl_opts_bare, off = bl_opts_bare;
-    bl_result r;
-    double a, b;
-    on.elwert = BL_APPLY_ON;
-    a = dsdk(pts[i].p, pts[i].Z, "exponential", pts[i].T, pts[i].y, &on,
-             1e-9, &r);
-    cr_expect(r.applied & BL_APPLIED_ELWERT);
-    b = dsdk(pts[i].p, pts[i].Z, "exponential", pts[i].T, pts[i].y, &off,
-             1e-9, NULL);
-    EXPECT_REL(a / b, elwert_ref(pts[i].T, pts[i].y * pts[i].T, pts[i].Z,
-                                 pts[i].sign), 1e-7,
-               "%s Z=%d T=%g y=%g", pts[i].p, pts[i].Z, pts[i].T, pts[i].y);
-  }
-}
-
-
-/* ---- Coulomb correction ---- */
-
-/* Davies, Bethe & Maximon (1954) in Tsai's form (Tsai 1974): the
-** correction subtracts 4 f(Z alpha) from phi1 and phi2 of the nuclear part,
-** i.e. (Z^2 alpha r0^2 / k) 4 f [(1 + v^2) - 2v/3]; f from physics.md. */
-Test(target, coulomb_difference) {
-  bl_opts on = bl_opts_default, off = bl_opts_default;
-  bl_result r;
-  double T = 1e4, y = 0.3, k = y * T, v, a, b, fz, want;
-  v = (T - k + BL_ME_MEV) / (T + BL_ME_MEV);
-  on.coulomb = BL_APPLY_ON;
-  off.coulomb = BL_APPLY_OFF;
-  a = dsdk("electron", 82, "exponential", T, y, &on, 1e-5, &r);
-  cr_expect(r.applied & BL_APPLIED_COULOMB);
-  cr_expect(!(r.warn & BL_WARN_COULOMB), "valid here: no warning");
-  b = dsdk("electron", 82, "exponential", T, y, &off, 1e-5, NULL);
-  fz = 82 * BL_ALPHA;
-  fz = fz * fz * (1.0 / (1.0 + fz * fz) + 0.20206 - 0.0369 * fz * fz
-                  + 0.0083 * pow(fz, 4) - 0.002 * pow(fz, 6));
-  want = 82.0 * 82.0 * BL_ALPHA * RE2_MB / k * 4.0 * fz
-         * (1.0 + v * v - 2.0 * v / 3.0);
-  EXPECT_REL(b - a, want, 1e-9, "Born minus corrected");
-}
-
-
-/* Where the default applies it (README, "Corrections"). */
-Test(target, coulomb_validity) {
-  bl_opts o = bl_opts_default;
-  bl_result r;
-  dsdk("electron", 29, "exponential", 1e4, 0.5, &o, 1e-3, &r);
-  cr_expect(r.applied & BL_APPLIED_COULOMB, "electron 10 GeV: applied");
-  dsdk("electron", 29, "exponential", 10.0, 0.5, &o, 1e-3, &r);
-  cr_expect(!(r.applied & BL_APPLIED_COULOMB), "electron 10 MeV: not applied");
-  dsdk("muon", 29, "exponential", 1e5, 0.5, &o, 1e-3, &r);
-  cr_expect(!(r.applied & BL_APPLIED_COULOMB), "muon: not applied");
-  dsdk("electron", 29, "exponential", 1e4, 0.9999, &o, 1e-3, &r);
-  cr_expect(!(r.applied & BL_APPLIED_COULOMB), "slow final electron");
-  o.coulomb = BL_APPLY_ON;
-  dsdk("electron", 29, "exponential", 10.0, 0.5, &o, 1e-3, &r);
-  cr_expect((r.applied & BL_APPLIED_COULOMB) && (r.warn & BL_WARN_COULOMB),
-            "forced at 10 MeV: applied with a warning");
-  o = bl_opts_default;
-  dsdk("electron", 29, "exponential", 1.0, 0.5, &o, 1e-3, &r);
-  cr_expect(r.applied & BL_APPLIED_ELWERT, "Elwert at 1 MeV");
-  dsdk("electron", 29, "exponential", 5.0, 0.5, &o, 1e-3, &r);
-  cr_expect(!(r.applied & BL_APPLIED_ELWERT), "no Elwert at 5 MeV");
-}
-
-
-/* ---- complete screening (Tsai 1974) ---- */
-
-/* Tsai's complete-screening dsigma/dk (Tsai 1974, Rev. Mod. Phys. 46, 815;
-** physics.md), with or without the atomic electrons and f. */
-static double tsai (int Z, double T, double y, int electrons, int coulomb) {
-  double k = y * T, f = coulomb ? bl_coulomb_f(Z * BL_ALPHA) : 0.0;
-  double el = electrons ? Z * bl_lrad_prime(Z) : 0.0;
-  double zz = electrons ? (double)Z * Z + Z : (double)Z * Z;
-  return 4.0 * BL_ALPHA * RE2_MB / k
-         * ((4.0 / 3.0 - 4.0 / 3.0 * y + y * y)
-            * ((double)Z * Z * (bl_lrad(Z) - f) + el) + (1.0 - y) * zz / 9.0);
-}
-
-
-/* The issue's check: exact Born with Thomas-Fermi screening, atomic
-** electrons and the Coulomb correction at T = 100 GeV against Tsai's
-** formula, within 1 %. */
-Test(target, tsai_complete_screening, .timeout = 120) {
-  static const int Zs[] = {6, 29, 82};
-  static const double ys[] = {0.1, 0.5, 0.9};
-  size_t i, j;
-  for (i = 0; i < 3; i++)
-    for (j = 0; j < 3; j++) {
-      bl_opts o = bl_opts_default;
-      bl_result r;
-      double v = dsdk("electron", Zs[i], "thomas-fermi", 1e5, ys[j], &o, 1e-5,
-                      &r);
-      cr_expect(r.applied & BL_APPLIED_COULOMB);
-      EXPECT_REL(v, tsai(Zs[i], 1e5, ys[j], 1, 1), 0.01, "Z=%d y=%g", Zs[i],
-                 ys[j]);
-    }
-}
-
-
-/* The electron part alone: with the inelastic radius fixed by L'_rad
-** (src/core/models/exponential.c, src/core/models/thomas_fermi.c), electrons on minus off
-** is Tsai's Z L'_rad term at complete screening, within 1 %. */
-Test(target, electron_part_complete_screening) {
-  static const char *const models[] = {"exponential", "thomas-fermi"};
-  static const int Zs[] = {1, 6, 82};
-  size_t i, j;
-  for (i = 0; i < 2; i++)
-    for (j = 0; j < 3; j++) {
-      bl_opts on = bl_opts_bare, off = bl_opts_bare;
-      double a, b, want;
-      on.electrons = 1;
-      a = dsdk("electron", Zs[j], models[i], 1e5, 0.5, &on, 1e-6, NULL);
-      b = dsdk("electron", Zs[j], models[i], 1e5, 0.5, &off, 1e-6, NULL);
-      want = tsai(Zs[j], 1e5, 0.5, 1, 0) - tsai(Zs[j], 1e5, 0.5, 0, 0);
-      EXPECT_REL(a - b, want, 0.01, "%s Z=%d", models[i], Zs[j]);
-    }
-}
-
-
-/* Hartree-Fock against Thomas-Fermi (the README table).  Bound 3 %: the
-** models' complete-screening constants differ by up to 1.8 % in L_rad and
-** 9 % in L'_rad (xraylib's atoms against Tsai's values, measured in
-** tests/test_screening.c), the latter weighted by about 1/(Z + 1) in
-** dsigma/dk; at partial screening the spread is smaller.  Measured: at
-** most 1.27 % (C, 100 MeV, y = 0.1). */
-Test(target, hartree_fock_near_thomas_fermi, .timeout = 120) {
-  static const int Zs[] = {6, 29, 82};
-  static const double Ts[] = {1.0, 10.0, 100.0}, ys[] = {0.1, 0.5, 0.9};
-  size_t i, j, l;
-  for (i = 0; i < 3; i++)
-    for (j = 0; j < 3; j++)
-      for (l = 0; l < 3; l++) {
-        double hf = dsdk("electron", Zs[i], "hartree-fock", Ts[j], ys[l],
-                         &bl_opts_default, 1e-5, NULL);
-        double tf = dsdk("electron", Zs[i], "thomas-fermi", Ts[j], ys[l],
-                         &bl_opts_default, 1e-5, NULL);
-        EXPECT_REL(hf, tf, 0.03, "HF vs TF, Z=%d T=%g y=%g", Zs[i], Ts[j],
-                   ys[l]);
-      }
+/*
+** Source: Migdal 1956, as reviewed by Klein 1999 (Rev. Mod. Phys. 71,
+** 1501), section II: far below k_LPM = E (E - k) / E_LPM dsigma/dk goes
+** like k^-1/2; far above it is unchanged; dielectric suppression cuts
+** k below about gamma hbar omega_p as k^2/(k^2 + k_p^2).
+*/
+Test(target, lpm_and_dielectric_shapes) {
+  bl_material pb = element(82), c = element(6);
+  bl_suppress lpm, die;
+  double E0 = 1e7, klpm, f1, f2, slope, kp;   /* 10 TeV electrons */
+  const bl_particle *e = bl_particle_find("electron");
+  cr_assert_eq(bl_suppress_init(&lpm, BL_SUPPRESS_LPM, &pb, e), BL_SUCCESS);
+  klpm = E0 * E0 / lpm.elpm;
+  /* dsigma/dk ~ factor / k at small y: its log slope between k and 4k */
+  f1 = bl_suppress_factor(&lpm, E0, 1e-4 * klpm);
+  f2 = bl_suppress_factor(&lpm, E0, 4e-4 * klpm);
+  slope = log((f2 / 4e-4) / (f1 / 1e-4)) / log(4.0);
+  cr_expect(slope > -0.6 && slope < -0.4, "slope %.3f", slope);
+  cr_expect(f1 < 0.1, "strong suppression far below k_LPM: %.3g", f1);
+  /* 100 GeV: k = 50 GeV is 40 times k_LPM = E (E - k)/E_LPM */
+  cr_expect(bl_suppress_factor(&lpm, 1e5, 5e4) > 0.99);
+  cr_expect(bl_suppress_factor(&lpm, 1e3, 100.0) > 0.999,
+            "1 GeV on lead, k = 100 MeV: no LPM");
+  /* dielectric on carbon at 1 GeV, where LPM is negligible near k_p =
+  ** gamma hbar omega_p (0.06 MeV; k_LPM there is 7e-6 MeV) */
+  cr_assert_eq(bl_suppress_init(&die, BL_SUPPRESS_DIELECTRIC, &c, e),
+               BL_SUCCESS);
+  kp = 1e3 / e->mass * die.plasma;
+  cr_expect(fabs(bl_suppress_factor(&die, 1e3, kp) - 0.5) < 0.01, "%.4f",
+            bl_suppress_factor(&die, 1e3, kp));
+  cr_expect(fabs(bl_suppress_factor(&die, 1e3, 0.1 * kp) * 101 - 1) < 0.02);
+  cr_expect(bl_suppress_factor(&die, 1e3, 30 * kp) > 0.998);
+  cr_expect_eq(bl_suppress_factor(&lpm, E0, 0.0), 1.0, "outside: no factor");
 }

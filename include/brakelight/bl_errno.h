@@ -12,7 +12,10 @@ extern "C" {
 /*
 ** Fallible core functions return an int status: 0 on success.  GSL codes
 ** (GSL_EMAXITER, GSL_EROUND, ...) pass through unchanged; the codes of our
-** own sit above every GSL code.
+** own sit above every GSL code.  A NULL pointer where the prototype does
+** not say NULL is allowed is BL_EDOMAIN (functions without a status return
+** their "none" value: 0, -1, NULL, 1.0 for a factor, or do nothing); never
+** a crash (tests/test_base.c, health::null_*).
 */
 enum {
   BL_SUCCESS  = 0,

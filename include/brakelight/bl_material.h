@@ -86,7 +86,7 @@ int bl_material_mixture (bl_material *m, int n, const bl_material *parts,
                          int *bad);
 
 /* A standard composition carried by xraylib, by its name (exact, then
-** case-insensitive).  BL_SUCCESS or BL_EUNKNOWN.  Density is set.  One
+** case-insensitive).  BL_SUCCESS, BL_EUNKNOWN, or BL_EDOMAIN (NULL).  Density is set.  One
 ** average atom per formula unit, as for mixtures. */
 int bl_material_standard (bl_material *m, const char *name);
 
@@ -95,7 +95,8 @@ int bl_material_standard (bl_material *m, const char *name);
 ** as in the periodic table), element name (any case), chemical formula,
 ** standard composition (exact, then any case).  Elements carry xraylib's
 ** density (ElementDensity; 0 for Es and Fm), formulas none.  BL_SUCCESS, or
-** BL_EUNKNOWN with *err the formula parser's complaint (err may be NULL).
+** BL_EUNKNOWN with *err the formula parser's complaint (err may be NULL);
+** BL_EDOMAIN if m or spec is NULL.
 */
 int bl_material_lookup (bl_material *m, const char *spec,
                         bl_parse_error *err);

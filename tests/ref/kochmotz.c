@@ -148,7 +148,7 @@ static double schiff_f (double b) {
 ** which turns the formula into 3BN(b), and tend to 2/9 for b -> infinity,
 ** which gives the familiar complete-screening form
 ** 4 {(1 + v^2 - 2v/3) ln(183 Z^(-1/3)) + v/9}  (ln 111 + 1/2 = ln 183).
-** Both limits are checked in tests/test_refs.c.
+** Both limits are checked in tests/test_born.c (suite refs).
 */
 double km_3bse (double t0, double k, double a) {
   double E0 = 1.0 + t0, E = 1.0 + t0 - k, v = E / E0;

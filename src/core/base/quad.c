@@ -18,7 +18,7 @@
 ** handler off when, and only when, GSL's default is in place: a handler
 ** of the application's own is put back untouched.  luaopen_brakelight and
 ** the runner switch it off themselves; this covers a program that links
-** libbrakelight.a and does not (tests/test_gsl_errors.c).
+** libbrakelight.a and does not (tests/test_base.c, suite gsl_errors).
 */
 static pthread_once_t gsl_once = PTHREAD_ONCE_INIT;
 
@@ -63,7 +63,7 @@ void bl_quad_free (bl_quad *q) {
 
 
 int bl_quad_set_rtol (bl_quad *q, double rtol) {
-  if (!(rtol >= BL_QUAD_RTOL_MIN && rtol <= BL_QUAD_RTOL_MAX))
+  if (q == NULL || !(rtol >= BL_QUAD_RTOL_MIN && rtol <= BL_QUAD_RTOL_MAX))
     return BL_EDOMAIN;
   q->rtol = rtol;
   return BL_SUCCESS;
@@ -71,15 +71,16 @@ int bl_quad_set_rtol (bl_quad *q, double rtol) {
 
 
 double bl_quad_rtol (const bl_quad *q) {
-  return q->rtol;
+  return q != NULL ? q->rtol : 0.0;
 }
 
 
 unsigned long bl_quad_calls (const bl_quad *q) {
-  return q->calls;
+  return q != NULL ? q->calls : 0;
 }
 
 
 void bl_quad_reset_calls (bl_quad *q) {
-  q->calls = 0;
+  if (q != NULL)
+    q->calls = 0;
 }

@@ -344,6 +344,8 @@ int bl_dcs_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out) {
   double pts[2], val = 0.0, abserr = 0.0, smax, ratio;
   unsigned warn, applied;
   int st, n = 0, i;
+  if (out == NULL)
+    return BL_EDOMAIN;
   out->val = out->err = 0.0;
   out->warn = out->applied = 0;
   out->method = 0;   /* BL_METHOD_BORN */
@@ -395,6 +397,8 @@ int bl_dcs_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
   double sh, val;
   unsigned warn, applied;
   int st;
+  if (out == NULL)
+    return BL_EDOMAIN;
   out->val = out->err = 0.0;
   out->warn = out->applied = 0;
   out->method = 0;   /* BL_METHOD_BORN */
@@ -434,6 +438,8 @@ int bl_dcs_full_e (const bl_case *c, double k, double theta_k, double theta_p,
   double sd, sp, X, Y, rho, v, val;
   unsigned warn, applied;
   int st;
+  if (out == NULL)
+    return BL_EDOMAIN;
   out->val = out->err = 0.0;
   out->warn = out->applied = 0;
   out->method = 0;   /* BL_METHOD_BORN */

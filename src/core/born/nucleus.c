@@ -14,8 +14,8 @@
 ** from a constrained linear least-squares fit to F_N on 1500 log-spaced
 ** points x in [0.01, 100].  Then (1 - F_N)/q^2 = sum_j c_j / (l_j + x^2) in
 ** units of R^-2, and the elastic factor (F_N - F/Z)/q^2 stays a sum of
-** simple poles.  Measured (tests/test_nucleus.c checks both): |fit^2 -
-** F_N^2| <= 0.0086 for every x, and the logarithmic moment
+** simple poles.  Measured (tests/test_born.c, born::nucleus_fit, checks
+** both): |fit^2 - F_N^2| <= 0.0086 for every x, and the logarithmic moment
 ** int_0^inf (F_N^2 - fit^2) dx/x, which sets the nuclear-size term of the
 ** high-energy cross section, is 0.003.  Free poles fit better but collapse
 ** onto each other with coefficients of 1e3: cancellation, not accuracy.

@@ -11,7 +11,7 @@
 ** Why: a mixture has no molecule, and any other choice would depend on how
 ** it was written; with one average atom, the same brass given by mass
 ** fractions or by atom fractions is the same material to the last digits
-** (tests/test_material.c), and per-gram results (per_gram factor,
+** (tests/test_materials.c), and per-gram results (per_gram factor,
 ** N_A / molar_mass) never depend on the choice anyway.
 */
 
@@ -73,6 +73,8 @@ int bl_mat_fill (bl_material *m, const double atoms[BL_ZMAX + 1],
 int bl_material_element (bl_material *m, int Z) {
   double atoms[BL_ZMAX + 1] = {0};
   double rho;
+  if (m == NULL)
+    return BL_EDOMAIN;
   if (Z < 1 || Z > BL_ZMAX) {
     memset(m, 0, sizeof *m);
     return BL_EDOMAIN;
@@ -100,6 +102,8 @@ int bl_material_mixture (bl_material *m, int n, const bl_material *parts,
   if (bad == NULL)
     bad = &dummy;
   *bad = -1;
+  if (m == NULL)
+    return BL_EDOMAIN;
   memset(m, 0, sizeof *m);
   if (n < 1 || parts == NULL || fractions == NULL)
     return BL_EDOMAIN;

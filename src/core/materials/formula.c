@@ -274,6 +274,13 @@ int bl_material_formula (bl_material *m, const char *text,
                          bl_parse_error *err) {
   double total[BL_ZMAX + 1] = {0};
   Parser P;
+  if (m == NULL) {
+    if (err != NULL) {
+      err->pos = 0;
+      err->reason = "no material to fill (NULL)";
+    }
+    return BL_EDOMAIN;
+  }
   memset(&P, 0, sizeof P);
   P.s = text != NULL ? text : "";
   memset(m, 0, sizeof *m);

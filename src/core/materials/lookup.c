@@ -13,11 +13,14 @@
 int bl_material_lookup (bl_material *m, const char *spec,
                         bl_parse_error *err) {
   bl_parse_error e = {0, NULL};
-  int Z = bl_element_lookup(spec);
+  int Z;
   if (err != NULL) {
     err->pos = 0;
     err->reason = NULL;
   }
+  if (m == NULL || spec == NULL)
+    return BL_EDOMAIN;
+  Z = bl_element_lookup(spec);
   if (Z != 0)
     return bl_material_element(m, Z);
   if (bl_material_formula(m, spec, &e) == BL_SUCCESS)

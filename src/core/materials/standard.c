@@ -85,6 +85,8 @@ int bl_material_standard (bl_material *m, const char *name) {
   xrl_error *e = NULL;
   double total = 0, rho;
   int i, idx, st = BL_SUCCESS;
+  if (m == NULL)
+    return BL_EDOMAIN;
   memset(m, 0, sizeof *m);
   if (name == NULL || (idx = findstd(name)) < 0)
     return BL_EUNKNOWN;

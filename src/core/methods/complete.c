@@ -39,12 +39,16 @@ static int complete_valid (const bl_case *c, const bl_kin *kn) {
 */
 int bl_complete_dk_e (const bl_case *c, double k, bl_result *out) {
   bl_kin kn;
-  double m = c->particle.mass, Z = c->Z, v, w1, w2, L, Lp, shift, X, Y;
+  double m, Z, v, w1, w2, L, Lp, shift, X, Y;
   double fe, f = 0.0;
   int st, coul;
+  if (out == NULL)
+    return BL_EDOMAIN;
   bl_method_clear(out, BL_METHOD_COMPLETE);
   if (c == NULL)
-    return BL_EDOMAIN;
+    return BL_EDOMAIN;   /* before any read of c: NULL is refused */
+  m = c->particle.mass;
+  Z = c->Z;
   if (c->screening->id == BL_MODEL_NONE)
     return BL_EMODEL;   /* no screening, no complete-screening limit */
   st = bl_kin_case(c, k, &kn);

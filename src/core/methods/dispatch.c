@@ -12,7 +12,11 @@
 
 
 int bl_method_prepare (const bl_case *c, int method, bl_quad *q, bl_he *h) {
+  if (h == NULL)
+    return BL_EDOMAIN;
   memset(h, 0, sizeof *h);
+  if (c == NULL)
+    return BL_EDOMAIN;
   if (method == BL_METHOD_HIGH_ENERGY
       || (method == BL_METHOD_AUTO && 1.0 + c->t0 > BL_HE_GAMMA_MIN))
     return bl_he_prepare(c, q, h);
@@ -36,6 +40,8 @@ static int closedform (int st, const bl_quad *q, bl_result *out) {
 
 int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
                     bl_quad *q, bl_result *out) {
+  if (out == NULL)
+    return BL_EDOMAIN;
   switch (method) {
     case BL_METHOD_BORN:
       return bl_dcs_dk_e(c, k, q, out);
@@ -56,8 +62,12 @@ int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
 
 int bl_method_breaks (const bl_case *c, const bl_he *h, int method,
                       double *k, double *jump, int nmax) {
-  double m = c->particle.mass, E0 = 1.0 + c->t0;
+  double m, E0;
   int n = 0;
+  if (c == NULL || k == NULL || jump == NULL)
+    return 0;
+  m = c->particle.mass;
+  E0 = 1.0 + c->t0;
   /* the Coulomb correction (a few per cent near the tip, up to 10 % on
   ** the heaviest atoms) stops where the final gamma falls below
   ** BL_COULOMB_GAMMA_MIN */

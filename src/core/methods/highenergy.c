@@ -25,9 +25,14 @@ static int screened (const bl_yukawa *y) {
 
 int bl_he_prepare (const bl_case *c, bl_quad *q, bl_he *h) {
   bl_yukawa y;
-  double m = c->particle.mass;
+  double m;
   int st;
+  if (h == NULL)
+    return BL_EDOMAIN;
   memset(h, 0, sizeof *h);
+  if (c == NULL)
+    return BL_EDOMAIN;
+  m = c->particle.mass;
   st = c->screening->yukawa(c->Z, c->params, &y);
   if (st != BL_SUCCESS)
     return st;
@@ -84,19 +89,21 @@ static void phis (const bl_hetab *t, const double tail[4], double Delta,
 
 
 int bl_he_valid (const bl_case *c, double k) {
-  double E = 1.0 + c->t0 - k / c->particle.mass;
-  return E >= BL_HE_GAMMA_MIN;
+  return c != NULL && 1.0 + c->t0 - k / c->particle.mass >= BL_HE_GAMMA_MIN;
 }
 
 
 int bl_he_dk_e (const bl_case *c, const bl_he *h, double k, bl_result *out) {
   bl_kin kn;
-  double m = c->particle.mass, v, Delta, p1, p2, e1 = 0.0, e2 = 0.0, w1, w2;
+  double m, v, Delta, p1, p2, e1 = 0.0, e2 = 0.0, w1, w2;
   double fe, f = 0.0, kmev;
   int st, coul, i;
+  if (out == NULL)
+    return BL_EDOMAIN;
   bl_method_clear(out, BL_METHOD_HIGH_ENERGY);
   if (c == NULL || h == NULL || !h->ready)
-    return BL_EDOMAIN;
+    return BL_EDOMAIN;   /* before any read of c: NULL is refused */
+  m = c->particle.mass;
   st = bl_kin_case(c, k, &kn);
   if (st != BL_SUCCESS)
     return st;

@@ -27,7 +27,7 @@
 **
 ** Validity: free neutral atoms (no chemical binding, no solid-state
 ** effects); the elastic part reproduces Tsai's exact complete-screening
-** constants of hydrogen and helium (tests/test_screening.c).
+** constants of hydrogen and helium (tests/test_models.c, suite screening).
 */
 
 #include <math.h>

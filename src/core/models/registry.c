@@ -40,6 +40,8 @@ const bl_model *bl_model_get (int id) {
 
 void bl_model_defaults (const bl_model *m, double *p) {
   int i;
+  if (m == NULL || p == NULL)
+    return;
   for (i = 0; i < m->nparams; i++)
     p[i] = m->params[i].value;
 }

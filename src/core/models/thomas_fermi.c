@@ -42,7 +42,8 @@
 ** Validity: the Thomas-Fermi atom is a statistical model, fair for medium
 ** and heavy atoms and poor for the lightest; its elastic constant
 ** L_rad = 1 + int_0^1 (1 - F/Z)^2 dq/q agrees with Tsai's ln(184.15 Z^-1/3)
-** to 0.26 % for Z = 6..92, 0.254 % at worst (Z = 92; tests/test_screening.c).
+** to 0.26 % for Z = 6..92, 0.254 % at worst (Z = 92; tests/test_models.c,
+** suite screening).
 */
 
 #include <math.h>

@@ -16,6 +16,21 @@
 **               out the last 1e-12 T below T, where dsigma/dk is finite.
 ** Evaluations are remembered by k, so two moments over one range share
 ** their points when the rules pick the same ones.
+**
+** The memo is an open-addressing table (linear probing, at most half
+** full, so a probe always ends at an empty slot; the loop is bounded by
+** the table size anyway).  It starts with MEMO_MIN slots in the caller's
+** stack frame (12 KB: no allocation at all for the usual integral of a few
+** hundred points) and doubles on the heap only when an integral needs
+** more, up to MEMO_MAX slots (1.5 MB, for 16384 points: each one is a
+** dsigma/dk, so the table never dominates the cost).  Chosen over
+** caller-owned storage because it keeps the public calls as they are and
+** costs nothing unless used.  When the table is at MEMO_MAX and half full,
+** or a larger one cannot be allocated, a new point is computed without
+** being remembered (a later request for it computes it again): the
+** integral still ends, with the same values.  Every point an integral
+** remembered before (the old fixed 8192-slot table) is remembered now,
+** so the points, their order and the results are unchanged.
 */
 
 #include <math.h>
@@ -30,7 +45,8 @@
 
 
 #define LIMIT     200     /* subintervals per piece */
-#define MEMO_SIZE 8192    /* remembered evaluations (power of 2) */
+#define MEMO_MIN  256     /* slots of the first memo, on the stack */
+#define MEMO_MAX  32768   /* most slots (powers of 2); half may be used */
 #define TIP_GAP   1e-12   /* relative gap left below T */
 #define TAIL_SHARE 0.25   /* second piece: absolute share of the first */
 
@@ -52,7 +68,10 @@ typedef struct kint {
   unsigned warn, applied;
   int method;         /* method of the points, -1 when they differ, -2 none */
   double relerr;      /* worst relative error of a point */
-  memo *memo;
+  memo *memo;         /* cap slots, count used, at most cap/2 */
+  size_t cap, count;
+  memo *heap;         /* memo once grown onto the heap (freed by caller) */
+  memo spare;         /* a point computed without memo (memo full) */
 } kint;
 
 
@@ -79,33 +98,68 @@ static void account (kint *ki, const memo *e) {
 }
 
 
-/* f at k through the memo: NULL result pointer on a hard failure. */
-static const bl_result *evaluate (kint *ki, double k) {
+/*
+** The slot of k in memo m of cap slots: its entry, or the empty slot
+** where it belongs; NULL only if the table has no empty slot (never
+** while it is at most half full).
+*/
+static memo *slot (memo *m, size_t cap, double k) {
   unsigned long long bits;
-  size_t i;
-  memo *e;
-  int st;
+  size_t i, n;
   memcpy(&bits, &k, sizeof bits);
   i = (size_t)((bits ^ (bits >> 29)) * 0x9E3779B97F4A7C15ull >> 40)
-      & (MEMO_SIZE - 1);
-  for (;; i = (i + 1) & (MEMO_SIZE - 1)) {   /* linear probing */
-    e = &ki->memo[i];
+      & (cap - 1);
+  for (n = 0; n < cap; n++, i = (i + 1) & (cap - 1)) {   /* linear probing */
+    memo *e = &m[i];
     if (!e->used || e->k == k)
-      break;
+      return e;
   }
-  if (e->used) {   /* remembered: counted again for this moment */
+  return NULL;
+}
+
+
+/* Room for one more entry: doubles the memo when it is half full, up to
+** MEMO_MAX slots.  0 when full and it cannot (or may not) grow. */
+static int room (kint *ki) {
+  memo *m;
+  size_t cap = 2 * ki->cap, i;
+  if (2 * (ki->count + 1) <= ki->cap)
+    return 1;
+  if (cap > MEMO_MAX || (m = calloc(cap, sizeof *m)) == NULL)
+    return 0;
+  for (i = 0; i < ki->cap; i++)   /* rehash: every entry finds a slot */
+    if (ki->memo[i].used)
+      *slot(m, cap, ki->memo[i].k) = ki->memo[i];
+  free(ki->heap);
+  ki->heap = ki->memo = m;
+  ki->cap = cap;
+  return 1;
+}
+
+
+/* f at k through the memo: NULL result pointer on a hard failure. */
+static const bl_result *evaluate (kint *ki, double k) {
+  memo *e = slot(ki->memo, ki->cap, k);
+  int st;
+  if (e != NULL && e->used) {   /* remembered: counted again for this moment */
     if (e->st != BL_SUCCESS && !softstatus(e->st))
       return NULL;
     account(ki, e);
     return &e->r;
   }
+  e = room(ki) ? slot(ki->memo, ki->cap, k) : NULL;   /* may have moved */
+  if (e == NULL)
+    e = &ki->spare;   /* full: computed, not remembered */
   st = ki->f(ki->ud, k, &e->r);
   if (st == BL_SUCCESS || softstatus(st))
     if (!isfinite(e->r.val) || !isfinite(e->r.err))
       st = GSL_ERANGE;   /* a non-finite point is a failure, never a 0 */
   e->k = k;
   e->st = st;
-  e->used = 1;
+  if (e != &ki->spare) {
+    e->used = 1;
+    ki->count++;
+  }
   if (st != BL_SUCCESS && !softstatus(st)) {
     if (ki->hard == BL_SUCCESS)
       ki->hard = st;
@@ -316,7 +370,7 @@ static int checkargs (bl_kfunc f, double kmin, double kmax, double T,
 
 
 static void kint_init (kint *ki, bl_kfunc f, void *ud, double T,
-                       memo *m) {
+                       memo *m, size_t cap) {
   memset(ki, 0, sizeof *ki);
   ki->f = f;
   ki->ud = ud;
@@ -324,6 +378,7 @@ static void kint_init (kint *ki, bl_kfunc f, void *ud, double T,
   ki->hard = BL_SUCCESS;
   ki->method = -2;
   ki->memo = m;
+  ki->cap = cap;
 }
 
 
@@ -336,9 +391,11 @@ static int integrate (bl_kfunc f, void *ud, double kmin, double kmax,
                       double T, double rtol, const double *kb, int nkb,
                       int m0, bl_result *out0, bl_result *out1) {
   seg *sg;
-  memo *m;
+  memo m[MEMO_MIN];   /* the first memo; grows on the heap if needed */
   kint ki;
   int st0, st1 = BL_SUCCESS;
+  if (out0 == NULL)
+    return BL_EDOMAIN;
   memset(out0, 0, sizeof *out0);
   if (out1 != NULL)
     memset(out1, 0, sizeof *out1);
@@ -347,13 +404,10 @@ static int integrate (bl_kfunc f, void *ud, double kmin, double kmax,
       || nkb < 0 || nkb > BL_KINT_MAXBREAK || (nkb > 0 && kb == NULL))
     return BL_EDOMAIN;   /* also: int f dk from 0 diverges like ln k */
   sg = malloc(LIMIT * sizeof *sg);
-  m = calloc(MEMO_SIZE, sizeof *m);
-  if (sg == NULL || m == NULL) {
-    free(sg);
-    free(m);
+  if (sg == NULL)
     return BL_ENOMEM;
-  }
-  kint_init(&ki, f, ud, T, m);
+  memset(m, 0, sizeof m);
+  kint_init(&ki, f, ud, T, m, MEMO_MIN);
   ki.moment = m0;
   st0 = run(&ki, kmin, kmax, rtol, kb, nkb, sg, out0);
   if (out1 != NULL && ki.hard == BL_SUCCESS) {
@@ -363,7 +417,7 @@ static int integrate (bl_kfunc f, void *ud, double kmin, double kmax,
     st1 = run(&ki, kmin, kmax, rtol, kb, nkb, sg, out1);
   }
   free(sg);
-  free(m);
+  free(ki.heap);
   if (st0 != BL_SUCCESS && st0 != BL_ENOTCONV)
     return st0;
   return st0 != BL_SUCCESS ? st0 : st1;
@@ -381,7 +435,8 @@ int bl_kintegral_e (bl_kfunc f, void *ud, double kmin, double kmax, double T,
                     const double *kbreak, int nbreak, int moment, double rtol,
                     bl_result *out) {
   if (moment != 0 && moment != 1) {
-    memset(out, 0, sizeof *out);
+    if (out != NULL)
+      memset(out, 0, sizeof *out);
     return BL_EDOMAIN;
   }
   return integrate(f, ud, kmin, kmax, T, rtol, kbreak, nbreak, moment, out,

@@ -73,6 +73,8 @@ int bl_suppress_init (bl_suppress *s, int mode, const bl_material *m,
                       const bl_particle *p) {
   double zoa = 0.0, wsum = 0.0, z3 = 0.0, X0, r;
   int i;
+  if (s == NULL)
+    return BL_EDOMAIN;
   s->mode = BL_SUPPRESS_NONE;
   s->elpm = s->plasma = s->X0cm = 0.0;
   s->s1 = 1e-4;

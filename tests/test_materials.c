@@ -1,6 +1,6 @@
 /*
-** test_material.c -- elements, chemical formulas, mixtures, standard
-** compositions, suggestions and Tsai's radiation length
+** test_materials.c -- the materials room: elements, chemical formulas,
+** mixtures, standard compositions, suggestions and Tsai's radiation length
 ** See Copyright Notice in LICENSE
 */
 #include <math.h>

@@ -1,8 +1,11 @@
 /*
-** test_he.c -- the high-energy (screening-function) method against the
-** exact Born integral, Tsai's complete-screening formula, the switch of
-** method "auto", the k integrals, and LPM / dielectric suppression
+** test_methods.c -- the methods room: the high-energy
+** (screening-function) method against the exact Born integral, Tsai's
+** complete-screening formula, the switch of method "auto", the cache
 ** See Copyright Notice in LICENSE
+**
+** Suite: methods (the k integrals and suppression tests that were here
+** are in test_target.c, with the target room).
 */
 
 #include <math.h>
@@ -13,7 +16,7 @@
 #include "brakelight.h"
 #include "testutil.h"
 
-TestSuite(he, .init = setup);
+TestSuite(methods, .init = setup);
 
 static const char *const models[] = {
   "none", "exponential", "thomas-fermi", "hartree-fock"
@@ -57,7 +60,7 @@ static double deviation (const bl_particle *p, int Z, const char *model,
 ** energy (physics.md's notation: E0 before, E after emission), so the
 ** initial gamma is 10^3/(1 - y); uniform nucleus, atomic electrons.
 */
-Test(he, matches_born_above_1e3_m) {
+Test(methods, matches_born_above_1e3_m) {
   static const double ys[] = {0.01, 0.1, 0.5, 0.9, 0.99};
   const bl_particle *parts[] = {
     bl_particle_find("electron"), &scalar_e, bl_particle_find("muon"),
@@ -88,7 +91,7 @@ Test(he, matches_born_above_1e3_m) {
 ** agree within 1e-3 (the issue's requirement), for e, mu and pi on light
 ** to the heaviest atoms, every model.  Source: internal consistency.
 */
-Test(he, auto_switch_agrees) {
+Test(methods, auto_switch_agrees) {
   const bl_particle *parts[] = {
     bl_particle_find("electron"), bl_particle_find("muon"),
     bl_particle_find("pion+")
@@ -141,7 +144,7 @@ static double tsai (int Z, double E0, double k, double mass) {
 
 /* Source: Tsai 1974, Rev. Mod. Phys. 46, 815, eq. (3.83) (complete
 ** screening); the core's form must be the same function. */
-Test(he, complete_is_tsai) {
+Test(methods, complete_is_tsai) {
   static const int Zs[] = {1, 3, 6, 29, 82, 92};
   static const double ys[] = {0.001, 0.2, 0.5, 0.8, 0.999};
   bl_opts o = bl_opts_default;
@@ -170,7 +173,7 @@ Test(he, complete_is_tsai) {
 ** screening, whose electron field is matched to Tsai's L'_rad, reaches the
 ** complete-screening limit at small Delta: within 0.5 % at 10 TeV.
 */
-Test(he, complete_screening_limit) {
+Test(methods, complete_screening_limit) {
   static const int Zs[] = {6, 29, 82};
   static const double ys[] = {0.01, 0.1, 0.5};
   bl_opts o = bl_opts_default;
@@ -203,7 +206,7 @@ Test(he, complete_screening_limit) {
 ** nucleus, phi1 = phi2 = 4 ln(1/delta) - 2 for delta -> 0, so
 ** dsigma/dk = (norm/k) [(1 + v^2) - (2/3) v] (4 ln(1/delta) - 2).
 */
-Test(he, unscreened_limit) {
+Test(methods, unscreened_limit) {
   bl_case c;
   bl_he h;
   bl_result r;
@@ -227,7 +230,7 @@ Test(he, unscreened_limit) {
 ** build time below 1e-6 in phi (which is 20-50 here), values finite and
 ** positive over the spectrum, and a second preparation gives the same
 ** numbers bit for bit. */
-Test(he, tables_cached_and_accurate) {
+Test(methods, tables_cached_and_accurate) {
   bl_quad *q = bl_quad_alloc(1000);
   bl_case c;
   bl_he h1, h2;
@@ -287,7 +290,7 @@ static void *prepjob (void *arg) {
   return NULL;
 }
 
-Test(he, two_threads_one_cache) {
+Test(methods, two_threads_one_cache) {
   pthread_t t1, t2;
   job a = {47, 0, NULL}, b = {47, 0, NULL}, s = {47, 0, NULL};
   cr_assert_eq(pthread_create(&t1, NULL, prepjob, &a), 0);
@@ -299,104 +302,4 @@ Test(he, two_threads_one_cache) {
   cr_expect(a.val == b.val && a.val == s.val, "%.17g %.17g %.17g", a.val,
             b.val, s.val);
   cr_expect(a.el == b.el && a.el == s.el, "one table for both");
-}
-
-
-/* ---- k integrals ---- */
-
-static int polyf (void *ud, double k, bl_result *out) {
-  double T = *(double *)ud;
-  out->val = (1.0 + 2.0 * k / T) / k;  /* 1/k soft end, like dsigma/dk */
-  out->err = 0.0;
-  out->warn = out->applied = 0;
-  out->method = BL_METHOD_COMPLETE;
-  return BL_SUCCESS;
-}
-
-/* Source: elementary integrals.  int_0^T k f = T + T = 2T exactly (the
-** k -> 0 end handled by the map, never cut; the last 1e-12 T below T is
-** left out, src/core/target/integral.c, hence 1e-11); int_a^b f = ln(b/a) +
-** 2(b - a)/T. */
-Test(he, k_integrals_exact) {
-  double T = 7.0;
-  bl_result r0, r1;
-  cr_assert_eq(bl_kintegral_e(polyf, &T, 0.0, T, T, NULL, 0, 1, 1e-10, &r1),
-               BL_SUCCESS);
-  cr_expect(fabs(r1.val / (2 * T) - 1) < 1e-11, "%.17g", r1.val);
-  cr_assert_eq(bl_kintegral2_e(polyf, &T, 0.01, 6.0, T, NULL, 0, 1e-10, &r0, &r1),
-               BL_SUCCESS);
-  cr_expect(fabs(r0.val / (log(600.0) + 2 * (6.0 - 0.01) / T) - 1) < 1e-10);
-  cr_expect(fabs(r1.val / ((6.0 - 0.01) + (36.0 - 1e-4) / T) - 1) < 1e-10);
-  cr_expect_eq(r0.method, BL_METHOD_COMPLETE);
-  cr_expect_eq(bl_kintegral_e(polyf, &T, 0.0, T, T, NULL, 0, 0, 1e-6, &r0),
-               BL_EDOMAIN, "moment 0 from k = 0 diverges: refused");
-  cr_expect_eq(bl_kintegral_e(polyf, &T, 1.0, 8.0, T, NULL, 0, 0, 1e-6, &r0),
-               BL_EDOMAIN);
-}
-
-
-/* ---- suppression ---- */
-
-static bl_material element (int Z) {
-  bl_material m;
-  cr_assert_eq(bl_material_element(&m, Z), BL_SUCCESS);
-  return m;
-}
-
-/*
-** Source: Review of Particle Physics, passage of particles through matter
-** (from memory): E_LPM = m_e^2 c^3 alpha X0 / (4 pi hbar) = 7.7 TeV per
-** cm of radiation length; hbar omega_p = 28.816 eV sqrt(rho <Z/A>), for
-** lead 61.07 eV (from memory: 1 %).
-*/
-Test(he, lpm_energy_and_plasma) {
-  bl_material pb = element(82);
-  bl_suppress s;
-  cr_assert(pb.density > 11 && pb.density < 12, "xraylib's lead density");
-  cr_assert_eq(bl_suppress_init(&s, BL_SUPPRESS_DIELECTRIC, &pb,
-                                bl_particle_find("electron")), BL_SUCCESS);
-  cr_expect(fabs(s.elpm / s.X0cm / 7.7e6 - 1) < 0.01, "E_LPM/X0 = %.4g MeV/cm",
-            s.elpm / s.X0cm);
-  cr_expect(fabs(s.plasma / 61.07e-6 - 1) < 0.01, "plasma %.5g eV",
-            s.plasma * 1e6);
-  pb.density = 0;
-  cr_expect_eq(bl_suppress_init(&s, BL_SUPPRESS_LPM, &pb,
-                                bl_particle_find("electron")), BL_EDOMAIN,
-               "no density: refused");
-}
-
-
-/*
-** Source: Migdal 1956, as reviewed by Klein 1999 (Rev. Mod. Phys. 71,
-** 1501), section II: far below k_LPM = E (E - k) / E_LPM dsigma/dk goes
-** like k^-1/2; far above it is unchanged; dielectric suppression cuts
-** k below about gamma hbar omega_p as k^2/(k^2 + k_p^2).
-*/
-Test(he, lpm_and_dielectric_shapes) {
-  bl_material pb = element(82), c = element(6);
-  bl_suppress lpm, die;
-  double E0 = 1e7, klpm, f1, f2, slope, kp;   /* 10 TeV electrons */
-  const bl_particle *e = bl_particle_find("electron");
-  cr_assert_eq(bl_suppress_init(&lpm, BL_SUPPRESS_LPM, &pb, e), BL_SUCCESS);
-  klpm = E0 * E0 / lpm.elpm;
-  /* dsigma/dk ~ factor / k at small y: its log slope between k and 4k */
-  f1 = bl_suppress_factor(&lpm, E0, 1e-4 * klpm);
-  f2 = bl_suppress_factor(&lpm, E0, 4e-4 * klpm);
-  slope = log((f2 / 4e-4) / (f1 / 1e-4)) / log(4.0);
-  cr_expect(slope > -0.6 && slope < -0.4, "slope %.3f", slope);
-  cr_expect(f1 < 0.1, "strong suppression far below k_LPM: %.3g", f1);
-  /* 100 GeV: k = 50 GeV is 40 times k_LPM = E (E - k)/E_LPM */
-  cr_expect(bl_suppress_factor(&lpm, 1e5, 5e4) > 0.99);
-  cr_expect(bl_suppress_factor(&lpm, 1e3, 100.0) > 0.999,
-            "1 GeV on lead, k = 100 MeV: no LPM");
-  /* dielectric on carbon at 1 GeV, where LPM is negligible near k_p =
-  ** gamma hbar omega_p (0.06 MeV; k_LPM there is 7e-6 MeV) */
-  cr_assert_eq(bl_suppress_init(&die, BL_SUPPRESS_DIELECTRIC, &c, e),
-               BL_SUCCESS);
-  kp = 1e3 / e->mass * die.plasma;
-  cr_expect(fabs(bl_suppress_factor(&die, 1e3, kp) - 0.5) < 0.01, "%.4f",
-            bl_suppress_factor(&die, 1e3, kp));
-  cr_expect(fabs(bl_suppress_factor(&die, 1e3, 0.1 * kp) * 101 - 1) < 0.02);
-  cr_expect(bl_suppress_factor(&die, 1e3, 30 * kp) > 0.998);
-  cr_expect_eq(bl_suppress_factor(&lpm, E0, 0.0), 1.0, "outside: no factor");
 }
