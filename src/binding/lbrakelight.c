@@ -3,9 +3,9 @@
 ** Lua binding of the brakelight core: the module `brakelight`
 ** See Copyright Notice in LICENSE
 **
-** The only file of src/ that includes Lua headers.  Every library function
-** takes one option table (argument #1), checks all of it before computing,
-** and reports bad input as "bad argument #1 to '<name>' (...)" naming the
+** Arguments in, tables out: the physics is the core's (bl_target.h).
+** Every library function takes one option table (argument #1), checks all
+** of it before computing, and reports bad input as "bad argument #1 to '<name>' (...)" naming the
 ** field, the value given and what is allowed.  Per-state data (the
 ** integration workspace) is a userdata upvalue, never a C static.
 */
