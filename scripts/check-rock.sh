@@ -10,13 +10,18 @@
 set -euo pipefail
 cd "$(dirname "$0")/.."
 test -x build/brakelight || { echo "test-rock: build/brakelight missing: run make" >&2; exit 1; }
+# the rockspec is made by `make` from scripts/brakelight.rockspec.in with
+# the version of include/brakelight/bl_version.h
+version=$(sed -n 's/^#define BL_VERSION "\(.*\)".*/\1/p' include/brakelight/bl_version.h)
+rockspec="build/brakelight-$version-1.rockspec"
+test -f "$rockspec" || { echo "test-rock: $rockspec missing: run make" >&2; exit 1; }
 read -r -a luarocks <<<"${LUAROCKS:-luarocks}"
 tmp=$(mktemp -d)
 trap 'rm -rf "$tmp"' EXIT
 tree="$tmp/tree"
 mkdir -p "$tmp/no-server"
 if ! "${luarocks[@]}" make --tree "$tree" --only-server="$tmp/no-server" \
-     scripts/brakelight-0.1.0-1.rockspec >"$tmp/log" 2>&1 </dev/null; then
+     "$rockspec" >"$tmp/log" 2>&1 </dev/null; then
   sed 's/^/  | /' "$tmp/log"
   echo "test-rock: luarocks make failed" >&2
   exit 1
