@@ -303,3 +303,97 @@ Test(methods, two_threads_one_cache) {
             b.val, s.val);
   cr_expect(a.el == b.el && a.el == s.el, "one table for both");
 }
+
+
+/*
+** Internal consistency: a scan over a model parameter (a new Yukawa
+** representation, so a new elastic table, per value) that releases each
+** bl_he keeps the cache within BL_METHOD_CACHE_IDLE entries (it grew by
+** one per value, without bound: 129 here); a table in use survives bl_method_cache_clear,
+** and after its release the clear empties the cache.
+*/
+Test(methods, cache_bounded_in_a_scan, .timeout = 120) {
+  const bl_particle *e = bl_particle_find("electron");
+  const bl_model *m = bl_model_find("exponential");
+  bl_opts o = bl_opts_default;
+  bl_quad *q = bl_quad_alloc(1000);
+  bl_case c;
+  bl_he h, keep;
+  bl_result r0, r1;
+  size_t most = 0;
+  int i;
+  o.nucleus = BL_NUCLEUS_POINT;   /* tables only */
+  cr_assert(q != NULL);
+  for (i = 0; i < 2 * BL_METHOD_CACHE_IDLE; i++) {
+    double par = 100.0 + 0.25 * i;
+    cr_assert_eq(bl_case_setup(&c, e, 29, m, &par, 1e5, &o), BL_SUCCESS);
+    cr_assert_eq(bl_he_prepare(&c, q, &h), BL_SUCCESS);
+    cr_assert(h.el != NULL && h.e != NULL);
+    cr_assert_eq(bl_he_dk_e(&c, &h, 3e4, &r0), BL_SUCCESS);
+    bl_he_release(&h);
+    cr_expect(!h.ready && h.el == NULL, "released h is cleared");
+    if (bl_method_cache_count() > most)
+      most = bl_method_cache_count();
+  }
+  cr_expect(most <= BL_METHOD_CACHE_IDLE + 2, "cache held %zu entries", most);
+  cr_assert_eq(bl_case_setup(&c, e, 29, m, NULL, 1e5, &o), BL_SUCCESS);
+  cr_assert_eq(bl_he_prepare(&c, q, &keep), BL_SUCCESS);
+  cr_assert_eq(bl_he_dk_e(&c, &keep, 3e4, &r0), BL_SUCCESS);
+  bl_method_cache_clear();
+  cr_expect_eq(bl_method_cache_count(), 2, "the two tables in use stay");
+  cr_assert_eq(bl_he_dk_e(&c, &keep, 3e4, &r1), BL_SUCCESS);
+  cr_expect(r0.val == r1.val && r0.err == r1.err);
+  bl_he_release(&keep);
+  bl_method_cache_clear();
+  cr_expect_eq(bl_method_cache_count(), 0);
+  bl_he_release(&keep);   /* twice: a no-op */
+  bl_he_release(NULL);
+  bl_quad_free(q);
+}
+
+
+/* Two threads scanning the same parameter values at once, each value
+** prepared, used and released, while evictions run: the same numbers as
+** serially, bit for bit (and no use after free under make test-asan). */
+typedef struct scanjob {
+  double val[3 * BL_METHOD_CACHE_IDLE];
+  int ok;
+} scanjob;
+
+static void *scanrun (void *arg) {
+  scanjob *j = arg;
+  const bl_particle *e = bl_particle_find("electron");
+  bl_opts o = bl_opts_default;
+  bl_case c;
+  bl_he h;
+  bl_result r;
+  int i;
+  o.nucleus = BL_NUCLEUS_POINT;
+  j->ok = 1;
+  for (i = 0; i < 3 * BL_METHOD_CACHE_IDLE; i++) {
+    double par = 80.0 + 0.5 * (i % (2 * BL_METHOD_CACHE_IDLE));
+    if (bl_case_setup(&c, e, 13, bl_model_find("exponential"), &par, 1e5,
+                      &o) != BL_SUCCESS
+        || bl_he_prepare(&c, NULL, &h) != BL_SUCCESS
+        || bl_he_dk_e(&c, &h, 2e4, &r) != BL_SUCCESS)
+      j->ok = 0;
+    j->val[i] = r.val;
+    bl_he_release(&h);
+  }
+  return NULL;
+}
+
+Test(methods, cache_shared_by_threads, .timeout = 120) {
+  static scanjob a, b, s;
+  pthread_t t1, t2;
+  int i;
+  cr_assert_eq(pthread_create(&t1, NULL, scanrun, &a), 0);
+  cr_assert_eq(pthread_create(&t2, NULL, scanrun, &b), 0);
+  pthread_join(t1, NULL);
+  pthread_join(t2, NULL);
+  scanrun(&s);
+  cr_assert(a.ok && b.ok && s.ok);
+  for (i = 0; i < 3 * BL_METHOD_CACHE_IDLE; i++)
+    cr_expect(a.val[i] == s.val[i] && b.val[i] == s.val[i], "value %d", i);
+  cr_expect(bl_method_cache_count() <= BL_METHOD_CACHE_IDLE);
+}

@@ -28,6 +28,7 @@ struct bl_nuctab {
   int n;
   double lnd[NUC_NODES];  /* ln delta of the nodes, increasing */
   double N1[NUC_NODES], N2[NUC_NODES];
+  int refs;               /* bl_he holding it (under nuc_lock) */
   struct bl_nuctab *next;
 };
 
@@ -131,7 +132,8 @@ static int nucbuild (bl_quad *q, bl_nuctab *t) {
 }
 
 
-/* Grid node (spin, ix), calibrated on first use with q (lock held). */
+/* Grid node (spin, ix), calibrated on first use with q, with one
+** reference for the caller (lock held). */
 static int nucnode (double spin, int ix, bl_quad *q, const bl_nuctab **out) {
   bl_nuctab *t;
   int st = BL_SUCCESS;
@@ -155,6 +157,7 @@ static int nucnode (double spin, int ix, bl_quad *q, const bl_nuctab **out) {
     t->next = nuc_head;
     nuc_head = t;
   }
+  t->refs++;
   *out = t;
   return st;
 }
@@ -189,6 +192,50 @@ int bl_nucsize_get (const bl_case *c, bl_quad *q, bl_he *h) {
   if (st == BL_SUCCESS)
     h->nnuc = 4;
   return st;
+}
+
+
+void bl_nucsize_release (const bl_nuctab *ct) {
+  bl_nuctab *t;
+  if (ct == NULL)
+    return;
+  pthread_mutex_lock(&nuc_lock);
+  for (t = nuc_head; t != NULL && t != ct; t = t->next)
+    ;
+  if (t != NULL && t->refs > 0)
+    t->refs--;
+  pthread_mutex_unlock(&nuc_lock);
+}
+
+
+size_t bl_nucsize_clear (void) {
+  bl_nuctab **p;
+  size_t n = 0;
+  pthread_mutex_lock(&nuc_lock);
+  for (p = &nuc_head; *p != NULL;) {
+    bl_nuctab *t = *p;
+    if (t->refs == 0) {
+      *p = t->next;
+      free(t);
+    }
+    else {
+      p = &t->next;
+      n++;
+    }
+  }
+  pthread_mutex_unlock(&nuc_lock);
+  return n;
+}
+
+
+size_t bl_nucsize_count (void) {
+  const bl_nuctab *t;
+  size_t n = 0;
+  pthread_mutex_lock(&nuc_lock);
+  for (t = nuc_head; t != NULL; t = t->next)
+    n++;
+  pthread_mutex_unlock(&nuc_lock);
+  return n;
 }
 
 
