@@ -136,7 +136,7 @@ Test(particle, check_rejects) {
 ** Constants of bl_const.h against CODATA 2018 (Tiesinga et al., Rev. Mod.
 ** Phys. 93 (2021) 025010), from memory, and against each other:
 ** r_e = alpha hbar c/(m_e c^2) and a_B = hbar c/(alpha m_e c^2) hold to the
-** quoted digits (1e-9); r_e^2 = 79.407877 mb (physics.md).
+** quoted digits (1e-9); r_e^2 = 79.407877 mb (CODATA 2018 r_e, squared).
 */
 Test(particle, constants) {
   EXPECT_REL(1.0 / BL_ALPHA, 137.035999084, 1e-11, "1/alpha (CODATA 2018)");
@@ -149,7 +149,7 @@ Test(particle, constants) {
   EXPECT_REL(BL_BOHR_FM, BL_HBARC_MEVFM / (BL_ALPHA * BL_ME_MEV), 1e-9,
              "a_B vs hbar c / (alpha m_e)");
   EXPECT_REL(BL_RE_FM * BL_RE_FM / BL_FM2_PER_MB, 79.407877, 1e-7,
-             "r_e^2 in mb (physics.md)");
+             "r_e^2 in mb (CODATA 2018)");
   EXPECT_REL(BL_PI, 3.14159265358979323846, 1e-16, "pi");
 }
 

