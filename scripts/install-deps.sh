@@ -12,8 +12,8 @@
 set -euo pipefail
 
 # clang and its libFuzzer runtime (libclang-rt-dev): make fuzz-smoke;
-# valgrind: make valgrind (both part of make check)
-pkgs=(liblua5.4-dev lua5.4 libgsl-dev libcriterion-dev libxrl-dev clang
+# valgrind: make valgrind (both part of make check); cppcheck: make lint
+pkgs=(liblua5.4-dev lua5.4 libgsl-dev libcriterion-dev libxrl-dev clang cppcheck
       libclang-rt-dev valgrind)
 
 for opt in "$@"; do

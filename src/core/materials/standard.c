@@ -160,7 +160,7 @@ static void distances (const char *q, const char *name, int *part,
 /* Lowercase copy of s into buf (size BL_MATERIAL_NAMELEN), truncated. */
 static void lower (char *buf, const char *s) {
   size_t i;
-  for (i = 0; s[i] != '\0' && i < BL_MATERIAL_NAMELEN - 1; i++)
+  for (i = 0; i < BL_MATERIAL_NAMELEN - 1 && s[i] != '\0'; i++)
     buf[i] = (s[i] >= 'A' && s[i] <= 'Z') ? (char)(s[i] + 'a' - 'A') : s[i];
   buf[i] = '\0';
 }
@@ -168,7 +168,7 @@ static void lower (char *buf, const char *s) {
 
 int bl_material_suggest (const char *name, const char **out, int nmax) {
   int bestp[8], bestw[8], besti[8];
-  char q[BL_MATERIAL_NAMELEN], cand[BL_MATERIAL_NAMELEN];
+  char q[BL_MATERIAL_NAMELEN] = "", cand[BL_MATERIAL_NAMELEN] = "";
   int i, k, n = 0;
   if (name == NULL || out == NULL || nmax < 1)
     return 0;
