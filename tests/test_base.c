@@ -517,7 +517,8 @@ Test(health, null_materials_models_and_workspaces) {
                BL_EDOMAIN);
   cr_expect_eq(bl_material_standard(NULL, "Air, Dry (near sea level)"),
                BL_EDOMAIN);
-  cr_expect_eq(bl_material_standard(&m, NULL), BL_EDOMAIN);
+  cr_expect_eq(bl_material_standard(&m, NULL), BL_EUNKNOWN,
+               "no name: unknown, as documented");
   cr_expect_eq(bl_material_lookup(NULL, "Pb", NULL), BL_EDOMAIN);
   cr_expect_eq(bl_material_lookup(&m, NULL, NULL), BL_EDOMAIN);
   cr_expect_eq(bl_material_suggest(NULL, names, 4), 0);

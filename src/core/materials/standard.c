@@ -88,10 +88,8 @@ int bl_material_standard (bl_material *m, const char *name) {
   if (m == NULL)
     return BL_EDOMAIN;
   memset(m, 0, sizeof *m);
-  if (name == NULL)
-    return BL_EDOMAIN;
-  if ((idx = findstd(name)) < 0)
-    return BL_EUNKNOWN;
+  if (name == NULL || (idx = findstd(name)) < 0)
+    return BL_EUNKNOWN;   /* no name is an unknown name (as before) */
   c = GetCompoundDataNISTByName(stdnames[idx], &e);
   if (e != NULL)
     xrl_error_free(e);
