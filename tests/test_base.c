@@ -409,7 +409,8 @@ Test(health, null_cases_and_cross_sections) {
   cr_expect_eq(bl_case_setup(NULL, e, 29, m, NULL, 10.0, NULL), BL_EDOMAIN);
   cr_expect_eq(bl_case_setup(&c, NULL, 29, m, NULL, 10.0, NULL), BL_EDOMAIN);
   cr_expect_eq(bl_case_setup(&c, e, 29, NULL, NULL, 10.0, NULL), BL_EDOMAIN);
-  nullsetup(&c, &q);
+  bl_quad_free(q);
+  nullsetup(&c, &q);   /* a valid case again */
   cr_expect_eq(bl_dcs_full_e(NULL, 1.0, 0.1, 0.1, 0.0, &r), BL_EDOMAIN);
   cr_expect_eq(bl_dcs_full_e(&c, 1.0, 0.1, 0.1, 0.0, NULL), BL_EDOMAIN);
   cr_expect_eq(bl_dcs_angular_e(NULL, 1.0, 1e-5, q, &r), BL_EDOMAIN);
