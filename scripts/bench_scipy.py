@@ -8,7 +8,7 @@ and final-particle directions with nested scipy.integrate.quad calls, and
 prints the value and the wall time per point, for comparison with the C
 core (same integral, same relative tolerance).
 
-Formula (physics.md, "Fully differential Born cross section"), units
+Formula (Bethe & Heitler 1934; Koch & Motz 1959, 2BN), units
 hbar = c = m = 1, k along z, theta0 = angle(p0, k), theta = angle(p, k),
 phi = azimuth between the (p0, k) and (p, k) planes:
 
@@ -20,7 +20,7 @@ phi = azimuth between the (p0, k) and (p, k) planes:
   dOmega_k dOmega_p = 2 pi sin(theta0) dtheta0 sin(theta) dtheta dphi,
   phi over [0, 2 pi] = 2 x [0, pi] by symmetry.
 
-Cancellation-free kinematics (physics.md): E - p cos(theta) =
+Cancellation-free kinematics (DEVELOPERS.md, kinematics): E - p cos(theta) =
 1/(E + p) + 2 p sin^2(theta/2); q_z = (p0 - p - k) - 2 p0 sin^2(theta0/2)
 + 2 p sin^2(theta/2) with p0 - p - k = k [1/(E0 + p0) + 1/(E + p)]/(p0 + p);
 |q_perp|^2 = (p0 sin(theta0) - p sin(theta))^2 + 4 p0 p sin(theta0)

@@ -92,7 +92,7 @@
 ** points; the complete-screening constants L = 1 + int_0^1 (1 - F/Z)^2 dq/q
 ** and L' = 1 + int_0^1 S/Z dq/q (q in m_e c, x up to 20.6 1/A) from table
 ** and fit; and the screening functions of the high-energy limit
-** (physics.md), phi1(d) = 4 + 4 int_d^1 (q - d)^2/q^3 g dq and
+** (Tsai 1974, Rev. Mod. Phys. 46, 815, sec. 3), phi1(d) = 4 + 4 int_d^1 (q - d)^2/q^3 g dq and
 ** phi2(d) = 10/3 + 4 int_d^1 [q^3 - 6 d^2 q ln(q/d) + 3 d^2 q - 4 d^3]/q^4 g dq
 ** with g = (1 - F/Z)^2 or S/Z, for d = 5e-5 ... 0.6: the largest relative
 ** difference fit/table, which is what a cross section at high energy sees.

@@ -12,6 +12,7 @@
 set -euo pipefail
 
 # clang and its libFuzzer runtime (libclang-rt-dev): make fuzz-smoke;
+<<<<<<< HEAD
 # valgrind: make valgrind; pkgconf (Debian 12's pkg-config is a transitional
 # package for it): make test-install; libtsan2 (gcc's ThreadSanitizer runtime, usually
 # pulled in by gcc already): make test-tsan (all part of make check)
@@ -22,6 +23,11 @@ pkgs=(liblua5.4-dev lua5.4 libgsl-dev libcriterion-dev libxrl-dev clang
 # binding (src/lbl_compat.h), and luarocks (make test-rock)
 pkgs+=(liblua5.1-0-dev lua5.1 liblua5.2-dev lua5.2 liblua5.3-dev lua5.3
        libluajit-5.1-dev luajit lua-compat53-dev luarocks)
+=======
+# valgrind: make valgrind (both part of make check); cppcheck: make lint
+pkgs=(liblua5.4-dev lua5.4 libgsl-dev libcriterion-dev libxrl-dev clang cppcheck
+      libclang-rt-dev valgrind)
+>>>>>>> core-fixes
 
 for opt in "$@"; do
   case "$opt" in

@@ -136,7 +136,7 @@ Test(particle, check_rejects) {
 ** Constants of bl_const.h against CODATA 2018 (Tiesinga et al., Rev. Mod.
 ** Phys. 93 (2021) 025010), from memory, and against each other:
 ** r_e = alpha hbar c/(m_e c^2) and a_B = hbar c/(alpha m_e c^2) hold to the
-** quoted digits (1e-9); r_e^2 = 79.407877 mb (physics.md).
+** quoted digits (1e-9); r_e^2 = 79.407877 mb (CODATA 2018 r_e, squared).
 */
 Test(particle, constants) {
   EXPECT_REL(1.0 / BL_ALPHA, 137.035999084, 1e-11, "1/alpha (CODATA 2018)");
@@ -149,7 +149,7 @@ Test(particle, constants) {
   EXPECT_REL(BL_BOHR_FM, BL_HBARC_MEVFM / (BL_ALPHA * BL_ME_MEV), 1e-9,
              "a_B vs hbar c / (alpha m_e)");
   EXPECT_REL(BL_RE_FM * BL_RE_FM / BL_FM2_PER_MB, 79.407877, 1e-7,
-             "r_e^2 in mb (physics.md)");
+             "r_e^2 in mb (CODATA 2018)");
   EXPECT_REL(BL_PI, 3.14159265358979323846, 1e-16, "pi");
 }
 
@@ -409,7 +409,8 @@ Test(health, null_cases_and_cross_sections) {
   cr_expect_eq(bl_case_setup(NULL, e, 29, m, NULL, 10.0, NULL), BL_EDOMAIN);
   cr_expect_eq(bl_case_setup(&c, NULL, 29, m, NULL, 10.0, NULL), BL_EDOMAIN);
   cr_expect_eq(bl_case_setup(&c, e, 29, NULL, NULL, 10.0, NULL), BL_EDOMAIN);
-  nullsetup(&c, &q);
+  bl_quad_free(q);
+  nullsetup(&c, &q);   /* a valid case again */
   cr_expect_eq(bl_dcs_full_e(NULL, 1.0, 0.1, 0.1, 0.0, &r), BL_EDOMAIN);
   cr_expect_eq(bl_dcs_full_e(&c, 1.0, 0.1, 0.1, 0.0, NULL), BL_EDOMAIN);
   cr_expect_eq(bl_dcs_angular_e(NULL, 1.0, 1e-5, q, &r), BL_EDOMAIN);
@@ -517,7 +518,8 @@ Test(health, null_materials_models_and_workspaces) {
                BL_EDOMAIN);
   cr_expect_eq(bl_material_standard(NULL, "Air, Dry (near sea level)"),
                BL_EDOMAIN);
-  cr_expect_eq(bl_material_standard(&m, NULL), BL_EUNKNOWN);
+  cr_expect_eq(bl_material_standard(&m, NULL), BL_EUNKNOWN,
+               "no name: unknown, as documented");
   cr_expect_eq(bl_material_lookup(NULL, "Pb", NULL), BL_EDOMAIN);
   cr_expect_eq(bl_material_lookup(&m, NULL, NULL), BL_EDOMAIN);
   cr_expect_eq(bl_material_suggest(NULL, names, 4), 0);

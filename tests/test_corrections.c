@@ -66,7 +66,8 @@ Test(corrections, elwert_closed_form) {
 
 /* Davies, Bethe & Maximon (1954) in Tsai's form (Tsai 1974): the
 ** correction subtracts 4 f(Z alpha) from phi1 and phi2 of the nuclear part,
-** i.e. (Z^2 alpha r0^2 / k) 4 f [(1 + v^2) - 2v/3]; f from physics.md. */
+** i.e. (Z^2 alpha r0^2 / k) 4 f [(1 + v^2) - 2v/3]; f from Davies, Bethe &
+** Maximon 1954 (Phys. Rev. 93, 788). */
 Test(corrections, coulomb_difference) {
   bl_opts on = bl_opts_default, off = bl_opts_default;
   bl_result r;

@@ -533,7 +533,7 @@ Test(material, lookup) {
 /*
 ** Tsai's X0 against the Review of Particle Physics (Particle Data Group),
 ** "Atomic and nuclear properties of materials" table, radiation lengths in
-** g/cm^2 -- values quoted from memory (physics.md), hence 0.3 %.  Water is
+** g/cm^2 -- values quoted from memory, hence 0.3 %.  Water is
 ** taken both as the formula H2O and as xraylib's "Water, Liquid"; air as
 ** xraylib's "Air, Dry (near sea level)" (C, N, O, Ar by mass).
 ** Measured when written: |deviation| <= 0.045 % (W: 6.7630 against 6.76,
@@ -563,7 +563,7 @@ Test(material, radiation_length_rpp) {
 
 
 /*
-** The formula of physics.md: X0 = 716.408 g/cm^2 * A / (Z^2 (L_rad - f)
+** Tsai's formula (Tsai 1974, Rev. Mod. Phys. 46, 815): X0 = 716.408 g/cm^2 * A / (Z^2 (L_rad - f)
 ** + Z L'_rad), with the constant 716.408 written out there (the code
 ** computes it from CODATA 2018: 716.4076); and the mixture rule
 ** 1/X0 = sum w_i / X0_i.

@@ -53,11 +53,10 @@ static double deviation (const bl_particle *p, int Z, const char *model,
 
 
 /*
-** Source: Tsai 1974 (Rev. Mod. Phys. 46, 815), section 3, and
-** physics.md: the screening-function form is the small-angle limit of the
+** Source: Tsai 1974 (Rev. Mod. Phys. 46, 815), section 3: the screening-function form is the small-angle limit of the
 ** Born integral.  Check of the issue: within 0.5 % for E >= 10^3 m, both
 ** spins, every screening model, y from 0.01 to 0.99.  E is the final
-** energy (physics.md's notation: E0 before, E after emission), so the
+** energy (Tsai's notation: E0 before, E after emission), so the
 ** initial gamma is 10^3/(1 - y); uniform nucleus, atomic electrons.
 */
 Test(methods, matches_born_above_1e3_m) {
@@ -124,7 +123,7 @@ Test(methods, auto_switch_agrees) {
 }
 
 
-/* Tsai (1974) eq. (3.83), written out here independently (physics.md):
+/* Tsai (1974) eq. (3.83), written out here independently:
 ** complete screening with atomic electrons and f(Z), mb/MeV. */
 static double tsai (int Z, double E0, double k, double mass) {
   static const double lr[5] = {0, 5.31, 4.79, 4.74, 4.71};
@@ -167,8 +166,9 @@ Test(methods, complete_is_tsai) {
 
 
 /*
-** Source: physics.md ("Thomas-Fermi (Moliere) screening at T = 100 GeV,
-** Pb: within 0.2 % of the complete-screening form"; Moliere's L_rad is
+** Source: Tsai 1974 (complete screening) and a measurement (Thomas-Fermi
+** (Moliere) screening at T = 100 GeV, Pb: within 0.2 % of the complete-
+** screening form); Moliere's L_rad is
 ** within 0.254 % of Tsai's).  The high-energy method with Thomas-Fermi
 ** screening, whose electron field is matched to Tsai's L'_rad, reaches the
 ** complete-screening limit at small Delta: within 0.5 % at 10 TeV.
@@ -202,7 +202,7 @@ Test(methods, complete_screening_limit) {
 
 
 /*
-** Source: physics.md and Koch & Motz 1959 (3BN(b)): unscreened, point
+** Source: Koch & Motz 1959 (3BN(b)): unscreened, point
 ** nucleus, phi1 = phi2 = 4 ln(1/delta) - 2 for delta -> 0, so
 ** dsigma/dk = (norm/k) [(1 + v^2) - (2/3) v] (4 ln(1/delta) - 2).
 */
@@ -302,4 +302,98 @@ Test(methods, two_threads_one_cache) {
   cr_expect(a.val == b.val && a.val == s.val, "%.17g %.17g %.17g", a.val,
             b.val, s.val);
   cr_expect(a.el == b.el && a.el == s.el, "one table for both");
+}
+
+
+/*
+** Internal consistency: a scan over a model parameter (a new Yukawa
+** representation, so a new elastic table, per value) that releases each
+** bl_he keeps the cache within BL_METHOD_CACHE_IDLE entries (it grew by
+** one per value, without bound: 129 here); a table in use survives bl_method_cache_clear,
+** and after its release the clear empties the cache.
+*/
+Test(methods, cache_bounded_in_a_scan, .timeout = 120) {
+  const bl_particle *e = bl_particle_find("electron");
+  const bl_model *m = bl_model_find("exponential");
+  bl_opts o = bl_opts_default;
+  bl_quad *q = bl_quad_alloc(1000);
+  bl_case c;
+  bl_he h, keep;
+  bl_result r0, r1;
+  size_t most = 0;
+  int i;
+  o.nucleus = BL_NUCLEUS_POINT;   /* tables only */
+  cr_assert(q != NULL);
+  for (i = 0; i < 2 * BL_METHOD_CACHE_IDLE; i++) {
+    double par = 100.0 + 0.25 * i;
+    cr_assert_eq(bl_case_setup(&c, e, 29, m, &par, 1e5, &o), BL_SUCCESS);
+    cr_assert_eq(bl_he_prepare(&c, q, &h), BL_SUCCESS);
+    cr_assert(h.el != NULL && h.e != NULL);
+    cr_assert_eq(bl_he_dk_e(&c, &h, 3e4, &r0), BL_SUCCESS);
+    bl_he_release(&h);
+    cr_expect(!h.ready && h.el == NULL, "released h is cleared");
+    if (bl_method_cache_count() > most)
+      most = bl_method_cache_count();
+  }
+  cr_expect(most <= BL_METHOD_CACHE_IDLE + 2, "cache held %zu entries", most);
+  cr_assert_eq(bl_case_setup(&c, e, 29, m, NULL, 1e5, &o), BL_SUCCESS);
+  cr_assert_eq(bl_he_prepare(&c, q, &keep), BL_SUCCESS);
+  cr_assert_eq(bl_he_dk_e(&c, &keep, 3e4, &r0), BL_SUCCESS);
+  bl_method_cache_clear();
+  cr_expect_eq(bl_method_cache_count(), 2, "the two tables in use stay");
+  cr_assert_eq(bl_he_dk_e(&c, &keep, 3e4, &r1), BL_SUCCESS);
+  cr_expect(r0.val == r1.val && r0.err == r1.err);
+  bl_he_release(&keep);
+  bl_method_cache_clear();
+  cr_expect_eq(bl_method_cache_count(), 0);
+  bl_he_release(&keep);   /* twice: a no-op */
+  bl_he_release(NULL);
+  bl_quad_free(q);
+}
+
+
+/* Two threads scanning the same parameter values at once, each value
+** prepared, used and released, while evictions run: the same numbers as
+** serially, bit for bit (and no use after free under make test-asan). */
+typedef struct scanjob {
+  double val[3 * BL_METHOD_CACHE_IDLE];
+  int ok;
+} scanjob;
+
+static void *scanrun (void *arg) {
+  scanjob *j = arg;
+  const bl_particle *e = bl_particle_find("electron");
+  bl_opts o = bl_opts_default;
+  bl_case c;
+  bl_he h;
+  bl_result r;
+  int i;
+  o.nucleus = BL_NUCLEUS_POINT;
+  j->ok = 1;
+  for (i = 0; i < 3 * BL_METHOD_CACHE_IDLE; i++) {
+    double par = 80.0 + 0.5 * (i % (2 * BL_METHOD_CACHE_IDLE));
+    if (bl_case_setup(&c, e, 13, bl_model_find("exponential"), &par, 1e5,
+                      &o) != BL_SUCCESS
+        || bl_he_prepare(&c, NULL, &h) != BL_SUCCESS
+        || bl_he_dk_e(&c, &h, 2e4, &r) != BL_SUCCESS)
+      j->ok = 0;
+    j->val[i] = r.val;
+    bl_he_release(&h);
+  }
+  return NULL;
+}
+
+Test(methods, cache_shared_by_threads, .timeout = 120) {
+  static scanjob a, b, s;
+  pthread_t t1, t2;
+  int i;
+  cr_assert_eq(pthread_create(&t1, NULL, scanrun, &a), 0);
+  cr_assert_eq(pthread_create(&t2, NULL, scanrun, &b), 0);
+  pthread_join(t1, NULL);
+  pthread_join(t2, NULL);
+  scanrun(&s);
+  cr_assert(a.ok && b.ok && s.ok);
+  for (i = 0; i < 3 * BL_METHOD_CACHE_IDLE; i++)
+    cr_expect(a.val[i] == s.val[i] && b.val[i] == s.val[i], "value %d", i);
+  cr_expect(bl_method_cache_count() <= BL_METHOD_CACHE_IDLE);
 }

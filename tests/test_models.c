@@ -166,8 +166,8 @@ Test(models, lookup) {
 
 /*
 ** Form factors: finite, 0 <= F/Z <= 1, non-increasing in q; screened models
-** have F(0)/Z = 1 (the atom's charge, physics.md: F(0) = Z) and F -> 0 at
-** large q (F(inf) = 0); "none" is F = 0 (physics.md, screening models).
+** have F(0)/Z = 1 (F(0) = Z counts the atom's electrons) and F -> 0 at
+** large q (F(inf) = 0); "none" is F = 0 (the bare nucleus of Bethe & Heitler 1934).
 */
 Test(models, form_factors) {
   int n = nmodels(), i;
@@ -422,7 +422,7 @@ Test(screening, quadrature_closed_forms) {
 /* --------------------------------------------------------- Thomas-Fermi */
 
 /*
-** Moliere's fit (Moliere 1947; as quoted in physics.md): F/Z = sum alpha_i
+** Moliere's fit (Moliere 1947, Z. Naturforsch. 2a, 133): F/Z = sum alpha_i
 ** b_i^2/(b_i^2 + q^2), alpha = (0.10, 0.55, 0.35), b_i = beta_i hbar c /
 ** a_TF, beta = (6.0, 1.20, 0.30), a_TF = 0.88534 a_B Z^-1/3.  Same closed
 ** form evaluated here: 1e-12 relative; the Yukawa terms are these, with
@@ -460,9 +460,9 @@ Test(screening, thomas_fermi_is_moliere) {
 /*
 ** Elastic complete-screening constant of Moliere's fit against Tsai's
 ** L_rad = ln(184.15 Z^-1/3) (Tsai 1974, Rev. Mod. Phys. 46, 815, the
-** Thomas-Fermi value) for Z = 6..92.  physics.md reports 0.25 % measured;
+** Thomas-Fermi value) for Z = 6..92.  a first measurement gave 0.25 %;
 ** our quadrature (and an independent SciPy one) gives 0.096 % at Z = 6
-** rising to 0.254 % at Z = 92, so physics.md's figure is rounded:
+** rising to 0.254 % at Z = 92, so that figure was rounded:
 ** tolerance 0.26 %.
 */
 Test(screening, thomas_fermi_lrad_is_tsai) {
@@ -506,7 +506,7 @@ Test(screening, thomas_fermi_electrons_match_tsai) {
 
 /*
 ** The inelastic screening radius shrinks like Z^(-2/3) (the reason for
-** not using S = Z [1 - (F/Z)^2], physics.md): from Z = 10 to 90 the
+** not using S = Z [1 - (F/Z)^2], src/core/models/thomas_fermi.c): from Z = 10 to 90 the
 ** momentum grows by 9^(2/3) = 4.33 in the large-A limit, where
 ** L' = 1 + ln A - sum alpha ln beta; the exact ratio differs by the
 ** finite-A terms, ~1 %.  Tolerance 3 %.
@@ -629,7 +629,7 @@ Test(screening, hartree_fock_fits_are_valid) {
 ** Hydrogen and helium: the fits reproduce Tsai's constants from exact and
 ** Hartree-Fock wave functions (Tsai 1974): L_rad 5.31, L'_rad 6.144 (H),
 ** 4.79, 5.621 (He).  The tables themselves give 5.310, 6.144, 4.793, 5.606
-** (physics.md, measured; our generator: 5.3104, 6.1437, 4.7931, 5.6056),
+** (measured by quadrature of xraylib's tables; our generator: 5.3104, 6.1437, 4.7931, 5.6056),
 ** helium's L' 0.27 % below Tsai's; tolerance 0.5 % for each.
 */
 Test(screening, hartree_fock_h_he_are_tsai) {
@@ -684,7 +684,7 @@ static double table_constant (int Z, int S) {
 Test(screening, hartree_fock_constants_match_xraylib) {
   const bl_model *m = model("hartree-fock");
   int Z;
-  /* physics.md's measured table values for H and He, as a check of the
+  /* the measured table values for H and He, as a check of the
   ** table quadrature itself: 5.310, 6.144, 4.793, 5.606 (to 1e-3) */
   cr_expect(fabs(table_constant(1, 0) - 5.310) <= 1e-3);
   cr_expect(fabs(table_constant(1, 1) - 6.144) <= 1e-3);
@@ -702,7 +702,7 @@ Test(screening, hartree_fock_constants_match_xraylib) {
 /*
 ** Against Tsai's Thomas-Fermi constants (Tsai 1974: ln(184.15 Z^-1/3),
 ** ln(1194 Z^-2/3)), which the tables approach as Z grows and lie below for
-** Z >= 5.  physics.md reports the tables within 1.5 % (L_rad, Z >= 6) and
+** Z >= 5.  a first measurement put the tables within 1.5 % (L_rad, Z >= 6) and
 ** 8 % (L'_rad, light elements); our quadrature of the same tables gives
 ** larger largest departures, both at neon: L_rad -1.83 %, L'_rad -9.1 %
 ** (Z = 6..20), and -1.13 %, -4.75 % for Z = 21..98.  The fits move these

@@ -344,3 +344,46 @@ Test(target, lpm_and_dielectric_shapes) {
   cr_expect(bl_suppress_factor(&die, 1e3, 30 * kp) > 0.998);
   cr_expect_eq(bl_suppress_factor(&lpm, E0, 0.0), 1.0, "outside: no factor");
 }
+
+
+/*
+** A material target: its element sum equals the weighted sum of its
+** elements' own dsigma/dk (bl_method_dk_e) to the last bit, a hard failure
+** names the element and k, and release gives back every table reference
+** (the cache can then free them).
+*/
+Test(target, material_sum_failure_and_release) {
+  static bl_target t;
+  bl_material m;
+  bl_tresult r;
+  bl_quad *q = bl_quad_alloc(1000);
+  size_t before = bl_method_cache_count();
+  double sum = 0.0, k = 3e5;
+  int i, Z = -1;
+  cr_assert(q != NULL);
+  cr_assert(bl_material_lookup(&m, "PbWO4", NULL) == BL_SUCCESS);
+  cr_assert(bl_target_setup(&t, bl_particle_find("muon"), &m,
+                            bl_model_find("hartree-fock"), NULL, 1e6,
+                            &bl_opts_default, BL_METHOD_HIGH_ENERGY, NULL,
+                            &Z) == BL_SUCCESS);
+  cr_assert(t.n == 3 && Z == 0);
+  cr_assert(bl_target_prepare(&t, q, &Z) == BL_SUCCESS);
+  cr_assert(bl_method_cache_count() > before, "tables built");
+  cr_assert(bl_target_dk_e(&t, k, q, &r) == BL_SUCCESS);
+  for (i = 0; i < t.n; i++) {
+    bl_result e;
+    cr_assert(bl_method_dk_e(&t.c[i], &t.he[i], t.method, k, q, &e)
+              == BL_SUCCESS);
+    sum += t.atoms[i] * e.val;
+  }
+  cr_expect(r.r.val == sum, "target %.17g, elements %.17g", r.r.val, sum);
+  cr_expect(r.used == 1u << BL_METHOD_HIGH_ENERGY);
+  cr_expect(bl_target_dk_e(&t, 2e6, q, &r) == BL_EDOMAIN, "k above T");
+  cr_expect(r.Z == m.comp[0].Z && r.k == 2e6, "failure at Z %d, k %g",
+            r.Z, r.k);
+  bl_target_release(&t);
+  bl_method_cache_clear();
+  cr_expect(bl_method_cache_count() <= before, "%zu entries left of %zu",
+            bl_method_cache_count(), before);
+  bl_quad_free(q);
+}

@@ -86,7 +86,8 @@ int bl_material_mixture (bl_material *m, int n, const bl_material *parts,
                          int *bad);
 
 /* A standard composition carried by xraylib, by its name (exact, then
-** case-insensitive).  BL_SUCCESS, BL_EUNKNOWN, or BL_EDOMAIN (NULL).  Density is set.  One
+** case-insensitive).  BL_SUCCESS, BL_EUNKNOWN (also for a NULL name), or
+** BL_EDOMAIN (NULL m).  Density is set.  One
 ** average atom per formula unit, as for mixtures. */
 int bl_material_standard (bl_material *m, const char *name);
 

@@ -42,21 +42,33 @@ const char *bl_method_name (int method);
 int bl_method_find (const char *name);
 
 /*
-** Tabulated screening integrals of one Yukawa representation (cached,
-** shared, never freed; see src/core/methods/).  Opaque.
+** Tabulated screening integrals of one Yukawa representation (cached and
+** shared between threads; see src/core/methods/).  Opaque.
 */
 typedef struct bl_hetab bl_hetab;
 
 /* Nuclear-size correction of phi1, phi2 at one node of a grid in the
 ** projectile mass times the nuclear radius, per spin (cached likewise).
 ** Opaque. */
+
+/* Most unreferenced screening tables the cache keeps for reuse; beyond,
+** the one released longest ago is freed (about 8 KB each). */
+#define BL_METHOD_CACHE_IDLE 64
 typedef struct bl_nuctab bl_nuctab;
 
 /*
 ** What the high-energy method needs besides the case: the screening
 ** tables of the nuclear (elastic) part and of the atomic electrons, the
 ** tails of their integrals beyond q = m, and the nuclear-size correction.
-** Plain data; the pointers are borrowed from the process-wide cache.
+** Plain data apart from the pointers, which point into the process-wide
+** cache.  Ownership: a bl_he filled by bl_he_prepare or bl_method_prepare
+** holds one reference on each table and node it points to; give it back
+** with bl_he_release once the bl_he is no longer used (the cache keeps
+** the entry for reuse or frees it, never while referenced).  A copy made
+** by assignment shares the references of its original: release exactly
+** one of them, and do not use the others afterwards.  A bl_he that is
+** never released only keeps its entries alive (as before references
+** existed).
 */
 typedef struct bl_he {
   int ready;                  /* filled by bl_he_prepare */
@@ -71,19 +83,36 @@ typedef struct bl_he {
 
 /*
 ** Fill *h for case c: fetch the screening tables of (Z, model) from the
-** cache or build them (about 10 ms each, once per process; thread-safe).
+** cache or build them (about 10 ms each, once per process; thread-safe),
+** taking one reference on each (see bl_he above).
 ** The nuclear-size correction of a uniform nucleus is computed from the
 ** Born integral (once per node of a grid in m R and spin) with the
-** workspace q.  BL_SUCCESS, BL_ENOMEM, or the status of a failed Born
-** calibration.
+** workspace q.  BL_SUCCESS, BL_EDOMAIN (NULL c or h; NULL q for a uniform
+** nucleus), BL_ENOMEM, or the status of a failed Born calibration; on
+** failure h holds no reference (cleared).
 */
 int bl_he_prepare (const bl_case *c, bl_quad *q, bl_he *h);
+
+/*
+** Give back the references of h (from bl_he_prepare or bl_method_prepare)
+** and clear it (h->ready = 0).  NULL, or a cleared h, is a no-op.
+** Thread-safe.
+*/
+void bl_he_release (bl_he *h);
+
+/*
+** Free every cached table and nuclear-size node that no bl_he references
+** (those in use stay valid).  Thread-safe.  bl_method_cache_count: the
+** tables and nodes held now, referenced or not.
+*/
+void bl_method_cache_clear (void);
+size_t bl_method_cache_count (void);
 
 /*
 ** Prepare *h for `method` on case c: bl_he_prepare for high-energy, and
 ** for auto where some photon energy can take it (gamma0 >= the switch);
 ** otherwise h is cleared (h->ready = 0) at no cost.  Status as
-** bl_he_prepare.
+** bl_he_prepare; release h with bl_he_release.
 */
 int bl_method_prepare (const bl_case *c, int method, bl_quad *q, bl_he *h);
 

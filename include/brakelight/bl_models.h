@@ -65,7 +65,6 @@ typedef struct bl_model {
   ** q and b_i in MeV.  NULL: the model has no electron field (S = 0).
   */
   int (*incoherent) (int Z, const double *p, bl_yukawa *out);
-  unsigned flags;
 } bl_model;
 
 /* NULL-terminated registry, in id order. */

@@ -105,8 +105,9 @@ int bl_target_setup (bl_target *t, const bl_particle *p,
 */
 int bl_target_prepare (bl_target *t, bl_quad *q, int *failZ);
 
-/* Give back what t holds of the process-wide table cache.  NULL-safe;
-** t may be set up again afterwards. */
+/* Give back the references t holds on the process-wide table cache
+** (bl_he_release of every element).  NULL-safe; t may be set up again
+** afterwards.  A failed bl_target_prepare has already released t. */
 void bl_target_release (bl_target *t);
 
 /*

@@ -12,11 +12,24 @@
 
 #define LBL_MATMETA "brakelight.Material"   /* material object */
 
+/*
+** The raising helpers never return (luaL_error longjmps): said to the
+** compiler and to the analyzers, with their printf format checked.
+*/
+#if defined(__GNUC__)
+#define LBL_RAISES(f) __attribute__((noreturn, format(printf, f, f + 1)))
+#define LBL_UNREACHABLE() __builtin_unreachable()
+#else
+#define LBL_RAISES(f)
+#define LBL_UNREACHABLE() ((void)0)
+#endif
+
 /* Raise a Lua error with a printf-style message.  Never returns. */
-int lbl_fail (lua_State *L, const char *fmt, ...);
+LBL_RAISES(2) int lbl_fail (lua_State *L, const char *fmt, ...);
 
 /* Raise "bad argument #1 to 'fname' (msg)".  Never returns. */
-int lbl_argfail (lua_State *L, const char *fname, const char *fmt, ...);
+LBL_RAISES(3) int lbl_argfail (lua_State *L, const char *fname,
+                                const char *fmt, ...);
 
 /* The Lua value at idx described for a message, into buf (size n). */
 const char *lbl_showval (lua_State *L, int idx, char *buf, size_t n);

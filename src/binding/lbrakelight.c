@@ -57,7 +57,8 @@ int lbl_fail (lua_State *L, const char *fmt, ...) {
   va_start(ap, fmt);
   vsnprintf(msg, sizeof msg, fmt, ap);
   va_end(ap);
-  return luaL_error(L, "%s", msg);
+  luaL_error(L, "%s", msg);
+  LBL_UNREACHABLE();
 }
 
 
@@ -73,7 +74,8 @@ int lbl_argfail (lua_State *L, const char *fname, const char *fmt, ...) {
   va_start(ap, fmt);
   vsnprintf(msg, sizeof msg, fmt, ap);
   va_end(ap);
-  return luaL_error(L, "bad argument #1 to '%s' (%s)", fname, msg);
+  luaL_error(L, "bad argument #1 to '%s' (%s)", fname, msg);
+  LBL_UNREACHABLE();
 }
 
 

@@ -63,13 +63,15 @@ typedef struct Reader {
 
 
 /* Raise "bad argument #1 to 'fname' (<ctx><message>)".  Never returns. */
+LBL_RAISES(2) static int fail (Reader *r, const char *fmt, ...);
+
 static int fail (Reader *r, const char *fmt, ...) {
   char msg[MSGSIZE];
   va_list ap;
   va_start(ap, fmt);
   vsnprintf(msg, sizeof msg, fmt, ap);
   va_end(ap);
-  return lbl_argfail(r->L, r->fname, "%s%s", r->ctx, msg);
+  lbl_argfail(r->L, r->fname, "%s%s", r->ctx, msg);
 }
 
 

@@ -30,7 +30,7 @@ for _, p in ipairs{ "electron", "positron", "muon", "pion-", "proton" } do
             s.y[i], e, v)
     end
     -- screening only removes strength: exponential <= none
-    -- (1 - F/Z)^2 <= 1 in G(q); physics.md, target factor)
+    -- (1 - F/Z)^2 <= 1 in the target factor G(q))
     if scr == "exponential" then
       local n = bl.spectrum{ particle = p, target = "Fe", T = T,
                              y = { 0.01, 0.5, 0.99 }, screening = "none",
@@ -69,11 +69,11 @@ end
 -- 3. spin 0 and spin 1/2 of the same mass: different hard photons, equal
 --    soft ones.  Soft-photon limit (Low 1958): both tend to the elastic
 --    cross section times a spin-independent factor; the elastic cross
---    sections differ by q^2/(4 E^2) (physics.md), small for the forward
+--    sections differ by q^2/(4 E^2) (Mott 1929), small for the forward
 --    scattering that dominates, so at y = 1e-3 they agree to < 1 %.
 --    At y = 0.9 the spin-1/2 helicity-flip term (1 - v)^2 ... dominates the
 --    difference: spin 0 replaces (1 + v^2) by 2v in the high-energy form
---    (physics.md, high-energy formulation), ratio about 2v/(1+v^2) = 0.2
+--    (Tsai 1974, Rev. Mod. Phys. 46, 815, sec. 3), ratio about 2v/(1+v^2) = 0.2
 --    at v = 0.1; we only require spin 0 < 0.5 spin 1/2 there.
 do
   local m = 20 * ME

@@ -129,12 +129,18 @@ double bl_bracket_azimuth (const bl_bracket *br, int npole,
                           - br->M0 * rp * iR[i]
                           - br->M1 * (br->Q0 + 2.0 * b + rp) * iP[i]);
     }
+  /* cppcheck cannot know that term indices are < npole (the contract of
+  ** bl_term): every m, R, iR, iP, A, B, g read below was set above */
   for (t = 0; t < nterm; t++) {   /* one division a term, none for squares */
     int ti = term[t].i, tj = term[t].j;
+    // cppcheck-suppress uninitvar ; indices < npole, see above
     double s = m[ti] + m[tj] + 2.0 * b;
+    // cppcheck-suppress uninitvar ; indices < npole, see above
     double irr = ti == tj ? 0.5 * iR[ti] : 1.0 / (R[ti] + R[tj]);
     double y0 = s * irr * iR[ti] * iR[tj];
+    // cppcheck-suppress uninitvar ; indices < npole, see above
     double y1 = 2.0 * (1.0 + s * irr) * iP[ti] * iP[tj];
+    // cppcheck-suppress uninitvar ; indices < npole, see above
     sum += term[t].c * (A[ti] * y0 + B[ti] * y1 - g[tj]);
   }
   return BL_PI * sum;
@@ -150,7 +156,8 @@ double bl_bracket_point (const bl_bracket *br, double v, int npole,
     w[i] = 1.0 / (pole[i] + x);
     W += single[i] * w[i];
   }
-  for (t = 0; t < nterm; t++)
+  for (t = 0; t < nterm; t++)   /* term indices are < npole (bl_term) */
+    // cppcheck-suppress uninitvar ; every w[i], i < npole, is set above
     W += term[t].c * w[term[t].i] * w[term[t].j];
   return (br->L0 + br->L1 * v - x * (br->M0 + br->M1 * v)) * W;
 }

@@ -89,7 +89,7 @@ int bl_material_standard (bl_material *m, const char *name) {
     return BL_EDOMAIN;
   memset(m, 0, sizeof *m);
   if (name == NULL || (idx = findstd(name)) < 0)
-    return BL_EUNKNOWN;
+    return BL_EUNKNOWN;   /* no name is an unknown name (as before) */
   c = GetCompoundDataNISTByName(stdnames[idx], &e);
   if (e != NULL)
     xrl_error_free(e);
@@ -158,7 +158,7 @@ static void distances (const char *q, const char *name, int *part,
 /* Lowercase copy of s into buf (size BL_MATERIAL_NAMELEN), truncated. */
 static void lower (char *buf, const char *s) {
   size_t i;
-  for (i = 0; s[i] != '\0' && i < BL_MATERIAL_NAMELEN - 1; i++)
+  for (i = 0; i < BL_MATERIAL_NAMELEN - 1 && s[i] != '\0'; i++)
     buf[i] = (s[i] >= 'A' && s[i] <= 'Z') ? (char)(s[i] + 'a' - 'A') : s[i];
   buf[i] = '\0';
 }
@@ -166,7 +166,7 @@ static void lower (char *buf, const char *s) {
 
 int bl_material_suggest (const char *name, const char **out, int nmax) {
   int bestp[8], bestw[8], besti[8];
-  char q[BL_MATERIAL_NAMELEN], cand[BL_MATERIAL_NAMELEN];
+  char q[BL_MATERIAL_NAMELEN] = "", cand[BL_MATERIAL_NAMELEN] = "";
   int i, k, n = 0;
   if (name == NULL || out == NULL || nmax < 1)
     return 0;

@@ -24,6 +24,17 @@ int bl_method_prepare (const bl_case *c, int method, bl_quad *q, bl_he *h) {
 }
 
 
+void bl_method_cache_clear (void) {
+  bl_hetab_clear();
+  bl_nucsize_clear();
+}
+
+
+size_t bl_method_cache_count (void) {
+  return bl_hetab_count() + bl_nucsize_count();
+}
+
+
 /*
 ** The closed forms' error is that of their tables; where the value has
 ** nearly cancelled (a method forced far outside its range) it can exceed

@@ -45,25 +45,39 @@ int bl_he_prepare (const bl_case *c, bl_quad *q, bl_he *h) {
   }
   if (c->opts.electrons && c->screening->incoherent != NULL) {
     st = c->screening->incoherent(c->Z, c->params, &y);
-    if (st != BL_SUCCESS)
+    if (st == BL_SUCCESS && !screened(&y))
+      st = BL_EMODEL;
+    if (st == BL_SUCCESS && (h->e = bl_hetab_get(BL_HETAB_ELECTRONS, &y))
+                            == NULL)
+      st = BL_ENOMEM;
+    if (st != BL_SUCCESS) {
+      bl_he_release(h);   /* the references taken so far */
       return st;
-    if (!screened(&y))
-      return BL_EMODEL;
-    h->e = bl_hetab_get(BL_HETAB_ELECTRONS, &y);
-    if (h->e == NULL)
-      return BL_ENOMEM;
+    }
     bl_hetab_tails(BL_HETAB_ELECTRONS, &y, m, h->tail_e);
     h->maxerr = fmax(h->maxerr, bl_hetab_maxerr(h->e));
   }
   if (c->R > 0.0) {
-    if (q == NULL)
-      return BL_EDOMAIN;
-    st = bl_nucsize_get(c, q, h);
-    if (st != BL_SUCCESS)
+    st = q == NULL ? BL_EDOMAIN : bl_nucsize_get(c, q, h);
+    if (st != BL_SUCCESS) {
+      bl_he_release(h);
       return st;
+    }
   }
   h->ready = 1;
   return BL_SUCCESS;
+}
+
+
+void bl_he_release (bl_he *h) {
+  int i;
+  if (h == NULL)
+    return;
+  bl_hetab_release(h->el);
+  bl_hetab_release(h->e);
+  for (i = 0; i < 4; i++)
+    bl_nucsize_release(h->nuc[i]);
+  memset(h, 0, sizeof *h);
 }
 
 

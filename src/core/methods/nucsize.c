@@ -28,6 +28,7 @@ struct bl_nuctab {
   int n;
   double lnd[NUC_NODES];  /* ln delta of the nodes, increasing */
   double N1[NUC_NODES], N2[NUC_NODES];
+  int refs;               /* bl_he holding it (under nuc_lock) */
   struct bl_nuctab *next;
 };
 
@@ -56,7 +57,15 @@ static bl_nuctab *nuc_head = NULL;
 ** grid nodes around its x with cubic Lagrange weights, so scans over
 ** masses and elements reuse them.  Below m R = 1e-3 hbar c (electrons
 ** on hydrogen are at 3e-3) the effect is below 1e-5 and left out.
+** Returns BL_SUCCESS or a tolerance miss (GSL_EMAXITER, GSL_EROUND) with
+** *diff set, or a failure with *diff untouched: a failed case setup
+** returns at once, so *diff never comes from an unset result (found by
+** the clang static analyzer, make lint-clang).
 */
+static int miss (int st) {
+  return st == GSL_EMAXITER || st == GSL_EROUND;
+}
+
 static int nucpoint (const bl_particle *p, double delta, double v,
                      bl_quad *q, double *diff) {
   bl_opts o = bl_opts_bare;
@@ -65,23 +74,23 @@ static int nucpoint (const bl_particle *p, double delta, double v,
   double m = p->mass, gam = (1.0 - v) / (2.0 * delta);
   double gam0 = gam / v, k = (gam0 - gam) * m;   /* MeV */
   const bl_model *none = bl_model_get(BL_MODEL_NONE);
-  int st;
+  int st, st2;
   o.A = NUC_A;
   st = bl_case_setup(&cp, p, 50, none, NULL, (gam0 - 1.0) * m, &o);
+  if (st != BL_SUCCESS)
+    return miss(st) ? BL_EDOMAIN : st;   /* a failed setup is never a miss */
   o.nucleus = BL_NUCLEUS_UNIFORM;
-  if (st == BL_SUCCESS)
-    st = bl_case_setup(&cu, p, 50, none, NULL, (gam0 - 1.0) * m, &o);
-  if (st == BL_SUCCESS)
-    st = bl_dcs_dk_e(&cp, k, q, &rp);
-  if (st == BL_SUCCESS || st == GSL_EMAXITER || st == GSL_EROUND) {
-    int st2 = bl_dcs_dk_e(&cu, k, q, &ru);
-    if (st2 != GSL_EMAXITER && st2 != GSL_EROUND)
-      st = st2;   /* success keeps a miss of the first; failure wins */
-  }
-  if (st != BL_SUCCESS && st != GSL_EMAXITER && st != GSL_EROUND)
+  st = bl_case_setup(&cu, p, 50, none, NULL, (gam0 - 1.0) * m, &o);
+  if (st != BL_SUCCESS)
+    return miss(st) ? BL_EDOMAIN : st;   /* a failed setup is never a miss */
+  st = bl_dcs_dk_e(&cp, k, q, &rp);
+  if (st != BL_SUCCESS && !miss(st))
     return st;
+  st2 = bl_dcs_dk_e(&cu, k, q, &ru);
+  if (st2 != BL_SUCCESS && !miss(st2))
+    return st2;   /* failure wins */
   *diff = (ru.val - rp.val) * k / cp.norm;
-  return st;
+  return miss(st2) ? st : st2;   /* success keeps a miss of the first */
 }
 
 
@@ -123,7 +132,8 @@ static int nucbuild (bl_quad *q, bl_nuctab *t) {
 }
 
 
-/* Grid node (spin, ix), calibrated on first use with q (lock held). */
+/* Grid node (spin, ix), calibrated on first use with q, with one
+** reference for the caller (lock held). */
 static int nucnode (double spin, int ix, bl_quad *q, const bl_nuctab **out) {
   bl_nuctab *t;
   int st = BL_SUCCESS;
@@ -147,6 +157,7 @@ static int nucnode (double spin, int ix, bl_quad *q, const bl_nuctab **out) {
     t->next = nuc_head;
     nuc_head = t;
   }
+  t->refs++;
   *out = t;
   return st;
 }
@@ -181,6 +192,50 @@ int bl_nucsize_get (const bl_case *c, bl_quad *q, bl_he *h) {
   if (st == BL_SUCCESS)
     h->nnuc = 4;
   return st;
+}
+
+
+void bl_nucsize_release (const bl_nuctab *ct) {
+  bl_nuctab *t;
+  if (ct == NULL)
+    return;
+  pthread_mutex_lock(&nuc_lock);
+  for (t = nuc_head; t != NULL && t != ct; t = t->next)
+    ;
+  if (t != NULL && t->refs > 0)
+    t->refs--;
+  pthread_mutex_unlock(&nuc_lock);
+}
+
+
+size_t bl_nucsize_clear (void) {
+  bl_nuctab **p;
+  size_t n = 0;
+  pthread_mutex_lock(&nuc_lock);
+  for (p = &nuc_head; *p != NULL;) {
+    bl_nuctab *t = *p;
+    if (t->refs == 0) {
+      *p = t->next;
+      free(t);
+    }
+    else {
+      p = &t->next;
+      n++;
+    }
+  }
+  pthread_mutex_unlock(&nuc_lock);
+  return n;
+}
+
+
+size_t bl_nucsize_count (void) {
+  const bl_nuctab *t;
+  size_t n = 0;
+  pthread_mutex_lock(&nuc_lock);
+  for (t = nuc_head; t != NULL; t = t->next)
+    n++;
+  pthread_mutex_unlock(&nuc_lock);
+  return n;
 }
 
 

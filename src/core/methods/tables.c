@@ -31,8 +31,14 @@
 ** midpoints against direct integration.  The part of H beyond Q = m (a
 ** tail of a few 1e-3) is subtracted with four moments per case.
 **
-** The cache is a process-wide list guarded by a mutex; entries are never
-** changed or freed once published, so readers hold plain pointers.
+** The cache is a process-wide list guarded by a mutex.  An entry is
+** immutable once published; each bl_he that points to it holds one
+** reference (bl_hetab_get takes it, bl_hetab_release drops it), so a
+** table is never freed while in use and readers need no lock.  Entries
+** without references stay for reuse, at most BL_METHOD_CACHE_IDLE of them:
+** beyond that the one released longest ago is freed (a scan over a model
+** parameter makes a new key per value).  bl_hetab_clear frees every
+** unreferenced entry.
 */
 
 #include <math.h>
@@ -68,11 +74,15 @@ struct bl_hetab {
   double u0;              /* u of node 0; nodes at u0 + i STEP */
   double *H1, *D1, *H2, *D2;   /* values and d/du at the nodes */
   double maxerr;          /* worst midpoint interpolation error */
+  int refs;               /* bl_he holding it (under cache_lock) */
+  unsigned long stamp;    /* when it last became unreferenced */
   struct bl_hetab *next;
 };
 
 static pthread_mutex_t cache_lock = PTHREAD_MUTEX_INITIALIZER;
 static bl_hetab *cache_head = NULL;   /* newest first */
+static size_t cache_idle = 0;         /* entries with refs == 0 */
+static unsigned long cache_clock = 0; /* stamps of the idle entries */
 
 
 /*
@@ -244,9 +254,10 @@ static int samekey (const bl_hetab *t, int kind, const bl_yukawa *y) {
 
 
 /*
-** The cached table of (kind, y), built on first use.  The lock is held
-** while building, so two threads never build the same table twice; the
-** entry is published complete.  NULL on allocation failure.
+** The cached table of (kind, y), built on first use, with one reference
+** taken for the caller.  The lock is held while building, so two threads
+** never build the same table twice; the entry is published complete.
+** NULL on allocation failure.
 */
 const bl_hetab *bl_hetab_get (int kind, const bl_yukawa *y) {
   bl_hetab *t;
@@ -254,15 +265,97 @@ const bl_hetab *bl_hetab_get (int kind, const bl_yukawa *y) {
   for (t = cache_head; t != NULL; t = t->next)
     if (samekey(t, kind, y))
       break;
-  if (t == NULL) {
+  if (t != NULL) {
+    if (t->refs++ == 0)
+      cache_idle--;
+  }
+  else {
     t = build(kind, y);
     if (t != NULL) {
+      t->refs = 1;
       t->next = cache_head;
       cache_head = t;
     }
   }
   pthread_mutex_unlock(&cache_lock);
   return t;
+}
+
+
+static void destroy (bl_hetab *t) {
+  free(t->H1);   /* H1, D1, H2, D2 are one block */
+  free(t);
+}
+
+
+/* Unlink and free the unreferenced entry released longest ago (lock
+** held; there is one). */
+static void evict_oldest (void) {
+  bl_hetab **p, **old = NULL;
+  for (p = &cache_head; *p != NULL; p = &(*p)->next)
+    if ((*p)->refs == 0 && (old == NULL || (*p)->stamp < (*old)->stamp))
+      old = p;
+  if (old != NULL) {
+    bl_hetab *t = *old;
+    *old = t->next;
+    destroy(t);
+    cache_idle--;
+  }
+}
+
+
+/*
+** Drop one reference to t (NULL: nothing).  An entry left without
+** references stays for reuse; past BL_METHOD_CACHE_IDLE such entries the
+** oldest one is freed.  A pointer not in the cache is ignored.
+*/
+void bl_hetab_release (const bl_hetab *ct) {
+  bl_hetab *t;
+  if (ct == NULL)
+    return;
+  pthread_mutex_lock(&cache_lock);
+  for (t = cache_head; t != NULL && t != ct; t = t->next)
+    ;
+  if (t != NULL && t->refs > 0 && --t->refs == 0) {
+    t->stamp = ++cache_clock;
+    if (++cache_idle > BL_METHOD_CACHE_IDLE)
+      evict_oldest();
+  }
+  pthread_mutex_unlock(&cache_lock);
+}
+
+
+/* Free every unreferenced entry; the number of entries left. */
+size_t bl_hetab_clear (void) {
+  bl_hetab **p;
+  size_t n = 0;
+  pthread_mutex_lock(&cache_lock);
+  for (p = &cache_head; *p != NULL;) {
+    bl_hetab *t = *p;
+    if (t->refs == 0) {
+      *p = t->next;
+      destroy(t);
+    }
+    else {
+      p = &t->next;
+      n++;
+    }
+  }
+  cache_idle = 0;
+  pthread_mutex_unlock(&cache_lock);
+  return n;
+}
+
+
+/* Entries in the cache, referenced or not. */
+size_t bl_hetab_count (void) {
+  const bl_hetab *t;
+  size_t n = 0;
+  pthread_mutex_lock(&cache_lock);
+  for (t = cache_head; t != NULL; t = t->next)
+    n++;
+  pthread_mutex_unlock(&cache_lock);
+  return n;
 }
 
 

@@ -64,5 +64,5 @@ const bl_model bl_model_exponential = {
   "exponentially screened nucleus, a = 111 Z^-1/3 hbar/(m_e c) (Schiff)",
   {&bl_ref_Schiff1951, &bl_ref_KochMotz1959, NULL, NULL},
   1, exponential_params, exponential_ff, exponential_yukawa,
-  exponential_incoherent, 0
+  exponential_incoherent
 };

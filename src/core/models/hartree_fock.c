@@ -94,5 +94,5 @@ const bl_model bl_model_hartree_fock = {
   "Hartree-Fock form factor and incoherent scattering function of the free "
   "atom (xraylib tables), fitted by Yukawa sums",
   {&bl_ref_Hubbell1975, &bl_ref_Schoonjans2011, NULL, NULL},
-  0, NULL, hf_ff, hf_yukawa, hf_incoherent, 0
+  0, NULL, hf_ff, hf_yukawa, hf_incoherent
 };

@@ -30,5 +30,5 @@ const bl_model bl_model_none = {
   BL_MODEL_NONE, "none",
   "unscreened Coulomb field of a point nucleus (Bethe-Heitler)",
   {&bl_ref_BetheHeitler1934, &bl_ref_KochMotz1959, NULL, NULL},
-  0, NULL, none_ff, none_yukawa, NULL, 0
+  0, NULL, none_ff, none_yukawa, NULL
 };

@@ -13,7 +13,7 @@
 **
 ** Field of the atomic electrons.  S = Z [1 - (F/Z)^2] is not used: its
 ** complete-screening constant exceeds Tsai's by 3 % (C) to 25 % (Pb)
-** (physics.md), because the inelastic screening radius scales like
+** (measured by quadrature of that S), because the inelastic screening radius scales like
 ** Z^(-2/3), not Z^(-1/3).  Instead the same three-term shape, linear,
 **
 **   S(q)/Z = sum_i alpha_i q^2 / (c_i^2 + q^2),   c_i = beta_i hbar / a',
@@ -141,5 +141,5 @@ const bl_model bl_model_thomas_fermi = {
   "Thomas-Fermi atom in Moliere's three Yukawa terms; electron field of the "
   "same shape, matched to Tsai's L'_rad",
   {&bl_ref_Moliere1947, &bl_ref_Tsai1974, NULL, NULL},
-  0, NULL, tf_ff, tf_yukawa, tf_incoherent, 0
+  0, NULL, tf_ff, tf_yukawa, tf_incoherent
 };

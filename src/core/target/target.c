@@ -90,6 +90,7 @@ int bl_target_prepare (bl_target *t, bl_quad *q, int *failZ) {
     if (st != BL_SUCCESS) {
       if (failZ != NULL)
         *failZ = t->c[i].Z;
+      bl_target_release(t);   /* hold nothing after a failure */
       return st;
     }
   }
@@ -98,9 +99,11 @@ int bl_target_prepare (bl_target *t, bl_quad *q, int *failZ) {
 
 
 void bl_target_release (bl_target *t) {
+  int i;
   if (t == NULL)
     return;
-  memset(t->he, 0, sizeof t->he);   /* the tables stay in the cache */
+  for (i = 0; i < BL_MATERIAL_MAXCOMP; i++)   /* a cleared he: no-op */
+    bl_he_release(&t->he[i]);
 }
 
 
