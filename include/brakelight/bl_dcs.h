@@ -81,6 +81,11 @@ typedef struct bl_case {
 ** overflow. */
 #define BL_T0_MAX 1e15
 
+/* The scale of every cross section of particle p on charge Z:
+** z^4 Z^2 alpha r0^2 in mb, r0 = alpha hbar/(m c).  bl_case_setup refuses
+** p and Z where it is not a normal double (DBL_MIN..DBL_MAX). */
+double bl_case_norm (const bl_particle *p, int Z);
+
 /* Prepare a case.  Returns BL_SUCCESS; BL_EDOMAIN for an invalid particle,
 ** Z outside 1..100, T not in (0, BL_T0_MAX m], or a particle whose
 ** normalisation z^4 Z^2 alpha r0^2 is not a normal double; BL_EMODEL if

@@ -31,6 +31,12 @@ LBL_RAISES(2) int lbl_fail (lua_State *L, const char *fmt, ...);
 LBL_RAISES(3) int lbl_argfail (lua_State *L, const char *fname,
                                 const char *fmt, ...);
 
+/* Raise "bad argument #1 to 'fname' (<what> contains a NUL byte ...)"
+** when the string at idx has an embedded NUL byte (C would read it cut
+** short). */
+void lbl_checktext (lua_State *L, int idx, const char *fname,
+                    const char *what);
+
 /* The Lua value at idx described for a message, into buf (size n). */
 const char *lbl_showval (lua_State *L, int idx, char *buf, size_t n);
 

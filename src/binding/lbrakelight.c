@@ -10,6 +10,7 @@
 ** integration workspace) is a userdata upvalue, never a C static.
 */
 
+#include <float.h>
 #include <math.h>
 #include <stdarg.h>
 #include <stdio.h>
@@ -32,6 +33,7 @@
 #define QUAD_LIMIT   1000     /* subintervals per nesting level */
 #define MSGSIZE      1024     /* longest error or warning message */
 #define NAMESIZE     512      /* longest "allowed: ..." list */
+#define OPTSTRLEN    256      /* longest string option (a name) + 1 */
 
 #define RTOL_DEFAULT BL_QUAD_RTOL_DEFAULT
 #define RTOL_MIN     BL_QUAD_RTOL_MIN
@@ -84,6 +86,19 @@ int lbl_argfail (lua_State *L, const char *fname, const char *fmt, ...) {
 ** written, strings quoted, booleans by value, anything else by type name.
 ** Touches no stack slot.
 */
+void lbl_checktext (lua_State *L, int idx, const char *fname,
+                    const char *what) {
+  char v[80];
+  size_t len;
+  const char *s = lua_tolstring(L, idx, &len);
+  size_t at = strlen(s);
+  if (at != len)
+    lbl_argfail(L, fname, "%s contains a NUL byte at byte %zu; allowed: text "
+                "without NUL bytes, got %s (%zu bytes)", what, at + 1,
+                lbl_showval(L, idx, v, sizeof v), len);
+}
+
+
 const char *lbl_showval (lua_State *L, int idx, char *buf, size_t n) {
   switch (lua_type(L, idx)) {
     case LUA_TNUMBER:
@@ -225,14 +240,17 @@ static double neednum (lua_State *L, int t, const char *fname,
 
 
 /*
-** Read field `key` of the table at absolute index t as a string; returns
-** NULL if nil, raises if it holds something else.  The string stays
-** valid while the table holds it.  Stack unchanged.
+** Read field `key` of the table at absolute index t as a string into buf
+** (size n, so that it outlives the Lua value: an __index function may
+** answer with a string nothing else holds); returns NULL if nil, raises
+** if it holds something else, a NUL byte, or n bytes or more.  Stack
+** unchanged.
 */
 static const char *getstr (lua_State *L, int t, const char *fname,
-                           const char *key) {
-  char v[80];
+                           const char *key, char *buf, size_t n) {
+  char v[80], what[64];
   const char *s;
+  size_t len;
   int tp = lua_getfield(L, t, key);
   if (tp == LUA_TNIL) {
     lua_pop(L, 1);
@@ -241,9 +259,16 @@ static const char *getstr (lua_State *L, int t, const char *fname,
   if (tp != LUA_TSTRING)
     lbl_argfail(L, fname, "field '%s' must be a string, got %s", key,
             lbl_showval(L, -1, v, sizeof v));
-  s = lua_tostring(L, -1);
-  lua_pop(L, 1);  /* the table still references the string */
-  return s;
+  snprintf(what, sizeof what, "field '%s'", key);
+  lbl_checktext(L, -1, fname, what);
+  s = lua_tolstring(L, -1, &len);
+  if (len >= n)
+    lbl_argfail(L, fname, "field '%s' is %zu bytes long; allowed: at most "
+                "%zu bytes, got %s", key, len, n - 1,
+                lbl_showval(L, -1, v, sizeof v));
+  memcpy(buf, s, len + 1);
+  lua_pop(L, 1);
+  return buf;
 }
 
 
@@ -256,12 +281,14 @@ static const char *const particle_keys[] = {
 ** Fill *p from the particle description at absolute index t,
 ** {mass = MeV, charge = z, spin = 0 or 0.5, name = "..."}; mass, charge
 ** and spin are required, the name defaults to "custom".  `prefix`
-** qualifies field names in messages.  p->name borrows the table's string.
+** qualifies field names in messages.  The name is copied into namebuf
+** (OPTSTRLEN bytes), where p->name points: an __index function may answer
+** with a string that nothing else holds.
 */
 static void tabparticle (lua_State *L, int t, const char *fname,
-                         const char *prefix, bl_particle *p) {
-  char v[80];
-  const char *name;
+                         const char *prefix, bl_particle *p, char *namebuf) {
+  char v[80], what[64];
+  size_t len;
   checkkeys(L, t, fname, "particle field", particle_keys);
   p->mass = neednum(L, t, fname, prefix, "mass", "particle mass in MeV");
   p->charge = neednum(L, t, fname, prefix, "charge",
@@ -278,16 +305,21 @@ static void tabparticle (lua_State *L, int t, const char *fname,
     lbl_argfail(L, fname, "field '%sspin' must be 0 or 0.5, got %.14g",
             prefix, p->spin);
   if (lua_getfield(L, t, "name") == LUA_TNIL)
-    name = CUSTOM_NAME;
-  else if (lua_type(L, -1) == LUA_TSTRING)
-    name = lua_tostring(L, -1);  /* held by the table */
-  else {
+    snprintf(namebuf, OPTSTRLEN, "%s", CUSTOM_NAME);
+  else if (lua_type(L, -1) == LUA_TSTRING) {
+    snprintf(what, sizeof what, "field '%sname'", prefix);
+    lbl_checktext(L, -1, fname, what);
+    (void)lua_tolstring(L, -1, &len);
+    if (len >= OPTSTRLEN)
+      lbl_argfail(L, fname, "field '%sname' is %zu bytes long; allowed: at "
+                  "most %d bytes", prefix, len, OPTSTRLEN - 1);
+    memcpy(namebuf, lua_tostring(L, -1), len + 1);
+  }
+  else
     lbl_argfail(L, fname, "field '%sname' must be a string, got %s", prefix,
             lbl_showval(L, -1, v, sizeof v));
-    return;  /* not reached */
-  }
   lua_pop(L, 1);
-  p->name = name;
+  p->name = namebuf;
   if (bl_particle_check(p) != BL_SUCCESS)  /* the core's own view */
     lbl_argfail(L, fname, "particle '%.60s' rejected by the core: %s", p->name,
             bl_strerror(bl_particle_check(p)));
@@ -308,6 +340,7 @@ typedef struct Opts {
   int method;                 /* BL_METHOD_* requested */
   unsigned used;              /* bit 1 << BL_METHOD_* of each method used */
   bl_suppress sup;            /* LPM / dielectric suppression */
+  char pname[OPTSTRLEN];      /* the particle's name, owned here */
 } Opts;
 
 
@@ -325,6 +358,7 @@ static void optparticle (lua_State *L, Opts *o) {
               "name such as 'electron', or a particle object)");
       break;
     case LUA_TSTRING:
+      lbl_checktext(L, -1, o->fname, "field 'particle'");
       pre = bl_particle_find(lua_tostring(L, -1));
       if (pre == NULL)
         lbl_argfail(L, o->fname, "unknown particle %s in field 'particle'; "
@@ -334,18 +368,23 @@ static void optparticle (lua_State *L, Opts *o) {
       o->particle = *pre;
       break;
     case LUA_TTABLE:
-      tabparticle(L, lua_gettop(L), o->fname, "particle.", &o->particle);
+      tabparticle(L, lua_gettop(L), o->fname, "particle.", &o->particle,
+                  o->pname);
       break;
     default: {
       bl_particle *p = (bl_particle *)luaL_testudata(L, -1, PARTMETA);
       if (p == NULL)
         lbl_argfail(L, o->fname, "field 'particle' must be a preset name or a "
                 "particle object, got %s", lbl_showval(L, -1, v, sizeof v));
-      o->particle = *p;  /* name held by the object's user value */
+      o->particle = *p;
       break;
     }
   }
-  lua_pop(L, 1);  /* the option table keeps strings and objects alive */
+  if (o->particle.name != o->pname) {   /* own the name: the object (or a */
+    snprintf(o->pname, sizeof o->pname, "%s", o->particle.name);
+    o->particle.name = o->pname;        /* string) may not outlive this */
+  }
+  lua_pop(L, 1);
 }
 
 
@@ -362,7 +401,7 @@ static void opttarget (lua_State *L, Opts *o) {
 ** Read a correction switch: nil (apply where valid), true or false.
 */
 static int optswitch (lua_State *L, const char *fname, const char *key) {
-  char v[80];
+  char v[80], what[64];
   int r = BL_APPLY_AUTO;
   switch (lua_getfield(L, 1, key)) {
     case LUA_TNIL: break;
@@ -370,6 +409,8 @@ static int optswitch (lua_State *L, const char *fname, const char *key) {
       r = lua_toboolean(L, -1) ? BL_APPLY_ON : BL_APPLY_OFF;
       break;
     case LUA_TSTRING:
+      snprintf(what, sizeof what, "field '%s'", key);
+      lbl_checktext(L, -1, fname, what);
       if (strcmp(lua_tostring(L, -1), "auto") == 0)
         break;
       /* FALLTHROUGH */
@@ -389,7 +430,8 @@ static int optswitch (lua_State *L, const char *fname, const char *key) {
 ** them have already refused the keys.
 */
 static void optmethod (lua_State *L, Opts *o) {
-  const char *s = getstr(L, 1, o->fname, "method");
+  char buf[OPTSTRLEN];
+  const char *s = getstr(L, 1, o->fname, "method", buf, sizeof buf);
   int st, mode;
   o->method = s == NULL ? METHOD_DEFAULT : bl_method_find(s);
   if (o->method < 0)
@@ -401,7 +443,7 @@ static void optmethod (lua_State *L, Opts *o) {
     lbl_argfail(L, o->fname, "field 'method' is 'complete', but screening "
                 "'none' has no complete-screening limit; allowed with "
                 "'none': 'auto', 'born', 'high-energy'");
-  s = getstr(L, 1, o->fname, "suppression");
+  s = getstr(L, 1, o->fname, "suppression", buf, sizeof buf);
   mode = s == NULL ? BL_SUPPRESS_NONE : bl_suppress_find(s);
   if (mode < 0)
     lbl_argfail(L, o->fname, "unknown suppression '%.60s' in field "
@@ -426,8 +468,9 @@ static void optmethod (lua_State *L, Opts *o) {
 */
 static void readopts (lua_State *L, const char *fname,
                       const char *const keys[], int userol, Opts *o) {
-  char names[NAMESIZE], v[80];
+  char names[NAMESIZE], v[80], sbuf[OPTSTRLEN];
   const char *s;
+  int i;
   memset(o, 0, sizeof *o);
   o->fname = fname;
   o->userol = userol;
@@ -442,11 +485,21 @@ static void readopts (lua_State *L, const char *fname,
   if (!(o->T > 0 && isfinite(o->T)))
     lbl_argfail(L, fname, "field 'T' must be > 0 MeV and finite, got %.14g",
             o->T);
+  for (i = 0; i < o->target.n; i++) {   /* bl_case_setup's scale */
+    int Z = o->target.comp[i].Z;
+    double norm = bl_case_norm(&o->particle, Z);
+    if (!(norm >= DBL_MIN && norm <= DBL_MAX))
+      lbl_argfail(L, fname, "field 'particle' (%s, mass %.14g MeV, charge "
+                  "%.14g) gives the cross-section scale z^4 Z^2 alpha r0^2 = "
+                  "%g mb on Z = %d; allowed: a mass and charge for which it "
+                  "lies in [%g, %g] mb", o->particle.name, o->particle.mass,
+                  o->particle.charge, norm, Z, DBL_MIN, DBL_MAX);
+  }
   if (o->T > BL_T0_MAX * o->particle.mass)   /* bl_case_setup's limit */
     lbl_argfail(L, fname, "field 'T' must be at most %g times the particle "
                 "mass (%.14g MeV for %s), got %.14g", BL_T0_MAX,
                 BL_T0_MAX * o->particle.mass, o->particle.name, o->T);
-  s = getstr(L, 1, fname, "screening");
+  s = getstr(L, 1, fname, "screening", sbuf, sizeof sbuf);
   o->screening = bl_model_find(s ? s : SCREENING_DEFAULT);
   if (o->screening == NULL)
     lbl_argfail(L, fname, "unknown screening model '%.60s' in field 'screening'; "
@@ -458,7 +511,7 @@ static void readopts (lua_State *L, const char *fname,
     lbl_argfail(L, fname, "field 'rtol' must be a relative tolerance in "
             "[%g, %g], got %.14g", RTOL_MIN, RTOL_MAX, o->rtol);
   o->bo = bl_opts_default;
-  s = getstr(L, 1, fname, "nucleus");
+  s = getstr(L, 1, fname, "nucleus", sbuf, sizeof sbuf);
   if (s == NULL || strcmp(s, "uniform") == 0)
     o->bo.nucleus = BL_NUCLEUS_UNIFORM;
   else if (strcmp(s, "point") == 0)
@@ -592,6 +645,19 @@ static bl_quad *getquad (lua_State *L, const Opts *o) {
 
 
 /*
+** Set the shared workspace to this call's tolerance right before a core
+** computation.  Between two computations the binding allocates Lua
+** objects, and a collection may run a finalizer that calls this module
+** again with another tolerance (the nested call is complete before this
+** one resumes; the GSL workspaces are used inside core calls only).
+*/
+static void retol (const Opts *o, bl_quad *q) {
+  if (q != NULL)
+    bl_quad_set_rtol(q, o->rtol);   /* checked by readopts: cannot fail */
+}
+
+
+/*
 ** The target of a call: a core bl_target (the cases of every element,
 ** the method's tables, the suppression) in a userdata, so that the
 ** collector releases it on any error.
@@ -711,7 +777,9 @@ static void computepoint (lua_State *L, Opts *o, const bl_target *t, int kind,
                           double phi, bl_quad *q, Warnings *w,
                           const char *at, bl_result *sum) {
   bl_tresult tr;
-  int st = bl_target_point_e(t, kind, k, theta_k, theta_p, phi, q, &tr);
+  int st;
+  retol(o, q);
+  st = bl_target_point_e(t, kind, k, theta_k, theta_p, phi, q, &tr);
   o->Z = tr.Z;
   if (st != BL_SUCCESS && !bl_status_soft(st))
     checkresult(L, o, st, &tr.fail, at);
@@ -1191,6 +1259,7 @@ static int l_spectrum (lua_State *L) {
   for (i = 0; i < n; i++)                       /* 5: results */
     k[i] = hask ? x[i] : x[i] * o.T;
   sts = (int *)lua_newuserdatauv(L, (size_t)n * sizeof *sts, 0);  /* 6 */
+  retol(&o, q);
   st = bl_target_spectrum_e(t, (size_t)n, k, nthreads, q, res, sts);
   if (st == BL_ENOMEM)
     lbl_fail(L, "%s: out of memory for %lld points", o.fname, (long long)n);
@@ -1253,11 +1322,12 @@ static void kintegral (lua_State *L, Opts *o, const bl_target *t, int kind,
                        double theta, double kmin, double kmax, bl_quad *q,
                        Warnings *w, bl_result *r0, bl_result *r1) {
   bl_tresult t0, t1;
-  char at[96];
-  int st = bl_target_kintegral_e(t, kind, theta, kmin, kmax, q,
-                                 r0 != NULL ? &t0 : NULL,
-                                 r1 != NULL ? &t1 : NULL);
   const bl_tresult *any = r0 != NULL ? &t0 : &t1;
+  char at[96];
+  int st;
+  retol(o, q);
+  st = bl_target_kintegral_e(t, kind, theta, kmin, kmax, q,
+                             r0 != NULL ? &t0 : NULL, r1 != NULL ? &t1 : NULL);
   addtarget(o, w, any);
   if (st != BL_SUCCESS && !bl_status_soft(st))   /* where it failed */
     snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV, at "
@@ -1413,6 +1483,7 @@ static int l_photon_yield (lua_State *L) {
   lua_Integer nb = 1, i;
   int logsp = 0, isint, st, failbin;
   const char *sp;
+  char spbuf[OPTSTRLEN];
   readopts(L, "photon_yield", photon_yield_keys, 1, &o);
   th = optrange(L, &o, "thickness", "radiator thickness in g/cm^2", 0,
                 HUGE_VAL, 1, "(0, inf) g/cm^2");
@@ -1425,7 +1496,7 @@ static int l_photon_yield (lua_State *L) {
   }
   lua_pop(L, 1);
   checkwork(L, &o, "bins", nb, BL_WORK_KINTEGRAL);
-  sp = getstr(L, 1, o.fname, "spacing");
+  sp = getstr(L, 1, o.fname, "spacing", spbuf, sizeof spbuf);
   if (sp != NULL && strcmp(sp, "log") == 0)
     logsp = 1;
   else if (sp != NULL && strcmp(sp, "linear") != 0)
@@ -1437,6 +1508,7 @@ static int l_photon_yield (lua_State *L) {
   edges = (double *)lua_newuserdatauv(L, (size_t)(nb + 1) * sizeof *edges,
                                       0);            /* 3 */
   res = (bl_tresult *)lua_newuserdatauv(L, (size_t)nb * sizeof *res, 0);
+  retol(&o, q);
   st = bl_target_photon_yield_e(t, th, kmin, kmax, (int)nb,
                                 logsp ? BL_SPACING_LOG : BL_SPACING_LINEAR, q,
                                 edges, res, &failbin);   /* 4: results */
@@ -1723,11 +1795,12 @@ static void pushparticle (lua_State *L, const bl_particle *src) {
 ** brakelight.particle{mass =, charge =, spin =, name =} -> a new one
 */
 static int l_particle (lua_State *L) {
-  char names[NAMESIZE], v[80];
+  char names[NAMESIZE], v[80], name[OPTSTRLEN];
   bl_particle p;
   const bl_particle *pre;
   switch (lua_type(L, 1)) {
     case LUA_TSTRING:
+      lbl_checktext(L, 1, "particle", "the particle name");
       pre = bl_particle_find(lua_tostring(L, 1));
       if (pre == NULL)
         lbl_argfail(L, "particle", "unknown particle %s; allowed: %s, or a "
@@ -1738,7 +1811,7 @@ static int l_particle (lua_State *L) {
       return 1;
     case LUA_TTABLE:
       lua_settop(L, 1);
-      tabparticle(L, 1, "particle", "", &p);
+      tabparticle(L, 1, "particle", "", &p, name);
       pushparticle(L, &p);
       return 1;
     default:

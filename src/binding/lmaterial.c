@@ -59,6 +59,7 @@ typedef struct Reader {
   const char *fname;    /* Lua name of the function */
   char ctx[CTXSIZE];    /* prefix: "field 'target': part #2 of ...: " */
   int depth;            /* material tables being read */
+  const void *open[MAXNEST];   /* those tables, outermost first */
 } Reader;
 
 
@@ -99,11 +100,16 @@ static void readspec (Reader *r, int idx, bl_material *out);
 ** string.sub counts) and the closest standard names.
 */
 static void readstring (Reader *r, int idx, bl_material *out) {
-  const char *s = lua_tostring(r->L, idx);
+  size_t len;
+  const char *s = lua_tolstring(r->L, idx, &len);
   const char *near[NSUGGEST];
   char where[96], sugg[512], v[80];
   bl_parse_error e;
   int i, n;
+  if (strlen(s) != len)   /* C would read it cut short */
+    fail(r, "material name %s contains a NUL byte at byte %zu; allowed: "
+         "text without NUL bytes", lbl_showval(r->L, idx, v, sizeof v),
+         strlen(s) + 1);
   if (bl_material_lookup(out, s, &e) == BL_SUCCESS)
     return;
   if (s[0] == '\0')
@@ -264,6 +270,7 @@ static void readmixture (Reader *r, int idx, bl_material *out) {
            "compound part)");
       break;
     case LUA_TSTRING:
+      lbl_checktext(L, -1, r->fname, "field 'by'");
       by = lua_tostring(L, -1);
       if (strcmp(by, "mass") == 0)
         bymass = 1;
@@ -335,7 +342,13 @@ static void readtable (Reader *r, int idx, bl_material *out) {
     lbl_argfail(L, r->fname, "material tables nested too deep (at most %d "
                 "levels; does a table contain itself?)", MAXNEST);
   luaL_checkstack(L, 8, "material tables nested too deep");
-  r->depth++;
+  for (tp = 0; tp < r->depth; tp++)
+    if (r->open[tp] == lua_topointer(L, idx))
+      fail(r, "the table contains itself, so its material tables would be "
+           "nested without end (material tables nested too deep (at most %d "
+           "levels)); allowed: parts that are other tables or names",
+           MAXNEST);
+  r->open[r->depth++] = lua_topointer(L, idx);
   tp = lua_rawgeti(L, idx, 1);
   lua_pop(L, 1);
   if (tp == LUA_TNIL)

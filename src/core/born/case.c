@@ -136,6 +136,13 @@ static int targetfactor (bl_case *c) {
 }
 
 
+double bl_case_norm (const bl_particle *p, int Z) {
+  double r0 = BL_ALPHA * BL_HBARC_MEVFM / p->mass;      /* fm */
+  double z2 = p->charge * p->charge;
+  return z2 * z2 * (double)Z * Z * BL_ALPHA * r0 * r0 / BL_FM2_PER_MB;
+}
+
+
 int bl_case_init (bl_case *c, const bl_particle *p, int Z,
                   const bl_model *screening, const double *params, double T) {
   return bl_case_setup(c, p, Z, screening, params, T, NULL);
@@ -145,7 +152,7 @@ int bl_case_init (bl_case *c, const bl_particle *p, int Z,
 int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
                    const bl_model *screening, const double *params, double T,
                    const bl_opts *o) {
-  double r0, z2, A;
+  double A;
   int i;
   if (c == NULL || bl_particle_check(p) != BL_SUCCESS)
     return BL_EDOMAIN;
@@ -172,9 +179,7 @@ int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
   c->t0 = T / p->mass;
   if (!(c->t0 > 0.0 && c->t0 <= BL_T0_MAX))
     return BL_EDOMAIN;
-  r0 = BL_ALPHA * BL_HBARC_MEVFM / p->mass;             /* fm */
-  z2 = p->charge * p->charge;
-  c->norm = z2 * z2 * (double)Z * Z * BL_ALPHA * r0 * r0 / BL_FM2_PER_MB;
+  c->norm = bl_case_norm(p, Z);
   if (!(c->norm >= DBL_MIN && c->norm <= DBL_MAX))
     return BL_EDOMAIN;   /* absurd mass or charge: no representable scale */
   if (screening->yukawa == NULL)
