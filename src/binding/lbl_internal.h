@@ -1,6 +1,6 @@
 /*
-** lbl_internal.h -- declarations shared by the binding files (src/l*.c),
-** not public
+** lbl_internal.h -- declarations shared by the binding files
+** (src/binding/l*.c), not public
 ** See Copyright Notice in LICENSE
 */
 #ifndef LBL_INTERNAL_H
@@ -8,7 +8,8 @@
 
 #include "lbl_compat.h"
 
-#include "brakelight/bl_material.h"
+#include "brakelight.h"
+#include "brakelight/lbrakelight.h"
 
 #define LBL_MATMETA "brakelight.Material"   /* material object */
 
@@ -60,5 +61,133 @@ void lbl_totarget (lua_State *L, int idx, const char *fname,
 ** .plot, .merge, .json ("brakelight.<name>") on first use.
 */
 void lbl_helpers_open (lua_State *L);
+
+/* Shared by the binding files (macros, the call's options and warnings). */
+#define QUADMETA  "brakelight.Quad"       /* integration workspace */
+#define PARTMETA  "brakelight.Particle"   /* particle object */
+#define TARGETMETA "brakelight.Target"    /* a call's target (internal) */
+
+#define QUAD_LIMIT   1000     /* subintervals per nesting level */
+#define MSGSIZE      1024     /* longest error or warning message */
+#define NAMESIZE     512      /* longest "allowed: ..." list */
+#define OPTSTRLEN    256      /* longest string option (a name) + 1 */
+
+#define RTOL_DEFAULT BL_QUAD_RTOL_DEFAULT
+#define RTOL_MIN     BL_QUAD_RTOL_MIN
+#define RTOL_MAX     BL_QUAD_RTOL_MAX
+#define SCREENING_DEFAULT "hartree-fock"
+#define METHOD_DEFAULT    BL_METHOD_AUTO
+#define CUSTOM_NAME       "custom"   /* name of a particle made without one */
+
+/* Everything a computation needs besides its abscissae. */
+typedef struct Opts {
+  const char *fname;          /* Lua name of the function, for messages */
+  bl_particle particle;
+  bl_material target;
+  int Z;                      /* the component being computed (messages) */
+  const bl_model *screening;
+  bl_opts bo;                 /* electrons, nucleus, corrections */
+  double T;                   /* kinetic energy, MeV */
+  double rtol;                /* relative tolerance (integrals only) */
+  int userol;                 /* rtol is an option of this function */
+  int method;                 /* BL_METHOD_* requested */
+  unsigned used;              /* bit 1 << BL_METHOD_* of each method used */
+  bl_suppress sup;            /* LPM / dielectric suppression */
+  char pname[OPTSTRLEN];      /* the particle's name, owned here */
+} Opts;
+
+
+/* Warnings gathered over the points of one call. */
+typedef struct Warnings {
+  unsigned bits;       /* union of BL_WARN_* over all points and the case */
+  int npts, ntol;      /* points computed / points short of the tolerance */
+  double worst;        /* worst relative error estimate among the latter */
+  char worstat[64];    /* where it was ("k = 5 MeV") */
+  double kborn;        /* largest k flagged BL_WARN_BORN; < 0: none */
+  int zborn;           /* largest Z flagged BL_WARN_BORN */
+  unsigned applied;    /* union of BL_APPLIED_* over all points */
+  double minsup;       /* smallest suppression factor applied */
+} Warnings;
+
+
+typedef struct LQuad {
+  bl_quad *q;   /* NULL when closed */
+} LQuad;
+
+
+/* Field readers (lfields.c), below everything else. */
+int lbl_getnum (lua_State *L, int t, const char *fname,
+                const char *prefix, const char *key, double *x);
+void lbl_checkkeys (lua_State *L, int t, const char *fname,
+                    const char *what, const char *const keys[]);
+double lbl_neednum (lua_State *L, int t, const char *fname,
+                    const char *prefix, const char *key,
+                    const char *meaning);
+const char *lbl_getstr (lua_State *L, int t, const char *fname,
+                        const char *key, char *buf, size_t n);
+void lbl_addname (char *buf, size_t n, const char *s);
+
+/* Options (loptions.c): every value read once into C, checked, then used. */
+void lbl_readopts (lua_State *L, const char *fname,
+                   const char *const keys[], int userol, Opts *o);
+double lbl_optrange (lua_State *L, const Opts *o, const char *key,
+                     const char *meaning, double lo, double hi, int open,
+                     const char *range);
+double *lbl_optarray (lua_State *L, const Opts *o, const char *key,
+                      double lo, double hi, int open, const char *range,
+                      lua_Integer *n);
+double lbl_optk (lua_State *L, const Opts *o);
+void lbl_optwindow (lua_State *L, const Opts *o, double *kmin,
+                    double *kmax);
+int lbl_optthreads (lua_State *L, const Opts *o);
+void lbl_nocoulomb (lua_State *L, Opts *o);
+void lbl_checkwork (lua_State *L, const Opts *o, const char *key,
+                    lua_Integer n, double share);
+
+/* Particles (lparticle.c). */
+const char *lbl_particlenames (char *buf, size_t n);
+void lbl_tabparticle (lua_State *L, int t, const char *fname,
+                      const char *prefix, bl_particle *p, char *namebuf);
+int l_particle (lua_State *L);
+extern const luaL_Reg lbl_particle_meta[];
+
+/* Computing and results (lresults.c). */
+bl_quad *lbl_getquad (lua_State *L, const Opts *o);
+void lbl_retol (const Opts *o, bl_quad *q);
+int lbl_target_gc (lua_State *L);
+bl_target *lbl_maketarget (lua_State *L, Opts *o, bl_quad *q);
+void lbl_checkresult (lua_State *L, const Opts *o, int st,
+                      const bl_result *r, const char *where);
+void lbl_initwarn (Warnings *w, const bl_target *t);
+void lbl_addwarn (Warnings *w, const bl_result *r, double k,
+                  const char *at);
+void lbl_addtarget (Opts *o, Warnings *w, const bl_tresult *tr);
+void lbl_computepoint (lua_State *L, Opts *o, const bl_target *t, int kind,
+                       double k, double theta_k, double theta_p,
+                       double phi, bl_quad *q, Warnings *w,
+                       const char *at, bl_result *sum);
+void lbl_kintegral (lua_State *L, Opts *o, const bl_target *t, int kind,
+                    double theta, double kmin, double kmax, bl_quad *q,
+                    Warnings *w, bl_result *r0, bl_result *r1);
+bl_target *lbl_kstart (lua_State *L, Opts *o, bl_quad **q, Warnings *w);
+void lbl_pushwarnings (lua_State *L, const Opts *o, const Warnings *w);
+double lbl_pergram (const Opts *o);
+void lbl_setresult (lua_State *L, int t, int first,
+                    const char *const names[], const char *const units[],
+                    const Opts *o, const Warnings *w);
+void lbl_pushinfo (lua_State *L, const Opts *o, const bl_result *r);
+void lbl_setbool (lua_State *L, int t, lua_Integer i, int v);
+void lbl_setnum (lua_State *L, int t, const char *key, double v);
+
+/* The library functions (lcalls.c, lintegrals.c), registered by luaopen_brakelight. */
+int l_dsdk (lua_State *L);
+int l_spectrum (lua_State *L);
+int l_angular (lua_State *L);
+int l_differential (lua_State *L);
+int l_methods (lua_State *L);
+int l_models (lua_State *L);
+int l_cross_section (lua_State *L);
+int l_energy_loss (lua_State *L);
+int l_photon_yield (lua_State *L);
 
 #endif

@@ -1,0 +1,478 @@
+/*
+** $Id: lresults.c $
+** Computing and results of the Lua binding: the call's workspace and
+** target (bl_target of the core), the collection of warnings over the
+** points of a call and their texts, the settings and units tables.
+** See Copyright Notice in LICENSE
+*/
+
+#include <float.h>
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "lbl_internal.h"
+
+
+/*
+** The state's integration workspace (upvalue 1 of every library
+** function), set to the tolerance of *o.
+*/
+bl_quad *lbl_getquad (lua_State *L, const Opts *o) {
+  LQuad *lq = (LQuad *)luaL_testudata(L, lua_upvalueindex(1), QUADMETA);
+  int st;
+  if (lq == NULL || lq->q == NULL)
+    luaL_error(L, "%s: the integration workspace of brakelight is closed",
+               o->fname);
+  st = bl_quad_set_rtol(lq->q, o->rtol);
+  if (st != BL_SUCCESS)
+    lbl_fail(L, "%s: the core refused rtol = %g: %s", o->fname, o->rtol,
+         bl_strerror(st));
+  return lq->q;
+}
+
+
+/*
+** Set the shared workspace to this call's tolerance right before a core
+** computation.  Between two computations the binding allocates Lua
+** objects, and a collection may run a finalizer that calls this module
+** again with another tolerance (the nested call is complete before this
+** one resumes; the GSL workspaces are used inside core calls only).
+*/
+void lbl_retol (const Opts *o, bl_quad *q) {
+  if (q != NULL)
+    bl_quad_set_rtol(q, o->rtol);   /* checked by lbl_readopts: cannot fail */
+}
+
+
+/*
+** The target of a call: a core bl_target (the cases of every element,
+** the method's tables, the suppression) in a userdata, so that the
+** collector releases it on any error.
+*/
+int lbl_target_gc (lua_State *L) {
+  bl_target *t = (bl_target *)luaL_checkudata(L, 1, TARGETMETA);
+  bl_target_release(t);
+  return 0;
+}
+
+
+/* Push a new target for *o, set up and prepared with q (NULL: set up
+** only); raises if the core refuses an element. */
+bl_target *lbl_maketarget (lua_State *L, Opts *o, bl_quad *q) {
+  bl_target *t = (bl_target *)lua_newuserdatauv(L, sizeof *t, 0);
+  int st, Z;
+  memset(t, 0, sizeof *t);
+  luaL_setmetatable(L, TARGETMETA);
+  st = bl_target_setup(t, &o->particle, &o->target, o->screening, NULL, o->T,
+                       &o->bo, o->method, &o->sup, &Z);
+  if (st != BL_SUCCESS)
+    lbl_fail(L, "%s: cannot set up %s on Z = %d at T = %g MeV with "
+             "screening '%s': %s", o->fname, o->particle.name, Z, o->T,
+             o->screening->name, bl_strerror(st));
+  if (q != NULL) {
+    st = bl_target_prepare(t, q, &Z);
+    if (st != BL_SUCCESS)
+      lbl_fail(L, "%s: cannot prepare method '%s' for %s on Z = %d at "
+               "T = %g MeV: %s", o->fname, bl_method_name(o->method),
+               o->particle.name, Z, o->T, bl_strerror(st));
+  }
+  return t;
+}
+
+
+/*
+** Accept a core result or raise: a soft status is a result with the
+** tolerance warning (set by the core); any other failure, and any
+** non-finite value or error, is a Lua error with the numbers.  `where`
+** describes the point ("k = 5 MeV"); r is the estimate to report.
+*/
+void lbl_checkresult (lua_State *L, const Opts *o, int st,
+                      const bl_result *r, const char *where) {
+  if (st != BL_SUCCESS && st != BL_ENONFINITE && !bl_status_soft(st))
+    lbl_fail(L, "%s: %s for %s on Z = %d at T = %g MeV, %s (estimate %g +- %g)",
+         o->fname, bl_strerror(st), o->particle.name, o->Z, o->T, where,
+         r->val, r->err);
+  if (st == BL_ENONFINITE || !isfinite(r->val) || !isfinite(r->err))
+    lbl_fail(L, "%s: non-finite result %g +- %g for %s on Z = %d at T = %g MeV, "
+         "%s (please report this case)", o->fname, r->val, r->err,
+         o->particle.name, o->Z, o->T, where);
+}
+
+
+/* Start a collection with the target's own warnings. */
+void lbl_initwarn (Warnings *w, const bl_target *t) {
+  memset(w, 0, sizeof *w);
+  w->bits = t->warn;
+  w->kborn = -1;
+  w->minsup = 1.0;
+}
+
+
+/* Add one point's result, computed at photon energy k, described by `at`. */
+void lbl_addwarn (Warnings *w, const bl_result *r, double k,
+                  const char *at) {
+  w->npts++;
+  w->bits |= r->warn;
+  w->applied |= r->applied;
+  if (r->warn & BL_WARN_TOLERANCE) {
+    double rel = r->val != 0 ? r->err / fabs(r->val) : HUGE_VAL;
+    w->ntol++;
+    if (w->ntol == 1 || rel > w->worst) {
+      w->worst = rel;
+      snprintf(w->worstat, sizeof w->worstat, "%s", at);
+    }
+  }
+  if ((r->warn & BL_WARN_BORN) && k > w->kborn)
+    w->kborn = k;
+}
+
+
+/*
+** Take what a target result gathered over its elements into the call's
+** record: the Born element, the smallest suppression factor, the methods
+** used, and the element the messages name.
+*/
+void lbl_addtarget (Opts *o, Warnings *w, const bl_tresult *tr) {
+  if (tr->zborn > w->zborn)
+    w->zborn = tr->zborn;
+  if (tr->supp < w->minsup)
+    w->minsup = tr->supp;
+  o->used |= tr->used;
+  o->Z = tr->Z;
+}
+
+
+/*
+** One point of the target (bl_target_point_e) with the call's record;
+** raises on a hard failure.
+*/
+void lbl_computepoint (lua_State *L, Opts *o, const bl_target *t, int kind,
+                       double k, double theta_k, double theta_p,
+                       double phi, bl_quad *q, Warnings *w,
+                       const char *at, bl_result *sum) {
+  bl_tresult tr;
+  int st;
+  lbl_retol(o, q);
+  st = bl_target_point_e(t, kind, k, theta_k, theta_p, phi, q, &tr);
+  o->Z = tr.Z;
+  if (st != BL_SUCCESS && !bl_status_soft(st))
+    lbl_checkresult(L, o, st, &tr.fail, at);
+  lbl_addtarget(o, w, &tr);
+  *sum = tr.r;
+  lbl_addwarn(w, sum, k, at);
+}
+
+
+/* Push the string for warning bit `bit`, with the numbers of this call. */
+static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
+                         unsigned bit) {
+  char msg[MSGSIZE];
+  const char *text = bl_warn_text(bit);
+  const bl_particle *p = &o->particle;
+  int zb = w->zborn > 0 ? w->zborn : o->Z;
+  double g0 = 1.0 + o->T / p->mass;
+  if (text == NULL)
+    text = "warning";
+  switch (bit) {
+    case BL_WARN_TOLERANCE:
+      snprintf(msg, sizeof msg, "%s: %d of %d points missed rtol = %g "
+               "(worst relative error estimate %.3g at %s)", text, w->ntol,
+               w->npts, o->rtol, w->worst, w->worstat);
+      break;
+    case BL_WARN_POINTLIKE:
+      snprintf(msg, sizeof msg, "%s: %s (mass %g MeV) treated as point-like",
+               text, p->name, p->mass);
+      break;
+    case BL_WARN_BORN: {  /* the core's criterion: 2 pi |z| Z alpha / beta */
+      const char *corr =
+          (w->applied & BL_APPLIED_COULOMB) && (w->applied & BL_APPLIED_ELWERT)
+          ? "the Coulomb correction and the Elwert factor were applied"
+          : (w->applied & BL_APPLIED_COULOMB)
+          ? "the Coulomb correction was applied"
+          : (w->applied & BL_APPLIED_ELWERT)
+          ? "the Elwert factor was applied"
+          : "no correction holds here (README, Corrections)";
+      if (w->kborn > 0 && w->kborn < o->T)
+        snprintf(msg, sizeof msg, "%s (2 pi |z| Z alpha/beta = %.3g before "
+                 "emission, %.3g after emitting k = %g MeV; z = %g, Z = %d, "
+                 "T = %g MeV); %s", text,
+                 bl_born_xi(p->charge, zb, o->T, p->mass),
+                 bl_born_xi(p->charge, zb, o->T - w->kborn, p->mass),
+                 w->kborn, p->charge,
+                 zb, o->T, corr);
+      else
+        snprintf(msg, sizeof msg, "%s (2 pi |z| Z alpha/beta = %.3g; z = %g, "
+                 "Z = %d, T = %g MeV); %s", text,
+                 bl_born_xi(p->charge, zb, o->T, p->mass),
+                 p->charge, zb, o->T, corr);
+      break;
+    }
+    case BL_WARN_VALIDITY:
+      snprintf(msg, sizeof msg, "%s (screening '%s', %s, target %s, "
+               "T = %g MeV)", text, o->screening->name, p->name,
+               o->target.name, o->T);
+      break;
+    case BL_WARN_COULOMB:
+      snprintf(msg, sizeof msg, "%s: it holds for gamma >= %g before and "
+               ">= %g after emission and hbar/(m c) >= %g nuclear radii; here "
+               "gamma0 = %.4g, hbar/(m c) = %.3g fm (%s, target %s; for "
+               "angular distributions it is not available at all)", text,
+               BL_COULOMB_GAMMA0_MIN, BL_COULOMB_GAMMA_MIN, BL_COULOMB_RADII,
+               g0, BL_HBARC_MEVFM / p->mass, p->name, o->target.name);
+      break;
+    case BL_WARN_ELWERT:
+      snprintf(msg, sizeof msg, "%s: it holds for gamma0 <= %.4g (T <= %g MeV "
+               "for electrons); here gamma0 = %.4g (%s, T = %g MeV)", text,
+               BL_ELWERT_GAMMA0_MAX, BL_ELWERT_T_ELECTRON, g0, p->name, o->T);
+      break;
+    case BL_WARN_STATIC_E:
+      snprintf(msg, sizeof msg, "%s (%s, mass %g MeV; electrons = false "
+               "leaves the nucleus only)", text, p->name, p->mass);
+      break;
+    case BL_WARN_METHOD:
+      snprintf(msg, sizeof msg, "%s: method '%s' holds for a final gamma = "
+               "E/m >= %g (complete screening also needs Tsai's gamma <= "
+               "%g and a point-like nucleus); here gamma0 = %.4g (%s, "
+               "target %s); method 'born' or 'auto' is exact", text,
+               bl_method_name(o->method), BL_HE_GAMMA_MIN,
+               BL_COMPLETE_TSAI_GAMMA_MAX, g0, p->name, o->target.name);
+      break;
+    case BL_WARN_SUPPRESS:
+      snprintf(msg, sizeof msg, "%s (Stanev et al. fits, Klein 1999 review); "
+               "E_LPM = %.4g MeV for %s in %s (X0 = %.4g cm)%s; smallest "
+               "factor %.4g", text, o->sup.elpm, p->name, o->target.name,
+               o->sup.X0cm, o->sup.mode == BL_SUPPRESS_DIELECTRIC
+               ? ", with dielectric suppression" : "", w->minsup);
+      break;
+    case BL_WARN_CLAMPED:
+      snprintf(msg, sizeof msg, "%s (%s on %s at T = %g MeV, near the tip of "
+               "the spectrum; coulomb = false gives the uncorrected value, "
+               "method = 'born' the exact integral)", text, p->name,
+               o->target.name, o->T);
+      break;
+    default:
+      snprintf(msg, sizeof msg, "%s (warning bit 0x%x)", text, bit);
+      break;
+  }
+  lua_pushstring(L, msg);
+}
+
+
+/*
+** Push the list of warnings: one string per bit set, in bit order, so the
+** list is deduplicated by construction; empty when none.
+*/
+void lbl_pushwarnings (lua_State *L, const Opts *o, const Warnings *w) {
+  unsigned i;
+  int n = 0;
+  lua_newtable(L);
+  for (i = 0; i < 8 * sizeof w->bits; i++) {
+    unsigned bit = 1u << i;
+    if (w->bits & bit) {
+      pushwarning(L, o, w, bit);
+      lua_rawseti(L, -2, ++n);
+    }
+  }
+}
+
+
+/* Push {name, mass, charge, spin} of particle p. */
+static void pushparticletable (lua_State *L, const bl_particle *p) {
+  lua_createtable(L, 0, 4);
+  lua_pushstring(L, p->name);
+  lua_setfield(L, -2, "name");
+  lua_pushnumber(L, p->mass);
+  lua_setfield(L, -2, "mass");
+  lua_pushnumber(L, p->charge);
+  lua_setfield(L, -2, "charge");
+  lua_pushnumber(L, p->spin);
+  lua_setfield(L, -2, "spin");
+}
+
+
+/* The factor from mb per formula unit to cm^2/g. */
+double lbl_pergram (const Opts *o) {
+  return bl_material_per_gram(&o->target);
+}
+
+
+/* Push a correction switch as the user writes it: true, false, "auto". */
+static void pushswitch (lua_State *L, int sw) {
+  if (sw == BL_APPLY_AUTO)
+    lua_pushliteral(L, "auto");
+  else
+    lua_pushboolean(L, sw == BL_APPLY_ON);
+}
+
+
+/*
+** Push the method actually used: its name when every point used one
+** method ("auto" when the points differ: see the result's per-point list),
+** the requested one before any point was computed.
+*/
+static void pushmethod (lua_State *L, const Opts *o) {
+  int i, n = 0, last = o->method;
+  for (i = 0; i < BL_METHOD_COUNT; i++)
+    if (o->used & (1u << i)) {
+      n++;
+      last = i;
+    }
+  lua_pushstring(L, bl_method_name(n > 1 ? BL_METHOD_AUTO : last));
+}
+
+
+/* Push the settings table: every option used, defaults filled in. */
+static void pushsettings (lua_State *L, const Opts *o) {
+  lua_createtable(L, 0, 8);
+  pushparticletable(L, &o->particle);
+  lua_setfield(L, -2, "particle");
+  lua_createtable(L, 0, 4);
+  lua_pushstring(L, o->target.name);
+  lua_setfield(L, -2, "name");
+  if (o->target.n == 1 && o->target.comp[0].atoms == 1.0) {  /* an element */
+    lua_pushstring(L, bl_element_symbol(o->target.comp[0].Z));
+    lua_setfield(L, -2, "symbol");
+    lua_pushinteger(L, o->target.comp[0].Z);
+    lua_setfield(L, -2, "Z");
+  }
+  lua_pushnumber(L, o->target.molar_mass);
+  lua_setfield(L, -2, "molar_mass");
+  lua_pushnumber(L, lbl_pergram(o));
+  lua_setfield(L, -2, "per_gram");
+  lua_setfield(L, -2, "target");
+  lua_pushnumber(L, o->T);
+  lua_setfield(L, -2, "T");
+  lua_pushstring(L, o->screening->name);
+  lua_setfield(L, -2, "screening");
+  if (o->userol) {
+    lua_pushnumber(L, o->rtol);
+    lua_setfield(L, -2, "rtol");
+  }
+  lua_pushstring(L, o->bo.nucleus == BL_NUCLEUS_UNIFORM ? "uniform" : "point");
+  lua_setfield(L, -2, "nucleus");
+  lua_pushboolean(L, o->bo.electrons && o->screening->incoherent != NULL);
+  lua_setfield(L, -2, "electrons");
+  pushswitch(L, o->bo.coulomb);
+  lua_setfield(L, -2, "coulomb");
+  pushswitch(L, o->bo.elwert);
+  lua_setfield(L, -2, "elwert");
+  pushmethod(L, o);
+  lua_setfield(L, -2, "method");
+  lua_pushstring(L, bl_method_name(o->method));
+  lua_setfield(L, -2, "method_requested");
+  lua_pushstring(L, bl_suppress_name(o->sup.mode));
+  lua_setfield(L, -2, "suppression");
+}
+
+
+/*
+** Push a table of units: pairs of (field, unit) strings, NULL-terminated.
+*/
+static void pushunits (lua_State *L, const char *const pairs[]) {
+  int i;
+  lua_newtable(L);
+  for (i = 0; pairs[i] != NULL; i += 2) {
+    lua_pushstring(L, pairs[i + 1]);
+    lua_setfield(L, -2, pairs[i]);
+  }
+}
+
+
+/*
+** Finish a result table at absolute index t: t[names[i]] = the value at
+** absolute index first + i, then units, settings and warnings.
+*/
+void lbl_setresult (lua_State *L, int t, int first,
+                    const char *const names[], const char *const units[],
+                    const Opts *o, const Warnings *w) {
+  int i;
+  for (i = 0; names[i] != NULL; i++) {
+    lua_pushvalue(L, first + i);
+    lua_setfield(L, t, names[i]);
+  }
+  pushunits(L, units);
+  lua_setfield(L, t, "units");
+  pushsettings(L, o);
+  lua_setfield(L, t, "settings");
+  lbl_pushwarnings(L, o, w);
+  lua_setfield(L, t, "warnings");
+}
+
+
+/* Push the table of one point's extras: per_gram, corrections applied. */
+void lbl_pushinfo (lua_State *L, const Opts *o, const bl_result *r) {
+  lua_createtable(L, 0, 4);
+  lua_pushnumber(L, lbl_pergram(o));
+  lua_setfield(L, -2, "per_gram");
+  lua_pushboolean(L, (r->applied & BL_APPLIED_COULOMB) != 0);
+  lua_setfield(L, -2, "coulomb_applied");
+  lua_pushboolean(L, (r->applied & BL_APPLIED_ELWERT) != 0);
+  lua_setfield(L, -2, "elwert_applied");
+  pushsettings(L, o);
+  lua_setfield(L, -2, "settings");
+}
+
+
+/* Push a boolean array slot: t[i] = v. */
+void lbl_setbool (lua_State *L, int t, lua_Integer i, int v) {
+  lua_pushboolean(L, v);
+  lua_rawseti(L, t, i);
+}
+
+
+/*
+** An integral of the target over (kmin, kmax) (bl_target_kintegral_e):
+** moment 0 into *r0 and, if r1 is not NULL, moment 1 into *r1; if r0 is
+** NULL, moment 1 alone.  Raises on a hard failure, naming where.
+*/
+void lbl_kintegral (lua_State *L, Opts *o, const bl_target *t, int kind,
+                    double theta, double kmin, double kmax, bl_quad *q,
+                    Warnings *w, bl_result *r0, bl_result *r1) {
+  bl_tresult t0, t1;
+  const bl_tresult *any;
+  char at[96];
+  int st;
+  memset(&t0, 0, sizeof t0);   /* the core fills them in any case */
+  memset(&t1, 0, sizeof t1);
+  any = r0 != NULL ? &t0 : &t1;
+  lbl_retol(o, q);
+  st = bl_target_kintegral_e(t, kind, theta, kmin, kmax, q,
+                             r0 != NULL ? &t0 : NULL, r1 != NULL ? &t1 : NULL);
+  lbl_addtarget(o, w, any);
+  if (st != BL_SUCCESS && !bl_status_soft(st))   /* where it failed */
+    snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV, at "
+             "k = %.6g MeV", kmin, kmax, any->k);
+  else
+    snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV", kmin,
+             kmax);
+  if (r0 != NULL) {
+    lbl_checkresult(L, o, st, &t0.r, at);
+    *r0 = t0.r;
+    lbl_addwarn(w, r0, kmax, at);
+  }
+  if (r1 != NULL) {
+    lbl_checkresult(L, o, st, &t1.r, at);
+    *r1 = t1.r;
+    lbl_addwarn(w, r1, kmax, at);
+  }
+}
+
+
+/* Set up the target, workspace and warnings of one integrating call. */
+bl_target *lbl_kstart (lua_State *L, Opts *o, bl_quad **q, Warnings *w) {
+  bl_target *t;
+  *q = lbl_getquad(L, o);
+  t = lbl_maketarget(L, o, *q);
+  lbl_initwarn(w, t);
+  return t;
+}
+
+
+/* t[key] = v for the table at absolute index t. */
+void lbl_setnum (lua_State *L, int t, const char *key, double v) {
+  lua_pushnumber(L, v);
+  lua_setfield(L, t, key);
+}
