@@ -2,7 +2,7 @@
 ** $Id: lmaterial.c $
 ** Lua binding of materials: brakelight.material, brakelight.materials,
 ** brakelight.radiation_length, the "brakelight.Material" object, and the
-** reader of `target =` options shared with src/binding/lbrakelight.c
+** reader of `target =` options used by src/binding/loptions.c
 ** See Copyright Notice in LICENSE
 **
 ** A material is named by
