@@ -292,9 +292,9 @@ local function keyof(d, idx)
 end
 
 
-local pointmeta = { __index = {} }
-
-function pointmeta.__index.with(pt, extra)
+-- pt:with(extra): a copy of the point's fields with extra's on top
+-- (scan.omit removes a field).
+local function pointwith(pt, extra)
   local t = {}
   for k, v in pairs(pt) do t[k] = v end
   for k, v in pairs(extra or {}) do
@@ -303,9 +303,6 @@ function pointmeta.__index.with(pt, extra)
   return t
 end
 
-function pointmeta.__index.key(pt) return rawget(getmetatable(pt), "_key") or pt end
-function pointmeta.__index.index() end  -- replaced per point below
-
 --[[ The point table handed to `each`. ]]
 local function makepoint(d, p, idx, key)
   local pt = {}
@@ -313,7 +310,7 @@ local function makepoint(d, p, idx, key)
   for i, a in ipairs(d.axes) do pt[a.name] = a.values[idx[i]] end
   local mt = {
     __index = {
-      with = pointmeta.__index.with,
+      with = pointwith,
       key = function() return key end,
       index = function() return p end,
     },
