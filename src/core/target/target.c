@@ -109,32 +109,35 @@ void bl_target_release (bl_target *t) {
 
 /*
 ** Add element i's result r to the sum: weight, errors, warnings, applied
-** corrections, the Born element and the method used.
+** corrections, the method; note the Born element and the method used in
+** the record rec.
 */
 static void addelement (const bl_target *t, int i, const bl_result *r,
-                        bl_tresult *sum) {
-  if ((r->warn & BL_WARN_BORN) && t->c[i].Z > sum->zborn)
-    sum->zborn = t->c[i].Z;
-  sum->r.val += t->atoms[i] * r->val;
-  sum->r.err += t->atoms[i] * r->err;
-  sum->r.warn |= r->warn;
-  sum->r.applied |= r->applied;
-  sum->r.method = r->method;
-  sum->used |= 1u << r->method;
+                        bl_result *sum, bl_tresult *rec) {
+  if ((r->warn & BL_WARN_BORN) && t->c[i].Z > rec->zborn)
+    rec->zborn = t->c[i].Z;
+  sum->val += t->atoms[i] * r->val;
+  sum->err += t->atoms[i] * r->err;
+  sum->warn |= r->warn;
+  sum->applied |= r->applied;
+  sum->method = r->method;
+  rec->used |= 1u << r->method;
 }
 
 
-/* The medium's suppression of the material's dsigma/dk at k. */
-static void suppress (const bl_target *t, double k, bl_tresult *sum) {
+/* The medium's suppression of the material's dsigma/dk at k; the record
+** keeps the smallest factor. */
+static void suppress (const bl_target *t, double k, bl_result *sum,
+                      bl_tresult *rec) {
   double f;
   if (t->sup.mode == BL_SUPPRESS_NONE)
     return;
   f = bl_suppress_factor(&t->sup, t->T + t->particle.mass, k);
-  sum->r.val *= f;
-  sum->r.err *= f;
-  sum->r.warn |= BL_WARN_SUPPRESS;
-  if (f < sum->supp)
-    sum->supp = f;
+  sum->val *= f;
+  sum->err *= f;
+  sum->warn |= BL_WARN_SUPPRESS;
+  if (f < rec->supp)
+    rec->supp = f;
 }
 
 
@@ -197,10 +200,10 @@ int bl_target_point_e (const bl_target *t, int kind, double k, double theta_k,
     st = checkelement(t, i, st, &r, k, out);
     if (st != BL_SUCCESS)
       return st;
-    addelement(t, i, &r, out);
+    addelement(t, i, &r, &out->r, out);
   }
   if (kind == BL_TARGET_DK)
-    suppress(t, k, out);
+    suppress(t, k, &out->r, out);
   return soft;
 }
 
@@ -251,7 +254,7 @@ int bl_target_spectrum_e (const bl_target *t, size_t n, const double *k,
         ret = s;
         break;
       }
-      addelement(t, j, &r[i], &out[i]);
+      addelement(t, j, &r[i], &out[i].r, &out[i]);
     }
   }
   free(r);
@@ -259,7 +262,7 @@ int bl_target_spectrum_e (const bl_target *t, size_t n, const double *k,
   if (ret != BL_SUCCESS)
     return ret;
   for (i = 0; i < n; i++)
-    suppress(t, k[i], &out[i]);
+    suppress(t, k[i], &out[i].r, &out[i]);
   return BL_SUCCESS;
 }
 
@@ -281,13 +284,9 @@ typedef struct kctx {
 static int kpoint (void *ud, double k, bl_result *out) {
   kctx *x = ud;
   const bl_target *t = x->t;
-  bl_tresult sum;
   int i, soft = 0;
-  clear(&sum);
-  sum.r.method = BL_METHOD_BORN;
-  sum.zborn = x->acc.zborn;
-  sum.supp = x->acc.supp;
-  sum.used = x->acc.used;
+  memset(out, 0, sizeof *out);
+  out->method = BL_METHOD_BORN;
   for (i = 0; i < t->n; i++) {
     const bl_case *c = &t->c[i];
     bl_result r;
@@ -301,14 +300,10 @@ static int kpoint (void *ud, double k, bl_result *out) {
       return st;
     }
     soft |= st != BL_SUCCESS;
-    addelement(t, i, &r, &sum);
+    addelement(t, i, &r, out, &x->acc);
   }
   if (x->kind == BL_TARGET_DK)
-    suppress(t, k, &sum);
-  x->acc.zborn = sum.zborn;
-  x->acc.supp = sum.supp;
-  x->acc.used = sum.used;
-  *out = sum.r;
+    suppress(t, k, out, &x->acc);
   return soft ? BL_ENOTCONV : BL_SUCCESS;
 }
 
