@@ -212,8 +212,14 @@ test: test-c test-lua test-lua-hosts test-embed test-install test-rock \
 # every finding is fatal: fix it or suppress it inline with its reason.
 # cppcheck reads the binding with __GNUC__ defined, so that it sees that the
 # raising helpers (LBL_RAISES) never return.  About 25 s on two cores.
-.PHONY: lint-lua-free lint-cppcheck lint-analyzer lint-clang
-lint: lint-lua-free lint-cppcheck lint-analyzer lint-clang
+.PHONY: lint-markers lint-lua-free lint-cppcheck lint-analyzer lint-clang
+lint: lint-markers lint-lua-free lint-cppcheck lint-analyzer lint-clang
+
+# no merge-conflict marker left in a tracked file
+lint-markers:
+	@! git grep -n -E '^(<<<<<<< |>>>>>>> |=======$$)' -- . 2>/dev/null \
+	  || { echo "lint: merge-conflict markers in the files above"; exit 1; }
+	@echo "lint: no merge-conflict markers"
 
 lint-lua-free:
 	@! grep -rl 'lua\.h\|lauxlib\.h' src/core include/brakelight/bl_*.h \

@@ -1,6 +1,6 @@
 /*
 ** lbl_internal.h -- declarations shared by the binding files
-** (src/binding/l*.c), not public
+** (src/binding/l*.c), each using only those before it, not public
 ** See Copyright Notice in LICENSE
 */
 #ifndef LBL_INTERNAL_H

@@ -52,27 +52,27 @@ int l_dsdk (lua_State *L) {
   double k;
   char at[64];
   lbl_readopts(L, "dsdk", dsdk_keys, 1, &o);
-               k = lbl_optk(L, &o);
-               /* all checks done */
-               q = lbl_getquad(L, &o);
-               t = lbl_maketarget(L, &o, q);
-               lbl_initwarn(&w, t);
-                            snprintf(at, sizeof at, "k = %.6g MeV", k);
-                            lbl_computepoint(L, &o, t, BL_TARGET_DK, k, 0.0, 0.0, 0.0, q, &w, at, &r);
-                                             lua_pushnumber(L, r.val);
-                                             lua_pushnumber(L, r.err);
-                                             lbl_pushwarnings(L, &o, &w);
-                                                              lbl_pushinfo(L, &o, &r);
-                                                                           return 4;
-                                                                           }
-                                                                           
-                                                                           
-                                                                           /*
-                                                                           ** brakelight.spectrum{..., k = {...}} or {..., y = {...}}
-                                                                           **   -> {k, y, dsdk, err, coulomb_applied, elwert_applied, method, per_gram,
-                                                                           **       threads, units, settings, warnings}
-                                                                           */
-                                                                           int l_spectrum (lua_State *L) {
+  k = lbl_optk(L, &o);
+  /* all checks done */
+  q = lbl_getquad(L, &o);
+  t = lbl_maketarget(L, &o, q);
+  lbl_initwarn(&w, t);
+  snprintf(at, sizeof at, "k = %.6g MeV", k);
+  lbl_computepoint(L, &o, t, BL_TARGET_DK, k, 0.0, 0.0, 0.0, q, &w, at, &r);
+  lua_pushnumber(L, r.val);
+  lua_pushnumber(L, r.err);
+  lbl_pushwarnings(L, &o, &w);
+  lbl_pushinfo(L, &o, &r);
+  return 4;
+}
+
+
+/*
+** brakelight.spectrum{..., k = {...}} or {..., y = {...}}
+**   -> {k, y, dsdk, err, coulomb_applied, elwert_applied, method, per_gram,
+**       threads, units, settings, warnings}
+*/
+int l_spectrum (lua_State *L) {
   static const char *const units[] = {
     "k", "MeV", "y", "1", "dsdk", "mb/MeV", "err", "mb/MeV",
     "per_gram", "cm^2/g per mb", NULL
@@ -104,71 +104,72 @@ int l_dsdk (lua_State *L) {
   else
     x = lbl_optarray(L, &o, "y", 0, 1, 1, "(0, 1)", &n);  /* 2: the values */
   lbl_checkwork(L, &o, hask ? "k" : "y", n, 1.0);
-                /* all checks done */
-                q = lbl_getquad(L, &o);
-                t = lbl_maketarget(L, &o, q);                     /* 3: the target */
-                lbl_initwarn(&w, t);
-                k = (double *)lua_newuserdatauv(L, (size_t)n * sizeof *k, 0);  /* 4 */
-                res = (bl_tresult *)lua_newuserdatauv(L, (size_t)n * sizeof *res, 0);
-                for (i = 0; i < n; i++)                       /* 5: results */
-                k[i] = hask ? x[i] : x[i] * o.T;
-                sts = (int *)lua_newuserdatauv(L, (size_t)n * sizeof *sts, 0);  /* 6 */
-                lbl_retol(&o, q);
-                st = bl_target_spectrum_e(t, (size_t)n, k, nthreads, q, res, sts);
-                if (st == BL_ENOMEM)
-                lbl_fail(L, "%s: out of memory for %lld points", o.fname, (long long)n);
-                if (st != BL_SUCCESS)               /* the point that failed */
-                for (i = 0; i < n; i++)
-                if (sts[i] != BL_SUCCESS && !bl_status_soft(sts[i])) {
+  /* all checks done */
+  q = lbl_getquad(L, &o);
+  t = lbl_maketarget(L, &o, q);                     /* 3: the target */
+  lbl_initwarn(&w, t);
+  k = (double *)lua_newuserdatauv(L, (size_t)n * sizeof *k, 0);  /* 4 */
+  res = (bl_tresult *)lua_newuserdatauv(L, (size_t)n * sizeof *res,
+                                        0);             /* 5: results */
+  sts = (int *)lua_newuserdatauv(L, (size_t)n * sizeof *sts, 0);  /* 6 */
+  for (i = 0; i < n; i++)
+    k[i] = hask ? x[i] : x[i] * o.T;
+  lbl_retol(&o, q);
+  st = bl_target_spectrum_e(t, (size_t)n, k, nthreads, q, res, sts);
+  if (st == BL_ENOMEM)
+    lbl_fail(L, "%s: out of memory for %lld points", o.fname, (long long)n);
+  if (st != BL_SUCCESS)               /* the point that failed */
+    for (i = 0; i < n; i++)
+      if (sts[i] != BL_SUCCESS && !bl_status_soft(sts[i])) {
         o.Z = res[i].Z;
         snprintf(at, sizeof at, "k = %.6g MeV", k[i]);
         lbl_checkresult(L, &o, sts[i], &res[i].fail, at);
-                        }
-                        for (i = 0; i < n; i++)
-                        lbl_addtarget(&o, &w, &res[i]);
-                                      lua_createtable(L, (int)n, 0);      /* 7: k */
-                                      lua_createtable(L, (int)n, 0);      /* 8: y */
-                                      lua_createtable(L, (int)n, 0);      /* 9: dsdk */
-                                      lua_createtable(L, (int)n, 0);      /* 10: err */
-                                      lua_createtable(L, (int)n, 0);      /* 11: coulomb_applied */
-                                      lua_createtable(L, (int)n, 0);      /* 12: elwert_applied */
-                                      lua_createtable(L, (int)n, 0);      /* 13: method */
-                                      for (i = 1; i <= n; i++) {
+      }
+  for (i = 0; i < n; i++)
+    lbl_addtarget(&o, &w, &res[i]);
+  lua_createtable(L, (int)n, 0);      /* 7: k */
+  lua_createtable(L, (int)n, 0);      /* 8: y */
+  lua_createtable(L, (int)n, 0);      /* 9: dsdk */
+  lua_createtable(L, (int)n, 0);      /* 10: err */
+  lua_createtable(L, (int)n, 0);      /* 11: coulomb_applied */
+  lua_createtable(L, (int)n, 0);      /* 12: elwert_applied */
+  lua_createtable(L, (int)n, 0);      /* 13: method */
+  for (i = 1; i <= n; i++) {
     const bl_result *r = &res[i - 1].r;
     double ki = k[i - 1];
     snprintf(at, sizeof at, "k = %.6g MeV", ki);
     lbl_addwarn(&w, r, ki, at);
-                lua_pushnumber(L, ki);
-                lua_rawseti(L, 7, i);
-                lua_pushnumber(L, hask ? ki / o.T : x[i - 1]);   /* y as given */
-                lua_rawseti(L, 8, i);
-                lua_pushnumber(L, r->val);
-                lua_rawseti(L, 9, i);
-                lua_pushnumber(L, r->err);
-                lua_rawseti(L, 10, i);
-                lbl_setbool(L, 11, i, (r->applied & BL_APPLIED_COULOMB) != 0);
-                            lbl_setbool(L, 12, i, (r->applied & BL_APPLIED_ELWERT) != 0);
-                            lua_pushstring(L, bl_method_name(r->method));
-                            lua_rawseti(L, 13, i);
-                            }
-                            lua_createtable(L, 0, 12);          /* 14: result */
-                            lbl_setresult(L, 14, 7, names, units, &o, &w);
-                            lua_pushnumber(L, lbl_pergram(&o));
-                            lua_setfield(L, 14, "per_gram");
-                            lua_pushinteger(L, nthreads);
-                            lua_setfield(L, 14, "threads");
-                            return 1;
-                            }
-                            
-                            
-                            /*
-                            ** brakelight.angular{..., k =, theta = {...}}
-                            **   -> {k, y, theta, d2sigma, err, elwert_applied, per_gram, units,
-                            **       settings, warnings}
-                            ** brakelight.angular{..., kmin =, kmax =, theta = {...}}
-                            **   -> {kmin, kmax, theta, dsdomega, err, ...}: integrated over the window
-                            */
-                            int l_angular (lua_State *L) {
+    lua_pushnumber(L, ki);
+    lua_rawseti(L, 7, i);
+    lua_pushnumber(L, hask ? ki / o.T : x[i - 1]);   /* y as given */
+    lua_rawseti(L, 8, i);
+    lua_pushnumber(L, r->val);
+    lua_rawseti(L, 9, i);
+    lua_pushnumber(L, r->err);
+    lua_rawseti(L, 10, i);
+    lbl_setbool(L, 11, i, (r->applied & BL_APPLIED_COULOMB) != 0);
+    lbl_setbool(L, 12, i, (r->applied & BL_APPLIED_ELWERT) != 0);
+    lua_pushstring(L, bl_method_name(r->method));
+    lua_rawseti(L, 13, i);
+  }
+  lua_createtable(L, 0, 12);          /* 14: result */
+  lbl_setresult(L, 14, 7, names, units, &o, &w);
+  lua_pushnumber(L, lbl_pergram(&o));
+  lua_setfield(L, 14, "per_gram");
+  lua_pushinteger(L, nthreads);
+  lua_setfield(L, 14, "threads");
+  return 1;
+}
+
+
+/*
+** brakelight.angular{..., k =, theta = {...}}
+**   -> {k, y, theta, d2sigma, err, elwert_applied, per_gram, units,
+**       settings, warnings}
+** brakelight.angular{..., kmin =, kmax =, theta = {...}}
+**   -> {kmin, kmax, theta, dsdomega, err, ...}: integrated over the window
+*/
+int l_angular (lua_State *L) {
   static const char *const units[] = {
     "k", "MeV", "y", "1", "theta", "rad", "d2sigma", "mb/(MeV sr)",
     "err", "mb/(MeV sr)", "per_gram", "cm^2/g per mb", NULL
@@ -189,27 +190,27 @@ int l_dsdk (lua_State *L) {
   int hask, haswin;
   lbl_readopts(L, "angular", angular_keys, 1, &o);
   lbl_nocoulomb(L, &o);
-                hask = lua_getfield(L, 1, "k") != LUA_TNIL;
-                haswin = lua_getfield(L, 1, "kmin") != LUA_TNIL
-                || lua_getfield(L, 1, "kmax") != LUA_TNIL;
-                lua_settop(L, 1);
-                if (hask == haswin)
-                lbl_argfail(L, o.fname, "give either field 'k' (one photon energy, MeV) "
+  hask = lua_getfield(L, 1, "k") != LUA_TNIL;
+  haswin = lua_getfield(L, 1, "kmin") != LUA_TNIL
+           || lua_getfield(L, 1, "kmax") != LUA_TNIL;
+  lua_settop(L, 1);
+  if (hask == haswin)
+    lbl_argfail(L, o.fname, "give either field 'k' (one photon energy, MeV) "
                 "or fields 'kmin' and 'kmax' (a window, kmax = T by "
                 "default), got %s", hask ? "both" : "neither");
-                if (hask)
-                k = lbl_optk(L, &o);
-                else
-                lbl_optwindow(L, &o, &kmin, &kmax);
-                              theta = lbl_optarray(L, &o, "theta", 0, BL_PI, 0, "[0, pi] rad", &n);  /* 2 */
-                              lbl_checkwork(L, &o, "theta", n, hask ? BL_WORK_ANGULAR
-                              : BL_WORK_ANGULAR * BL_WORK_KINTEGRAL);
-                              /* all checks done */
-                              t = lbl_kstart(L, &o, &q, &w);          /* 3: the target */
-                              lua_createtable(L, (int)n, 0);      /* 4: theta */
-                              lua_createtable(L, (int)n, 0);      /* 5: d2sigma or dsdomega */
-                              lua_createtable(L, (int)n, 0);      /* 6: err */
-                              for (i = 1; i <= n; i++) {
+  if (hask)
+    k = lbl_optk(L, &o);
+  else
+    lbl_optwindow(L, &o, &kmin, &kmax);
+  theta = lbl_optarray(L, &o, "theta", 0, BL_PI, 0, "[0, pi] rad", &n);  /* 2 */
+  lbl_checkwork(L, &o, "theta", n, hask ? BL_WORK_ANGULAR
+                                    : BL_WORK_ANGULAR * BL_WORK_KINTEGRAL);
+  /* all checks done */
+  t = lbl_kstart(L, &o, &q, &w);          /* 3: the target */
+  lua_createtable(L, (int)n, 0);      /* 4: theta */
+  lua_createtable(L, (int)n, 0);      /* 5: d2sigma or dsdomega */
+  lua_createtable(L, (int)n, 0);      /* 6: err */
+  for (i = 1; i <= n; i++) {
     bl_result r;
     double th = theta[i - 1];
     char at[64];
@@ -220,18 +221,18 @@ int l_dsdk (lua_State *L) {
     }
     else
       lbl_kintegral(L, &o, t, BL_TARGET_ANGULAR, th, kmin, kmax, q, &w, &r,
-                    NULL);
-                    applied |= r.applied;
-                    lua_pushnumber(L, th);
-                    lua_rawseti(L, 4, i);
-                    lua_pushnumber(L, r.val);
-                    lua_rawseti(L, 5, i);
-                    lua_pushnumber(L, r.err);
-                    lua_rawseti(L, 6, i);
-                    }
-                    lua_createtable(L, 0, 10);          /* 7: result */
-                    lbl_setresult(L, 7, 4, hask ? names : wnames, hask ? units : wunits, &o, &w);
-                    if (hask) {
+                NULL);
+    applied |= r.applied;
+    lua_pushnumber(L, th);
+    lua_rawseti(L, 4, i);
+    lua_pushnumber(L, r.val);
+    lua_rawseti(L, 5, i);
+    lua_pushnumber(L, r.err);
+    lua_rawseti(L, 6, i);
+  }
+  lua_createtable(L, 0, 10);          /* 7: result */
+  lbl_setresult(L, 7, 4, hask ? names : wnames, hask ? units : wunits, &o, &w);
+  if (hask) {
     lua_pushnumber(L, k);
     lua_setfield(L, 7, "k");
     lua_pushnumber(L, k / o.T);
@@ -239,22 +240,22 @@ int l_dsdk (lua_State *L) {
   }
   else {
     lbl_setnum(L, 7, "kmin", kmin);
-               lbl_setnum(L, 7, "kmax", kmax);
-               }
-               lua_pushboolean(L, (applied & BL_APPLIED_ELWERT) != 0);
-               lua_setfield(L, 7, "elwert_applied");
-               lua_pushnumber(L, lbl_pergram(&o));
-               lua_setfield(L, 7, "per_gram");
-               return 1;
-               }
-               
-               
-               /*
-               ** brakelight.differential{..., k =, theta_k =, theta_p =, phi =}
-               **   -> d3sigma/(dk dOmega_k dOmega_p) in mb/(MeV sr^2), warnings list,
-               **      info table
-               */
-               int l_differential (lua_State *L) {
+    lbl_setnum(L, 7, "kmax", kmax);
+  }
+  lua_pushboolean(L, (applied & BL_APPLIED_ELWERT) != 0);
+  lua_setfield(L, 7, "elwert_applied");
+  lua_pushnumber(L, lbl_pergram(&o));
+  lua_setfield(L, 7, "per_gram");
+  return 1;
+}
+
+
+/*
+** brakelight.differential{..., k =, theta_k =, theta_p =, phi =}
+**   -> d3sigma/(dk dOmega_k dOmega_p) in mb/(MeV sr^2), warnings list,
+**      info table
+*/
+int l_differential (lua_State *L) {
   Opts o;
   const bl_target *t;
   bl_result r;

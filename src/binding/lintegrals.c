@@ -52,30 +52,30 @@ int l_cross_section (lua_State *L) {
   bl_result r0, r1;
   double kmin, kmax, mean, meanerr;
   lbl_readopts(L, "cross_section", cross_section_keys, 1, &o);
-               lbl_optwindow(L, &o, &kmin, &kmax);
-                             /* all checks done */
-                             t = lbl_kstart(L, &o, &q, &w);             /* 2: the target */
-                             lbl_kintegral(L, &o, t, BL_TARGET_DK, 0.0, kmin, kmax, q, &w, &r0, &r1);
-                             bl_target_mean_k(&r0, &r1, kmin, kmax, &mean, &meanerr);
-                             lua_createtable(L, 0, 12);             /* 3: result */
-                             lbl_setnum(L, 3, "sigma", r0.val);
-                                        lbl_setnum(L, 3, "err", r0.err);
-                                        lbl_setnum(L, 3, "mean_k", mean);
-                                        lbl_setnum(L, 3, "mean_k_err", meanerr);
-                                        lbl_setnum(L, 3, "kmin", kmin);
-                                        lbl_setnum(L, 3, "kmax", kmax);
-                                        lbl_setnum(L, 3, "per_gram", lbl_pergram(&o));
-                                        lbl_setresult(L, 3, 4, none, units, &o, &w);
-                                        return 1;
-                                        }
-                                        
-                                        
-                                        /*
-                                        ** brakelight.energy_loss{particle =, target =, T =, ...}
-                                        **   -> {dedx, err, per_unit, radiation_length, E_over_X0, units, settings,
-                                        **       warnings}: the radiative stopping power int_0^T k dsigma/dk dk
-                                        */
-                                        int l_energy_loss (lua_State *L) {
+  lbl_optwindow(L, &o, &kmin, &kmax);
+  /* all checks done */
+  t = lbl_kstart(L, &o, &q, &w);             /* 2: the target */
+  lbl_kintegral(L, &o, t, BL_TARGET_DK, 0.0, kmin, kmax, q, &w, &r0, &r1);
+  bl_target_mean_k(&r0, &r1, kmin, kmax, &mean, &meanerr);
+  lua_createtable(L, 0, 12);             /* 3: result */
+  lbl_setnum(L, 3, "sigma", r0.val);
+  lbl_setnum(L, 3, "err", r0.err);
+  lbl_setnum(L, 3, "mean_k", mean);
+  lbl_setnum(L, 3, "mean_k_err", meanerr);
+  lbl_setnum(L, 3, "kmin", kmin);
+  lbl_setnum(L, 3, "kmax", kmax);
+  lbl_setnum(L, 3, "per_gram", lbl_pergram(&o));
+  lbl_setresult(L, 3, 4, none, units, &o, &w);
+  return 1;
+}
+
+
+/*
+** brakelight.energy_loss{particle =, target =, T =, ...}
+**   -> {dedx, err, per_unit, radiation_length, E_over_X0, units, settings,
+**       warnings}: the radiative stopping power int_0^T k dsigma/dk dk
+*/
+int l_energy_loss (lua_State *L) {
   static const char *const units[] = {
     "dedx", "MeV cm^2/g", "err", "MeV cm^2/g", "per_unit",
     "MeV mb per formula unit", "radiation_length", "g/cm^2",
@@ -145,40 +145,40 @@ int l_photon_yield (lua_State *L) {
   }
   lua_pop(L, 1);
   lbl_checkwork(L, &o, "bins", nb, BL_WORK_KINTEGRAL);
-                sp = lbl_getstr(L, 1, o.fname, "spacing", spbuf, sizeof spbuf);
-                if (sp != NULL && strcmp(sp, "log") == 0)
-                logsp = 1;
-                else if (sp != NULL && strcmp(sp, "linear") != 0)
-                lbl_argfail(L, o.fname, "unknown spacing '%.60s' in field 'spacing'; "
+  sp = lbl_getstr(L, 1, o.fname, "spacing", spbuf, sizeof spbuf);
+  if (sp != NULL && strcmp(sp, "log") == 0)
+    logsp = 1;
+  else if (sp != NULL && strcmp(sp, "linear") != 0)
+    lbl_argfail(L, o.fname, "unknown spacing '%.60s' in field 'spacing'; "
                 "allowed: 'linear' (default), 'log'", sp);
-                /* all checks done */
-                t = lbl_kstart(L, &o, &q, &w);             /* 2: the target */
-                X0 = bl_radiation_length(&o.target);
-                edges = (double *)lua_newuserdatauv(L, (size_t)(nb + 1) * sizeof *edges,
-                0);            /* 3 */
-                res = (bl_tresult *)lua_newuserdatauv(L, (size_t)nb * sizeof *res, 0);
-                lbl_retol(&o, q);
-                st = bl_target_photon_yield_e(t, th, kmin, kmax, (int)nb,
-                logsp ? BL_SPACING_LOG : BL_SPACING_LINEAR, q,
-                edges, res, &failbin);   /* 4: results */
-                for (i = 0; i < nb && (failbin < 0 || i <= failbin); i++) {
+  /* all checks done */
+  t = lbl_kstart(L, &o, &q, &w);             /* 2: the target */
+  X0 = bl_radiation_length(&o.target);
+  edges = (double *)lua_newuserdatauv(L, (size_t)(nb + 1) * sizeof *edges,
+                                      0);            /* 3 */
+  res = (bl_tresult *)lua_newuserdatauv(L, (size_t)nb * sizeof *res, 0);
+  lbl_retol(&o, q);
+  st = bl_target_photon_yield_e(t, th, kmin, kmax, (int)nb,
+                                logsp ? BL_SPACING_LOG : BL_SPACING_LINEAR, q,
+                                edges, res, &failbin);   /* 4: results */
+  for (i = 0; i < nb && (failbin < 0 || i <= failbin); i++) {
     int sti = i == failbin ? st : BL_SUCCESS;
     lbl_addtarget(&o, &w, &res[i]);
-                  if (sti != BL_SUCCESS)
-                  snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV, at "
-                  "k = %.6g MeV", edges[i], edges[i + 1], res[i].k);
-                  else
-                  snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV",
-                  edges[i], edges[i + 1]);
-                  lbl_checkresult(L, &o, sti, &res[i].r, at);
-                  lbl_addwarn(&w, &res[i].r, edges[i + 1], at);
-                  }
-                  lua_createtable(L, (int)nb + 1, 0);    /* 5: edges */
-                  lua_createtable(L, (int)nb, 0);        /* 6: k_low */
-                  lua_createtable(L, (int)nb, 0);        /* 7: k_high */
-                  lua_createtable(L, (int)nb, 0);        /* 8: photons */
-                  lua_createtable(L, (int)nb, 0);        /* 9: err */
-                  for (i = 0; i <= nb; i++) {
+    if (sti != BL_SUCCESS)
+      snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV, at "
+               "k = %.6g MeV", edges[i], edges[i + 1], res[i].k);
+    else
+      snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV",
+               edges[i], edges[i + 1]);
+    lbl_checkresult(L, &o, sti, &res[i].r, at);
+    lbl_addwarn(&w, &res[i].r, edges[i + 1], at);
+  }
+  lua_createtable(L, (int)nb + 1, 0);    /* 5: edges */
+  lua_createtable(L, (int)nb, 0);        /* 6: k_low */
+  lua_createtable(L, (int)nb, 0);        /* 7: k_high */
+  lua_createtable(L, (int)nb, 0);        /* 8: photons */
+  lua_createtable(L, (int)nb, 0);        /* 9: err */
+  for (i = 0; i <= nb; i++) {
     lua_pushnumber(L, edges[i]);
     lua_rawseti(L, 5, i + 1);
   }

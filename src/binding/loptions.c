@@ -48,22 +48,22 @@ static void optparticle (lua_State *L, Opts *o) {
                 "allowed: %s, or a particle object from brakelight.particle",
                 lbl_showval(L, -1, v, sizeof v),
                 lbl_particlenames(names, sizeof names));
-                                  o->particle = *pre;
-                                  break;
-                                  case LUA_TTABLE:
-                                  lbl_tabparticle(L, lua_gettop(L), o->fname, "particle.", &o->particle,
-                                                  o->pname);
-                                                  break;
-                                                  default: {
-                                                  bl_particle *p = (bl_particle *)luaL_testudata(L, -1, PARTMETA);
-                                                  if (p == NULL)
-                                                  lbl_argfail(L, o->fname, "field 'particle' must be a preset name or a "
-                                                  "particle object, got %s", lbl_showval(L, -1, v, sizeof v));
-                                                  o->particle = *p;
-                                                  break;
-                                                  }
-                                                  }
-                                                  if (o->particle.name != o->pname) {   /* own the name: the object (or a */
+      o->particle = *pre;
+      break;
+    case LUA_TTABLE:
+      lbl_tabparticle(L, lua_gettop(L), o->fname, "particle.", &o->particle,
+                  o->pname);
+      break;
+    default: {
+      bl_particle *p = (bl_particle *)luaL_testudata(L, -1, PARTMETA);
+      if (p == NULL)
+        lbl_argfail(L, o->fname, "field 'particle' must be a preset name or a "
+                "particle object, got %s", lbl_showval(L, -1, v, sizeof v));
+      o->particle = *p;
+      break;
+    }
+  }
+  if (o->particle.name != o->pname) {   /* own the name: the object (or a */
     snprintf(o->pname, sizeof o->pname, "%s", o->particle.name);
     o->particle.name = o->pname;        /* string) may not outlive this */
   }

@@ -21,46 +21,46 @@ const char *lbl_particlenames (char *buf, size_t n) {
   buf[0] = '\0';
   for (i = 0; bl_particles[i] != NULL; i++)
     lbl_addname(buf, n, bl_particles[i]->name);
-                return buf;
-                }
-                
-                
-                /* Fields of a particle description table. */
-                static const char *const particle_keys[] = {
-                "name", "mass", "charge", "spin", NULL
-                };
-                
-                
-                /*
-                ** Fill *p from the particle description at absolute index t,
-                ** {mass = MeV, charge = z, spin = 0 or 0.5, name = "..."}; mass, charge
-                ** and spin are required, the name defaults to "custom".  `prefix`
-                ** qualifies field names in messages.  The name is copied into namebuf
-                ** (OPTSTRLEN bytes), where p->name points: an __index function may answer
-                ** with a string that nothing else holds.
-                */
-                void lbl_tabparticle (lua_State *L, int t, const char *fname,
-                                      const char *prefix, bl_particle *p, char *namebuf) {
+  return buf;
+}
+
+
+/* Fields of a particle description table. */
+static const char *const particle_keys[] = {
+  "name", "mass", "charge", "spin", NULL
+};
+
+
+/*
+** Fill *p from the particle description at absolute index t,
+** {mass = MeV, charge = z, spin = 0 or 0.5, name = "..."}; mass, charge
+** and spin are required, the name defaults to "custom".  `prefix`
+** qualifies field names in messages.  The name is copied into namebuf
+** (OPTSTRLEN bytes), where p->name points: an __index function may answer
+** with a string that nothing else holds.
+*/
+void lbl_tabparticle (lua_State *L, int t, const char *fname,
+                      const char *prefix, bl_particle *p, char *namebuf) {
   char v[80], what[64];
   size_t len;
   lbl_checkkeys(L, t, fname, "particle field", particle_keys);
-                p->mass = lbl_neednum(L, t, fname, prefix, "mass", "particle mass in MeV");
-                p->charge = lbl_neednum(L, t, fname, prefix, "charge",
-                "particle charge in units of e");
-                p->spin = lbl_neednum(L, t, fname, prefix, "spin", "particle spin, 0 or 0.5");
-                p->flags = 0;
-                if (!(p->mass > 0 && isfinite(p->mass)))
-                lbl_argfail(L, fname, "field '%smass' must be > 0 MeV and finite, got %.14g",
-                prefix, p->mass);
-                if (!(p->charge != 0 && isfinite(p->charge)))
-                lbl_argfail(L, fname, "field '%scharge' must be a finite non-zero charge "
-                "in units of e, got %.14g", prefix, p->charge);
-                if (!(p->spin == 0 || p->spin == 0.5))
-                lbl_argfail(L, fname, "field '%sspin' must be 0 or 0.5, got %.14g",
-                prefix, p->spin);
-                if (lua_getfield(L, t, "name") == LUA_TNIL)
-                snprintf(namebuf, OPTSTRLEN, "%s", CUSTOM_NAME);
-                else if (lua_type(L, -1) == LUA_TSTRING) {
+  p->mass = lbl_neednum(L, t, fname, prefix, "mass", "particle mass in MeV");
+  p->charge = lbl_neednum(L, t, fname, prefix, "charge",
+                      "particle charge in units of e");
+  p->spin = lbl_neednum(L, t, fname, prefix, "spin", "particle spin, 0 or 0.5");
+  p->flags = 0;
+  if (!(p->mass > 0 && isfinite(p->mass)))
+    lbl_argfail(L, fname, "field '%smass' must be > 0 MeV and finite, got %.14g",
+            prefix, p->mass);
+  if (!(p->charge != 0 && isfinite(p->charge)))
+    lbl_argfail(L, fname, "field '%scharge' must be a finite non-zero charge "
+            "in units of e, got %.14g", prefix, p->charge);
+  if (!(p->spin == 0 || p->spin == 0.5))
+    lbl_argfail(L, fname, "field '%sspin' must be 0 or 0.5, got %.14g",
+            prefix, p->spin);
+  if (lua_getfield(L, t, "name") == LUA_TNIL)
+    snprintf(namebuf, OPTSTRLEN, "%s", CUSTOM_NAME);
+  else if (lua_type(L, -1) == LUA_TSTRING) {
     snprintf(what, sizeof what, "field '%sname'", prefix);
     lbl_checktext(L, -1, fname, what);
     (void)lua_tolstring(L, -1, &len);
