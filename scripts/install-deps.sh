@@ -12,22 +12,18 @@
 set -euo pipefail
 
 # clang and its libFuzzer runtime (libclang-rt-dev): make fuzz-smoke;
-<<<<<<< HEAD
 # valgrind: make valgrind; pkgconf (Debian 12's pkg-config is a transitional
 # package for it): make test-install; libtsan2 (gcc's ThreadSanitizer runtime, usually
-# pulled in by gcc already): make test-tsan (all part of make check)
-pkgs=(liblua5.4-dev lua5.4 libgsl-dev libcriterion-dev libxrl-dev clang
-      libclang-rt-dev valgrind libtsan2 pkgconf)
+# pulled in by gcc already): make test-tsan (all part of make check); cppcheck:
+# make lint; groff-base and man-db: make test-install renders brakelight(3)
+# (groff -ww, man -l)
+pkgs=(liblua5.4-dev lua5.4 libgsl-dev libcriterion-dev libxrl-dev clang cppcheck
+      libclang-rt-dev valgrind libtsan2 pkgconf groff-base man-db)
 # the other Lua hosts (make lua-hosts, test-lua-hosts): headers and stock
 # interpreters of Lua 5.1, 5.2, 5.3 and LuaJIT 2.1, compat-5.3 for the
 # binding (src/lbl_compat.h), and luarocks (make test-rock)
 pkgs+=(liblua5.1-0-dev lua5.1 liblua5.2-dev lua5.2 liblua5.3-dev lua5.3
        libluajit-5.1-dev luajit lua-compat53-dev luarocks)
-=======
-# valgrind: make valgrind (both part of make check); cppcheck: make lint
-pkgs=(liblua5.4-dev lua5.4 libgsl-dev libcriterion-dev libxrl-dev clang cppcheck
-      libclang-rt-dev valgrind)
->>>>>>> core-fixes
 
 for opt in "$@"; do
   case "$opt" in
