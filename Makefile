@@ -389,7 +389,8 @@ test-tsan: tsan-build
 # ---- install -----------------------------------------------------------------
 # make install PREFIX=... [DESTDIR=...]: static and shared library,
 # pkg-config file (written with the real PREFIX, never DESTDIR), headers, Lua
-# module, Lua helpers and recipes, runner, man page.  make uninstall (same
+# module, Lua helpers and recipes, runner, man pages (brakelight(1) of the
+# runner, brakelight(3) of the C library).  make uninstall (same
 # PREFIX and DESTDIR) removes exactly these, then the directories that are
 # left empty (never PREFIX itself).  Without DESTDIR, install ends with
 # $(LDCONFIG) (refreshes the loader's cache; fails quietly when not root).
@@ -405,17 +406,19 @@ CMODDIR  = $(DESTDIR)$(PREFIX)/lib/lua/$(LUAVER)
 LMODDIR  = $(DESTDIR)$(PREFIX)/share/lua/$(LUAVER)
 SHAREDIR = $(DESTDIR)$(PREFIX)/share/brakelight
 MANDIR   = $(DESTDIR)$(PREFIX)/share/man/man1
+MAN3DIR  = $(DESTDIR)$(PREFIX)/share/man/man3
 # every directory install may create, deepest first (uninstall removes the
 # empty ones)
-INSTDIRS = $(MANDIR) $(DESTDIR)$(PREFIX)/share/man $(SHAREDIR)/lua/recipes \
+INSTDIRS = $(MANDIR) $(MAN3DIR) $(DESTDIR)$(PREFIX)/share/man \
+           $(SHAREDIR)/lua/recipes \
            $(SHAREDIR)/lua $(SHAREDIR) $(LMODDIR)/brakelight $(LMODDIR) \
            $(DESTDIR)$(PREFIX)/share/lua $(DESTDIR)$(PREFIX)/share $(CMODDIR) \
            $(DESTDIR)$(PREFIX)/lib/lua $(PCDIR) $(LIBDIR) \
            $(INCDIR)/brakelight $(INCDIR) $(BINDIR)
 
-install: all $(B)/brakelight.1
+install: all $(B)/brakelight.1 $(B)/brakelight.3
 	install -d $(BINDIR) $(LIBDIR) $(PCDIR) $(INCDIR)/brakelight $(CMODDIR) \
-	  $(LMODDIR)/brakelight $(SHAREDIR)/lua/recipes $(MANDIR)
+	  $(LMODDIR)/brakelight $(SHAREDIR)/lua/recipes $(MANDIR) $(MAN3DIR)
 	install -m 755 $(RUNNER) $(BINDIR)/brakelight
 	install -m 644 $(LIB) $(LIBDIR)/libbrakelight.a
 	install -m 755 $(SHLIB) $(LIBDIR)/$(notdir $(SHLIB))
@@ -430,25 +433,31 @@ install: all $(B)/brakelight.1
 	install -m 644 lua/brakelight/*.lua $(LMODDIR)/brakelight/
 	install -m 644 lua/recipes/*.lua $(SHAREDIR)/lua/recipes/
 	install -m 644 $(B)/brakelight.1 $(MANDIR)/brakelight.1
+	install -m 644 $(B)/brakelight.3 $(MAN3DIR)/brakelight.3
 	@if [ -z "$(DESTDIR)" ]; then $(LDCONFIG) >/dev/null 2>&1 || true; fi
 
 uninstall:
 	rm -f $(BINDIR)/brakelight $(LIBDIR)/libbrakelight.a \
 	  $(LIBDIR)/libbrakelight.so $(LIBDIR)/$(SONAME) $(LIBDIR)/$(notdir $(SHLIB)) \
 	  $(PCDIR)/brakelight.pc $(CMODDIR)/brakelight.so $(MANDIR)/brakelight.1 \
-	  $(INCDIR)/brakelight.h
+	  $(MAN3DIR)/brakelight.3 $(INCDIR)/brakelight.h
 	rm -rf $(INCDIR)/brakelight $(LMODDIR)/brakelight $(SHAREDIR)
 	@for d in $(INSTDIRS); do \
 	  if [ -d "$$d" ]; then rmdir --ignore-fail-on-non-empty "$$d"; fi; done
 
 # ---- versioned files ---------------------------------------------------------
-# The man page and the rockspec carry the version of bl_version.h: made from
-# their templates scripts/*.in (@VERSION@), by `make`.
+# The man pages (brakelight.1: the runner; brakelight.3: the C API) and the
+# rockspec carry the version of bl_version.h: made from their templates
+# scripts/*.in (@VERSION@), by `make`.
 ROCKSPEC = $(B)/brakelight-$(VERSION)-1.rockspec
 
-all: $(B)/brakelight.1 $(ROCKSPEC)
+all: $(B)/brakelight.1 $(B)/brakelight.3 $(ROCKSPEC)
 
 $(B)/brakelight.1: scripts/brakelight.1.in $(VERSION_H)
+	@mkdir -p $(@D)
+	sed 's|@VERSION@|$(VERSION)|g' $< > $@
+
+$(B)/brakelight.3: scripts/brakelight.3.in $(VERSION_H)
 	@mkdir -p $(@D)
 	sed 's|@VERSION@|$(VERSION)|g' $< > $@
 

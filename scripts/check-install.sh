@@ -6,10 +6,18 @@
 #     dependencies (ldd), exported symbols (nm -D); the rockspec's version;
 #  2. make install PREFIX=<scratch>: the files, the pkg-config file, a small
 #     scan with the installed runner, the installed module and helpers in
-#     the stock lua5.4, the man page's version;
+#     the stock lua5.4, the man pages' version; brakelight(3): every
+#     function of the public headers has its entry (named in SYNOPSIS and
+#     as an item of the description), every object, type and constant is
+#     named, groff and man render it without a warning, and its example
+#     (between the markers example-begin and example-end) is
+#     tests/capi/man_example.c;
 #  3. tests/install/dsdk.c, an outside program, built with pkg-config
 #     against the installed shared library and, with --static, against the
-#     archive: both print the dsigma/dk of the build tree's runner;
+#     archive: both print the dsigma/dk of the build tree's runner; the
+#     example of brakelight(3), extracted from the installed page, built
+#     with pkg-config: its numbers are the Lua module's, and its output is
+#     the one the page shows;
 #  4. make uninstall leaves the prefix as it was (a foreign file in a shared
 #     directory stays, nothing of ours does);
 #  5. make install DESTDIR=<stage> PREFIX=/opt/...: the same files under the
@@ -96,7 +104,7 @@ for f in bin/brakelight lib/libbrakelight.a "lib/$real" \
          include/brakelight/bl_spectrum.h include/brakelight/lbrakelight.h \
          share/lua/5.4/brakelight/scan.lua \
          share/brakelight/lua/recipes/sharded_scan.lua \
-         share/man/man1/brakelight.1; do
+         share/man/man1/brakelight.1 share/man/man3/brakelight.3; do
   [ -f "$prefix/$f" ] || fail "make install: PREFIX/$f is missing"
 done
 [ "$(readlink "$prefix/lib/$soname")" = "$real" ] \
@@ -105,9 +113,12 @@ done
 for h in include/brakelight/*.h; do
   cmp -s "$h" "$prefix/$h" || fail "make install: $h differs or is missing"
 done
-grep -qF "\"brakelight $version\"" "$prefix/share/man/man1/brakelight.1" \
-  || fail "installed man page: no \"brakelight $version\" in its .TH line"
+for man in man1/brakelight.1 man3/brakelight.3; do
+  grep -qF "\"brakelight $version\"" "$prefix/share/man/$man" \
+    || fail "installed man page $man: no \"brakelight $version\" in its .TH line"
+done
 ! grep -q '@[A-Z]*@' "$prefix/share/man/man1/brakelight.1" \
+  "$prefix/share/man/man3/brakelight.3" \
   "$prefix/lib/pkgconfig/brakelight.pc" || fail "a @...@ marker was left"
 (cd "$prefix" && find . ! -type d | sort) | grep -vxF ./share/man/man1/other.1 \
   >"$scratch/files-prefix"
@@ -128,6 +139,36 @@ grep -qF "\"brakelight $version\"" "$prefix/share/man/man1/brakelight.1" \
   assert(bl._VERSION == '$version' and plot.draw)
   assert(package.searchpath('brakelight', package.cpath):find('inst-test', 1, true))")
 echo "test-install: make install PREFIX=... gives a working runner and module"
+
+# ---- 2b. brakelight(3), the man page of the C API
+man3="$prefix/share/man/man3/brakelight.3"
+bash scripts/check-man3.sh "$man3" || fail "$man3: see above"
+# renders without a warning: groff with every warning, man-db at 80 columns
+out=$(groff -man -ww -z "$man3" 2>&1) && [ -z "$out" ] \
+  || fail "groff -man -ww -z $man3: $out"
+out=$(MANWIDTH=80 man -l "$man3" 2>&1 >/dev/null) && [ -z "$out" ] \
+  || fail "MANWIDTH=80 man -l $man3: $out"
+# its example is tests/capi/man_example.c, text for text: the lines between
+# the markers with the troff escapes \e (backslash), \- (minus), \(aq
+# (quote) and \& (nothing) decoded; any other escape is an error
+manex() {   # manex BEGIN END: the decoded lines between two markers
+  awk -v b="$1" -v e="$2" '
+    $0 == ".\\\" " e { on = 0 } on { print }
+    $0 == ".\\\" " b { on = 1; n++ }
+    END { if (n != 1) exit 1 }' "$man3" \
+  | perl -pe 's/\\(\(aq|.)/$1 eq "e" ? "\\" : $1 eq "-" ? "-" : $1 eq "&" ? ""
+               : $1 eq "(aq" ? "\x27" : die "unknown troff escape \\$1\n"/ge'
+}
+manex example-begin example-end >"$scratch/man_example.c" \
+  || fail "$man3: no single example-begin ... example-end block"
+diff -u tests/capi/man_example.c "$scratch/man_example.c" >"$scratch/ex.diff" \
+  || fail "the example of brakelight(3) differs from tests/capi/man_example.c:
+$(cat "$scratch/ex.diff")"
+manex output-begin output-end >"$scratch/man_example.expected" \
+  || fail "$man3: no single output-begin ... output-end block"
+echo "test-install: brakelight(3): $(bash scripts/check-man3.sh --count "$man3")" \
+  "documented, renders without warnings, its example is" \
+  "tests/capi/man_example.c"
 
 # ---- 3. an outside C program, built with pkg-config
 export PKG_CONFIG_PATH="$prefix/lib/pkgconfig"
@@ -163,6 +204,79 @@ tree=$(build/brakelight -q -e '
           "'$static', build tree '$tree'"
 echo "test-install: an outside program (pkg-config, shared and --static)" \
   "prints the build tree's dsigma/dk: $tree mb/MeV"
+
+# the example of brakelight(3) as extracted from the installed page: built
+# with pkg-config against the installed library, its numbers (17 digits)
+# are those of the Lua module for the same calls, and its output is the
+# page's (numbers within 1e-9 relative: another libm may move last digits)
+# shellcheck disable=SC2046
+cc $cflags $(pkg-config --cflags brakelight) -o "$scratch/man_example" \
+  "$scratch/man_example.c" $(pkg-config --libs brakelight)
+LD_LIBRARY_PATH="$prefix/lib" "$scratch/man_example" >"$scratch/man_example.out" \
+  || fail "the example of brakelight(3) failed: $(cat "$scratch/man_example.out")"
+got=$(awk '$1 == "dsdk" { print $1, $2, $4 }
+           $1 == "photons" { print $1, $4, $6 }
+           $1 == "energy_loss" || $1 == "dedx" { print $1, $2 }' \
+      "$scratch/man_example.out")
+want=$(build/brakelight -q -e '
+  local bl = require "brakelight"
+  local o = { particle = "electron", target = "PbWO4", T = 20 }
+  local function with (t)
+    local r = {}
+    for key, v in pairs(o) do r[key] = v end
+    for key, v in pairs(t) do r[key] = v end
+    return r
+  end
+  local f = "%.17g"
+  local v, e = bl.dsdk(with{ k = 5 })
+  print("dsdk " .. f:format(v) .. " " .. f:format(e))
+  local el = bl.energy_loss(o)
+  print("energy_loss " .. f:format(el.per_unit))
+  print("dedx " .. f:format(el.dedx))
+  local y = bl.photon_yield(with{ thickness = 0.2, kmin = 1, bins = 2 })
+  for i = 1, 2 do
+    print("photons " .. f:format(y.photons[i]) .. " " .. f:format(y.err[i]))
+  end')
+[ "$got" = "$want" ] || fail "the example of brakelight(3) and the Lua module differ:
+example:
+$got
+module:
+$want"
+lua5.4 - "$scratch/man_example.out" "$scratch/man_example.expected" \
+  <<'LUA' || fail "the output of the example is not the one brakelight(3) shows"
+  -- word by word: numbers within 1e-9 relative, other words the same
+  local function lines (name)
+    local t = {}
+    for l in io.lines(name) do t[#t + 1] = l end
+    return t
+  end
+  local got, want = lines(arg[1]), lines(arg[2])
+  local function fail (i, why)
+    io.stderr:write(("line %d: %s\n  page:    %s\n  program: %s\n")
+      :format(i, why, tostring(want[i]), tostring(got[i])))
+    os.exit(1)
+  end
+  if #got ~= #want then fail(math.max(#got, #want), "not as many lines") end
+  for i = 1, #want do
+    local g = {}
+    for w in got[i]:gmatch("%S+") do g[#g + 1] = w end
+    local j = 0
+    for w in want[i]:gmatch("%S+") do
+      j = j + 1
+      local a, b = tonumber(w), tonumber(g[j])
+      if a and b then
+        if not (math.abs(a - b) <= 1e-9 * math.abs(a)) then
+          fail(i, "number " .. j .. " differs")
+        end
+      elseif w ~= g[j] then
+        fail(i, "word " .. j .. " differs")
+      end
+    end
+    if j ~= #g then fail(i, "not as many words") end
+  end
+LUA
+echo "test-install: the example of brakelight(3) (pkg-config) prints the" \
+  "module's numbers and the output the page shows"
 
 # ---- 4. make uninstall
 make --no-print-directory uninstall PREFIX="$prefix" >/dev/null

@@ -15,9 +15,10 @@ set -euo pipefail
 # valgrind: make valgrind; cppcheck: make lint; pkgconf (Debian 12's
 # pkg-config is a transitional package for it): make test-install;
 # libtsan2 (gcc's ThreadSanitizer runtime, usually pulled in by gcc
-# already): make test-tsan (all part of make check)
+# already): make test-tsan; groff-base and man-db: make test-install
+# renders brakelight(3) (groff -ww, man -l) (all part of make check)
 pkgs=(liblua5.4-dev lua5.4 libgsl-dev libcriterion-dev libxrl-dev clang
-      libclang-rt-dev valgrind libtsan2 pkgconf cppcheck)
+      libclang-rt-dev valgrind libtsan2 pkgconf cppcheck groff-base man-db)
 # the other Lua hosts (make lua-hosts, test-lua-hosts): headers and stock
 # interpreters of Lua 5.1, 5.2, 5.3 and LuaJIT 2.1, compat-5.3 for the
 # binding (src/binding/lbl_compat.h), and luarocks (make test-rock)

@@ -94,8 +94,9 @@ int bl_case_init (bl_case *c, const bl_particle *p, int Z,
                   const bl_model *screening, const double *params, double T);
 
 /* The same with the target options o (NULL: bl_opts_bare).  Also
-** BL_EDOMAIN for A outside [0, 300] or unknown switch values; BL_EMODEL
-** for electrons with a model that has no electron field. */
+** BL_EDOMAIN for A outside [0, 300] or unknown switch values.  With a
+** model that has no electron field ("none"), electrons are turned off in
+** the case (c->opts.electrons = 0), not refused. */
 int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
                    const bl_model *screening, const double *params, double T,
                    const bl_opts *o);

@@ -20,7 +20,8 @@ extern "C" {
 enum {
   BL_SUCCESS  = 0,
   BL_EDOMAIN  = 1001,   /* an argument is outside its allowed range */
-  BL_EUNKNOWN = 1002,   /* unknown name (particle, element, model) */
+  BL_EUNKNOWN = 1002,   /* unknown name (materials; the particle, element
+                        ** and model look-ups return NULL or 0 instead) */
   BL_ENOMEM   = 1003,   /* allocation failed */
   BL_EMODEL   = 1004,   /* model cannot serve this request */
   BL_ENOTCONV = 1005,   /* integral did not reach the requested tolerance */

@@ -42,7 +42,8 @@ int bl_suppress_init (bl_suppress *s, int mode, const bl_material *m,
 
 /*
 ** The factor (<= 1) multiplying dsigma/dk at total energy E0 (MeV) and
-** photon energy k (MeV), 0 < k < E0 - m; 1 for mode NONE.
+** photon energy k (MeV), 0 < k < E0 - m; 1 for mode NONE and for k
+** outside (0, E0).
 */
 double bl_suppress_factor (const bl_suppress *s, double E0, double k);
 

@@ -15,7 +15,7 @@
 ** means the result is the best estimate, with BL_WARN_TOLERANCE set.
 **
 ** Ownership: the caller owns each bl_target, on the stack or the heap
-** (it is large: about 0.5 MB with BL_MATERIAL_MAXCOMP elements), fills it
+** (it is large: about 130 KB with BL_MATERIAL_MAXCOMP elements), fills it
 ** with
 ** bl_target_setup and bl_target_prepare and gives back the references it
 ** holds with bl_target_release.  Thread safety: a prepared target is read
@@ -187,9 +187,11 @@ enum { BL_SPACING_LINEAR = 0, BL_SPACING_LOG = 1 };
 ** radiator of `thickness` g/cm^2 of the target's material:
 ** edges[0..nbins] receives the bin edges (exact ends), out[i] the photons
 ** of bin i.  Stops at the first bin that fails hard; *failbin (if not
-** NULL) is its index (-1: none).
-** exceptions: as bl_target_kintegral_e, BL_EDOMAIN for nbins outside
-** 1..BL_YIELD_MAXBINS or kmin <= 0 with log spacing
+** NULL) is its index (-1: none).  A bin that only missed the tolerance
+** carries BL_WARN_TOLERANCE and the call still returns BL_SUCCESS.
+** exceptions: the hard failure of a bin (as bl_target_kintegral_e),
+** BL_EDOMAIN for nbins outside 1..BL_YIELD_MAXBINS or kmin <= 0 with log
+** spacing
 */
 int bl_target_photon_yield_e (const bl_target *t, double thickness,
                               double kmin, double kmax, int nbins,
