@@ -351,13 +351,16 @@ fuzz-smoke: fuzz-build
 	  -artifact_prefix=$(FUZZ_DIR)/ \
 	  $(FUZZ_DIR)/corpus_lua tests/fuzz/lua
 
-# long run of one harness: make fuzz FUZZ=lua FUZZ_SECS=600
+# long run of one harness: make fuzz FUZZ=lua FUZZ_SECS=600; FUZZ_ARGS adds
+# libFuzzer options, e.g. "-fork=1 -ignore_crashes=1" to go on after a
+# crash (each one saved as build/fuzz/crash-*)
 FUZZ      ?= lua
 FUZZ_SECS ?= 600
+FUZZ_ARGS ?=
 fuzz: fuzz-build
 	@mkdir -p $(FUZZ_DIR)/corpus_$(FUZZ)
 	./$(FUZZ_DIR)/fuzz_$(FUZZ) $(if $(filter lua,$(FUZZ)),$(FUZZ_LUA_OPTS),$(FUZZ_FORMULA_OPTS)) \
-	  -max_total_time=$(FUZZ_SECS) -print_final_stats=1 \
+	  -max_total_time=$(FUZZ_SECS) -print_final_stats=1 $(FUZZ_ARGS) \
 	  -artifact_prefix=$(FUZZ_DIR)/ $(FUZZ_DIR)/corpus_$(FUZZ) tests/fuzz/$(FUZZ)
 
 # the Lua-level tests under valgrind memcheck (scripts/valgrind-lua.sh)
