@@ -21,20 +21,38 @@
 # package.path, then checks that require "brakelight" there gives the
 # module and its helper fields; the runner's own checks are skipped (tests
 # that start the runner as a program still need build/brakelight).
+#
+#   run-lua-tests.sh --build DIR                  (make test-lua-asan)
+# takes the runner, the module and target_values from DIR (default build,
+# or the environment variable BL_BUILD_DIR) instead of build/: DIR is
+# exported as BL_BUILD_DIR, which the tests that start build/brakelight,
+# build/target_values or load build/brakelight.so read, and, when DIR is
+# not build, BRAKELIGHT_LUA_PATH (if unset) names lua/, since a runner in
+# DIR does not find lua/ next to its directory.  A module in DIR linked
+# with AddressSanitizer is loaded by the stock lua5.4 with libasan
+# preloaded (a wrapper lua5.4 first on PATH, for this script's check and
+# for test_stock_lua.lua alone, not for every command).
 set -uo pipefail
 
 cd "$(dirname "$0")/.."
-runner=build/brakelight
+build=${BL_BUILD_DIR:-build}
 interp=
 cpath=
 while [ $# -gt 0 ]; do
   case "$1" in
     --lua) interp=${2:?--lua needs an interpreter}; shift 2 ;;
     --cpath) cpath=${2:?--cpath needs a directory}; shift 2 ;;
-    *) echo "run-lua-tests: unknown option '$1' (allowed: --lua INTERP, --cpath DIR)" >&2
+    --build) build=${2:?--build needs a directory}; shift 2 ;;
+    *) echo "run-lua-tests: unknown option '$1' (allowed: --lua INTERP, --cpath DIR, --build DIR)" >&2
        exit 2 ;;
   esac
 done
+build=${build%/}
+runner=$build/brakelight
+export BL_BUILD_DIR=$build
+if [ "$build" != build ] && [ -z "${BRAKELIGHT_LUA_PATH:-}" ]; then
+  export BRAKELIGHT_LUA_PATH=$PWD/lua
+fi
 if [ -n "$interp" ] && [ -z "$cpath" ]; then
   echo "run-lua-tests: --lua needs --cpath DIR (the directory of that host's brakelight.so)" >&2
   exit 2
@@ -44,6 +62,22 @@ failed=0
 log=$(mktemp)
 tmp=$(mktemp -d)
 trap 'rm -rf "$log" "$tmp"' EXIT
+
+# a module built with AddressSanitizer needs its runtime loaded first in a
+# stock (uninstrumented) interpreter: lua5.4 on PATH becomes a wrapper that
+# preloads it (only lua5.4: preloading it into every shell command would
+# report their leaks)
+asanlib=
+if [ -f "$build/brakelight.so" ]; then
+  asanlib=$(ldd "$build/brakelight.so" | awk '$1 ~ /^libasan/ { print $3 }')
+fi
+if [ -n "$asanlib" ] && command -v lua5.4 >/dev/null 2>&1; then
+  mkdir -p "$tmp/bin"
+  printf '#!/bin/bash\nLD_PRELOAD=%s${LD_PRELOAD:+:$LD_PRELOAD} exec -a lua5.4 %s "$@"\n' \
+    "$asanlib" "$(command -v lua5.4)" >"$tmp/bin/lua5.4"
+  chmod +x "$tmp/bin/lua5.4"
+  PATH=$tmp/bin:$PATH
+fi
 
 # record CHECK-NAME STATUS SECONDS: print the line, count it, show the log on failure
 record() {
@@ -146,7 +180,7 @@ fi
 # the module must load in the stock interpreter, outside the runner
 start=$(now)
 if command -v lua5.4 >/dev/null 2>&1; then
-  lua5.4 -e 'package.cpath="build/?.so;"..package.cpath; local b=require"brakelight"; assert(type(b.dsdk)=="function")' \
+  lua5.4 -e 'package.cpath="'"$build"'/?.so;"..package.cpath; local b=require"brakelight"; assert(type(b.dsdk)=="function")' \
     >"$log" 2>&1 </dev/null
   st=$?
 else

@@ -9,9 +9,12 @@ local bl = require "brakelight"
 
 local root = (arg and arg[0] or ""):match("^(.-)tests[/\\]lua[/\\][^/\\]+%.lua$")
 assert(root, "cannot find the project root from arg[0]")
+-- the build directory: BL_BUILD_DIR (scripts/run-lua-tests.sh --build DIR), else build/
+local build = os.getenv("BL_BUILD_DIR") or "build"
+build = (build:sub(1, 1) == "/" and build or root .. build) .. "/"
 
 local function run (material, T)
-  local cmd = root .. "build/target_values '" .. material .. "' " .. T
+  local cmd = build .. "target_values '" .. material .. "' " .. T
   local p = assert(io.popen(cmd))
   local out = p:read("*a")
   p:close()

@@ -9,10 +9,14 @@
 local root = (arg and arg[0] or ""):match("^(.-)tests[/\\]lua[/\\][^/\\]+%.lua$")
 assert(root, "cannot find the project root from arg[0] = " .. tostring(arg and arg[0]))
 
+-- the build directory: BL_BUILD_DIR (scripts/run-lua-tests.sh --build DIR), else build/
+local build = os.getenv("BL_BUILD_DIR") or "build"
+build = (build:sub(1, 1) == "/" and build or root .. build) .. "/"
+
 local function quote(s) return "'" .. s:gsub("'", "'\\''") .. "'" end
 
 local csv = os.tmpname()
-local cmd = quote(root .. "build/brakelight") .. " " ..
+local cmd = quote(build .. "brakelight") .. " " ..
             quote(root .. "lua/recipes/demo.lua") .. " " .. quote(csv) .. " 2>&1"
 package.path = root .. "lua/?.lua;" .. package.path
 local out, code = require("brakelight.compat").capture(cmd)

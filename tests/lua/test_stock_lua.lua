@@ -11,6 +11,10 @@ local compat = require "brakelight.compat"
 local root = (arg and arg[0] or ""):match("^(.-)tests[/\\]lua[/\\][^/\\]+%.lua$")
 assert(root, "cannot find the project root from arg[0] = " .. tostring(arg and arg[0]))
 
+-- the build directory: BL_BUILD_DIR (scripts/run-lua-tests.sh --build DIR), else build/
+local build = os.getenv("BL_BUILD_DIR") or "build"
+build = (build:sub(1, 1) == "/" and build or root .. build) .. "/"
+
 local function quote(s) return "'" .. s:gsub("'", "'\\''") .. "'" end
 
 local function exists(path)
@@ -24,12 +28,12 @@ assert(not exists(root .. "lua/brakelight.lua"),
        "lua/brakelight.lua would shadow the C module")
 assert(not exists(root .. "lua/brakelight/init.lua"),
        "lua/brakelight/init.lua would shadow the C module")
-assert(exists(root .. "build/brakelight.so"), "build/brakelight.so missing")
+assert(exists(build .. "brakelight.so"), build .. "brakelight.so missing")
 
 local opts = 'particle = "electron", target = "Pb", T = 10, k = 5, rtol = 1e-6'
 local script = [[
-local root = ...
-package.cpath = root .. "build/?.so;" .. package.cpath
+local root, build = ...
+package.cpath = build .. "?.so;" .. package.cpath
 package.path = root .. "lua/?.lua;" .. package.path
 local bl = require "brakelight"
 local tabular = require "brakelight.tabular"
@@ -45,7 +49,7 @@ local tmp = os.tmpname()
 local f = assert(io.open(tmp, "w"))
 f:write(script)
 f:close()
-local out, code = compat.capture("lua5.4 " .. quote(tmp) .. " " .. quote(root) .. " 2>&1")
+local out, code = compat.capture("lua5.4 " .. quote(tmp) .. " " .. quote(root) .. " " .. quote(build) .. " 2>&1")
 os.remove(tmp)
 assert(code == 0, string.format("stock lua5.4 failed (exit status %s):\n%s",
                                 tostring(code), out))

@@ -9,7 +9,10 @@ local U = {}
 U.root = (arg and arg[0] or ""):match("^(.-)tests[/\\]lua[/\\][^/\\]+%.lua$")
 assert(U.root, "cannot find the project root from arg[0]")
 if U.root == "" then U.root = "./" end
-U.runner = U.root .. "build/brakelight"
+-- the build directory: BL_BUILD_DIR (scripts/run-lua-tests.sh --build DIR), else build/
+local build = os.getenv("BL_BUILD_DIR") or "build"
+build = (build:sub(1, 1) == "/" and build or U.root .. build) .. "/"
+U.runner = build .. "brakelight"
 package.path = U.root .. "lua/?.lua;" .. package.path
 local compat = require "brakelight.compat"
 
