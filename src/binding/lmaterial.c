@@ -270,8 +270,10 @@ static void readmixture (Reader *r, int idx, bl_material *out) {
            "compound part)");
       break;
     case LUA_TSTRING:
-      lbl_checktext(L, -1, r->fname, "field 'by'");
       by = lua_tostring(L, -1);
+      if (strlen(by) != lua_rawlen(L, -1))   /* C would read it cut short */
+        fail(r, "field 'by' contains a NUL byte at byte %zu; allowed: "
+             "'mass' or 'atoms'", strlen(by) + 1);
       if (strcmp(by, "mass") == 0)
         bymass = 1;
       else if (strcmp(by, "atoms") != 0)
