@@ -110,3 +110,198 @@ Test(corrections, coulomb_validity) {
   dsdk_opts("electron", 29, "exponential", 5.0, 0.5, &o, 1e-3, &r);
   cr_expect(!(r.applied & BL_APPLIED_ELWERT), "no Elwert at 5 MeV");
 }
+
+
+/* ==================================================================
+** The references of the beyond-Born checks themselves (tests/ref/):
+** the complex Gauss hypergeometric function (suite hyp2f1), Sommerfeld's
+** exact non-relativistic dsigma/dk (suite sommerfeld) and the Kim et al.
+** (1986) positron/electron ratio (suite kim1986).
+*/
+
+#include <complex.h>
+#include <gsl/gsl_sf_gamma.h>
+#include <gsl/gsl_sf_hyperg.h>
+
+#include "sommerfeld.h"
+#include "kim1986.h"
+#include "kochmotz.h"
+
+TestSuite(hyp2f1, .init = setup);
+TestSuite(sommerfeld, .init = setup);
+TestSuite(kim1986, .init = setup);
+
+#define EXPECT_CREL(got, want, tol, ...) do {                             \
+    double complex g_ = (got), w_ = (want);                             \
+    double r_ = cabs(g_ - w_) / cabs(w_);                               \
+    char m_[512];                                                       \
+    snprintf(m_, sizeof m_, __VA_ARGS__);                               \
+    cr_expect(isfinite(r_) && r_ <= (tol),                              \
+              "%s: got %.15g%+.15gi want %.15g%+.15gi rel %.3e > %.1e", \
+              m_, creal(g_), cimag(g_), creal(w_), cimag(w_), r_,       \
+              (double) (tol));                                          \
+  } while (0)
+
+/* ---- the hypergeometric function ---- */
+
+/* Pfaff's transformation and the continuation (som_F, som_F1) against the
+** plain Maclaurin series in x where both converge (|x| < 1), with the
+** Coulomb parameters of the formula (electron and positron signs). */
+Test(hyp2f1, pfaff_equals_maclaurin) {
+  static const double nus[][2] = {
+    {1e-6, 2e-6}, {0.7, 0.74}, {2.0, 3.0}, {-2.0, -3.0}, {9.2, 13.0},
+    {-9.2, -13.0}
+  };
+  static const double xs[] = {-0.1, -0.5, -0.9};
+  size_t i, j;
+  for (i = 0; i < sizeof nus / sizeof nus[0]; i++)
+    for (j = 0; j < sizeof xs / sizeof xs[0]; j++) {
+      double n0 = nus[i][0], n = nus[i][1], x = xs[j], cond;
+      double complex f, f1, s, s1, d, d1;
+      cr_assert_eq(som_F(n0, n, x, &f), 0);
+      cr_assert_eq(som_F1(n0, n, x, &f1), 0);
+      cond = som_hyp2f1_maclaurin(I * n0, I * n, 1.0, x, &s, &d);
+      cr_assert(cond > 0.0);
+      /* the direct series cancels by `cond`: allow for it */
+      EXPECT_CREL(f, s, 1e-14 * fmax(cond, 100.0), "F nu0=%g nu=%g x=%g",
+                  n0, n, x);
+      /* the derivative relation d/dx 2F1(a,b;1;x) = ab 2F1(a+1,b+1;2;x):
+      ** the series' derivative against som_F1 */
+      EXPECT_CREL((I * n0) * (I * n) * f1, d, 1e-14 * fmax(cond, 100.0),
+                  "dF/dx nu0=%g nu=%g x=%g", n0, n, x);
+      cond = som_hyp2f1_maclaurin(1.0 + I * n0, 1.0 + I * n, 2.0, x, &s1,
+                                  &d1);
+      cr_assert(cond > 0.0);
+      EXPECT_CREL(f1, s1, 1e-14 * fmax(cond, 100.0), "F1 nu0=%g nu=%g x=%g",
+                  n0, n, x);
+    }
+}
+
+
+/* Closed forms (Abramowitz & Stegun 15.1.11, 15.1.15, 15.1.3, 15.1.8) at
+** w up to 1 - 1e-9 (the continuation near the singular point), complex
+** parameters. */
+Test(hyp2f1, closed_forms) {
+  static const double th[] = {0.2, 0.8, 1.3, 1.5, 1.57};
+  double complex a = 1.3 + 0.7 * I, f, d;
+  size_t i;
+  for (i = 0; i < sizeof th / sizeof th[0]; i++) {
+    double s = sin(th[i]), w = s * s, c = cos(th[i]);
+    /* AS 15.1.11: F(a, -a; 1/2; sin^2 t) = cos(2 a t) */
+    cr_assert_eq(som_hyp2f1_unit(a, -a, 0.5, w, c * c, &f, &d), 0);
+    EXPECT_CREL(f, ccos(2.0 * a * th[i]), 1e-12, "15.1.11 t=%g", th[i]);
+    /* derivative of the same: d/dw = -2a sin(2 a t)/sin(2t) (dt/dw) */
+    EXPECT_CREL(d, -a * csin(2.0 * a * th[i]) / (s * c), 1e-12,
+                "15.1.11' t=%g", th[i]);
+    /* AS 15.1.15: F(a, 1-a; 3/2; sin^2 t) = sin((2a-1) t)/((2a-1) sin t) */
+    cr_assert_eq(som_hyp2f1_unit(a, 1.0 - a, 1.5, w, c * c, &f, &d), 0);
+    EXPECT_CREL(f, csin((2.0 * a - 1.0) * th[i]) / ((2.0 * a - 1.0) * s),
+                1e-12, "15.1.15 t=%g", th[i]);
+  }
+  {
+    /* AS 15.1.3: F(1, 1; 2; x) = -ln(1 - x)/x (the degenerate case
+    ** c - a - b = 0 of the transformed function), x down to -1e9 */
+    static const double xs[] = {-1e-3, -0.7, -3.0, -1e4, -1e9};
+    for (i = 0; i < sizeof xs / sizeof xs[0]; i++) {
+      cr_assert_eq(som_hyp2f1_neg(1.0, 1.0, 2.0, xs[i], &f), 0);
+      EXPECT_CREL(f, -log1p(-xs[i]) / xs[i], 1e-12, "15.1.3 x=%g", xs[i]);
+    }
+    /* AS 15.1.8: F(a, b; b; x) = (1 - x)^(-a) */
+    cr_assert_eq(som_hyp2f1_neg(a, 0.4 - 2.0 * I, 0.4 - 2.0 * I, -50.0, &f),
+                 0);
+    EXPECT_CREL(f, cexp(-a * log(51.0)), 1e-12, "15.1.8");
+  }
+}
+
+
+/* Gauss's sum (AS 15.1.20) F(a,b;c;1) = G(c)G(c-a-b)/(G(c-a)G(c-b)),
+** Re(c - a - b) = 2.5 > 1: at 1 - w = 1e-14 the difference is O(1e-14).
+** Gamma functions from GSL (gsl_sf_lngamma_complex_e). */
+Test(hyp2f1, gauss_sum) {
+  double complex a = 0.3 + 2.0 * I, b = -0.7 - 0.5 * I, c = 2.1 + 1.5 * I;
+  double complex f, d, lg = 0.0;
+  const double complex z[4] = {c, c - a - b, c - a, c - b};
+  const double sg[4] = {1.0, 1.0, -1.0, -1.0};
+  int i;
+  for (i = 0; i < 4; i++) {
+    gsl_sf_result lr, ar;
+    cr_assert_eq(gsl_sf_lngamma_complex_e(creal(z[i]), cimag(z[i]), &lr, &ar),
+                 GSL_SUCCESS);
+    lg += sg[i] * (lr.val + I * ar.val);
+  }
+  cr_assert_eq(som_hyp2f1_unit(a, b, c, 1.0 - 1e-14, 1e-14, &f, &d), 0);
+  EXPECT_CREL(f, cexp(lg), 1e-12, "Gauss sum");
+}
+
+
+/* The continuation against the connection formula AS 15.3.6 near w = 1
+** (series in 1 - w and complex Gamma functions from GSL), with the
+** parameters of Sommerfeld's transformed function G = F(i nu0, 1 - i nu; 1;
+** w), c - a - b = i (nu - nu0) not near an integer.  With larger nu the
+** connection formula itself cancels (2e-6 lost at nu0 = 9.2, nu = 12, 1 - w
+** = 0.3, where the continuation agrees with mpmath to 1e-16): large
+** parameters are checked in independent_values. */
+Test(hyp2f1, continuation_vs_connection) {
+  static const double nus[][2] = {{0.7, 1.2}, {3.0, 6.0}, {-3.0, -6.0},
+                                  {1.5, 4.0}};
+  static const double oms[] = {0.3, 0.05, 1e-3, 1e-6, 1e-10};
+  size_t i, j;
+  for (i = 0; i < sizeof nus / sizeof nus[0]; i++)
+    for (j = 0; j < sizeof oms / sizeof oms[0]; j++) {
+      double complex a = I * nus[i][0], b = 1.0 - I * nus[i][1], f, g, d;
+      double w = 1.0 - oms[j], cond;
+      cr_assert_eq(som_hyp2f1_unit(a, b, 1.0, w, oms[j], &f, &d), 0);
+      cond = som_hyp2f1_conn(a, b, 1.0, w, oms[j], &g);
+      cr_expect(cond > 0.0 && cond < 100.0, "conn cond %g nu0=%g 1-w=%g", cond,
+                nus[i][0], oms[j]);
+      EXPECT_CREL(f, g, 1e-12, "nu0=%g nu=%g 1-w=%g", nus[i][0], nus[i][1],
+                  oms[j]);
+      /* the derivative from the walk against the contiguous function:
+      ** dF/dw = (a b/c) F(a+1, b+1; c+1; w) */
+      cr_assert_eq(som_hyp2f1_unit(a + 1.0, b + 1.0, 2.0, w, oms[j], &g,
+                                   &d), 0);
+      cr_assert_eq(som_hyp2f1_unit(a, b, 1.0, w, oms[j], &f, &d), 0);
+      EXPECT_CREL(d, a * b * g, 1e-12, "F' nu0=%g nu=%g 1-w=%g", nus[i][0],
+                  nus[i][1], oms[j]);
+    }
+}
+
+
+/* Independent implementations: GSL's gsl_sf_hyperg_2F1_conj_e (a and b
+** complex conjugates: F(i nu, -i nu; 1; x), real; GSL takes |x| < 1 here)
+** and mpmath 1.3.0 (mp.dps = 40, mpmath.hyp2f1 with the same double
+** arguments) for large Coulomb parameters, where the plain series cancels
+** by up to e^(pi nu). */
+Test(hyp2f1, independent_values) {
+  static const double gx[] = {-0.5, -0.99};
+  static const double gnu[] = {0.3, 2.0, 8.0};
+  static const struct { double n0, n, x, fr, fi, f1r, f1i; } mp[] = {
+    {9.2, 41.0, -3.0, 199217709489.94705757, 744655677601.28160307,
+     9944650077.4065286059, -2417493856.8851404742},
+    {29.1, 130.0, -0.05, -34451214194.590857269, 17026848884.377260692,
+     -1976761573.6009098547, 1803746008.3138528139},
+    {0.7, 0.74, -5000.0, 0.32149023462866115609, 11.680244003026199578,
+     0.0031581683749548625624, 0.00047944986635501872663},
+    {-9.2, -41.0, -3.0, 199217709489.94705757, -744655677601.28160307,
+     9944650077.4065286059, 2417493856.8851404742}
+  };
+  size_t i, j;
+  for (i = 0; i < sizeof gnu / sizeof gnu[0]; i++)
+    for (j = 0; j < sizeof gx / sizeof gx[0]; j++) {
+      gsl_sf_result r;
+      double complex f;
+      cr_assert_eq(gsl_sf_hyperg_2F1_conj_e(0.0, gnu[i], 1.0, gx[j], &r),
+                   GSL_SUCCESS);
+      cr_assert_eq(som_F(gnu[i], -gnu[i], gx[j], &f), 0);
+      EXPECT_CREL(f, r.val, 1e-12, "GSL conj nu=%g x=%g", gnu[i], gx[j]);
+    }
+  for (i = 0; i < sizeof mp / sizeof mp[0]; i++) {
+    double complex f, f1;
+    cr_assert_eq(som_F(mp[i].n0, mp[i].n, mp[i].x, &f), 0);
+    cr_assert_eq(som_F1(mp[i].n0, mp[i].n, mp[i].x, &f1), 0);
+    EXPECT_CREL(f, mp[i].fr + I * mp[i].fi, 1e-12, "mpmath F nu0=%g nu=%g",
+                mp[i].n0, mp[i].n);
+    EXPECT_CREL(f1, mp[i].f1r + I * mp[i].f1i, 1e-12,
+                "mpmath F1 nu0=%g nu=%g", mp[i].n0, mp[i].n);
+  }
+}
