@@ -18,9 +18,10 @@ enum {
   BL_METHOD_BORN        = 0,   /* exact first-order Born integral */
   BL_METHOD_HIGH_ENERGY = 1,   /* screening functions, small angles */
   BL_METHOD_COMPLETE    = 2,   /* Tsai's complete-screening formula */
-  BL_METHOD_AUTO        = 3    /* born or high-energy, per point */
+  BL_METHOD_AUTO        = 3,   /* born or high-energy, per point */
+  BL_METHOD_DISTORTED   = 4    /* Sommerfeld-Maue distorted waves */
 };
-#define BL_METHOD_COUNT 4
+#define BL_METHOD_COUNT 5
 
 /*
 ** Where the closed forms hold.  "auto" takes the high-energy method where
@@ -137,6 +138,18 @@ int bl_he_valid (const bl_case *c, double k);
 */
 int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
                     bl_quad *q, bl_result *out);
+
+/*
+** d2sigma/(dk dOmega_k) and the fully differential cross section by
+** `method`: the distorted-wave method's own (BL_METHOD_DISTORTED), the
+** Born integrals for every other method (the closed forms have no
+** angles).  Arguments, units and exceptions as bl_dcs_angular_e and
+** bl_dcs_full_e.
+*/
+int bl_method_angular_e (const bl_case *c, int method, double k,
+                         double theta_k, bl_quad *q, bl_result *out);
+int bl_method_full_e (const bl_case *c, int method, double k, double theta_k,
+                      double theta_p, double phi, bl_result *out);
 
 /*
 ** Photon energies (MeV) where dsigma/dk of case c by `method` jumps: the

@@ -288,7 +288,8 @@ int l_differential (lua_State *L) {
 }
 
 
-/* brakelight.methods() -> {"born", "high-energy", "complete", "auto"} */
+/* brakelight.methods() -> {"born", "high-energy", "complete", "auto",
+** "distorted"} */
 int l_methods (lua_State *L) {
   int i;
   lua_createtable(L, BL_METHOD_COUNT, 0);

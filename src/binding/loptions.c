@@ -120,7 +120,7 @@ static void optmethod (lua_State *L, Opts *o) {
   if (o->method < 0)
     lbl_argfail(L, o->fname, "unknown method '%.60s' in field 'method'; "
                 "allowed: 'auto' (default), 'born', 'high-energy', "
-                "'complete'", s);
+                "'complete', 'distorted'", s);
   if (o->method == BL_METHOD_COMPLETE
       && o->screening->id == BL_MODEL_NONE)
     lbl_argfail(L, o->fname, "field 'method' is 'complete', but screening "
@@ -320,19 +320,22 @@ void lbl_checkwork (lua_State *L, const Opts *o, const char *key,
 
 /*
 ** Refuse coulomb = true where the correction is not defined, and a method
-** other than the Born integral for angular distributions ("auto" means
-** born there).
+** without angles for angular distributions: the Born integral ("auto"
+** means born there) or the distorted waves.
 */
 void lbl_nocoulomb (lua_State *L, Opts *o) {
   if (o->bo.coulomb == BL_APPLY_ON)
     lbl_argfail(L, o->fname, "field 'coulomb' is true, but the Coulomb "
                 "correction is known for dsigma/dk only (spectrum, dsdk); "
                 "allowed here: false or 'auto' (not applied)");
-  if (o->method != BL_METHOD_BORN && o->method != BL_METHOD_AUTO)
+  if (o->method != BL_METHOD_BORN && o->method != BL_METHOD_AUTO
+      && o->method != BL_METHOD_DISTORTED)
     lbl_argfail(L, o->fname, "field 'method' is '%s', but angular "
-                "distributions come from the Born integral only; allowed "
-                "here: 'auto' (default) or 'born'", bl_method_name(o->method));
-  o->method = BL_METHOD_BORN;
+                "distributions come from the Born integral or the distorted "
+                "waves only; allowed here: 'auto' (default), 'born' or "
+                "'distorted'", bl_method_name(o->method));
+  if (o->method != BL_METHOD_DISTORTED)
+    o->method = BL_METHOD_BORN;
 }
 
 

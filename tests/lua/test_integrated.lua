@@ -238,7 +238,8 @@ end
 -- the list of methods
 do
   local m = bl.methods()
-  check(#m == 4 and m[1] == "born" and m[4] == "auto", "methods()")
+  check(#m == 5 and m[1] == "born" and m[4] == "auto"
+        and m[5] == "distorted", "methods()")
   nchecks = nchecks + 1
 end
 

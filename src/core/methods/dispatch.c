@@ -64,10 +64,30 @@ int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
       if (c != NULL && h != NULL && h->ready && bl_he_valid(c, k))
         return closedform(bl_he_dk_e(c, h, k, out), q, out);
       return bl_dcs_dk_e(c, k, q, out);
+    case BL_METHOD_DISTORTED:
+      return bl_dw_dk_e(c, k, q, out);
     default:
       bl_method_clear(out, BL_METHOD_BORN);
       return BL_EDOMAIN;
   }
+}
+
+
+/* The angular and fully differential values exist for the Born and the
+** distorted-wave methods; every other method gives Born's. */
+int bl_method_angular_e (const bl_case *c, int method, double k,
+                         double theta_k, bl_quad *q, bl_result *out) {
+  if (method == BL_METHOD_DISTORTED)
+    return bl_dw_angular_e(c, k, theta_k, q, out);
+  return bl_dcs_angular_e(c, k, theta_k, q, out);
+}
+
+
+int bl_method_full_e (const bl_case *c, int method, double k, double theta_k,
+                      double theta_p, double phi, bl_result *out) {
+  if (method == BL_METHOD_DISTORTED)
+    return bl_dw_full_e(c, k, theta_k, theta_p, phi, out);
+  return bl_dcs_full_e(c, k, theta_k, theta_p, phi, out);
 }
 
 
@@ -99,7 +119,7 @@ int bl_method_breaks (const bl_case *c, const bl_he *h, int method,
 
 
 static const char *const method_names[BL_METHOD_COUNT] = {
-  "born", "high-energy", "complete", "auto"
+  "born", "high-energy", "complete", "auto", "distorted"
 };
 
 

@@ -7,7 +7,7 @@
 #ifndef BL_METHODS_INTERNAL_H
 #define BL_METHODS_INTERNAL_H
 
-#include "corrections/internal.h"
+#include "distorted/internal.h"
 
 /* What a screening table integrates: the nuclear (elastic) part,
 ** h = f (2 - f) with f = F/Z, or the atomic electrons, h = 1 - S/Z. */

@@ -186,10 +186,10 @@ int bl_target_point_e (const bl_target *t, int kind, double k, double theta_k,
         st = bl_method_dk_e(c, &t->he[i], t->method, k, q, &r);
         break;
       case BL_TARGET_ANGULAR:
-        st = bl_dcs_angular_e(c, k, theta_k, q, &r);
+        st = bl_method_angular_e(c, t->method, k, theta_k, q, &r);
         break;
       case BL_TARGET_FULL:
-        st = bl_dcs_full_e(c, k, theta_k, theta_p, phi, &r);
+        st = bl_method_full_e(c, t->method, k, theta_k, theta_p, phi, &r);
         break;
       default:
         return BL_EDOMAIN;
@@ -292,7 +292,7 @@ static int kpoint (void *ud, double k, bl_result *out) {
     bl_result r;
     int st = x->kind == BL_TARGET_DK
              ? bl_method_dk_e(c, &t->he[i], t->method, k, x->q, &r)
-             : bl_dcs_angular_e(c, k, x->theta, x->q, &r);
+             : bl_method_angular_e(c, t->method, k, x->theta, x->q, &r);
     if (st != BL_SUCCESS && !bl_status_soft(st)) {
       x->acc.Z = c->Z;
       x->acc.k = k;

@@ -1,0 +1,338 @@
+/*
+** test_distorted.c -- the distorted-wave room: the Gauss function V(x),
+** the Sommerfeld-Maue bracket and its limits, the cross sections
+** See Copyright Notice in LICENSE
+**
+** Suites: dwhyp (V and V' against independent series), dwlimits (first
+** Born limit, charge sign, the tip), dwdk (dsigma/dk).
+*/
+
+#include <complex.h>
+#include <math.h>
+#include <stdlib.h>
+
+#include <criterion/criterion.h>
+
+#include "brakelight.h"
+#include "distorted/internal.h"
+#include "kochmotz.h"
+#include "sommerfeld.h"
+#include "testutil.h"
+
+
+/* ==================================================================
+** V(x) = 2F1(i eta0, i eta; 1; x): the table against series written
+** here in long double, independently of hyp.c: the Gauss series for
+** |x| < 0.9, and for x < -0.9 Pfaff's transformation (Abramowitz &
+** Stegun 15.3.4) 2F1(a,b;c;x) = (1-x)^(-a) 2F1(a, c-b; c; x/(x-1)),
+** whose argument x/(x-1) lies in (0.47, 0.9] for x in [-9, -0.9).
+*/
+
+TestSuite(dwhyp, .init = setup);
+
+static long double complex gauss (long double complex a,
+                                  long double complex b, long double c,
+                                  long double x) {
+  long double complex t = 1.0L, s = 1.0L;
+  int n;
+  for (n = 0; n < 20000; n++) {
+    t *= (a + n) * (b + n) / ((c + n) * (n + 1.0L)) * x;
+    s += t;
+    if (cabsl(t) < 1e-19L * cabsl(s))
+      break;
+  }
+  return s;
+}
+
+static double complex vref (double eta0, double eta, double x, int deriv) {
+  long double complex a = I * (long double)eta0, b = I * (long double)eta;
+  if (!deriv) {
+    if (x > -0.9)
+      return (double complex)gauss(a, b, 1.0L, x);
+    return (double complex)(cpowl(1.0L - x, -a)
+                            * gauss(a, 1.0L - b, 1.0L, x / (x - 1.0L)));
+  }
+  /* dV/dx = a b 2F1(a+1, b+1; 2; x) */
+  if (x > -0.9)
+    return (double complex)(a * b * gauss(a + 1, b + 1, 2.0L, x));
+  return (double complex)(a * b * cpowl(1.0L - x, -a - 1)
+                          * gauss(a + 1, 1.0L - b, 2.0L, x / (x - 1.0L)));
+}
+
+Test(dwhyp, against_series) {
+  const double etas[][2] = {
+    {0.0046, 0.0051}, {0.3, 0.5}, {0.61, 0.62}, {2.0, 3.5}, {-2.0, -3.5},
+    {6.0, 9.0}, {-6.0, -9.0}
+  };
+  const double xs[] = {0.85, 0.6, 0.3, 0.1, 0.02, -0.001, -0.05, -0.4,
+                       -0.89, -0.95, -2.0, -5.0, -9.0};
+  size_t i, j;
+  for (i = 0; i < sizeof etas / sizeof etas[0]; i++) {
+    bl_dwhyp h;
+    double e0 = etas[i][0], e = etas[i][1];
+    cr_assert_eq(bl_dwhyp_init(&h, e0, e, log1p(-0.9), log(10.0)),
+                 BL_SUCCESS);
+    for (j = 0; j < sizeof xs / sizeof xs[0]; j++) {
+      double complex V, Vx, Vr, Vxr;
+      double s = exp(h.scale), x = xs[j];
+      cr_assert_eq(bl_dwhyp_eval(&h, x, log1p(-x), &V, &Vx), 0);
+      Vr = vref(e0, e, x, 0);
+      Vxr = vref(e0, e, x, 1);
+      /* interpolation error bound of hyp.c: 3e-10 (V), its derivative
+      ** one order of the node spacing worse */
+      cr_expect(cabs(V * s - Vr) <= 2e-9 * cabs(Vr) + 1e-14,
+                "V eta0=%g eta=%g x=%g: got %.12g%+.12gi want %.12g%+.12gi",
+                e0, e, x, creal(V * s), cimag(V * s), creal(Vr), cimag(Vr));
+      cr_expect(cabs(Vx * s - Vxr) <= 1e-6 * cabs(Vxr) + 1e-12,
+                "V' eta0=%g eta=%g x=%g: got %.12g%+.12gi want %.12g%+.12gi",
+                e0, e, x, creal(Vx * s), cimag(Vx * s), creal(Vxr),
+                cimag(Vxr));
+    }
+    bl_dwhyp_free(&h);
+  }
+}
+
+Test(dwhyp, outside_range_refused) {
+  bl_dwhyp h;
+  double complex V, Vx;
+  cr_assert_eq(bl_dwhyp_init(&h, 0.5, 0.7, -1.0, 1.0), BL_SUCCESS);
+  cr_expect_eq(bl_dwhyp_eval(&h, -1e3, log1p(1e3), &V, &Vx), -1);
+  cr_expect_eq(bl_dwhyp_eval(&h, 1.0 - 1e-6, log(1e-6), &V, &Vx), -1);
+  bl_dwhyp_free(&h);
+  cr_expect_eq(bl_dwhyp_init(&h, NAN, 0.7, -1.0, 1.0), BL_EDOMAIN);
+  cr_expect_eq(bl_dwhyp_init(&h, 0.5, 0.7, 1.0, -1.0), BL_EDOMAIN);
+}
+
+
+/* ==================================================================
+** Limits of the fully differential value.
+*/
+
+TestSuite(dwlimits, .init = setup);
+
+static void mkcase (bl_case *c, double charge, double spin, double mass,
+                    int Z, const char *model, double T, const bl_opts *o) {
+  bl_particle p = *bl_particle_find("electron");
+  p.charge = charge;
+  p.spin = spin;
+  p.mass = mass;
+  cr_assert_eq(bl_case_setup(c, &p, Z, bl_model_find(model), NULL, T, o),
+               BL_SUCCESS);
+}
+
+/* Random geometries, reproducible: photon and final angles from the beam
+** axis and the azimuth between them. */
+static double urand (unsigned *s) {
+  *s = *s * 1103515245u + 12345u;
+  return ((*s >> 8) & 0xffffff) / 16777216.0;
+}
+
+/*
+** zeta -> 0.  The Sommerfeld-Maue value tends to the exact Born value
+** (Bethe & Heitler 1934 for spin 1/2, its scalar analogue for spin 0:
+** born/kin.c).  The first-order difference is of the size of the Elwert
+** factor's, pi (eta - eta0) (Elwert 1939), bounded by xi/2 with
+** xi = 2 pi |z| Z alpha / beta after emission: each point must be within
+** xi of Born, with z = 1e-3 within 1e-3 where xi < 1e-3, and the
+** difference must fall linearly with z (z = 1e-5 and 1e-6: ratio 10
+** within 2 %; where the first-order term nearly vanishes the second
+** order shows at larger z),
+** which is what "the Born limit as z Z alpha -> 0" means.
+*/
+Test(dwlimits, born_limit_full) {
+  const double Ts[] = {1e-3, 0.1, 1.0, 30.0, 2e3};
+  const double zs[] = {-1e-3, 1e-3};
+  const int Zs[] = {6, 82};
+  unsigned seed = 12345u;
+  int spin, iT, iz, iZ, n, strict = 0;
+  for (spin = 0; spin < 2; spin++)
+    for (iT = 0; iT < 5; iT++)
+      for (iz = 0; iz < 2; iz++)
+        for (iZ = 0; iZ < 2; iZ++) {
+          double T = Ts[iT], z = zs[iz];
+          bl_case c, cs, c10;
+          mkcase(&c, z, 0.5 * spin, BL_ME_MEV, Zs[iZ], "none", T, NULL);
+          mkcase(&cs, z / 100, 0.5 * spin, BL_ME_MEV, Zs[iZ], "none", T,
+                 NULL);
+          mkcase(&c10, z / 1000, 0.5 * spin, BL_ME_MEV, Zs[iZ], "none", T,
+                 NULL);
+          for (n = 0; n < 12; n++) {
+            bl_result rb, rd, rd10, rb10, rds, rbs;
+            double y = 0.02 + 0.96 * urand(&seed);
+            double g = 1.0 + T / BL_ME_MEV, sc = T > 1.0 ? 3.0 / g : 1.0;
+            double tk = sc * BL_PI * urand(&seed), tp = sc * BL_PI * urand(&seed);
+            double ph = 2.0 * BL_PI * urand(&seed), xi, d1, d10;
+            if (tk > BL_PI) tk = BL_PI;
+            if (tp > BL_PI) tp = BL_PI;
+            xi = bl_born_xi(z, Zs[iZ], T * (1.0 - y), BL_ME_MEV);
+            cr_assert_eq(bl_dcs_full_e(&c, y * T, tk, tp, ph, &rb),
+                         BL_SUCCESS);
+            cr_assert_eq(bl_dw_full_e(&c, y * T, tk, tp, ph, &rd),
+                         BL_SUCCESS);
+            cr_assert_eq(bl_dw_full_e(&c10, y * T, tk, tp, ph, &rd10),
+                         BL_SUCCESS);
+            cr_assert_eq(bl_dcs_full_e(&c10, y * T, tk, tp, ph, &rb10),
+                         BL_SUCCESS);
+            EXPECT_REL(rd.val, rb.val, xi,
+                       "spin %d z=%g Z=%d T=%g y=%.3f angles %.3g %.3g %.3g",
+                       spin, z, Zs[iZ], T, y, tk, tp, ph);
+            if (xi < 1e-3) {
+              EXPECT_REL(rd.val, rb.val, 1e-3, "z = 1e-3, spin %d T=%g y=%.3f",
+                         spin, T, y);
+              strict++;
+            }
+            cr_assert_eq(bl_dw_full_e(&cs, y * T, tk, tp, ph, &rds),
+                         BL_SUCCESS);
+            cr_assert_eq(bl_dcs_full_e(&cs, y * T, tk, tp, ph, &rbs),
+                         BL_SUCCESS);
+            d1 = rds.val / rbs.val - 1.0;
+            d10 = rd10.val / rb10.val - 1.0;
+            if (fabs(d10) > 2e-7)   /* else rounding decides the ratio */
+              EXPECT_REL(d1 / d10, 10.0, 0.02,
+                         "linear in z: spin %d z=%g Z=%d T=%g y=%.3f "
+                         "d=%.3g d10=%.3g", spin, z, Zs[iZ], T, y, d1, d10);
+          }
+        }
+  cr_expect(strict > 50, "only %d points with xi < 1e-3", strict);
+}
+
+/*
+** The sign of the charge: electrons (attracted) gain, positrons
+** (repelled) lose against Born near the tip, where the final velocity is
+** small.  At the tip (p -> 0) the electron value stays finite and
+** non-zero; the positron value vanishes like e^(-2 pi |eta|), the final
+** state's Sommerfeld factor (Elwert 1939; Koch & Motz 1959, section II):
+** value * e^(2 pi |eta|) tends to a constant (the positron/electron ratio
+** of the exact non-relativistic result is e^(-2 pi (|eta| - |eta0|)):
+** Sommerfeld 1931).  Closer than 1 - y ~ 1e-5 the positron value is
+** below the smallest double and is 0.
+*/
+Test(dwlimits, charge_sign_and_tip) {
+  const double dys[] = {1e-3, 1e-4, 1e-5, 1e-6, 1e-8, 1e-10};
+  double e[6], pos[6];
+  int i;
+  for (i = 0; i < 6; i++) {
+    bl_case ce, cp;
+    bl_result re, rp, rb;
+    double T = 1.0, k = T * (1.0 - dys[i]), p, E, eta;
+    mkcase(&ce, -1.0, 0.5, BL_ME_MEV, 79, "none", T, NULL);
+    mkcase(&cp, 1.0, 0.5, BL_ME_MEV, 79, "none", T, NULL);
+    cr_assert_eq(bl_dw_full_e(&ce, k, 0.4, 0.9, 1.0, &re), BL_SUCCESS);
+    cr_assert_eq(bl_dw_full_e(&cp, k, 0.4, 0.9, 1.0, &rp), BL_SUCCESS);
+    cr_assert_eq(bl_dcs_full_e(&ce, k, 0.4, 0.9, 1.0, &rb), BL_SUCCESS);
+    cr_expect(re.val > rb.val && rp.val < rb.val,
+              "1 - y = %g: electron %g, Born %g, positron %g", dys[i], re.val,
+              rb.val, rp.val);
+    E = 1.0 + (T - k) / BL_ME_MEV;
+    p = sqrt((E - 1.0) * (E + 1.0));
+    eta = 79 * BL_ALPHA * E / p;
+    e[i] = re.val;
+    pos[i] = rp.val * exp(2.0 * BL_PI * eta);
+  }
+  /* electron: converges, the steps shrinking */
+  for (i = 3; i < 6; i++)
+    cr_expect(fabs(e[i] - e[i - 1]) < 0.5 * fabs(e[i - 1] - e[i - 2])
+              && e[i] > 0.0, "electron at the tip: %g %g %g", e[i - 2],
+              e[i - 1], e[i]);
+  EXPECT_REL(e[5], e[4], 1e-3, "electron at 1 - y = 1e-10");
+  EXPECT_REL(pos[2], pos[1], 0.05, "positron * e^(2 pi eta)");
+  cr_expect(fabs(pos[2] / pos[1] - 1.0) < fabs(pos[1] / pos[0] - 1.0),
+            "positron scaled: %g %g %g", pos[0], pos[1], pos[2]);
+}
+
+/* Screening enters as the target factor at the same q: with screening
+** "none" and the point nucleus the value is the Coulomb one, and a
+** screened case is never above it. */
+Test(dwlimits, screening_factor) {
+  bl_case cn, cs;
+  bl_result rn, rs;
+  bl_opts o = bl_opts_bare;
+  mkcase(&cn, -1.0, 0.5, BL_ME_MEV, 29, "none", 0.05, &o);
+  mkcase(&cs, -1.0, 0.5, BL_ME_MEV, 29, "thomas-fermi", 0.05, &o);
+  cr_assert_eq(bl_dw_full_e(&cn, 0.01, 0.5, 0.6, 0.01, &rn), BL_SUCCESS);
+  cr_assert_eq(bl_dw_full_e(&cs, 0.01, 0.5, 0.6, 0.01, &rs), BL_SUCCESS);
+  cr_expect(rs.val < rn.val && rs.val > 0.0, "screened %g, point %g",
+            rs.val, rn.val);
+}
+
+Test(dwlimits, bad_input) {
+  bl_case c;
+  bl_result r;
+  mkcase(&c, -1.0, 0.5, BL_ME_MEV, 29, "none", 1.0, NULL);
+  cr_expect_eq(bl_dw_full_e(&c, 1.0, 0.1, 0.1, 0.1, &r), BL_EDOMAIN);
+  cr_expect_eq(bl_dw_full_e(&c, 0.5, -0.1, 0.1, 0.1, &r), BL_EDOMAIN);
+  cr_expect_eq(bl_dw_full_e(&c, 0.5, 0.1, 0.1, NAN, &r), BL_EDOMAIN);
+  cr_expect_eq(bl_dw_full_e(NULL, 0.5, 0.1, 0.1, 0.1, &r), BL_EDOMAIN);
+  cr_expect_eq(bl_dw_full_e(&c, 0.5, 0.1, 0.1, 0.1, NULL), BL_EDOMAIN);
+  {
+    bl_quad *q = bl_quad_alloc(100);
+    cr_expect_eq(bl_dw_dk_e(&c, 0.5, NULL, &r), BL_EDOMAIN);
+    cr_expect_eq(bl_dw_dk_e(&c, -0.5, q, &r), BL_EDOMAIN);
+    cr_expect_eq(bl_dw_angular_e(&c, 0.5, -1.0, q, &r), BL_EDOMAIN);
+    bl_quad_free(q);
+  }
+}
+
+
+/* ==================================================================
+** dsigma/dk
+*/
+
+TestSuite(dwdk, .init = setup);
+
+/* zeta -> 0: dsigma/dk equals Koch & Motz 3BN (Bethe-Heitler, point
+** nucleus) for spin 1/2 and the exact Born integral for spin 0. */
+Test(dwdk, born_limit) {
+  const double Ts[] = {1e-3, 1.0, 20.0};
+  int i, spin;
+  for (spin = 0; spin < 2; spin++)
+    for (i = 0; i < 3; i++) {
+      bl_case c;
+      bl_result rd, rb;
+      bl_quad *q = bl_quad_alloc(1000);
+      double T = Ts[i], y = 0.4;
+      mkcase(&c, -1e-6, 0.5 * spin, BL_ME_MEV, 79, "none", T, NULL);
+      cr_assert_eq(bl_quad_set_rtol(q, 1e-6), BL_SUCCESS);
+      cr_assert_eq(bl_dcs_dk_e(&c, y * T, q, &rb), BL_SUCCESS);
+      cr_assert_eq(bl_quad_set_rtol(q, 1e-5), BL_SUCCESS);
+      cr_assert_eq(bl_dw_dk_e(&c, y * T, q, &rd), BL_SUCCESS);
+      EXPECT_REL(rd.val, rb.val, 3e-5, "spin %d T=%g", spin, T);
+      if (spin == 1)   /* Koch & Motz 1959, formula 3BN */
+        EXPECT_REL(rd.val, c.norm / BL_ME_MEV
+                   * km_3bn(T / BL_ME_MEV, y * T / BL_ME_MEV), 3e-5,
+                   "3BN T=%g", T);
+      bl_quad_free(q);
+    }
+}
+
+/*
+** The exact non-relativistic result: bare point nucleus, T = 1 keV,
+** dsigma/dk equals Sommerfeld's formula (Sommerfeld 1931; Koch & Motz
+** 1959, section II; tests/ref/sommerfeld.c, with the relativistic
+** momenta that the Sommerfeld-Maue parameter eta = zeta E/p uses) within
+** 1.5 %, for both charge signs and spins (at 1 keV the spin terms are of
+** order beta^2 = 4e-3).
+*/
+Test(dwdk, sommerfeld_nonrelativistic) {
+  const int Zs[] = {6, 29, 79};
+  const double ys[] = {0.1, 0.5, 0.9, 0.99};
+  const double sg[] = {-1.0, 1.0};
+  bl_quad *q = bl_quad_alloc(100);
+  int i, j, s, spin;
+  for (spin = 0; spin < 2; spin++)
+    for (i = 0; i < 3; i++)
+      for (j = 0; j < 4; j++)
+        for (s = 0; s < 2; s++) {
+          bl_case c;
+          bl_result r;
+          double T = 1e-3, k = ys[j] * T, ref;
+          if (spin == 0 && (j == 1 || j == 2))
+            continue;   /* spin 0: the ends of the spectrum */
+          mkcase(&c, sg[s], 0.5 * spin, BL_ME_MEV, Zs[i], "none", T, NULL);
+          cr_assert_eq(bl_dw_dk_e(&c, k, q, &r), BL_SUCCESS);
+          ref = som_dsdk(sg[s], Zs[i], BL_ME_MEV, T, k);
+          EXPECT_REL(r.val, ref, 0.015, "Sommerfeld: spin %d z=%g Z=%d y=%g",
+                     spin, sg[s], Zs[i], ys[j]);
+        }
+  bl_quad_free(q);
+}
