@@ -495,9 +495,37 @@ $(ROCKSPEC): scripts/brakelight.rockspec.in $(VERSION_H)
 	sed 's|@VERSION@|$(VERSION)|g' $< > $@
 
 # ---- benchmarks and generators ---------------------------------------------
-.PHONY: bench hf-table
+.PHONY: bench hf-table error-sweep error-ref
+# The fixed earlier commit that make bench and make error-ref build in a git
+# worktree build/base/<commit> (the main before issue 14's integrator).
+BENCH_BASE ?= a2be9749fe3fb2195e4251fa39d1db24ff8cf650
 bench: all
-	@bash scripts/bench.sh
+	@BENCH_BASE=$(BENCH_BASE) bash scripts/bench.sh
+
+# The exact-Born error sweep (scripts/error_sweep.c) against the reference
+# set tests/data/born-ref.txt: share of points within rtol and median
+# estimate/true error at rtol 1e-2, 1e-3, 1e-4, 1e-6 (about 1 min on two
+# cores).  Not part of check.
+ERROR_REF    = tests/data/born-ref.txt
+ERROR_POINTS ?= 10000
+ERROR_SEED   ?= 14
+$(B)/error_sweep: scripts/error_sweep.c $(LIB)
+	$(CC) -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L -Iinclude \
+	  -I/usr/include/xraylib -o $@ $< $(LIB) $(LIBS)
+error-sweep: $(B)/error_sweep
+	./$(B)/error_sweep run -i $(ERROR_REF) -o $(B)/error-sweep.out
+
+# Regenerate the reference set: ERROR_POINTS random points at rtol 1e-10,
+# computed with the integrator of BENCH_BASE (GSL's qag, whose estimates
+# are pessimistic: independent of the scheme under test), built in its
+# worktree as make bench does (about 2 min on two cores).
+error-ref:
+	@set -e; wt=$$(BENCH_BASE=$(BENCH_BASE) bash scripts/bench.sh --base-only); \
+	$(CC) -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L -Iinclude \
+	  -I/usr/include/xraylib -o $(B)/error_sweep_base scripts/error_sweep.c \
+	  $$wt/build/libbrakelight.a $(LIBS); \
+	./$(B)/error_sweep_base gen -n $(ERROR_POINTS) -s $(ERROR_SEED) \
+	  -o $(ERROR_REF)
 
 # Regenerate src/core/models/hf_table.c: Yukawa fits of xraylib's F and S
 # for the "hartree-fock" model (about 2 min). Never part of all or check.

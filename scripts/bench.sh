@@ -15,6 +15,13 @@
 #    points with the independent SciPy integration (scripts/bench_scipy.py)
 #    and prints the time ratio and the relative difference of the values.
 #
+# 3. builds BENCH_BASE (a fixed earlier commit, the Makefile's BENCH_BASE)
+#    in a git worktree build/base/<commit> and prints, measured in this one
+#    run, the ratios BASE/here of integrand calls, of time per point and of
+#    integrand calls per second on the grid and the real atoms, and the
+#    reference sweep's figures for both with the calls at equal true error
+#    (scripts/error_sweep.c, BENCH_SWEEP_POINTS points, default 2000).
+#
 # Missed targets are reported, never turned into a failing exit status.
 set -uo pipefail
 
@@ -23,6 +30,36 @@ B=build
 RTOL=${BENCH_RTOL:-1e-4}
 POINTS=(1:0.1 1:0.5 10:0.5 100:0.5)   # T [MeV]:y for the SciPy comparison
 PY=/usr/bin/python3
+BASE=${BENCH_BASE:-a2be9749fe3fb2195e4251fa39d1db24ff8cf650}
+CFL=(-std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L -Iinclude
+     -I/usr/include/xraylib)
+LDL=(-lgsl -lgslcblas -lxrl -lm -pthread)
+
+# The baseline: BASE built in a git worktree build/base/<commit> (as make
+# compare-points does); prints the worktree.  --base-only: just that.
+build_base () {
+  local rev wt
+  rev=$(git rev-parse --verify -q "$BASE^{commit}") \
+    || { echo "bench: BASE=$BASE is not a commit" >&2; return 1; }
+  wt=$B/base/$rev
+  mkdir -p "$B/base"
+  if [ ! -e "$wt/.git" ]; then
+    git worktree prune
+    git worktree add -q --detach -f "$wt" "$rev" >&2 || return 1
+  fi
+  git -C "$wt" checkout -q --detach "$rev" >&2
+  if ! make --no-print-directory -C "$wt" B=build SAN_FLAGS= \
+       build/libbrakelight.a >"$B/base-build.log" 2>&1; then
+    tail -n 20 "$B/base-build.log" >&2
+    echo "bench: the build of BASE failed" >&2
+    return 1
+  fi
+  echo "$wt"
+}
+if [ "${1:-}" = "--base-only" ]; then
+  build_base
+  exit $?
+fi
 
 if [ ! -f "$B/libbrakelight.a" ]; then
   echo "bench: $B/libbrakelight.a is missing: run make first" >&2
@@ -38,6 +75,56 @@ if ! ${CC:-cc} -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L \
 fi
 "$B/bench_dsdk" -r "$RTOL" || echo "bench: bench_dsdk exited with status $?"
 "$B/bench_dsdk" -r "$RTOL" -a || echo "bench: bench_dsdk -a exited with status $?"
+
+echo
+echo "== this tree against BASE $BASE (same sources of scripts/, both libraries)"
+if wt=$(build_base) \
+   && ${CC:-cc} "${CFL[@]}" -o "$B/bench_dsdk_base" scripts/bench_dsdk.c \
+        "$wt/build/libbrakelight.a" "${LDL[@]}" \
+   && ${CC:-cc} "${CFL[@]}" -o "$B/error_sweep_base" scripts/error_sweep.c \
+        "$wt/build/libbrakelight.a" "${LDL[@]}" \
+   && ${CC:-cc} "${CFL[@]}" -o "$B/error_sweep" scripts/error_sweep.c \
+        "$B/libbrakelight.a" "${LDL[@]}"; then
+  # the bench grid and the real atoms: calls and time per point, side by side
+  for mode in "" "-a"; do
+    "$B/bench_dsdk_base" -r "$RTOL" $mode > "$B/bench-base.txt" 2>&1
+    "$B/bench_dsdk" -r "$RTOL" $mode > "$B/bench-here.txt" 2>&1
+    paste -d '|' "$B/bench-base.txt" "$B/bench-here.txt" | awk -F'|' '
+      # grid lines: spin T y dsdk rel.err calls reps time target;
+      # atoms lines: screening Z T y dsdk rel.err calls time target
+      function calls(s,  f) { split(s, f, " "); return "'"$mode"'" == "-a" ? f[7] : f[6] }
+      function ms(s,  f) { split(s, f, " "); return f[8] }
+      $1 ~ /(met|MISSED)/ && $2 ~ /(met|MISSED)/ {
+        cb = calls($1); ch = calls($2); tb = ms($1); th = ms($2)
+        if (ch > 0) { r[++n] = cb / ch; sb += cb; sh += ch }
+        if (th > 0) { t[++m] = tb / th }
+        if (tb > 0) { rb[++nb] = cb / (tb * 1e-3); rh[nb] = ch / (th * 1e-3) }
+      }
+      function med(a, k,  i, j, x) {
+        for (i = 2; i <= k; i++) { x = a[i]; for (j = i - 1; j > 0 && a[j] > x; j--) a[j + 1] = a[j]; a[j + 1] = x }
+        return k % 2 ? a[(k + 1) / 2] : 0.5 * (a[k / 2] + a[k / 2 + 1])
+      }
+      END {
+        if (n == 0) { print "no comparable lines"; exit }
+        printf "%s: %d points at rtol '"$RTOL"'; integrand calls BASE/here: median %.2fx " \
+               "(total %.2fx); time BASE/here: median %.2fx\n",
+               "'"${mode:-grid}"'" == "-a" ? "real atoms" : "grid", n, med(r, n), sb / sh, med(t, m)
+        printf "  integrand calls per second (the kernel with its maps): BASE %.3g, here %.3g " \
+               "(medians), ratio %.2fx\n", med(rb, nb), med(rh, nb), med(rh, nb) / med(rb, nb)
+      }'
+  done
+  # the reference sweep (a subset): calls at equal true error
+  n=${BENCH_SWEEP_POINTS:-2000}
+  "$B/error_sweep_base" run -m "$n" -i tests/data/born-ref.txt \
+    -o "$B/sweep-base.out" > "$B/sweep-base.txt" 2>/dev/null
+  "$B/error_sweep" run -m "$n" -i tests/data/born-ref.txt \
+    -o "$B/sweep-here.out" > "$B/sweep-here.txt" 2>/dev/null
+  echo "reference sweep, first $n points, BASE:"; sed 1d "$B/sweep-base.txt"
+  echo "here:"; sed 1d "$B/sweep-here.txt"
+  "$B/error_sweep" compare "$B/sweep-base.out" "$B/sweep-here.out"
+else
+  echo "bench: the comparison with BASE was skipped (see above)"
+fi
 
 echo
 echo "== high-energy method (scripts/bench_he.c)"

@@ -249,11 +249,12 @@ Test(particle, status_codes) {
 
 TestSuite(gsl_errors);
 
-/* A case and a starved workspace (limit 8, rtol 1e-12). */
+/* A case and a starved workspace (limit 8, rtol 1e-12; at T = 10 MeV the
+** integrator of issue 14 meets even that, at 10 GeV it cannot). */
 static bl_quad *starved (bl_case *c) {
   bl_quad *q;
   cr_assert(bl_case_setup(c, bl_particle_find("electron"), 82,
-                          bl_model_find("hartree-fock"), NULL, 10.0,
+                          bl_model_find("hartree-fock"), NULL, 1e4,
                           &bl_opts_default) == BL_SUCCESS);
   q = bl_quad_alloc(8);
   cr_assert(q != NULL);
@@ -300,8 +301,11 @@ Test(gsl_errors, own_handler_kept) {
   gsl_set_error_handler(counting_handler);
   q = starved(&c);
   expect_reported(bl_dcs_dk_e(&c, 3.0, q, &r), &r);
-  cr_expect(calls > 0, "the application's handler was replaced");
-  cr_expect(gsl_set_error_handler(NULL) == counting_handler);
+  /* the Born integrals no longer call GSL's integrators, so the handler
+  ** may not be called; it must still be the one in place */
+  cr_log_info("the application's handler was called %d times", calls);
+  cr_expect(gsl_set_error_handler(NULL) == counting_handler,
+            "the application's handler was replaced");
   bl_quad_free(q);
 }
 

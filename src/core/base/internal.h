@@ -1,21 +1,50 @@
 /*
-** base/internal.h -- layout of the integration workspace (core only)
+** base/internal.h -- layout of the integration workspace and the adaptive
+** Gauss-Kronrod rule of the Born integrals (core only)
 ** See Copyright Notice in LICENSE
 */
 #ifndef BL_BASE_INTERNAL_H
 #define BL_BASE_INTERNAL_H
 
-#include <gsl/gsl_integration.h>
+#include <stddef.h>
 
 #include "brakelight/bl_quad.h"
 
 #define BL_QUAD_LEVELS 2   /* photon angle, particle angle */
 
+/* One panel [a, b] of bl_gk_adapt: its 21-point Kronrod value, the error
+** estimate of that value, and the error its integrand values carry (the
+** integrand's own err, summed with the rule's weights). */
+typedef struct bl_gkpanel {
+  double a, b, val, err, ierr;
+  double d, A;   /* |K21 - G10| and int |f| over the panel */
+  double acc;    /* the error the adaptation compares: err once checked */
+  int raw;       /* 1: err is d itself (the model failed above) */
+  int checked;   /* 1: made by a bisection whose check passed */
+  int noisy;     /* successive bisections that did not halve d */
+} bl_gkpanel;
+
 struct bl_quad {
-  gsl_integration_workspace *ws[BL_QUAD_LEVELS];
+  bl_gkpanel *pan[BL_QUAD_LEVELS];   /* `limit` panels per level */
   size_t limit;
   double rtol;
   unsigned long calls;     /* innermost integrand evaluations */
 };
+
+/* An integrand that reports the error of its value (a nested integral), or
+** leaves *err at 0. */
+typedef double (*bl_gkfun) (double x, void *par, double *err);
+
+/*
+** int_a^b f by Gauss-Kronrod panels (npt = 15: 7/15 points, else 10/21), bisecting the panel with
+** the largest error until the total error (rule plus integrand errors)
+** is at most max(epsabs, epsrel |val|).  Panels come from w (limit of
+** them).  Returns BL_SUCCESS, GSL_EMAXITER (limit panels used) or
+** GSL_EROUND (a panel too narrow to bisect); *val and *err are filled in
+** every case.  The error model is explained in quad.c.
+*/
+int bl_gk_adapt (bl_gkfun f, void *par, double a, double b, double epsabs,
+                 double epsrel, size_t limit, int npt, bl_gkpanel *w,
+                 double *val, double *err);
 
 #endif
