@@ -10,7 +10,7 @@
 
 #include "brakelight/bl_quad.h"
 
-#define BL_QUAD_LEVELS 2   /* photon angle, particle angle */
+#define BL_QUAD_LEVELS 3   /* photon angle, particle angle, azimuth */
 
 /* One panel [a, b] of bl_gk_adapt: its 21-point Kronrod value, the error
 ** estimate of that value, and the error its integrand values carry (the

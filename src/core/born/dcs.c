@@ -86,6 +86,7 @@ typedef struct integ {
   int status;               /* first failure of any integral */
   int npt;                  /* Gauss-Kronrod rule: 15 or 21 points */
   int inner_alone;          /* 1: no outer integral (angular) */
+  const bl_azimuth *az;     /* NULL: the closed-form Born azimuth */
   int nterm;                /* the target factor, Elwert factor applied */
   bl_term term[BL_TERM_MAX];
   double single[BL_POLE_MAX];
@@ -108,10 +109,10 @@ static int setup (const bl_case *c, double k, integ *it, unsigned *warn,
   bl_kin_set(kn, c->t0, k / c->particle.mass, c->particle.spin);
   if (!(kn->p > 0.0))
     return BL_EDOMAIN;   /* k so close to T that nothing is left */
-  *warn = bl_point_warn(c, kn);
+  *warn = it->az == NULL ? bl_point_warn(c, kn) : c->warn;
   *applied = 0;
-  if (bl_wanted(c->opts.elwert, bl_elwert_valid(kn),
-             BL_WARN_ELWERT, warn)) {
+  if (it->az == NULL && bl_wanted(c->opts.elwert, bl_elwert_valid(kn),
+                                  BL_WARN_ELWERT, warn)) {
     fe = bl_elwert(c, kn);
     *applied |= BL_APPLIED_ELWERT;
   }
@@ -127,8 +128,9 @@ static int setup (const bl_case *c, double k, integ *it, unsigned *warn,
 }
 
 
-/* Phi(h0, h) at the current outer geometry and inner h. */
-static double phi_at (integ *it, double h) {
+/* Phi(h0, h) at the current outer geometry and inner h; the error of a
+** numerical azimuth in *err. */
+static double phi_at (integ *it, double h, double *err) {
   bl_bracket br;
   double v;
   if (h > 2.0) {   /* rounding at the ends of the range */
@@ -142,6 +144,9 @@ static double phi_at (integ *it, double h) {
   it->g.h = h;
   it->g.s = sqrt(h * (2.0 - h));
   bl_bracket_set(&it->kn, &it->g, &br);
+  *err = 0.0;
+  if (it->az != NULL)
+    return it->az->phi(it->az->ctx, &it->g, &br, err);
   it->q->calls++;
   v = bl_bracket_azimuth(&br, it->c->npole, it->c->pole, it->single,
                          it->nterm, it->term);
@@ -163,10 +168,9 @@ static double phi_at (integ *it, double h) {
 static double inner_f (double u, void *params, double *err) {
   integ *it = params;
   double eu = exp(u), sh = 0.5 * (eu - 1.0 / eu), ch = sh + 1.0 / eu;
-  double ds, h, hc = it->kn.hc;
+  double ds, h, hc = it->kn.hc, jac, v;
   if (u < 1e-3)   /* sinh without cancellation near 0 */
     sh = sinh(u);
-  *err = 0.0;
   ds = it->side * it->w * sh;
   if (fabs(ds) < 0.5) {
     it->g.dh = (it->g.hs + hc) * expm1(ds);
@@ -176,16 +180,19 @@ static double inner_f (double u, void *params, double *err) {
     h = hc * expm1(it->sstar + ds);
     it->g.dh = h - it->g.hs;
   }
-  return phi_at(it, h) * (h + hc) * it->w * ch;
+  jac = (h + hc) * it->w * ch;
+  v = phi_at(it, h, err) * jac;
+  *err *= jac;
+  return v;
 }
 
 
 /* Plain inner integrand in sigma; dh/dsigma = h + hc. */
 static double inner_plain (double sg, void *params, double *err) {
   integ *it = params;
-  double h = it->kn.hc * expm1(sg);
-  *err = 0.0;
-  return phi_at(it, h) * (h + it->kn.hc);
+  double h = it->kn.hc * expm1(sg), v = phi_at(it, h, err);
+  *err *= h + it->kn.hc;
+  return v * (h + it->kn.hc);
 }
 
 
@@ -334,9 +341,11 @@ static double outer_f (double sg, void *params, double *err) {
 }
 
 
-static void integ_init (integ *it, const bl_case *c, bl_quad *q) {
+static void integ_init (integ *it, const bl_case *c, bl_quad *q,
+                        const bl_azimuth *az) {
   it->c = c;
   it->q = q;
+  it->az = az;
   it->last_err = it->fpeak = 0.0;
   it->calls0 = q->calls;
   it->status = GSL_SUCCESS;
@@ -381,6 +390,12 @@ static int finish (const integ *it, double val, double abserr, double factor,
 
 
 int bl_dcs_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out) {
+  return bl_dcs_dk_az_e(c, k, q, NULL, out);
+}
+
+
+int bl_dcs_dk_az_e (const bl_case *c, double k, bl_quad *q,
+                    const bl_azimuth *az, bl_result *out) {
   integ it;
   double pts[2], val = 0.0, abserr = 0.0, smax, ratio;
   unsigned warn, applied;
@@ -392,7 +407,7 @@ int bl_dcs_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out) {
   out->method = 0;   /* BL_METHOD_BORN */
   if (c == NULL || q == NULL)
     return BL_EDOMAIN;
-  integ_init(&it, c, q);
+  integ_init(&it, c, q, az);
   st = setup(c, k, &it, &warn, &applied);
   if (st != BL_SUCCESS)
     return st;
@@ -419,8 +434,8 @@ int bl_dcs_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out) {
   st = finish(&it, val, abserr,
               c->norm * it.kn.p / (it.kn.p0 * it.kn.k) / BL_PI
               / c->particle.mass, warn, applied, out);
-  if (bl_wanted(c->opts.coulomb, bl_coulomb_valid(c, &it.kn), BL_WARN_COULOMB,
-             &out->warn)) {
+  if (az == NULL && bl_wanted(c->opts.coulomb, bl_coulomb_valid(c, &it.kn),
+                              BL_WARN_COULOMB, &out->warn)) {
     bl_coulomb_subtract(c, &it.kn, out);
     if (!isfinite(out->val) && st == BL_SUCCESS)
       st = GSL_ERANGE;
@@ -432,6 +447,12 @@ int bl_dcs_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out) {
 
 int bl_dcs_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
                       bl_result *out) {
+  return bl_dcs_angular_az_e(c, k, theta_k, q, NULL, out);
+}
+
+
+int bl_dcs_angular_az_e (const bl_case *c, double k, double theta_k,
+                         bl_quad *q, const bl_azimuth *az, bl_result *out) {
   integ it;
   double sh, val;
   unsigned warn, applied;
@@ -443,11 +464,11 @@ int bl_dcs_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
   out->method = 0;   /* BL_METHOD_BORN */
   if (c == NULL || q == NULL || !(theta_k >= 0.0 && theta_k <= BL_PI))
     return BL_EDOMAIN;
-  integ_init(&it, c, q);
+  integ_init(&it, c, q, az);
   st = setup(c, k, &it, &warn, &applied);
   if (st != BL_SUCCESS)
     return st;
-  if (c->opts.coulomb == BL_APPLY_ON)
+  if (az == NULL && c->opts.coulomb == BL_APPLY_ON)
     warn |= BL_WARN_COULOMB;   /* known for dsigma/dk only */
   it.inner_alone = 1;
   sh = sin(0.5 * theta_k);
@@ -486,6 +507,7 @@ int bl_dcs_full_e (const bl_case *c, double k, double theta_k, double theta_p,
   if (c == NULL || !(theta_k >= 0.0 && theta_k <= BL_PI)
       || !(theta_p >= 0.0 && theta_p <= BL_PI) || !isfinite(phi))
     return BL_EDOMAIN;
+  it.az = NULL;
   st = setup(c, k, &it, &warn, &applied);
   if (st != BL_SUCCESS)
     return st;

@@ -69,6 +69,28 @@ double bl_bracket_point (const bl_bracket *br, double v, int npole,
                          const double *pole, const double *single, int nterm,
                          const bl_term *term);
 
+/*
+** A method that needs the polar integrals of dsigma/dk but not the Born
+** azimuth (the distorted waves) gives its own Phi(h0, h) = int_0^pi B W
+** dphi at the polar geometry g (h0, s0, h, s and the ridge fields), with
+** br the Born bracket's coefficients there (q^2 = br->Q0 + br->b v), and
+** its error in *err; it counts its calls into q.  Such a method takes
+** neither the Elwert factor nor the Coulomb correction nor the Born
+** warning: those are Born's.
+*/
+typedef struct bl_azimuth {
+  double (*phi) (void *ctx, const bl_polar *g, const bl_bracket *br,
+                 double *err);
+  void *ctx;
+} bl_azimuth;
+
+/* bl_dcs_dk_e and bl_dcs_angular_e with the azimuthal integral of az
+** (NULL: Born's closed form). */
+int bl_dcs_dk_az_e (const bl_case *c, double k, bl_quad *q,
+                    const bl_azimuth *az, bl_result *out);
+int bl_dcs_angular_az_e (const bl_case *c, double k, double theta_k,
+                         bl_quad *q, const bl_azimuth *az, bl_result *out);
+
 /* Kinematics of photon energy k (MeV) of case c, with the checks every
 ** method makes: BL_EDOMAIN unless 0 < k < T and the final momentum is
 ** positive. */

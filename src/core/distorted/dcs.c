@@ -16,7 +16,6 @@
 #include <math.h>
 
 #include <gsl/gsl_errno.h>
-#include <gsl/gsl_integration.h>
 
 #include "base/internal.h"
 #include "distorted/internal.h"
@@ -117,8 +116,10 @@ static void beam_to_photon (double theta_k, double theta_p, double phi,
 }
 
 
-int bl_dw_full_e (const bl_case *c, double k, double theta_k, double theta_p,
-                  double phi, bl_result *out) {
+/* The fully differential value on case c itself (q-factor rule: the
+** bracket of the point nucleus times c's target factor). */
+static int full_point (const bl_case *c, double k, double theta_k,
+                       double theta_p, double phi, bl_result *out) {
   bl_dwk d;
   bl_polar g;
   double v, u, q2, B;
@@ -147,205 +148,256 @@ int bl_dw_full_e (const bl_case *c, double k, double theta_k, double theta_p,
 }
 
 
-/* ---- dsigma/dk: three nested adaptive integrals -------------------------- */
+/* ---- dsigma/dk and the angular distribution ------------------------------
+**
+** The polar integrals are the Born room's (born/dcs.c: the maps of the
+** forward peak and of the ridges, the error model); the azimuth, no longer
+** in closed form, is integrated here for each pair of polar angles.  Its
+** integrand peaks at phi = 0 when q^2 = Q0 + b (1 - cos phi) is smallest
+** there (Q0 << b): width phi_w = sqrt(2 Q0 / b).  The variable
+** u = ln(1 + phi/phi_w) makes that peak (W ~ 1/(Q0 + b phi^2/2)^2) and the
+** slow tail beyond it smooth, as sigma = ln(1 + h/hc) does for the polar
+** angles.
+*/
 
-#define LIMIT 200
+#define AZ_LIMIT 64   /* panels of one azimuthal integral */
 
-typedef struct dwint {
+typedef struct dwaz {
   const bl_case *c;
   bl_dwk d;
-  bl_polar g;
-  double Q0, bq;           /* q^2 = Q0 + bq v at the current polar angles */
-  double phiw;             /* azimuth map: phi = phiw tan(psi) */
-  double rtol;
-  int status;
-  bl_quad *q;              /* counts the calls of the integrand */
-  gsl_integration_workspace *w[3];
-} dwint;
+  bl_quad *q;
+  const bl_polar *g;   /* the polar geometry of the current azimuth */
+  double phiw;
+  int status;          /* first failure of the bracket */
+} dwaz;
 
 
-static void note (dwint *it, int st) {
-  if (it->status == BL_SUCCESS && st != BL_SUCCESS)
-    it->status = st;
-}
-
-
-static double f_psi (double psi, void *par) {
-  dwint *it = par;
-  double t = tan(psi), phi = it->phiw * t, sp = sin(0.5 * phi);
-  double v = 2.0 * sp * sp, B, q2, jac = it->phiw * (1.0 + t * t);
-  int st = bl_dw_bracket(&it->d, &it->g, v, &B, &q2);
-  it->q->calls++;
+static double az_f (double u, void *par, double *err) {
+  dwaz *x = par;
+  double phi = x->phiw * expm1(u), sp = sin(0.5 * phi), B, q2;
+  int st = bl_dw_bracket(&x->d, x->g, 2.0 * sp * sp, &B, &q2);
+  *err = 0.0;
+  x->q->calls++;
   if (st != BL_SUCCESS) {
-    note(it, st);
+    if (x->status == BL_SUCCESS)
+      x->status = st;
     return 0.0;
   }
-  return B * target_w(it->c, q2) * jac;
+  return B * target_w(x->c, q2) * (phi + x->phiw);
 }
 
 
-static double f_sigma (double sg, void *par) {
-  dwint *it = par;
-  const bl_kin *kn = &it->d.kn;
-  double h = kn->hc * expm1(sg), jac = h + kn->hc, qz, dt, val, err;
-  gsl_function f;
-  int st;
-  if (h > 2.0)
-    h = 2.0;
-  it->g.h = h;
-  it->g.s = sqrt(fmax(h * (2.0 - h), 0.0));
-  qz = kn->delta - kn->p0 * it->g.h0 + kn->p * h;
-  dt = kn->p0 * it->g.s0 - kn->p * it->g.s;
-  it->Q0 = qz * qz + dt * dt;
-  it->bq = 2.0 * kn->p0 * kn->p * it->g.s0 * it->g.s;
-  it->phiw = it->bq > 0.0 ? sqrt(2.0 * it->Q0 / it->bq) : 1.0;
-  if (it->phiw > 1.0 || !(it->phiw > 0.0))
-    it->phiw = 1.0;
-  f.function = f_psi;
-  f.params = it;
-  st = gsl_integration_qag(&f, 0.0, atan(BL_PI / it->phiw), 0.0,
-                           0.1 * it->rtol, LIMIT, GSL_INTEG_GAUSS21, it->w[2],
-                           &val, &err);
-  note(it, st);
-  return val * jac;
+static double az_phi (void *ctx, const bl_polar *g, const bl_bracket *br,
+                      double *err) {
+  dwaz *x = ctx;
+  double val, umax;
+  x->g = g;
+  x->phiw = br->b > 0.0 ? sqrt(2.0 * br->Q0 / br->b) : BL_PI;
+  if (!(x->phiw > 1e-300))
+    x->phiw = 1e-300;
+  umax = log1p(BL_PI / x->phiw);
+  bl_gk_adapt(az_f, x, 0.0, umax, 0.0, 0.2 * bl_quad_rtol(x->q),
+              x->q->limit < AZ_LIMIT ? x->q->limit : AZ_LIMIT, 15,
+              x->q->pan[2], &val, err);
+  return val;
 }
 
 
-static double f_sigma0 (double sg0, void *par) {
-  dwint *it = par;
-  const bl_kin *kn = &it->d.kn;
-  double h0 = kn->hc0 * expm1(sg0), jac = h0 + kn->hc0;
-  double smax = log1p(2.0 / kn->hc), cuts[4], sum = 0.0, r;
-  gsl_function f;
-  int n = 0, i, st;
-  if (h0 > 2.0)
-    h0 = 2.0;
-  it->g.h0 = h0;
-  it->g.s0 = sqrt(fmax(h0 * (2.0 - h0), 0.0));
-  it->g.ridge = 0;
-  cuts[n++] = 0.0;
-  r = kn->p0 * it->g.s0 / kn->p;   /* sin of the ridge angle */
-  if (r < 1.0) {
-    double c = sqrt((1.0 - r) * (1.0 + r));
-    double hs[2] = { r * r / (1.0 + c), 1.0 + c };
-    for (i = 0; i < 2; i++) {
-      double s = log1p(hs[i] / kn->hc);
-      if (s > cuts[n - 1] && s < smax)
-        cuts[n++] = s;
-    }
-  }
-  cuts[n++] = smax;
-  f.function = f_sigma;
-  f.params = it;
-  for (i = 0; i + 1 < n; i++) {
-    double val, err;
-    st = gsl_integration_qag(&f, cuts[i], cuts[i + 1], 0.0, 0.3 * it->rtol,
-                             LIMIT, GSL_INTEG_GAUSS21, it->w[1], &val, &err);
-    note(it, st);
-    sum += val;
-  }
-  return sum * jac;
-}
-
-
-/* Allocate the integration state of photon energy k; BL_SUCCESS or the
-** failure (it->w and the table freed by done() in any case). */
-static int start (dwint *it, const bl_case *c, double k, bl_quad *q) {
-  int i, st;
-  for (i = 0; i < 3; i++)
-    it->w[i] = NULL;
-  if (c == NULL || q == NULL) {
-    it->d.hyp.neg.f = it->d.hyp.pos.f = NULL;
+/* The table of V for photon energy k, the hook; out cleared. */
+static int start (dwaz *x, bl_azimuth *az, const bl_case *c, double k,
+                  bl_quad *q, bl_result *out) {
+  x->d.hyp.neg.f = x->d.hyp.pos.f = NULL;
+  x->d.hyp.neg.n = x->d.hyp.pos.n = 0;
+  if (out == NULL)
     return BL_EDOMAIN;
-  }
-  st = bl_dwk_init(&it->d, c, k, 0.0, 0.0);
-  if (st != BL_SUCCESS)
-    return st;
-  it->c = c;
-  it->q = q;
-  it->rtol = bl_quad_rtol(q);
-  it->status = BL_SUCCESS;
-  for (i = 0; i < 3; i++) {
-    it->w[i] = gsl_integration_workspace_alloc(LIMIT);
-    if (it->w[i] == NULL)
-      return BL_ENOMEM;
-  }
-  return BL_SUCCESS;
+  clear(out);
+  if (c == NULL || q == NULL)
+    return BL_EDOMAIN;
+  x->c = c;
+  x->q = q;
+  x->status = BL_SUCCESS;
+  az->phi = az_phi;
+  az->ctx = x;
+  return bl_dwk_init(&x->d, c, k, 0.0, 0.0);
 }
 
 
-static void done (dwint *it) {
-  int i;
-  for (i = 0; i < 3; i++)
-    gsl_integration_workspace_free(it->w[i]);
-  bl_dwk_free(&it->d);
-}
-
-
-/* Fill out from the integral val +- err times scale (the inner integrals'
-** share of the error added). */
-static int finish (dwint *it, int st, double val, double err, double scale,
-                   bl_result *out) {
-  out->val = val * scale;
-  out->err = (err + 0.4 * it->rtol * fabs(val)) * scale;
-  out->warn = it->c->warn;
-  if (st == BL_SUCCESS)
-    st = it->status;
+static int finish (dwaz *x, int st, bl_result *out) {
+  bl_dwk_free(&x->d);
+  out->method = BL_METHOD_DISTORTED;
+  if (st == BL_SUCCESS && x->status != BL_SUCCESS)
+    st = x->status;
   if (st == BL_SUCCESS && !isfinite(out->val))
     st = BL_ENONFINITE;
   return st;
 }
 
 
-int bl_dw_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out) {
-  dwint it;
-  gsl_function f;
-  double val = 0.0, err = 0.0, scale;
+/* Which observable: dsigma/dk, the angular distribution at theta_k, or
+** the fully differential value at (theta_k, theta_p, phi). */
+enum { OBS_DK, OBS_ANGULAR, OBS_FULL };
+typedef struct obs {
+  int kind;
+  double k, theta_k, theta_p, phi;
+} obs;
+
+
+/* The distorted-wave value on case c (on the bare point nucleus it is the
+** whole answer). */
+static int dw_point (const bl_case *c, const obs *b, bl_quad *q,
+                     bl_result *out) {
+  dwaz x;
+  bl_azimuth az;
   int st;
-  if (out == NULL)
-    return BL_EDOMAIN;
-  clear(out);
-  st = start(&it, c, k, q);
-  if (st != BL_SUCCESS) {
-    done(&it);
-    return st;
+  if (b->kind == OBS_FULL)
+    return full_point(c, b->k, b->theta_k, b->theta_p, b->phi, out);
+  st = start(&x, &az, c, b->k, q, out);
+  if (st == BL_SUCCESS)
+    st = b->kind == OBS_DK
+         ? bl_dcs_dk_az_e(c, b->k, q, &az, out)
+         : bl_dcs_angular_az_e(c, b->k, b->theta_k, q, &az, out);
+  return finish(&x, st, out);
+}
+
+
+/* The same observable by the Born integral of case c. */
+static int born (const bl_case *c, const obs *b, bl_quad *q, bl_result *out) {
+  switch (b->kind) {
+    case OBS_DK:
+      return bl_dcs_dk_e(c, b->k, q, out);
+    case OBS_ANGULAR:
+      return bl_dcs_angular_e(c, b->k, b->theta_k, q, out);
+    default:
+      return bl_dcs_full_e(c, b->k, b->theta_k, b->theta_p, b->phi, out);
   }
-  f.function = f_sigma0;
-  f.params = &it;
-  st = gsl_integration_qag(&f, 0.0, log1p(2.0 / it.d.kn.hc0), 0.0, it.rtol,
-                           LIMIT, GSL_INTEG_GAUSS21, it.w[0], &val, &err);
-  scale = c->norm * it.d.kn.p / (it.d.kn.p0 * it.d.kn.k) / BL_PI
-          / c->particle.mass;
-  st = finish(&it, st, val, err, scale, out);
-  done(&it);
+}
+
+
+static int bare (const bl_case *c) {
+  return c->screening->id == BL_MODEL_NONE
+         && c->opts.nucleus == BL_NUCLEUS_POINT && !c->opts.electrons;
+}
+
+
+/* A soft failure (a best estimate) is kept unless a hard one comes. */
+static int worse (int st, int s2) {
+  if (st == BL_SUCCESS || (s2 != BL_SUCCESS && !bl_status_soft(s2)))
+    return s2 == BL_SUCCESS ? st : s2;
   return st;
 }
 
 
-/* d2sigma/(dk dOmega_k) = (norm/(2 pi^2)) (p/(p0 k)) int dh Phi(h0, h):
-** the outer integrand of dsigma/dk at h0 = 1 - cos(theta_k), without its
-** Jacobian. */
-int bl_dw_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
-                     bl_result *out) {
-  dwint it;
-  double h0, sg0, val, scale;
+/*
+** The screening rule of the integrated values (DEVELOPERS.md, "Distorted
+** waves"), with D the distorted-wave and B the Born values, "pt" the bare
+** point nucleus, "n" the case's nucleus (screening, nuclear size), "e"
+** its atomic electrons, F_E the Elwert factor (the ratio of the final to
+** the initial Sommerfeld factor) and Delta = D_pt - F_E B_pt the
+** distortion beyond that normalisation:
+**
+**   dsigma = F_E B_n + B_e + Delta (w + (1 - w) B_n / B_pt),  w = beta0^2.
+**
+** w = 1 is Olsen, Maximon & Wergeland's (1957) result for high energies:
+** the Coulomb correction, from distances ~ hbar/(m c), does not depend on
+** screening, and is added.  w = 0 is the ratio rule of slow projectiles,
+** D_pt B_n / B_pt, whose distortion acts where screening does and scales
+** with it.  The difference of the two rules, |Delta| (1 - B_n / B_pt),
+** weighted by 1 - w, is the rule's uncertainty, *rule (absolute).
+*/
+static int screened (const bl_case *c, const obs *b, bl_quad *q,
+                     bl_result *out, double *rule) {
+  bl_case cp, cn, ca;
+  bl_opts o;
+  bl_result dp, bp, bn, ba;
+  bl_kin kn;
+  double fe, w, delta, be = 0.0, sn;
   int st;
+  *rule = 0.0;
   if (out == NULL)
     return BL_EDOMAIN;
   clear(out);
-  if (!(theta_k >= 0.0 && theta_k <= BL_PI))
+  if (c == NULL || (q == NULL && b->kind != OBS_FULL))
     return BL_EDOMAIN;
-  st = start(&it, c, k, q);
-  if (st != BL_SUCCESS) {
-    done(&it);
+  if (bare(c))
+    return dw_point(c, b, q, out);
+  st = bl_kin_case(c, b->k, &kn);
+  if (st == BL_SUCCESS)
+    st = bl_case_setup(&cp, &c->particle, c->Z,
+                       bl_model_get(BL_MODEL_NONE), NULL, c->T, &bl_opts_bare);
+  o = c->opts;
+  o.elwert = o.coulomb = BL_APPLY_OFF;
+  o.electrons = 0;
+  if (st == BL_SUCCESS)
+    st = bl_case_setup(&cn, &c->particle, c->Z, c->screening, c->params,
+                       c->T, &o);
+  if (st != BL_SUCCESS)
     return st;
+  st = dw_point(&cp, b, q, &dp);
+  if (st != BL_SUCCESS && !bl_status_soft(st))
+    return st;
+  st = worse(st, born(&cp, b, q, &bp));
+  st = worse(st, born(&cn, b, q, &bn));
+  out->err = dp.err + bp.err + bn.err;
+  out->warn = c->warn | ((dp.warn | bp.warn | bn.warn) & BL_WARN_TOLERANCE);
+  if (c->opts.electrons) {
+    o.electrons = 1;
+    st = worse(st, bl_case_setup(&ca, &c->particle, c->Z, c->screening,
+                                 c->params, c->T, &o));
+    if (st == BL_SUCCESS || bl_status_soft(st)) {
+      st = worse(st, born(&ca, b, q, &ba));
+      be = ba.val - bn.val;
+      out->err += ba.err + bn.err;
+      out->warn |= ba.warn & BL_WARN_TOLERANCE;
+    }
   }
-  h0 = 2.0 * sin(0.5 * theta_k) * sin(0.5 * theta_k);
-  sg0 = log1p(h0 / it.d.kn.hc0);
-  val = f_sigma0(sg0, &it) / (h0 + it.d.kn.hc0);
-  scale = c->norm * it.d.kn.p / (it.d.kn.p0 * it.d.kn.k)
-          / (2.0 * BL_PI * BL_PI) / c->particle.mass;
-  st = finish(&it, BL_SUCCESS, val, 0.0, scale, out);
-  done(&it);
+  if (st != BL_SUCCESS && !bl_status_soft(st))
+    return st;
+  fe = bl_elwert(c, &kn);
+  w = (kn.p0 / kn.E0) * (kn.p0 / kn.E0);
+  delta = dp.val - fe * bp.val;
+  sn = bp.val > 0.0 ? bn.val / bp.val : 1.0;
+  out->val = fe * bn.val + be + delta * (w + (1.0 - w) * sn);
+  out->err += fe * bp.err;
+  *rule = (1.0 - w) * fabs(delta) * fabs(1.0 - sn);
+  if (out->val < 0.0) {
+    out->val = 0.0;
+    out->warn |= BL_WARN_CLAMPED;
+  }
+  if (!isfinite(out->val))
+    return BL_ENONFINITE;
   return st;
+}
+
+
+int bl_dw_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out) {
+  obs b = { OBS_DK, k, 0.0, 0.0, 0.0 };
+  double rule;
+  return screened(c, &b, q, out, &rule);
+}
+
+
+int bl_dw_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
+                     bl_result *out) {
+  obs b = { OBS_ANGULAR, k, theta_k, 0.0, 0.0 };
+  double rule;
+  if (!(theta_k >= 0.0 && theta_k <= BL_PI)) {
+    if (out != NULL)
+      clear(out);
+    return BL_EDOMAIN;
+  }
+  return screened(c, &b, q, out, &rule);
+}
+
+
+int bl_dw_full_e (const bl_case *c, double k, double theta_k, double theta_p,
+                  double phi, bl_result *out) {
+  obs b = { OBS_FULL, k, theta_k, theta_p, phi };
+  double rule;
+  if (out == NULL)
+    return BL_EDOMAIN;
+  clear(out);
+  if (!(theta_k >= 0.0 && theta_k <= BL_PI)
+      || !(theta_p >= 0.0 && theta_p <= BL_PI) || !isfinite(phi))
+    return BL_EDOMAIN;
+  return screened(c, &b, NULL, out, &rule);
 }
