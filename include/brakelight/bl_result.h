@@ -22,10 +22,16 @@ enum {
                                 ** high-energy form outside its range): 0 */
   BL_WARN_METHOD    = 1u << 8,  /* high-energy or complete-screening form used
                                 ** where it does not hold */
-  BL_WARN_SUPPRESS  = 1u << 9   /* LPM/dielectric suppression: an approximate
+  BL_WARN_SUPPRESS  = 1u << 9,  /* LPM/dielectric suppression: an approximate
                                 ** treatment, see its warning */
+  BL_WARN_DISTORTED = 1u << 10  /* distorted waves: estimated model uncertainty
+                                ** (sys) above BL_SYS_WARN of the value */
 };
-#define BL_WARN_COUNT 10
+#define BL_WARN_COUNT 11
+
+/* The share of the value above which a model uncertainty (sys) is
+** warned about. */
+#define BL_SYS_WARN 0.01
 
 /* Corrections actually applied to a result (bl_result.applied). */
 enum {
@@ -39,6 +45,8 @@ typedef struct bl_result {
   unsigned warn;  /* BL_WARN_* bits */
   unsigned applied;  /* BL_APPLIED_* bits */
   int method;     /* BL_METHOD_* actually used (bl_method.h); 0: born */
+  double sys;     /* estimated model uncertainty of val, absolute (>= 0;
+                  ** 0 where the method states none) */
 } bl_result;
 
 /* Short English text for one warning bit (e.g. BL_WARN_BORN); NULL if unknown. */

@@ -7,9 +7,9 @@
 #ifndef BL_VERSION_H
 #define BL_VERSION_H
 
-#define BL_VERSION_MAJOR 0
-#define BL_VERSION_MINOR 1
+#define BL_VERSION_MAJOR 1
+#define BL_VERSION_MINOR 0
 #define BL_VERSION_PATCH 0
-#define BL_VERSION "0.1.0"
+#define BL_VERSION "1.0.0"
 
 #endif

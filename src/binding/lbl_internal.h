@@ -107,6 +107,8 @@ typedef struct Warnings {
   int zborn;           /* largest Z flagged BL_WARN_BORN */
   unsigned applied;    /* union of BL_APPLIED_* over all points */
   double minsup;       /* smallest suppression factor applied */
+  double sysrel;       /* largest relative model uncertainty (sys/val) */
+  char sysat[64];      /* where it was */
 } Warnings;
 
 

@@ -36,13 +36,13 @@ static const char *const photon_yield_keys[] = {
 
 /*
 ** brakelight.cross_section{..., kmin =, kmax =}
-**   -> {sigma, err, mean_k, mean_k_err, kmin, kmax, per_gram, units,
+**   -> {sigma, err, sys, mean_k, mean_k_err, kmin, kmax, per_gram, units,
 **       settings, warnings}: photons emitted with kmin < k < kmax
 */
 int l_cross_section (lua_State *L) {
   static const char *const units[] = {
-    "sigma", "mb", "err", "mb", "mean_k", "MeV", "mean_k_err", "MeV",
-    "kmin", "MeV", "kmax", "MeV", "per_gram", "cm^2/g per mb", NULL
+    "sigma", "mb", "err", "mb", "sys", "mb", "mean_k", "MeV",
+    "mean_k_err", "MeV", "kmin", "MeV", "kmax", "MeV", "per_gram", "cm^2/g per mb", NULL
   };
   static const char *const none[] = {NULL};
   Opts o;
@@ -60,6 +60,7 @@ int l_cross_section (lua_State *L) {
   lua_createtable(L, 0, 12);             /* 3: result */
   lbl_setnum(L, 3, "sigma", r0.val);
   lbl_setnum(L, 3, "err", r0.err);
+  lbl_setnum(L, 3, "sys", r0.sys);
   lbl_setnum(L, 3, "mean_k", mean);
   lbl_setnum(L, 3, "mean_k_err", meanerr);
   lbl_setnum(L, 3, "kmin", kmin);
@@ -72,13 +73,14 @@ int l_cross_section (lua_State *L) {
 
 /*
 ** brakelight.energy_loss{particle =, target =, T =, ...}
-**   -> {dedx, err, per_unit, radiation_length, E_over_X0, units, settings,
+**   -> {dedx, err, sys, per_unit, radiation_length, E_over_X0, units,
+**       settings,
 **       warnings}: the radiative stopping power int_0^T k dsigma/dk dk
 */
 int l_energy_loss (lua_State *L) {
   static const char *const units[] = {
-    "dedx", "MeV cm^2/g", "err", "MeV cm^2/g", "per_unit",
-    "MeV mb per formula unit", "radiation_length", "g/cm^2",
+    "dedx", "MeV cm^2/g", "err", "MeV cm^2/g", "sys", "MeV cm^2/g",
+    "per_unit", "MeV mb per formula unit", "radiation_length", "g/cm^2",
     "E_over_X0", "MeV cm^2/g", NULL
   };
   static const char *const none[] = {NULL};
@@ -96,6 +98,7 @@ int l_energy_loss (lua_State *L) {
   lua_createtable(L, 0, 10);             /* 3: result */
   lbl_setnum(L, 3, "dedx", r1.val * lbl_pergram(&o));
   lbl_setnum(L, 3, "err", r1.err * lbl_pergram(&o));
+  lbl_setnum(L, 3, "sys", r1.sys * lbl_pergram(&o));
   lbl_setnum(L, 3, "per_unit", r1.val);
   lbl_setnum(L, 3, "radiation_length", X0);
   lbl_setnum(L, 3, "E_over_X0", X0 > 0.0 ? (o.T + o.particle.mass) / X0 : 0.0);

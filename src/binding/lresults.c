@@ -127,6 +127,10 @@ void lbl_addwarn (Warnings *w, const bl_result *r, double k,
   }
   if ((r->warn & BL_WARN_BORN) && k > w->kborn)
     w->kborn = k;
+  if (r->val != 0.0 && r->sys / fabs(r->val) > w->sysrel) {
+    w->sysrel = r->sys / fabs(r->val);
+    snprintf(w->sysat, sizeof w->sysat, "%s", at);
+  }
 }
 
 
@@ -246,6 +250,16 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                "factor %.4g", text, o->sup.elpm, p->name, o->target.name,
                o->sup.X0cm, o->sup.mode == BL_SUPPRESS_DIELECTRIC
                ? ", with dielectric suppression" : "", w->minsup);
+      break;
+    case BL_WARN_DISTORTED:
+      snprintf(msg, sizeof msg, "%s: up to %.2g %% at %s (%s, %s, T = %g "
+               "MeV): the Sommerfeld-Maue functions drop terms of relative "
+               "order (zZ alpha)^2 = %.3g, estimated here as (zZ alpha)^2 "
+               "beta0^2/sqrt(gamma0), three times that for a repelled "
+               "projectile, added to the uncertainty of the screening rule "
+               "(README, Distorted waves)", text, 100.0 * w->sysrel,
+               w->sysat, p->name, o->target.name, o->T,
+               (p->charge * zb * BL_ALPHA) * (p->charge * zb * BL_ALPHA));
       break;
     case BL_WARN_CLAMPED:
       snprintf(msg, sizeof msg, "%s (%s on %s at T = %g MeV, near the tip of "
@@ -404,9 +418,11 @@ void lbl_setresult (lua_State *L, int t, int first,
 
 /* Push the table of one point's extras: per_gram, corrections applied. */
 void lbl_pushinfo (lua_State *L, const Opts *o, const bl_result *r) {
-  lua_createtable(L, 0, 4);
+  lua_createtable(L, 0, 5);
   lua_pushnumber(L, lbl_pergram(o));
   lua_setfield(L, -2, "per_gram");
+  lua_pushnumber(L, r->sys);
+  lua_setfield(L, -2, "sys");
   lua_pushboolean(L, (r->applied & BL_APPLIED_COULOMB) != 0);
   lua_setfield(L, -2, "coulomb_applied");
   lua_pushboolean(L, (r->applied & BL_APPLIED_ELWERT) != 0);

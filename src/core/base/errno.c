@@ -51,6 +51,9 @@ const char *bl_warn_text (unsigned bit) {
     case BL_WARN_SUPPRESS:
       return "LPM and dielectric suppression follow Migdal's approximate "
              "treatment";
+    case BL_WARN_DISTORTED:
+      return "distorted waves (Sommerfeld-Maue): the estimated model "
+             "uncertainty exceeds 1 % of the value";
     default:
       return NULL;
   }

@@ -402,7 +402,7 @@ int bl_dcs_dk_az_e (const bl_case *c, double k, bl_quad *q,
   int st, n = 0, i;
   if (out == NULL)
     return BL_EDOMAIN;
-  out->val = out->err = 0.0;
+  out->val = out->err = out->sys = 0.0;
   out->warn = out->applied = 0;
   out->method = 0;   /* BL_METHOD_BORN */
   if (c == NULL || q == NULL)
@@ -459,7 +459,7 @@ int bl_dcs_angular_az_e (const bl_case *c, double k, double theta_k,
   int st;
   if (out == NULL)
     return BL_EDOMAIN;
-  out->val = out->err = 0.0;
+  out->val = out->err = out->sys = 0.0;
   out->warn = out->applied = 0;
   out->method = 0;   /* BL_METHOD_BORN */
   if (c == NULL || q == NULL || !(theta_k >= 0.0 && theta_k <= BL_PI))
@@ -501,7 +501,7 @@ int bl_dcs_full_e (const bl_case *c, double k, double theta_k, double theta_p,
   int st;
   if (out == NULL)
     return BL_EDOMAIN;
-  out->val = out->err = 0.0;
+  out->val = out->err = out->sys = 0.0;
   out->warn = out->applied = 0;
   out->method = 0;   /* BL_METHOD_BORN */
   if (c == NULL || !(theta_k >= 0.0 && theta_k <= BL_PI)

@@ -81,6 +81,10 @@ double bl_dw_u (const bl_kin *kn, const bl_polar *g, double v, double *q2);
 int bl_dw_bracket (const bl_dwk *d, const bl_polar *g, double v, double *B,
                    double *q2);
 
+/* Estimated relative error of the Sommerfeld-Maue functions at kn (see
+** dcs.c). */
+double bl_dw_sm_estimate (const bl_case *c, const bl_kin *kn);
+
 /* The fully differential cross section, arguments and units as
 ** bl_dcs_full_e (born/dcs.c), and dsigma/dk (mb/MeV) at relative tolerance
 ** rtol.  exceptions: BL_EDOMAIN, BL_ENOMEM, BL_ENONFINITE, GSL's codes of

@@ -141,7 +141,7 @@ int bl_method_find (const char *name) {
 
 
 void bl_method_clear (bl_result *out, int method) {
-  out->val = out->err = 0.0;
+  out->val = out->err = out->sys = 0.0;
   out->warn = out->applied = 0;
   out->method = method;
 }

@@ -68,6 +68,7 @@ typedef struct kint {
   unsigned warn, applied;
   int method;         /* method of the points, -1 when they differ, -2 none */
   double relerr;      /* worst relative error of a point */
+  double relsys;      /* largest relative model uncertainty of a point */
   memo *memo;         /* cap slots, count used, at most cap/2 */
   size_t cap, count;
   memo *heap;         /* memo once grown onto the heap (freed by caller) */
@@ -95,6 +96,8 @@ static void account (kint *ki, const memo *e) {
     ki->method = -1;
   if (e->r.val != 0.0 && e->r.err / fabs(e->r.val) > ki->relerr)
     ki->relerr = e->r.err / fabs(e->r.val);
+  if (e->r.val != 0.0 && e->r.sys / fabs(e->r.val) > ki->relsys)
+    ki->relsys = e->r.sys / fabs(e->r.val);
 }
 
 
@@ -346,6 +349,8 @@ static int run (kint *ki, double kmin, double kmax, double rtol,
   }
   out->val = v1 + v2;
   out->err = e1 + e2 + ki->relerr * fabs(out->val);
+  /* a bound: no point is more uncertain than the most uncertain one */
+  out->sys = ki->relsys * fabs(out->val);
   out->warn = ki->warn;
   out->applied = ki->applied;
   out->method = ki->method;
@@ -413,6 +418,7 @@ static int integrate (bl_kfunc f, void *ud, double kmin, double kmax,
   if (out1 != NULL && ki.hard == BL_SUCCESS) {
     ki.moment = 1;
     ki.relerr = 0.0;
+    ki.relsys = 0.0;
     ki.soft = 0;
     st1 = run(&ki, kmin, kmax, rtol, kb, nkb, sg, out1);
   }

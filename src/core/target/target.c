@@ -118,6 +118,7 @@ static void addelement (const bl_target *t, int i, const bl_result *r,
     rec->zborn = t->c[i].Z;
   sum->val += t->atoms[i] * r->val;
   sum->err += t->atoms[i] * r->err;
+  sum->sys += t->atoms[i] * r->sys;
   sum->warn |= r->warn;
   sum->applied |= r->applied;
   sum->method = r->method;
@@ -135,6 +136,7 @@ static void suppress (const bl_target *t, double k, bl_result *sum,
   f = bl_suppress_factor(&t->sup, t->T + t->particle.mass, k);
   sum->val *= f;
   sum->err *= f;
+  sum->sys *= f;
   sum->warn |= BL_WARN_SUPPRESS;
   if (f < rec->supp)
     rec->supp = f;
