@@ -495,7 +495,7 @@ $(ROCKSPEC): scripts/brakelight.rockspec.in $(VERSION_H)
 	sed 's|@VERSION@|$(VERSION)|g' $< > $@
 
 # ---- benchmarks and generators ---------------------------------------------
-.PHONY: bench hf-table error-sweep error-ref
+.PHONY: bench hf-table error-sweep error-ref dw-positron
 # The fixed earlier commit that make bench and make error-ref build in a git
 # worktree build/base/<commit> (the main before issue 14's integrator).
 BENCH_BASE ?= a2be9749fe3fb2195e4251fa39d1db24ff8cf650
@@ -514,6 +514,15 @@ $(B)/error_sweep: scripts/error_sweep.c $(LIB)
 	  -I/usr/include/xraylib -o $@ $< $(LIB) $(LIBS)
 error-sweep: $(B)/error_sweep
 	./$(B)/error_sweep run -i $(ERROR_REF) -o $(B)/error-sweep.out
+
+# The positron/electron radiative-loss ratio of method "distorted" against
+# Kim et al. 1986 (scripts/dw-positron-ratio.c; about 20 s).  Not in check.
+$(B)/dw-positron-ratio: scripts/dw-positron-ratio.c $(LIB) $(B)/ref/kim1986.o
+	$(CC) -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L -Iinclude \
+	  -Isrc/core -Itests/ref -I/usr/include/xraylib -o $@ $< \
+	  $(B)/ref/kim1986.o $(LIB) $(LIBS)
+dw-positron: $(B)/dw-positron-ratio
+	./$(B)/dw-positron-ratio
 
 # Regenerate the reference set: ERROR_POINTS random points at rtol 1e-10,
 # computed with the integrator of BENCH_BASE (GSL's qag, whose estimates

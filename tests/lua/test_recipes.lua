@@ -16,6 +16,7 @@ local recipes = {
   spin_compare = { "spin-compare.csv", "spin-compare.gp" },
   screening_compare = { "screening-compare.csv", "screening-compare.gp" },
   sharded_scan = { "dsdk-table.csv" },
+  tungsten_converter = { "tungsten-converter.csv", "tungsten-converter.gp" },
 }
 local dir = U.tmpdir()
 local ok, err = pcall(function()
