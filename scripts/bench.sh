@@ -10,7 +10,8 @@
 #    then the high-energy method's evaluations per second once cached
 #    (scripts/bench_he.c, target 1e6/s) and energy_loss timings
 #    (scripts/bench_integrated.lua: born at rtol 1e-3 within 50 ms, auto
-#    within 5 ms);
+#    within 5 ms); the distorted-wave dsigma/dk (scripts/bench_dw.c: median
+#    at rtol 1e-3 against 20 ms, and its time ratio to Born);
 # 2. if Debian's /usr/bin/python3 has SciPy, evaluates a few of the same
 #    points with the independent SciPy integration (scripts/bench_scipy.py)
 #    and prints the time ratio and the relative difference of the values.
@@ -75,6 +76,15 @@ if ! ${CC:-cc} -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L \
 fi
 "$B/bench_dsdk" -r "$RTOL" || echo "bench: bench_dsdk exited with status $?"
 "$B/bench_dsdk" -r "$RTOL" -a || echo "bench: bench_dsdk -a exited with status $?"
+
+echo
+echo "== distorted waves (scripts/bench_dw.c): rtol 1e-3, against Born in the same run"
+if ${CC:-cc} "${CFL[@]}" -o "$B/bench_dw" scripts/bench_dw.c \
+     "$B/libbrakelight.a" "${LDL[@]}"; then
+  "$B/bench_dw" | tail -n 1 || echo "bench: bench_dw exited with status $?"
+else
+  echo "bench: could not build $B/bench_dw" >&2
+fi
 
 echo
 echo "== this tree against BASE $BASE (same sources of scripts/, both libraries)"

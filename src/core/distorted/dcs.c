@@ -161,6 +161,9 @@ static int full_point (const bl_case *c, double k, double theta_k,
 */
 
 #define AZ_LIMIT 64   /* panels of one azimuthal integral */
+#ifndef AZ_SHARE
+#define AZ_SHARE 1.0  /* its relative tolerance, as a share of rtol */
+#endif
 
 typedef struct dwaz {
   const bl_case *c;
@@ -196,7 +199,7 @@ static double az_phi (void *ctx, const bl_polar *g, const bl_bracket *br,
   if (!(x->phiw > 1e-300))
     x->phiw = 1e-300;
   umax = log1p(BL_PI / x->phiw);
-  bl_gk_adapt(az_f, x, 0.0, umax, 0.0, 0.2 * bl_quad_rtol(x->q),
+  bl_gk_adapt(az_f, x, 0.0, umax, 0.0, AZ_SHARE * bl_quad_rtol(x->q),
               x->q->limit < AZ_LIMIT ? x->q->limit : AZ_LIMIT, 15,
               x->q->pan[2], &val, err);
   return val;
