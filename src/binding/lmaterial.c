@@ -112,8 +112,8 @@ static void ambiguous (Reader *r, const char *s) {
   f[2] = (char)(sym[1] - 'a' + 'A');
   f[3] = '1';
   f[4] = '\0';
-  fail(r, "'%s' is ambiguous: did you mean %s (%s) or %c + %c? write '%s' "
-       "for the element or '%s' for the formula", s, sym,
+  fail(r, "ambiguous material name '%s': did you mean %s (%s) or %c + %c? "
+       "write '%s' for the element or '%s' for the formula", s, sym,
        bl_element_name(Z), f[0], f[2], sym, f);
 }
 

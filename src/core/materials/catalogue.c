@@ -1126,7 +1126,7 @@ static int frombymass (double atoms[BL_ZMAX + 1], const char *s) {
       s++;
     if (*s == '\0')
       break;
-    while (isalpha((unsigned char)s[n]) && n < 3)
+    while (n < 3 && isalpha((unsigned char)s[n]))
       n++;
     if (n == 0 || n > 2)
       return BL_EUNKNOWN;

@@ -98,7 +98,7 @@ static void insert (List *l, int p, int w, const char *s) {
 
 /* Score of one candidate string, kept if better than (*p, *w). */
 static void consider (const char *q, const char *cand, int *p, int *w) {
-  char c[LEN];
+  char c[LEN] = "";
   int cp, cw;
   lower(c, cand);
   distances(q, c, &cp, &cw);
@@ -111,7 +111,7 @@ static void consider (const char *q, const char *cand, int *p, int *w) {
 
 int bl_material_suggest (const char *name, const char **out, int nmax) {
   List el, cat;
-  char q[LEN] = "", nm[LEN];
+  char q[LEN] = "", nm[LEN] = "";
   int i, j, Z, k = 0;
   if (name == NULL || out == NULL || nmax < 1)
     return 0;
