@@ -460,7 +460,9 @@ void lbl_describe (const bl_material *m, char *buf, size_t n) {
   const bl_catalogue_entry *e = m->entry;
   bl_material el;
   if (e != NULL && m->density == e->density) {
-    if (strcmp(m->name, e->key) == 0)
+    bl_material f;
+    if (!(e->flags & BL_CATALOGUE_CRYSTAL) || strcmp(m->name, e->key) == 0
+        || bl_material_formula(&f, m->name, NULL) != BL_SUCCESS)
       snprintf(buf, n, "%s (catalogue entry '%s'); composition %s; "
                "density %.6g g/cm^3; %s", e->description, e->key,
                e->composition, e->density, e->source);
