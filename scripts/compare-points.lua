@@ -238,8 +238,7 @@ local SYMBOLS = {"H", "He", "Be", "C", "N", "O", "Al", "Si", "Fe", "Cu",
 local NAMES = {"lead", "aluminium", "aluminum", "Tungsten", "caesium"}
 local FORMULAS = {"H2O", "CaCO3", "SiO2", "Ca(OH)2", "CuSO4.5H2O",
                   "Fe0.5Ni0.5", "C2H4", "PbWO4", "LiF", "Bi4Ge3O12"}
-local STANDARD = {"Water, Liquid", "Air, Dry (near sea level)",
-                  "Glass, Lead", "polyethylene"}
+local STANDARD = {"water", "air", "lead_glass", "polyethylene"}
 
 -- Particle masses scale the energies: heavier particles go higher.
 local function drawparticle (g)

@@ -210,7 +210,7 @@ Test(particle, elements) {
 ** bl_strerror covers both with non-empty text. */
 Test(particle, status_codes) {
   static const int ours[] = { BL_EDOMAIN, BL_EUNKNOWN, BL_ENOMEM, BL_EMODEL,
-                              BL_ENOTCONV };
+                              BL_ENOTCONV, BL_ENONFINITE, BL_EAMBIGUOUS };
   static const int gsl[] = { GSL_EMAXITER, GSL_EROUND, GSL_EDOM, GSL_ESING };
   size_t i, j;
   cr_expect(BL_SUCCESS == 0 && GSL_SUCCESS == 0, "success is 0");
@@ -520,10 +520,11 @@ Test(health, null_materials_models_and_workspaces) {
   cr_expect_eq(bl_material_mixture(&m, 2, NULL, w, 1, 0, NULL), BL_EDOMAIN);
   cr_expect_eq(bl_material_mixture(&m, 2, parts, NULL, 1, 0, NULL),
                BL_EDOMAIN);
-  cr_expect_eq(bl_material_standard(NULL, "Air, Dry (near sea level)"),
-               BL_EDOMAIN);
-  cr_expect_eq(bl_material_standard(&m, NULL), BL_EUNKNOWN,
+  cr_expect_eq(bl_material_catalogue(NULL, "air"), BL_EDOMAIN);
+  cr_expect_eq(bl_material_catalogue(&m, NULL), BL_EUNKNOWN,
                "no name: unknown, as documented");
+  cr_expect_eq(bl_material_catalogue_find(NULL), -1);
+  cr_expect(bl_material_catalogue_entry(-1) == NULL);
   cr_expect_eq(bl_material_lookup(NULL, "Pb", NULL), BL_EDOMAIN);
   cr_expect_eq(bl_material_lookup(&m, NULL, NULL), BL_EDOMAIN);
   cr_expect_eq(bl_material_suggest(NULL, names, 4), 0);

@@ -3,8 +3,8 @@
 ** See Copyright Notice in LICENSE
 **
 ** Internal consistency, no outside source.  The core keeps no mutable
-** static state (the standard-composition names are filled once under
-** pthread_once; the GSL handler switch likewise), so work done by two
+** static state (the material catalogue is a constant table; the GSL
+** handler switch is set once under pthread_once), so work done by two
 ** threads at the same time must equal the same work done serially, bit for
 ** bit.  Each job sets up its own cases (all target options on: screening,
 ** atomic electrons, uniform nucleus, corrections where valid), looks up
@@ -115,13 +115,13 @@ static void concurrent_vs_serial (const job *a, const job *b) {
 }
 
 
-/* Two different jobs; the first lookup of a standard composition happens
-** in both threads at once (its names are loaded under pthread_once). */
+/* Two different jobs; both look up catalogue materials (whose mass
+** fractions come from xraylib's records) at the same time. */
 Test(reentrant, two_jobs_bitwise) {
   job a = {.particle = "electron", .model = "hartree-fock",
-           .material = "Water, Liquid", .T = 20.0};
+           .material = "water", .T = 20.0};
   job b = {.particle = "muon", .model = "thomas-fermi",
-           .material = "Glass, Lead", .T = 5000.0};
+           .material = "lead_glass", .T = 5000.0};
   concurrent_vs_serial(&a, &b);
 }
 

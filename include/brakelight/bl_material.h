@@ -1,6 +1,6 @@
 /*
-** bl_material.h -- targets: elements, chemical formulas, mixtures, standard
-** compositions; Tsai's radiation length
+** bl_material.h -- targets: elements, chemical formulas, mixtures, the
+** material catalogue; Tsai's radiation length
 ** See Copyright Notice in LICENSE
 */
 #ifndef BL_MATERIAL_H
@@ -18,10 +18,42 @@ extern "C" {
 /* One element of a material. */
 typedef struct bl_component {
   int Z;
-  double A;              /* standard atomic weight, g/mol */
+  double A;              /* atomic weight, g/mol: the standard one, except
+                         ** for an effective element of the catalogue
+                         ** ("standard_rock": Z = 11, A = 22) */
   double atoms;          /* atoms of this element per formula unit */
   double mass_fraction;  /* share of the mass, sums to 1 over components */
 } bl_component;
+
+#define BL_CATALOGUE_MAXALIAS 6   /* aliases of one catalogue entry */
+
+/* Flags of a catalogue entry. */
+#define BL_CATALOGUE_CRYSTAL   1u   /* a formula target with this entry's
+                                    ** composition gets its density */
+#define BL_CATALOGUE_EFFECTIVE 2u   /* an effective element: its A is not
+                                    ** the element's atomic weight */
+
+/*
+** One entry of the material catalogue (static storage, never changes).
+** key: lowercase letters, digits and '_' ("water", "bgo", "lead_glass");
+** aliases: other names, NULL-padded; description: what it is, in words;
+** formula: its chemical formula when it has one ("Bi4Ge3O12"), else NULL;
+** composition: how the composition is given (the formula, "by mass: ..."
+** with element symbols and mass fractions, or the data set it comes
+** from); density in g/cm^3 (> 0 for every entry); source: where the
+** composition and the density come from ("from memory" and "common
+** practice" mark values not read from the named table).
+*/
+typedef struct bl_catalogue_entry {
+  const char *key;
+  const char *aliases[BL_CATALOGUE_MAXALIAS];
+  const char *description;
+  const char *formula;
+  const char *composition;
+  double density;
+  const char *source;
+  unsigned flags;
+} bl_catalogue_entry;
 
 /*
 ** A target material: plain data, may be copied, nothing to free.
@@ -37,6 +69,9 @@ typedef struct bl_material {
   bl_component comp[BL_MATERIAL_MAXCOMP];
   double molar_mass;                     /* g/mol per formula unit */
   double density;                        /* g/cm^3; 0 when unknown */
+  const bl_catalogue_entry *entry;       /* the catalogue entry the
+                                         ** material, or for a formula its
+                                         ** density, comes from; NULL */
 } bl_material;
 
 /* Where a parse failed: byte offset into the input and a short reason
@@ -85,33 +120,56 @@ int bl_material_mixture (bl_material *m, int n, const bl_material *parts,
                          const double *fractions, int by_mass, int normalize,
                          int *bad);
 
-/* A standard composition carried by xraylib, by its name (exact, then
-** case-insensitive).  BL_SUCCESS, BL_EUNKNOWN (also for a NULL name), or
-** BL_EDOMAIN (NULL m).  Density is set.  One
-** average atom per formula unit, as for mixtures. */
-int bl_material_standard (bl_material *m, const char *name);
+/*
+** The material catalogue: entries 0..bl_material_catalogue_count()-1 in
+** the order of their keys; bl_material_catalogue_entry(i) is NULL outside.
+** bl_material_catalogue_find gives the index of the entry whose key or
+** alias is `name`, compared in any case and ignoring ' ', '-' and '_'
+** ("Lead glass" and "lead_glass" find the same entry); -1 if none (also
+** for NULL).
+*/
+int bl_material_catalogue_count (void);
+const bl_catalogue_entry *bl_material_catalogue_entry (int i);
+int bl_material_catalogue_find (const char *name);
+
+/*
+** The material of a catalogue entry, by key or alias as for _find: named
+** by its key, with the entry's density, m->entry set.  Compositions given
+** by mass (and those taken from xraylib's compound list, the NIST
+** material composition data) have one average atom per formula unit, as
+** mixtures; those given by a formula have its molecule.  BL_SUCCESS,
+** BL_EUNKNOWN (also for a NULL name; *m emptied), or BL_EDOMAIN (NULL m).
+*/
+int bl_material_catalogue (bl_material *m, const char *name);
 
 /*
 ** A material named by a string, trying in this order: element symbol (case
-** as in the periodic table), element name (any case), chemical formula,
-** standard composition (exact, then any case).  Elements carry xraylib's
-** density (ElementDensity; 0 for Es and Fm), formulas none.  BL_SUCCESS, or
-** BL_EUNKNOWN with *err the formula parser's complaint (err may be NULL);
-** BL_EDOMAIN if m or spec is NULL.
+** as in the periodic table), element name (any case), catalogue key or
+** alias (any case, as bl_material_catalogue_find), chemical formula.  A
+** formula with the composition of a catalogue crystal (flag
+** BL_CATALOGUE_CRYSTAL: "PbWO4", "Bi4(GeO4)3") gets the entry's density
+** and m->entry; other formulas have density 0.  Elements carry xraylib's
+** density (ElementDensity; 0 for Es and Fm).
+** A two-letter string that is an element symbol in another case and
+** also reads as symbols of two elements ("PB": Pb or P + B; "co": Co or
+** C + O) is BL_EAMBIGUOUS: write "Pb" for the element, "P1B1" for the
+** formula.  Otherwise BL_SUCCESS, or BL_EUNKNOWN with *err the formula
+** parser's complaint (err may be NULL); BL_EDOMAIN if m or spec is NULL.
+** On failure *m is emptied.
 */
 int bl_material_lookup (bl_material *m, const char *spec,
                         bl_parse_error *err);
 
-/* Up to nmax (at most 8) standard-composition names closest to `name`
-** (edit distance on lowercase: to the best-matching piece of the name
-** first, then to the whole name), written to out[] (static storage);
-** returns the count. */
+/*
+** Up to nmax (at most 8) names close to a misspelt `name`, best first,
+** written to out[] (static storage); returns the count.  Elements come
+** first: a symbol equal to `name` in another case ("w": "W"), then the
+** element names within a small edit distance (1 for names of up to 4
+** letters, 2 above: "tungstem": "tungsten"); then catalogue keys, by the
+** edit distance (on lowercase) from `name` to the best-matching piece of
+** a key, alias or description, then to the whole of it.
+*/
 int bl_material_suggest (const char *name, const char **out, int nmax);
-
-/* Number of standard compositions and the i-th name (0-based, static
-** storage; NULL outside). */
-int bl_material_standard_count (void);
-const char *bl_material_standard_name (int i);
 
 /* Radiation length in g/cm^2 (Tsai; 1/X0 = sum_i w_i / X0_i over mass
 ** fractions).  Returns 0 for an empty material. */

@@ -46,14 +46,22 @@ const char *lbl_showval (lua_State *L, int idx, char *buf, size_t n);
 ** lbl_material_open: create the material metatable and add the material
 ** functions to the module table at the top of the stack.
 ** lbl_totarget: read the Lua value at idx as a target -- a material object,
-** an element symbol or name, a chemical formula, a standard-composition
-** name, or an integer Z -- into *out; on bad input raise
+** an element symbol or name, a catalogue key or alias, a chemical formula,
+** or an integer Z -- into *out; on bad input raise
 ** "bad argument #1 to 'fname' (field 'field' ...)" naming the value and what
 ** is allowed.
+** lbl_describe: what *m is and where its density comes from, into buf.
+** lbl_tothickness: field `key` of the table at absolute index t as a
+** thickness in g/cm^2 of material *m: a number (g/cm^2) or a string
+** "<number> <unit>" (um, mm, cm, m with the density; g/cm2; X0); raises
+** naming the field, the value and what is allowed.
 */
 void lbl_material_open (lua_State *L);
 void lbl_totarget (lua_State *L, int idx, const char *fname,
                    const char *field, bl_material *out);
+void lbl_describe (const bl_material *m, char *buf, size_t n);
+double lbl_tothickness (lua_State *L, int t, const char *fname,
+                        const char *key, const bl_material *m);
 
 /*
 ** Helpers (src/lhelpers.c).  lbl_helpers_open: give the module table at the

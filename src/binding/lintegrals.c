@@ -111,15 +111,17 @@ int l_energy_loss (lua_State *L) {
 ** brakelight.photon_yield{particle =, target =, T =, thickness =, kmin =,
 **   kmax =, bins =, spacing =}
 **   -> {edges, k_low, k_high, photons, err, total, thickness,
-**       thickness_X0, radiation_length, note, units, settings, warnings}:
-**   photons per incident particle in each bin of a thin radiator
+**       thickness_X0, thickness_cm (with a density), radiation_length,
+**       note, units, settings, warnings}: photons per incident particle
+**   in each bin of a thin radiator; thickness in g/cm^2, or a string
+**   with a unit ("2 mm", "0.1 X0": lbl_tothickness)
 */
 int l_photon_yield (lua_State *L) {
   static const char *const units[] = {
     "edges", "MeV", "k_low", "MeV", "k_high", "MeV", "photons",
     "per incident particle", "err", "per incident particle", "total",
     "per incident particle", "thickness", "g/cm^2", "thickness_X0", "1",
-    "radiation_length", "g/cm^2", NULL
+    "thickness_cm", "cm", "radiation_length", "g/cm^2", NULL
   };
   static const char *const none[] = {NULL};
   static const char *const note = "thin radiator: the projectile's energy "
@@ -137,8 +139,7 @@ int l_photon_yield (lua_State *L) {
   const char *sp;
   char spbuf[OPTSTRLEN];
   lbl_readopts(L, "photon_yield", photon_yield_keys, 1, &o);
-  th = lbl_optrange(L, &o, "thickness", "radiator thickness in g/cm^2", 0,
-                HUGE_VAL, 1, "(0, inf) g/cm^2");
+  th = lbl_tothickness(L, 1, o.fname, "thickness", &o.target);
   lbl_optwindow(L, &o, &kmin, &kmax);
   if (lua_getfield(L, 1, "bins") != LUA_TNIL) {
     nb = lua_tointegerx(L, -1, &isint);
@@ -212,6 +213,8 @@ int l_photon_yield (lua_State *L) {
   lbl_setnum(L, 10, "thickness", th);
   lbl_setnum(L, 10, "radiation_length", X0);
   lbl_setnum(L, 10, "thickness_X0", X0 > 0.0 ? th / X0 : 0.0);
+  if (o.target.density > 0.0)
+    lbl_setnum(L, 10, "thickness_cm", th / o.target.density);
   lua_pushstring(L, note);
   lua_setfield(L, 10, "note");
   if (X0 > 0.0 && th > BL_YIELD_THIN_X0 * X0) {   /* one more warning */

@@ -1,15 +1,16 @@
 /*
 ** $Id: lmaterial.c $
 ** Lua binding of materials: brakelight.material, brakelight.materials,
-** brakelight.radiation_length, the "brakelight.Material" object, and the
-** reader of `target =` options used by src/binding/loptions.c
+** brakelight.radiation_length, the "brakelight.Material" object, the
+** reader of `target =` options used by src/binding/loptions.c, the
+** reader of thicknesses with units and the description of a material
 ** See Copyright Notice in LICENSE
 **
 ** A material is named by
 **   a string:  element symbol ("Pb", case as in the periodic table),
-**              element name ("lead", any case), chemical formula ("H2O"),
-**              standard composition ("Water, Liquid", exact then any case)
-**              -- tried in that order (bl_material_lookup);
+**              element name ("lead", any case), catalogue key or alias
+**              ("water", "lead glass", any case), chemical formula
+**              ("H2O") -- tried in that order (bl_material_lookup);
 **   a number:  an integer Z in 1..100;
 **   an object: a material from brakelight.material;
 **   a table:   { spec, density =, name = }  (spec: any of the above), or a
@@ -24,6 +25,7 @@
 #include <math.h>
 #include <stdarg.h>
 #include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
 
 #include "lbl_compat.h"   /* lua.h, lauxlib.h and the 5.4 API on every host */
@@ -40,11 +42,11 @@
 #define SUMTOL    1e-6    /* as in src/core/materials/fill.c */
 #define MB_CM2    1e-27   /* 1 mb in cm^2 */
 
-#define ALLOWED "allowed: an element symbol (H..Fm) or name, a chemical " \
-  "formula such as 'CaCO3', a standard-composition name from " \
-  "brakelight.materials(), an integer Z in 1..100, a material object, or " \
-  "a table {spec, density =, name =} or {{spec, fraction}, ..., by = " \
-  "'mass'|'atoms'}"
+#define ALLOWED "allowed: an element symbol (H..Fm) or name, a catalogue " \
+  "key or alias from brakelight.materials() such as 'water' or 'bgo', a " \
+  "chemical formula such as 'CaCO3', an integer Z in 1..100, a material " \
+  "object, or a table {spec, density =, name =} or {{spec, fraction}, " \
+  "..., by = 'mass'|'atoms'}"
 
 
 /*
@@ -95,9 +97,31 @@ static void readspec (Reader *r, int idx, bl_material *out);
 
 
 /*
-** A string: element, formula or standard composition.  On failure say
-** why each reading failed, with the parser's position (1-based, as
-** string.sub counts) and the closest standard names.
+** A two-letter name with two readings ("PB": lead, or phosphorus and
+** boron; bl_material_lookup returned BL_EAMBIGUOUS): offer both.
+*/
+static void ambiguous (Reader *r, const char *s) {
+  char sym[3], f[5];
+  int Z;
+  sym[0] = (char)(s[0] >= 'a' && s[0] <= 'z' ? s[0] - 'a' + 'A' : s[0]);
+  sym[1] = (char)(s[1] >= 'A' && s[1] <= 'Z' ? s[1] - 'A' + 'a' : s[1]);
+  sym[2] = '\0';
+  Z = bl_element_find(sym);
+  f[0] = sym[0];
+  f[1] = '1';
+  f[2] = (char)(sym[1] - 'a' + 'A');
+  f[3] = '1';
+  f[4] = '\0';
+  fail(r, "ambiguous material name '%s': did you mean %s (%s) or %c + %c? "
+       "write '%s' for the element or '%s' for the formula", s, sym,
+       bl_element_name(Z), f[0], f[2], sym, f);
+}
+
+
+/*
+** A string: element, catalogue name or formula.  On failure say why each
+** reading failed, with the parser's position (1-based, as string.sub
+** counts) and the closest names: elements first, then catalogue keys.
 */
 static void readstring (Reader *r, int idx, bl_material *out) {
   size_t len;
@@ -105,13 +129,16 @@ static void readstring (Reader *r, int idx, bl_material *out) {
   const char *near[NSUGGEST];
   char where[96], sugg[512], v[80];
   bl_parse_error e;
-  int i, n;
+  int i, n, st;
   if (strlen(s) != len)   /* C would read it cut short */
     fail(r, "material name %s contains a NUL byte at byte %zu; allowed: "
          "text without NUL bytes", lbl_showval(r->L, idx, v, sizeof v),
          strlen(s) + 1);
-  if (bl_material_lookup(out, s, &e) == BL_SUCCESS)
+  st = bl_material_lookup(out, s, &e);
+  if (st == BL_SUCCESS)
     return;
+  if (st == BL_EAMBIGUOUS)
+    ambiguous(r, s);
   if (s[0] == '\0')
     fail(r, "material name is empty; %s", ALLOWED);
   if (e.reason == NULL)
@@ -124,12 +151,18 @@ static void readstring (Reader *r, int idx, bl_material *out) {
   n = bl_material_suggest(s, near, NSUGGEST);
   sugg[0] = '\0';
   for (i = 0; i < n; i++) {
-    size_t len = strlen(sugg);
-    snprintf(sugg + len, sizeof sugg - len, "%s'%s'",
-             i == 0 ? "" : (i == n - 1 ? " or " : ", "), near[i]);
+    size_t l = strlen(sugg);
+    int Z = bl_element_lookup(near[i]);
+    char what[40] = "";
+    if (Z != 0 && strcmp(near[i], bl_element_symbol(Z)) == 0)
+      snprintf(what, sizeof what, " (%s)", bl_element_name(Z));
+    else if (Z != 0)
+      snprintf(what, sizeof what, " (element %s)", bl_element_symbol(Z));
+    snprintf(sugg + l, sizeof sugg - l, "%s'%s'%s",
+             i == 0 ? "" : (i == n - 1 ? " or " : ", "), near[i], what);
   }
-  fail(r, "unknown material %s: not an element symbol or name; as a "
-       "formula, %s %s; not a standard composition%s%s%s; %s",
+  fail(r, "unknown material %s: not an element symbol or name, nor a "
+       "catalogue key or alias; as a formula, %s %s%s%s%s; %s",
        lbl_showval(r->L, idx, v, sizeof v), e.reason, where,
        n > 0 ? " (did you mean " : "", sugg, n > 0 ? "?)" : "", ALLOWED);
 }
@@ -414,17 +447,159 @@ void lbl_totarget (lua_State *L, int idx, const char *fname,
 
 /*
 ** {======================================================
+** The description of a material, and thicknesses with units
+** =======================================================
+*/
+
+/*
+** What a material is and where its density comes from, in words, into
+** buf (size n): the catalogue entry and its source, the formula that got
+** a catalogue crystal's density, xraylib's element density, or none.
+*/
+void lbl_describe (const bl_material *m, char *buf, size_t n) {
+  const bl_catalogue_entry *e = m->entry;
+  bl_material el;
+  if (e != NULL && m->density == e->density) {
+    bl_material f;
+    if (!(e->flags & BL_CATALOGUE_CRYSTAL) || strcmp(m->name, e->key) == 0
+        || bl_material_formula(&f, m->name, NULL) != BL_SUCCESS)
+      snprintf(buf, n, "%s (catalogue entry '%s'); composition %s; "
+               "density %.6g g/cm^3; %s", e->description, e->key,
+               e->composition, e->density, e->source);
+    else
+      snprintf(buf, n, "formula %s with the density of the catalogue "
+               "entry '%s' (%s): %.6g g/cm^3; %s", m->name, e->key,
+               e->description, e->density, e->source);
+  }
+  else if (e != NULL)
+    snprintf(buf, n, "%s (catalogue entry '%s'); composition %s; density "
+             "%.6g g/cm^3 as given (the catalogue has %.6g)",
+             e->description, e->key, e->composition, m->density,
+             e->density);
+  else if (m->n == 1 && m->comp[0].atoms == 1.0
+           && bl_material_element(&el, m->comp[0].Z) == BL_SUCCESS
+           && m->comp[0].A == el.comp[0].A) {
+    if (m->density > 0 && m->density == el.density)
+      snprintf(buf, n, "element %s (%s); density %.6g g/cm^3 (xraylib's "
+               "element density; gases at room temperature and 1 atm)",
+               m->name, bl_element_name(m->comp[0].Z), m->density);
+    else if (m->density > 0)
+      snprintf(buf, n, "element %s (%s); density %.6g g/cm^3 as given",
+               bl_element_symbol(m->comp[0].Z),
+               bl_element_name(m->comp[0].Z), m->density);
+    else
+      snprintf(buf, n, "element %s (%s); density unknown",
+               bl_element_symbol(m->comp[0].Z),
+               bl_element_name(m->comp[0].Z));
+  }
+  else if (m->density > 0)
+    snprintf(buf, n, "%s; density %.6g g/cm^3 as given", m->name,
+             m->density);
+  else
+    snprintf(buf, n, "%s; density unknown (give {spec, density = "
+             "<g/cm^3>})", m->name);
+}
+
+
+/* Units of a thickness: length in cm, mass thickness, radiation lengths. */
+static const struct {
+  const char *name;
+  double cm;      /* cm per unit of length; 0: not a length */
+  int kind;       /* 0 length, 1 g/cm^2, 2 radiation lengths */
+} thickunits[] = {
+  {"um", 1e-4, 0}, {"mm", 0.1, 0}, {"cm", 1.0, 0}, {"m", 100.0, 0},
+  {"g/cm2", 0, 1}, {"g/cm^2", 0, 1}, {"X0", 0, 2}
+};
+
+#define THICKALLOWED "allowed: a number in (0, inf) (g/cm^2), or a " \
+  "string '<number> <unit>' with the number in (0, inf) and the unit um, " \
+  "mm, cm, m (a length: the target needs a density), g/cm2 or X0 " \
+  "(radiation lengths), such as '2 mm'"
+
+
+double lbl_tothickness (lua_State *L, int t, const char *fname,
+                        const char *key, const bl_material *m) {
+  char v[80], buf[64], *end;
+  const char *s, *u;
+  double x, X0;
+  size_t i;
+  int tp = lua_getfield(L, t, key);
+  if (tp == LUA_TNUMBER) {
+    x = (double)lua_tonumber(L, -1);
+    if (!(x > 0 && isfinite(x)))
+      lbl_argfail(L, fname, "field '%s' must be in (0, inf) g/cm^2, got "
+                  "%.14g; %s", key, x, THICKALLOWED);
+    lua_pop(L, 1);
+    return x;
+  }
+  if (tp == LUA_TNIL)
+    lbl_argfail(L, fname, "missing required field '%s' (the radiator "
+                "thickness; %s)", key, THICKALLOWED);
+  if (tp != LUA_TSTRING)
+    lbl_argfail(L, fname, "field '%s' must be a number or a string, got "
+                "%s; %s", key, lbl_showval(L, -1, v, sizeof v),
+                THICKALLOWED);
+  lua_pop(L, 1);
+  s = lbl_getstr(L, t, fname, key, buf, sizeof buf);
+  x = strtod(s, &end);
+  for (u = end; *u == ' '; u++)
+    ;
+  for (i = 0; i < sizeof thickunits / sizeof thickunits[0]; i++) {
+    size_t l = strlen(thickunits[i].name);
+    const char *rest = u + l;
+    if (strncmp(u, thickunits[i].name, l) != 0)
+      continue;
+    while (*rest == ' ')
+      rest++;
+    if (*rest == '\0')
+      break;
+  }
+  if (end == s || i == sizeof thickunits / sizeof thickunits[0])
+    lbl_argfail(L, fname, "field '%s' = '%s' is not '<number> <unit>'; %s",
+                key, s, THICKALLOWED);
+  if (!(x > 0 && isfinite(x)))
+    lbl_argfail(L, fname, "field '%s' = '%s': the number must be in (0, "
+                "inf), got %.14g; %s", key, s, x, THICKALLOWED);
+  switch (thickunits[i].kind) {
+    case 1:
+      return x;
+    case 2:
+      X0 = bl_radiation_length(m);
+      if (!(X0 > 0))
+        lbl_argfail(L, fname, "field '%s' = '%s': target '%s' has no "
+                    "radiation length", key, s, m->name);
+      return x * X0;
+    default:
+      if (!(m->density > 0))
+        lbl_argfail(L, fname, "field '%s' = '%s' is a length, but target "
+                    "'%s' has no known density; give target = {'%s', "
+                    "density = <g/cm^3>}, or the thickness in g/cm^2 or X0",
+                    key, s, m->name, m->name);
+      if (!(x * thickunits[i].cm * m->density < HUGE_VAL))
+        lbl_argfail(L, fname, "field '%s' = '%s' is too large: %.6g cm at "
+                    "%.6g g/cm^3 is not a finite g/cm^2", key, s,
+                    x * thickunits[i].cm, m->density);
+      return x * thickunits[i].cm * m->density;
+  }
+}
+
+/* }====================================================== */
+
+
+/*
+** {======================================================
 ** Material objects (metatable "brakelight.Material")
 ** A full userdata holding a bl_material (plain data).  Read-only fields:
 ** name, density (g/cm^3, nil when unknown), molar_mass (g/mol per formula
 ** unit), components, per_gram (cm^2/g per mb), radiation_length (g/cm^2),
-** radiation_length_cm (nil when the density is unknown).
+** radiation_length_cm (nil when the density is unknown), key (the
+** catalogue entry it comes from, or nil), description.
 ** =======================================================
 */
 
 static const char *const fields =
   "name, density, molar_mass, components, per_gram, radiation_length, "
-  "radiation_length_cm";
+  "radiation_length_cm, key, description";
 
 
 /* Push a new material object holding a copy of *m. */
@@ -480,6 +655,15 @@ static int material_index (lua_State *L) {
   else if (strcmp(key, "radiation_length_cm") == 0) {
     if (m->density > 0) lua_pushnumber(L, bl_radiation_length(m) / m->density);
     else lua_pushnil(L);
+  }
+  else if (strcmp(key, "key") == 0) {
+    if (m->entry != NULL) lua_pushstring(L, m->entry->key);
+    else lua_pushnil(L);
+  }
+  else if (strcmp(key, "description") == 0) {
+    char buf[MSGSIZE];
+    lbl_describe(m, buf, sizeof buf);
+    lua_pushstring(L, buf);
   }
   else
     return luaL_error(L, "%s has no field %s; fields: %s", LBL_MATMETA,
@@ -565,12 +749,48 @@ static int l_material (lua_State *L) {
 }
 
 
-/* brakelight.materials() -> array of the standard-composition names. */
+/* Set field k of the table on top to the string v (nothing if NULL). */
+static void setstr (lua_State *L, const char *k, const char *v) {
+  if (v != NULL) {
+    lua_pushstring(L, v);
+    lua_setfield(L, -2, k);
+  }
+}
+
+
+/*
+** brakelight.materials() -> the catalogue in the order of its keys: an
+** array of {key, aliases = {...}, description, formula (or nil),
+** composition, density (g/cm^3), source, crystal = true|nil,
+** effective = true|nil}.
+*/
 static int l_materials (lua_State *L) {
-  int i, n = bl_material_standard_count();
+  int i, j, n = bl_material_catalogue_count();
   lua_createtable(L, n, 0);
   for (i = 0; i < n; i++) {
-    lua_pushstring(L, bl_material_standard_name(i));
+    const bl_catalogue_entry *e = bl_material_catalogue_entry(i);
+    lua_createtable(L, 0, 9);
+    setstr(L, "key", e->key);
+    lua_createtable(L, BL_CATALOGUE_MAXALIAS, 0);
+    for (j = 0; j < BL_CATALOGUE_MAXALIAS && e->aliases[j] != NULL; j++) {
+      lua_pushstring(L, e->aliases[j]);
+      lua_rawseti(L, -2, j + 1);
+    }
+    lua_setfield(L, -2, "aliases");
+    setstr(L, "description", e->description);
+    setstr(L, "formula", e->formula);
+    setstr(L, "composition", e->composition);
+    lua_pushnumber(L, e->density);
+    lua_setfield(L, -2, "density");
+    setstr(L, "source", e->source);
+    if (e->flags & BL_CATALOGUE_CRYSTAL) {
+      lua_pushboolean(L, 1);
+      lua_setfield(L, -2, "crystal");
+    }
+    if (e->flags & BL_CATALOGUE_EFFECTIVE) {
+      lua_pushboolean(L, 1);
+      lua_setfield(L, -2, "effective");
+    }
     lua_rawseti(L, -2, i + 1);
   }
   return 1;

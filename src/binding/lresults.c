@@ -356,6 +356,16 @@ static void pushsettings (lua_State *L, const Opts *o) {
   lua_setfield(L, -2, "molar_mass");
   lua_pushnumber(L, lbl_pergram(o));
   lua_setfield(L, -2, "per_gram");
+  if (o->target.density > 0.0) {
+    lua_pushnumber(L, o->target.density);
+    lua_setfield(L, -2, "density");
+  }
+  {
+    char d[MSGSIZE];
+    lbl_describe(&o->target, d, sizeof d);
+    lua_pushstring(L, d);
+    lua_setfield(L, -2, "description");
+  }
   lua_setfield(L, -2, "target");
   lua_pushnumber(L, o->T);
   lua_setfield(L, -2, "T");

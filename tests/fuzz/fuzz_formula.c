@@ -58,6 +58,8 @@ static void checkmat (const bl_material *m, const char *s) {
     broken("molar mass not positive and finite", s);
   if (!(m->density >= 0.0) || !isfinite(m->density))
     broken("density negative or not finite", s);
+  if (m->entry != NULL && m->density != m->entry->density)
+    broken("catalogue entry without its density", s);
   x0 = bl_radiation_length(m);
   if (!(x0 > 0.0) || !isfinite(x0))
     broken("radiation length not positive and finite", s);
@@ -67,7 +69,8 @@ static void checkmat (const bl_material *m, const char *s) {
 /* Check a failure report. */
 static void checkerr (int st, const bl_parse_error *e, const char *s,
                       int parser) {
-  if (st != BL_EDOMAIN && st != BL_EUNKNOWN)
+  if (st != BL_EDOMAIN && st != BL_EUNKNOWN
+      && (parser || st != BL_EAMBIGUOUS || strlen(s) != 2))
     broken("unexpected status", s);
   if (parser && (e->reason == NULL || e->pos > strlen(s)))
     broken("error position outside the string or no reason", s);

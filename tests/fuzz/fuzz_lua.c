@@ -5,7 +5,7 @@
 ** Each input is decoded, byte by byte, into one call of a module function
 ** with an option table built from the bytes: particles (preset names,
 ** description tables, particle objects), targets (elements, Z, formulas,
-** mixtures, standard names, raw strings), energies, photon energies and
+** mixtures, catalogue names, raw strings), energies, photon energies and
 ** fractions, angles, screening models, nucleus/electrons/coulomb/elwert
 ** switches, tolerances, threads, the keys of newer options, and malformed
 ** types (nil, booleans, functions, tables with an __index metamethod that
@@ -125,7 +125,7 @@ typedef struct Lstr {
 #define LSTR(x) {x, sizeof x - 1}
 static const Lstr nulstrings[] = {
   LSTR("electron\0"), LSTR("elec\0tron"), LSTR("muon\0x"), LSTR("\0"),
-  LSTR("Pb\0"), LSTR("Pb\0Cu"), LSTR("H2O\0junk"), LSTR("Water, Liquid\0"),
+  LSTR("Pb\0"), LSTR("Pb\0Cu"), LSTR("H2O\0junk"), LSTR("water\0"),
   LSTR("Cu\0\0"), LSTR("82\0"), LSTR("hartree-fock\0"),
   LSTR("exponential\0x"), LSTR("none\0"), LSTR("born\0"),
   LSTR("high-energy\0"), LSTR("auto\0"), LSTR("uniform\0"), LSTR("point\0x"),
@@ -144,8 +144,8 @@ static const char *const strings[] = {
   "Pb", "W", "H", "He", "U", "Fm", "Es", "lead", "aluminum", "CO", "Co",
   "H2O", "CaCO3", "Ca(OH)2", "[Co(NH3)6]Cl3", "CuSO4.5H2O", "CuSO4*5H2O",
   "Fe0.5Ni0.5", "(Cu1.5)Se", "YBa2Cu3O6.5", "C8H8", "H1000000000",
-  "((((((((((((((((H))))))))))))))))", "Water, Liquid", "water, liquid",
-  "Air, Dry (near sea level)", "Polyethylene", "Kapton Polyimide Film",
+  "((((((((((((((((H))))))))))))))))", "water", "Lead Glass",
+  "standard_rock", "PB", "PbWO4",
   "hartree-fock", "thomas-fermi", "exponential", "none", "HARTREE-FOCK",
   "uniform", "point", "auto", "born", "high-energy", "complete", "lpm",
   "mass", "atoms", "", " ", "%s%n", "x", "1", "1e3", "nan", "inf"
@@ -380,7 +380,7 @@ static void genparticle (lua_State *L, Bytes *b, int depth) {
 }
 
 
-/* Push a target: element, Z, formula, standard name, material, mixture. */
+/* Push a target: element, Z, formula, catalogue name, material, mixture. */
 static void gentarget (lua_State *L, Bytes *b, int depth) {
   switch (pick(b, 8)) {
     case 0: case 1:
@@ -809,7 +809,7 @@ static const char helpers[] =
   "local ms = {}\n"
   "ms[1] = bl.material('H2O')\n"
   "ms[2] = bl.material{{'Cu', 0.7}, {'Zn', 0.3}, by = 'mass', density = 8.5}\n"
-  "ms[3] = bl.material('Water, Liquid')\n"
+  "ms[3] = bl.material('water')\n"
   "return wrap, fickle, function(...) local s = {} for i = 1, select('#', ...) do\n"
   "  check(select(i, ...), 0, s) end end, ps, ms,\n"
   "  {print, io and io.stdout or 1, coroutine.create(print)}\n";

@@ -213,6 +213,20 @@ local cases = {
     { "field 'suppression'", "'strong'", "'lpm+dielectric'" } },
   { "photon_yield", bl.photon_yield, { kmin = 1, thickness = -1 },
     { "field 'thickness'", "(0, inf)", "got -1" } },
+  { "photon_yield", bl.photon_yield, { kmin = 1, thickness = "2 mm",
+                                       target = "H2O" },
+    { "field 'thickness' = '2 mm' is a length", "target 'H2O' has no known "
+      .. "density", "density = <g/cm^3>" } },
+  { "photon_yield", bl.photon_yield, { kmin = 1, thickness = "2 furlong" },
+    { "field 'thickness' = '2 furlong'", "um, mm, cm, m", "g/cm2 or X0" } },
+  { "photon_yield", bl.photon_yield, { kmin = 1, thickness = "-2 mm" },
+    { "field 'thickness' = '-2 mm'", "(0, inf)", "got -2" } },
+  { "photon_yield", bl.photon_yield, { kmin = 1, thickness = "mm" },
+    { "field 'thickness' = 'mm' is not '<number> <unit>'" } },
+  { "photon_yield", bl.photon_yield, { kmin = 1, thickness = true },
+    { "field 'thickness' must be a number or a string, got true" } },
+  { "photon_yield", bl.photon_yield, { kmin = 1 },
+    { "missing required field 'thickness'" } },
   { "photon_yield", bl.photon_yield, { kmin = 1, thickness = 1, bins = 0 },
     { "field 'bins'", "1..", "0" } },
   { "photon_yield", bl.photon_yield, { kmin = 1, thickness = 1,
@@ -233,6 +247,36 @@ do
   local b = bl.energy_loss{ particle = "electron", target = "Cu", T = 1e5 }
   check(a.dedx == b.dedx, "same result after an error")
   nchecks = nchecks + 1
+end
+
+-- thickness with units: a length times the density, or radiation lengths
+do
+  local o = { particle = "electron", target = "pwo", T = 100, kmin = 1,
+              bins = 2 }
+  local function y (th)
+    local t = {}
+    for k, v in pairs(o) do t[k] = v end
+    t.thickness = th
+    return bl.photon_yield(t)
+  end
+  local g = y(0.2 * 8.3)
+  local mm = y("2 mm")
+  check(mm.thickness == 0.2 * 8.3 and mm.thickness_cm == 0.2
+        and mm.total == g.total, "2 mm of PbWO4 = 1.66 g/cm^2: %.17g",
+        mm.thickness)
+  check(y("0.2cm").thickness == mm.thickness
+        and y("2000 um").thickness == mm.thickness
+        and y("0.002 m").thickness == 0.002 * 100 * 8.3, "cm, um, m")
+  check(y("1.66 g/cm2").thickness == 1.66 and y("1.66 g/cm^2").thickness
+        == 1.66, "g/cm2")
+  local x0 = bl.material("pwo").radiation_length
+  check(rel(y("0.1 X0").thickness_X0, 0.1) < 1e-14
+        and rel(y("0.1 X0").thickness, 0.1 * x0) < 1e-14, "X0")
+  check(mm.units.thickness_cm == "cm", "unit of thickness_cm")
+  local f = bl.photon_yield{ particle = "electron", target = "H2O", T = 100,
+                             kmin = 1, thickness = 1 }
+  check(f.thickness_cm == nil, "no thickness_cm without a density")
+  nchecks = nchecks + 6
 end
 
 -- the list of methods

@@ -41,8 +41,8 @@ end
 
 -- what every "unknown material" message says is allowed
 local ALLOWED = { "allowed: an element symbol (H..Fm) or name",
-                  "chemical formula", "brakelight.materials()",
-                  "integer Z in 1..100" }
+                  "catalogue key or alias", "chemical formula",
+                  "brakelight.materials()", "integer Z in 1..100" }
 local function with_allowed(t)
   local r = {}
   for _, s in ipairs(t) do r[#r + 1] = s end
@@ -94,21 +94,63 @@ do  -- elements: symbol, name, Z; xraylib's density
   end
   check(bl.material(82.0).name == "Pb", "82.0 is an integer")
   check(bl.material("Co").components[1].Z == 27, "Co is cobalt")
-  check(#bl.material("CO").components == 2, "CO is carbon monoxide")
+  check(#bl.material("C1O1").components == 2, "C1O1 is carbon monoxide")
   check(bl.material("ALUMINUM").name == "Al", "aluminum, any case")
+  check(bl.material("Pb").key == nil, "an element is no catalogue entry")
+  check(find(bl.material("Pb").description, "xraylib's element density", 1,
+             true), "element density named")
 end
 
-do  -- standard compositions: exact name and any case; average atom
-  local w = bl.material("Water, Liquid")
-  check(w.name == "Water, Liquid" and w.density == 1, "water")
+do  -- catalogue entries: key, aliases in any case; average atom by mass
+  local w = bl.material("water")
+  check(w.name == "water" and w.density == 1 and w.key == "water", "water")
   local sum = 0
   for _, c in ipairs(w.components) do sum = sum + c.atoms end
   check(close(sum, 1, 1e-13), "one average atom")
-  check(bl.material("water, liquid").name == "Water, Liquid", "any case")
-  local air = bl.material("Air, Dry (near sea level)")
+  check(bl.material("Liquid Water").name == "water", "alias, any case")
+  local air = bl.material("air")
   check(air.density > 1.1e-3 and air.density < 1.3e-3, "air density")
-  check(bl.material{ "Water, Liquid", density = 0.998 }.density == 0.998,
+  check(bl.material{ "water", density = 0.998 }.density == 0.998,
         "own density")
+  check(find(bl.material{ "water", density = 0.998 }.description,
+             "as given (the catalogue has 1)", 1, true), "own density said")
+  local g = bl.material("BGO")
+  check(g.name == "bgo" and g.density == 7.13
+        and #g.components == 3 and g.components[3].atoms == 4, "BGO")
+  check(bl.material("standard rock").components[1].A == 22, "rock A = 22")
+  check(bl.material("lead glass").key == "lead_glass", "lead glass")
+  check(bl.material("PWO").name == "pwo", "PWO: lead tungstate")
+end
+
+do  -- a formula of a catalogue crystal: its density, said in the description
+  local m = bl.material("PbWO4")
+  check(m.name == "PbWO4" and m.density == 8.3 and m.key == "pwo", "PbWO4")
+  check(find(m.description, "formula PbWO4 with the density of the "
+             .. "catalogue entry 'pwo'", 1, true), m.description)
+  check(bl.material("Bi4Ge3O12").density == 7.13, "Bi4Ge3O12")
+  check(bl.material("H2O").density == nil, "water as a formula: none")
+  local d = bl.spectrum{ particle = "electron", target = "PbWO4", T = 10,
+                         k = { 5 } }
+  check(find(d.settings.target.description, "'pwo'", 1, true)
+        and d.settings.target.density == 8.3, "result's description")
+end
+
+do  -- case-ambiguous names: an error offering both readings (on main,
+    -- "PB" silently became phosphorus + boron)
+  for _, s in ipairs{ "PB", "CU", "NI", "SN", "co", "pb" } do
+    local ok, msg = pcall(bl.material, s)
+    check(not ok and find(msg, "ambiguous material name '" .. s .. "'", 1, true)
+          and find(msg, "did you mean", 1, true), s .. ": " .. tostring(msg))
+  end
+  mat_err("PB", { "ambiguous material name 'PB': did you mean Pb (lead) or "
+                  .. "P + B?",
+                  "write 'Pb' for the element or 'P1B1' for the formula" })
+  mat_err("co", { "did you mean Co (cobalt) or C + O?", "'C1O1'" })
+  local ok, msg = pcall(bl.dsdk, { particle = "electron", target = "PB",
+                                   T = 10, k = 5 })
+  check(not ok and find(msg, "field 'target'", 1, true)
+        and find(msg, "ambiguous", 1, true), "target = 'PB': " .. msg)
+  check(#bl.material("P1B1").components == 2, "P1B1 is P + B")
 end
 
 do  -- a material object comes back as it is; a table renames it
@@ -155,17 +197,35 @@ end
 -- {{{ materials() and radiation_length()
 
 do
-  local names = bl.materials()
-  check(type(names) == "table" and #names > 100, "materials()")
+  local list = bl.materials()
+  check(type(list) == "table" and #list > 190, "materials()")
   local seen = {}
-  for _, s in ipairs(names) do
-    assert(type(s) == "string")
-    seen[s] = true
+  for i, e in ipairs(list) do
+    assert(type(e.key) == "string" and e.key:match("^[a-z0-9_]+$"), e.key)
+    assert(type(e.aliases) == "table" and type(e.description) == "string"
+           and type(e.composition) == "string" and e.density > 0
+           and type(e.source) == "string", e.key)
+    assert(i == 1 or list[i - 1].key < e.key, "sorted by key")
+    seen[e.key] = e
   end
-  check(seen["Water, Liquid"] and seen["Air, Dry (near sea level)"]
-        and seen["Polyethylene"], "standard names")
-  for i = 1, #names, 17 do  -- every 17th name makes a material
-    check(bl.material(names[i]).name == names[i], names[i])
+  for _, k in ipairs{ "water", "air", "concrete", "bgo", "pwo", "csi", "nai",
+                      "lyso", "lead_glass", "standard_rock", "steel",
+                      "brass", "tungsten_alloy_90", "polystyrene", "pvt",
+                      "liquid_argon", "liquid_xenon",
+                      "borated_polyethylene" } do
+    check(seen[k], "catalogue has " .. k)
+  end
+  check(seen.bgo.formula == "Bi4Ge3O12" and seen.bgo.crystal, "bgo")
+  check(seen.standard_rock.effective
+        and find(seen.standard_rock.source, "common practice", 1, true),
+        "standard rock: common practice")
+  check(seen.water.aliases[1] == "liquid_water", "aliases")
+  for i = 1, #list, 17 do  -- every 17th entry makes a material
+    local m = bl.material(list[i].key)
+    check(m.name == list[i].key and m.density == list[i].density, list[i].key)
+    for _, a in ipairs(list[i].aliases) do
+      check(bl.material(a).name == list[i].key, a)
+    end
   end
 end
 
@@ -182,9 +242,9 @@ do
   check(f.target == "H2O", "target name")
   local w = bl.radiation_length{ "H2O", density = 1 }
   check(close(w.cm, w.value, 1e-14), "water with density: cm")
-  local o = bl.radiation_length{ target = bl.material("Water, Liquid") }
+  local o = bl.radiation_length{ target = bl.material("water") }
   check(close(o.value, 36.08, 3e-3) and close(o.cm, o.value, 1e-14),
-        "option-table form, standard water")
+        "option-table form, catalogue water")
   check(bl.radiation_length(82).value == r.value, "Z = 82")
   local m = bl.material{ "Pb", density = 11.35 }
   check(m.radiation_length == r.value
@@ -206,8 +266,8 @@ mat_err("", with_allowed{ "material name is empty" })
 -- strings: why each reading failed, where the formula broke
 mat_err("Xx3", with_allowed{ "unknown material 'Xx3'",
                              "not an element symbol or name",
-                             "unknown element symbol", "at byte 1 ('Xx3')",
-                             "not a standard composition" })
+                             "nor a catalogue key or alias",
+                             "unknown element symbol", "at byte 1 ('Xx3')" })
 mat_err("H2O)", with_allowed{ "unknown material 'H2O)'",
                               "closing bracket without an opening one",
                               "at byte 4 (')')" })
@@ -218,11 +278,19 @@ mat_err("H0", { "unknown material 'H0'", "count must be > 0",
 mat_err("(H2O", { "bracket never closed", "at byte 1" })
 mat_err("H2O.", { "nothing after the hydrate separator",
                   "at byte 5 (the end)" })
-mat_err("pb", { "unknown material 'pb'",
-                "element symbols start with a capital letter" })
+mat_err("pbb", { "unknown material 'pbb'",
+                 "element symbols start with a capital letter" })
 mat_err("Watr", { "unknown material 'Watr'", "did you mean",
-                  "'Water, Liquid'", "'Water Vapor'" })
-mat_err("water liquid", { "did you mean 'Water, Liquid'" })
+                  "'water'", "'water_vapour'" })
+-- elements first in suggestions; old labels lead to the new key
+mat_err("tungstem", { "did you mean 'tungsten' (element W)" })
+mat_err("Alumnium", { "did you mean 'aluminium' (element Al)" })
+mat_err("w", { "did you mean 'W' (tungsten)" })
+mat_err("ZN", { "did you mean 'Zn' (zinc)" })
+mat_err("Water, Liquid", { "unknown material 'Water, Liquid'",
+                           "did you mean 'water'" })
+mat_err("Polymethyl Methacralate (Lucite, Perspex)",
+        { "did you mean 'pmma'" })
 
 -- numbers: Z in 1..100
 mat_err(0, { "atomic number must be an integer Z in 1..100, got 0" })

@@ -66,6 +66,24 @@ int bl_mat_fill (bl_material *m, const double atoms[BL_ZMAX + 1],
 }
 
 
+void bl_mat_setA (bl_material *m, int Z, double A) {
+  double M = 0;
+  int i, found = 0;
+  for (i = 0; i < m->n; i++)
+    if (m->comp[i].Z == Z) {
+      m->comp[i].A = A;
+      found = 1;
+    }
+  if (!found)
+    return;
+  for (i = 0; i < m->n; i++)
+    M += m->comp[i].atoms * m->comp[i].A;
+  m->molar_mass = M;
+  for (i = 0; i < m->n; i++)
+    m->comp[i].mass_fraction = m->comp[i].atoms * m->comp[i].A / M;
+}
+
+
 /*
 ** Density from xraylib's ElementDensity (g/cm^3; its gases are at room
 ** temperature and 1 atm, e.g. N 1.165e-3), 0 where it has none (Es, Fm).
@@ -90,14 +108,18 @@ int bl_material_element (bl_material *m, int Z) {
 /*
 ** Formula units of each part per unit of the mixture: by mass, w_p / M_p
 ** (formula units per gram); by number, the fraction itself.  Summed over
-** parts into atoms per element, then scaled to one average atom.
+** parts into atoms per element, then scaled to one average atom.  A part
+** whose component has an atomic weight other than the element's (an
+** effective element, "standard_rock") passes it on: the component's A is
+** then the atom-weighted mean over the parts (mass[Z] / atoms[Z]).
 */
 int bl_material_mixture (bl_material *m, int n, const bl_material *parts,
                          const double *fractions, int by_mass, int normalize,
                          int *bad) {
-  double atoms[BL_ZMAX + 1] = {0};
-  double sum = 0, total = 0;
-  int i, j, Z, distinct = 0;
+  double atoms[BL_ZMAX + 1] = {0}, mass[BL_ZMAX + 1] = {0};
+  unsigned char ownA[BL_ZMAX + 1] = {0};
+  double sum = 0, total = 0, A;
+  int i, j, Z, st, distinct = 0;
   int dummy;
   if (bad == NULL)
     bad = &dummy;
@@ -132,14 +154,24 @@ int bl_material_mixture (bl_material *m, int n, const bl_material *parts,
         *bad = i;
         return BL_EDOMAIN;
       }
+      A = p->comp[j].A;
+      if (isfinite(A) && A > 0 && A != bl_element_mass(Z))
+        ownA[Z] = 1;  /* else the element's own weight */
+      else
+        A = bl_element_mass(Z);
       atoms[Z] += units * p->comp[j].atoms;
+      mass[Z] += units * p->comp[j].atoms * A;
     }
   }
   for (Z = 1; Z <= BL_ZMAX; Z++)
     total += atoms[Z];
   for (Z = 1; Z <= BL_ZMAX; Z++)
     atoms[Z] /= total;
-  return bl_mat_fill(m, atoms, "mixture");
+  st = bl_mat_fill(m, atoms, "mixture");
+  for (Z = 1; Z <= BL_ZMAX && st == BL_SUCCESS; Z++)
+    if (ownA[Z])
+      bl_mat_setA(m, Z, mass[Z] / (atoms[Z] * total));
+  return st;
 }
 
 

@@ -1,7 +1,7 @@
 /*
 ** materials/internal.h -- declarations shared by the material files, not
-** public: fill.c makes every material; formula.c, standard.c and lookup.c
-** build on it (never the other way round)
+** public: fill.c makes every material; formula.c, catalogue.c, lookup.c
+** and suggest.c build on it (never the other way round)
 ** See Copyright Notice in LICENSE
 */
 #ifndef BL_MATERIALS_INTERNAL_H
@@ -22,5 +22,22 @@ int bl_mat_fill (bl_material *m, const double atoms[BL_ZMAX + 1],
 
 /* Copy src into dst (size BL_MATERIAL_NAMELEN), truncating. */
 void bl_mat_setname (char *dst, const char *src);
+
+/* Give the component of element Z the atomic weight A (g/mol; an
+** effective element) and recompute the molar mass and mass fractions;
+** nothing if Z is not a component. */
+void bl_mat_setA (bl_material *m, int Z, double A);
+
+/* Compare two names in any case, ignoring ' ', '-' and '_': 0 if equal,
+** else -1 or 1 (catalogue.c). */
+int bl_mat_namecmp (const char *a, const char *b);
+
+/* The label of xraylib's record behind catalogue entry i, or NULL (an
+** entry of our own): for suggestions only, never shown (catalogue.c). */
+const char *bl_mat_catalogue_label (int i);
+
+/* The crystal entry of the catalogue with the composition of *m, or
+** NULL (catalogue.c). */
+const bl_catalogue_entry *bl_mat_crystal (const bl_material *m);
 
 #endif
