@@ -495,7 +495,7 @@ $(ROCKSPEC): scripts/brakelight.rockspec.in $(VERSION_H)
 	sed 's|@VERSION@|$(VERSION)|g' $< > $@
 
 # ---- benchmarks and generators ---------------------------------------------
-.PHONY: bench hf-table error-sweep error-ref dw-positron
+.PHONY: bench hf-table error-sweep error-ref dw-positron continuity
 # The fixed earlier commit that make bench and make error-ref build in a git
 # worktree build/base/<commit> (the main before issue 14's integrator).
 BENCH_BASE ?= a2be9749fe3fb2195e4251fa39d1db24ff8cf650
@@ -523,6 +523,17 @@ $(B)/dw-positron-ratio: scripts/dw-positron-ratio.c $(LIB) $(B)/ref/kim1986.o
 	  $(B)/ref/kim1986.o $(LIB) $(LIBS)
 dw-positron: $(B)/dw-positron-ratio
 	./$(B)/dw-positron-ratio
+
+# Steps of dsigma/dk along T, method auto against distorted
+# (scripts/continuity.c; CONT_PER_DECADE points per decade up to CONT_TMAX
+# MeV; a few minutes at the defaults).  Not in check.
+CONT_PER_DECADE ?= 10
+CONT_TMAX ?= 1e4
+$(B)/continuity: scripts/continuity.c $(LIB)
+	$(CC) -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L -Iinclude \
+	  -I/usr/include/xraylib -o $@ $< $(LIB) $(LIBS)
+continuity: $(B)/continuity
+	./$(B)/continuity -n $(CONT_PER_DECADE) -t $(CONT_TMAX)
 
 # Regenerate the reference set: ERROR_POINTS random points at rtol 1e-10,
 # computed with the integrator of BENCH_BASE (GSL's qag, whose estimates

@@ -488,3 +488,49 @@ Test(dwdk, positron_electron_kim) {
     }
   bl_quad_free(q);
 }
+
+/*
+** Nuclear size: the distortion beyond the Sommerfeld normalisation is a
+** point charge's, kept with the share x^4/(1 + x^4), x = hbar/(m c) /
+** (10 R) (distorted/dcs.c).  A muon on Pb (x = 0.026) keeps almost none
+** of it: its value is the Elwert factor times the screened Born value of
+** the uniform nucleus (electrons off here), and the part left out is in
+** sys with the warning.  An electron keeps 0.9989 of it.
+*/
+Test(dwdk, nuclear_size) {
+  bl_quad *q = bl_quad_alloc(200);
+  bl_opts o = bl_opts_bare, oe = bl_opts_bare;
+  bl_case c, cb;
+  bl_result r, rb;
+  bl_kin kn;
+  double T = 200.0, k = 100.0;
+  cr_assert_eq(bl_quad_set_rtol(q, 1e-5), BL_SUCCESS);
+  o.nucleus = BL_NUCLEUS_UNIFORM;
+  oe = o;
+  oe.elwert = BL_APPLY_ON;
+  cr_assert_eq(bl_case_setup(&c, bl_particle_find("muon"), 82,
+                             bl_model_find("thomas-fermi"), NULL, T, &o),
+               BL_SUCCESS);
+  cr_assert_eq(bl_case_setup(&cb, bl_particle_find("muon"), 82,
+                             bl_model_find("thomas-fermi"), NULL, T, &oe),
+               BL_SUCCESS);
+  cr_assert_eq(bl_dw_dk_e(&c, k, q, &r), BL_SUCCESS);
+  cr_assert_eq(bl_dcs_dk_e(&cb, k, q, &rb), BL_SUCCESS);
+  EXPECT_REL(r.val, rb.val, 1e-4, "muon on Pb: Elwert x screened Born");
+  cr_expect(r.sys > 0.05 * r.val && (r.warn & BL_WARN_DISTORTED),
+            "muon on Pb: sys %g of %g, warn 0x%x", r.sys, r.val, r.warn);
+  cr_assert_eq(bl_kin_case(&c, k, &kn), BL_SUCCESS);
+  cr_expect(bl_elwert(&c, &kn) > 1.0);
+  /* an electron keeps the distortion: not Born x Elwert */
+  cr_assert_eq(bl_case_setup(&c, bl_particle_find("electron"), 82,
+                             bl_model_find("thomas-fermi"), NULL, T, &o),
+               BL_SUCCESS);
+  cr_assert_eq(bl_case_setup(&cb, bl_particle_find("electron"), 82,
+                             bl_model_find("thomas-fermi"), NULL, T, &oe),
+               BL_SUCCESS);
+  cr_assert_eq(bl_dw_dk_e(&c, k, q, &r), BL_SUCCESS);
+  cr_assert_eq(bl_dcs_dk_e(&cb, k, q, &rb), BL_SUCCESS);
+  cr_expect(fabs(r.val / rb.val - 1.0) > 0.02, "electron: %g vs %g", r.val,
+            rb.val);
+  bl_quad_free(q);
+}

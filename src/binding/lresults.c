@@ -257,9 +257,12 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                "order (zZ alpha)^2 = %.3g, estimated here as (zZ alpha)^2 "
                "beta0^2/sqrt(gamma0), three times that for a repelled "
                "projectile, added to the uncertainty of the screening rule "
-               "(README, Distorted waves)", text, 100.0 * w->sysrel,
+               "and, for a Compton wavelength not large against the "
+               "nucleus (here %.3g fm against R = %.3g fm), to that of the "
+               "point-charge distortion (README, Distorted waves)", text, 100.0 * w->sysrel,
                w->sysat, p->name, o->target.name, o->T,
-               (p->charge * zb * BL_ALPHA) * (p->charge * zb * BL_ALPHA));
+               (p->charge * zb * BL_ALPHA) * (p->charge * zb * BL_ALPHA),
+               BL_HBARC_MEVFM / p->mass, 1.2 * cbrt(round(bl_element_mass(zb))));
       break;
     case BL_WARN_CLAMPED:
       snprintf(msg, sizeof msg, "%s (%s on %s at T = %g MeV, near the tip of "
