@@ -220,7 +220,9 @@ bad_option() {
   "$runner" --no-such-option 2>"$tmp/stderr"
   st=$?
   cat "$tmp/stderr"
-  [ "$st" -eq 1 ] && grep -q '^usage:' "$tmp/stderr"
+  # one line, pointing to --help (not the whole usage)
+  [ "$st" -eq 1 ] && [ "$(wc -l <"$tmp/stderr")" -eq 1 ] \
+    && grep -q "^brakelight: unrecognized option '--no-such-option' (try 'brakelight --help')$" "$tmp/stderr"
 }
 
 # the same command line through lua5.4 and the runner gives the same 'arg'

@@ -25,7 +25,9 @@ enum {
   BL_ENOMEM   = 1003,   /* allocation failed */
   BL_EMODEL   = 1004,   /* model cannot serve this request */
   BL_ENOTCONV = 1005,   /* integral did not reach the requested tolerance */
-  BL_ENONFINITE = 1006  /* a computation gave a non-finite value */
+  BL_ENONFINITE = 1006, /* a computation gave a non-finite value */
+  BL_EINTR    = 1007    /* stopped by the workspace's stop flag
+                        ** (bl_quad_set_stop) before it computed */
 };
 
 /* Message for a status code: ours or GSL's.  Never NULL, static storage. */

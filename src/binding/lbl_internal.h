@@ -6,6 +6,8 @@
 #ifndef LBL_INTERNAL_H
 #define LBL_INTERNAL_H
 
+#include <signal.h>
+
 #include "lbl_compat.h"
 
 #include "brakelight.h"
@@ -61,6 +63,14 @@ void lbl_totarget (lua_State *L, int idx, const char *fname,
 ** .plot, .merge, .json ("brakelight.<name>") on first use.
 */
 void lbl_helpers_open (lua_State *L);
+
+/*
+** The system helpers (src/binding/lsys.c): lbl_sys_open puts
+** "brakelight.sys" in package.preload; lbl_stopflag is the flag that
+** lbl_interrupt sets, the stop flag of every workspace of the module.
+*/
+void lbl_sys_open (lua_State *L);
+const volatile sig_atomic_t *lbl_stopflag (void);
 
 /* Shared by the binding files (macros, the call's options and warnings). */
 #define QUADMETA  "brakelight.Quad"       /* integration workspace */

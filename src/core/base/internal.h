@@ -5,6 +5,8 @@
 #ifndef BL_BASE_INTERNAL_H
 #define BL_BASE_INTERNAL_H
 
+#include <signal.h>
+
 #include <gsl/gsl_integration.h>
 
 #include "brakelight/bl_quad.h"
@@ -16,6 +18,7 @@ struct bl_quad {
   size_t limit;
   double rtol;
   unsigned long calls;     /* innermost integrand evaluations */
+  const volatile sig_atomic_t *stop;   /* stop flag, or NULL */
 };
 
 #endif

@@ -84,3 +84,14 @@ void bl_quad_reset_calls (bl_quad *q) {
   if (q != NULL)
     q->calls = 0;
 }
+
+
+void bl_quad_set_stop (bl_quad *q, const volatile sig_atomic_t *flag) {
+  if (q != NULL)
+    q->stop = flag;
+}
+
+
+int bl_quad_stopped (const bl_quad *q) {
+  return q != NULL && q->stop != NULL && *q->stop != 0;
+}

@@ -287,6 +287,12 @@ static int kpoint (void *ud, double k, bl_result *out) {
   int i, soft = 0;
   memset(out, 0, sizeof *out);
   out->method = BL_METHOD_BORN;
+  if (bl_quad_stopped(x->q)) {       /* interrupted: stop the integral */
+    x->acc.Z = t->c[0].Z;
+    x->acc.k = k;
+    memset(&x->acc.fail, 0, sizeof x->acc.fail);
+    return BL_EINTR;
+  }
   for (i = 0; i < t->n; i++) {
     const bl_case *c = &t->c[i];
     bl_result r;
