@@ -498,6 +498,10 @@ local function loadinto(d, path, done, selected, fname, strict, ident)
                  "environment (or accept = true in the scan)", fname, path,
                  concat(diff, "; ")), 0)
   end
+  for _, n in ipairs(doc.notes or {}) do  -- earlier acceptances stay noted
+    local a = n:match("^accepted earlier results %((.*)%)$")
+    if a then ident.kept[#ident.kept + 1] = a end
+  end
   if #diff > 0 then ident.accepted[#ident.accepted + 1] = path .. ": " .. concat(diff, "; ") end
   for _, c in ipairs(doc.columns) do
     if c.kind == "value" then ident.filecols[c.name] = true end
@@ -619,6 +623,13 @@ local function takelock(path, fname, script)
   lk:write(format("pid %d\nhost %s\nstarted %s\nscript %s\n", sys.pid(),
                   sys.host(), os.date("!%Y-%m-%dT%H:%M:%SZ"),
                   tostring(script or "?")))
+  -- holding the lock, we are the only writer: temporary files of this
+  -- output left by a killed run are garbage
+  local dir, base = path:match("^(.*[/\\])([^/\\]*)$")
+  if not dir then dir, base = "", path end
+  for _, name in ipairs(sys.dir(dir == "" and "." or dir) or {}) do
+    if scanfile.is_tmpname(name, base) then os.remove(dir .. name) end
+  end
   return lk
 end
 
@@ -677,7 +688,7 @@ function scan.run(spec)
   tool = tool .. " (" .. _VERSION .. ")"
   local script = spec.script or (ss and ss.script) or (arg and arg[0])
   local ident = { version = version, computation = scan.fingerprint(spec.each),
-                  declared = declared, filecols = {}, accepted = {},
+                  declared = declared, filecols = {}, accepted = {}, kept = {},
                   accept = spec.accept == true or
                            os.getenv("BRAKELIGHT_ACCEPT") == "1" }
   local lock
@@ -699,11 +710,6 @@ function scan.run(spec)
     end
     local cols = loadinto(d, path, done, selected, fname, what, ident)
     for _, c in ipairs(cols or {}) do addcol(c.name) end
-  end
-  local notes = {}
-  for i, n in ipairs(spec.notes or {}) do notes[i] = tostring(n) end
-  for _, a in ipairs(ident.accepted) do
-    notes[#notes + 1] = "accepted earlier results (" .. a .. ")"
   end
 
   -- the document, rebuilt for every write
@@ -738,6 +744,17 @@ function scan.run(spec)
         if c.type == "string" and r[c.name] ~= nil and
            type(r[c.name]) ~= "string" then
           r[c.name] = tostring(r[c.name])
+        end
+      end
+    end
+    local notes = {}
+    for i, n in ipairs(spec.notes or {}) do notes[i] = tostring(n) end
+    local seen = {}
+    for _, list in ipairs({ ident.kept, ident.accepted }) do
+      for _, a in ipairs(list) do
+        if not seen[a] then
+          seen[a] = true
+          notes[#notes + 1] = "accepted earlier results (" .. a .. ")"
         end
       end
     end
@@ -885,6 +902,10 @@ function scan.run(spec)
     if mode == "bar" and loaded then io.stderr:write("\n") end
     local sig = interrupted()
     local where = ""
+    local ndone = 0   -- from what is saved, not the counter (which an
+    for _, o in ipairs(order) do  -- interrupt may have cut before it grew)
+      if done[o.key] then ndone = ndone + 1 end
+    end
     if path and loaded then
       where = saved and format("; %d of %d points are in '%s': run the " ..
                                "same command again to compute the rest",

@@ -153,6 +153,7 @@ int lbl_optthreads (lua_State *L, const Opts *o);
 void lbl_nocoulomb (lua_State *L, Opts *o);
 void lbl_checkwork (lua_State *L, const Opts *o, const char *key,
                     lua_Integer n, double share);
+void lbl_checkintegral (lua_State *L, const Opts *o);
 
 /* Particles (lparticle.c). */
 const char *lbl_particlenames (char *buf, size_t n);

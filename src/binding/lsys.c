@@ -10,6 +10,8 @@
 **   lock:write(text)       -> true | nil, msg      (replaces the contents)
 **   lock:release()         removes the lock file and unlocks (idempotent;
 **                          also __gc, which unlocks without removing)
+**   sys.dir(path)          -> list of the names in directory path (without
+**                             "." and ".."), or nil, msg
 **   sys.pid()              -> this process's id
 **   sys.host()             -> the host name
 **   sys.sleep(seconds)     waits (at most 60 s)
@@ -23,6 +25,7 @@
 ** (it lost that race) opens the new one and tries again.
 */
 
+#include <dirent.h>
 #include <errno.h>
 #include <fcntl.h>
 #include <signal.h>
@@ -204,6 +207,32 @@ static int lock_gc (lua_State *L) {
 }
 
 
+/* sys.dir(path) -> {names} | nil, msg */
+static int l_dir (lua_State *L) {
+  const char *path = luaL_checkstring(L, 1);
+  DIR *d;
+  struct dirent *e;
+  lua_Integer n = 0;
+  lua_newtable(L);                    /* before opendir: a raise leaks nothing */
+  d = opendir(path);
+  if (d == NULL) {
+    lua_pushnil(L);
+    lua_pushfstring(L, "%s: %s", path, strerror(errno));
+    return 2;
+  }
+  while ((e = readdir(d)) != NULL) {
+    if (strcmp(e->d_name, ".") == 0 || strcmp(e->d_name, "..") == 0)
+      continue;
+    if (!lua_checkstack(L, 2))
+      break;
+    lua_pushstring(L, e->d_name);     /* may raise (memory): d leaks then */
+    lua_rawseti(L, -2, ++n);
+  }
+  closedir(d);
+  return 1;
+}
+
+
 static int l_pid (lua_State *L) {
   lua_pushinteger(L, (lua_Integer)getpid());
   return 1;
@@ -245,7 +274,8 @@ static int l_interrupted (lua_State *L) {
 
 static int luaopen_sys (lua_State *L) {
   static const luaL_Reg funcs[] = {
-    {"fsync", l_fsync}, {"lock", l_lock}, {"pid", l_pid}, {"host", l_host},
+    {"fsync", l_fsync}, {"lock", l_lock}, {"dir", l_dir}, {"pid", l_pid},
+    {"host", l_host},
     {"sleep", l_sleep}, {"interrupted", l_interrupted}, {NULL, NULL}
   };
   static const luaL_Reg methods[] = {
