@@ -212,7 +212,9 @@ local function encode_csv(doc)
   c(format("brakelight scan table, layout %d", doc.layout or scanfile.LAYOUT))
   c("tool: " .. oneline(doc.tool or "brakelight"))
   if doc.computation then c("computation: " .. oneline(doc.computation)) end
-  if doc.declared then c("declared columns: " .. csvline(doc.declared)) end
+  if doc.declared and #doc.declared > 0 then
+    c("declared columns: " .. csvline(doc.declared))
+  end
   if doc.title then c("title: " .. oneline(doc.title)) end
   if doc.script then c("script: " .. oneline(doc.script)) end
   for _, n in ipairs(doc.notes or {}) do c("note: " .. oneline(n)) end
@@ -387,7 +389,9 @@ local function encode_json(doc)
   field("brakelight_scan_layout", tostring(doc.layout or scanfile.LAYOUT))
   field("tool", q(doc.tool or "brakelight"))
   if doc.computation then field("computation", q(doc.computation)) end
-  if doc.declared then field("declared_columns", json.encode(doc.declared)) end
+  if doc.declared and #doc.declared > 0 then
+    field("declared_columns", json.encode(doc.declared))
+  end
   if doc.title then field("title", q(doc.title)) end
   if doc.script then field("script", q(doc.script)) end
   field("notes", json.encode(doc.notes or {}))
