@@ -82,8 +82,7 @@ local ok, err = pcall(function()
   end
   U.check(dj.shard[1] == 1 and dj.shard[2] == 1, "JSON shard")
   -- no temporary file is left next to the outputs
-  U.check(U.read(scanfile.tmpname(out)) == nil, "temporary CSV left")
-  U.check(U.read(scanfile.tmpname(dir .. "/h.json")) == nil, "temporary JSON left")
+  U.check(U.tmpfiles(dir) == "", "temporary files left: %s", U.tmpfiles(dir))
   -- atomic write: a failing write leaves the old file whole
   local okw, msgw = scanfile.write_text(dir .. "/none/x.csv", "x")
   U.check(not okw and msgw, "write into a missing directory succeeded")

@@ -1,8 +1,10 @@
 --[[
   test_scan_shards.lua -- issue 5: a 3x3x2 scan sharded 4 ways (by
-  --shard, by the Slurm job-array variables, by -j) and merged equals the
-  unsharded run record for record; merge fails loudly on a missing or a
-  duplicated point.  Cheap points: dsigma/dk at k = T/2, rtol 1e-3.
+  --shard, by a Slurm job array with the shard count given, by -j) and
+  merged equals the unsharded run record for record; merge fails loudly
+  on a missing or a duplicated point.  Issue 16: the shard count of a job
+  array is never guessed (a partial resubmission keeps its shards; without
+  the count a scan stops); option errors are one line.  Cheap points: dsigma/dk at k = T/2, rtol 1e-3.
   Needs the runner: every scan here runs in build/brakelight (its --shard,
   -j, --merge and Slurm handling are what is tested); the checks run in
   any Lua host.
