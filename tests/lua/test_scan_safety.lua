@@ -121,7 +121,10 @@ local ok, err = pcall(function()
     local sig = round % 2 == 1 and "INT" or "TERM"
     local after = 0.4 + (full and 1.2 or 0.3) * math.random()
     local code, so, se = interrupted("N=" .. n, out, nil, sig, after)
-    if code == 0 then break end   -- finished before the signal
+    if code == 0 then  -- finished before the signal
+      have = prefix(out, n, "fast round " .. round .. ", finished")
+      break
+    end
     local signo = sig == "INT" and 2 or 15
     U.has(se, "interrupted by signal " .. signo, "fast round " .. round)
     local m = prefix(out, n, "fast round " .. round)
