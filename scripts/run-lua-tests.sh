@@ -146,8 +146,8 @@ if [ -n "$interp" ]; then
   record "$interp: require \"brakelight\", helper fields" "$?" "$(elapsed "$start")"
   # every recipe but the demo (it prints its timing) in small mode: the
   # same printout and files as through the runner (the output directory,
-  # and the files' tool and script lines, which name the Lua and the path,
-  # aside)
+  # and the files' tool, script and computation lines, which name the Lua
+  # and the path and hash its bytecode, aside)
   recipes_same() {
     local r name st=0
     for r in lua/recipes/*.lua; do
@@ -159,7 +159,7 @@ if [ -n "$interp" ]; then
         2>/dev/null </dev/null || { echo "$name failed in the runner"; st=1; continue; }
       diff <(sed "s#$tmp/host/#OUT/#g" "$tmp/host-$name.out") \
            <(sed "s#$tmp/runner/#OUT/#g" "$tmp/runner-$name.out") || st=1
-      diff -r -I '^# tool: \|^# script: \|"tool": \|"script": ' \
+      diff -r -I '^# tool: \|^# script: \|^# computation: \|"tool": \|"script": \|"computation": ' \
         "$tmp/host/$name" "$tmp/runner/$name" || st=1
     done
     return $st
@@ -220,7 +220,9 @@ bad_option() {
   "$runner" --no-such-option 2>"$tmp/stderr"
   st=$?
   cat "$tmp/stderr"
-  [ "$st" -eq 1 ] && grep -q '^usage:' "$tmp/stderr"
+  # one line, pointing to --help (not the whole usage)
+  [ "$st" -eq 1 ] && [ "$(wc -l <"$tmp/stderr")" -eq 1 ] \
+    && grep -q "^brakelight: unrecognized option '--no-such-option' (try 'brakelight --help')$" "$tmp/stderr"
 }
 
 # the same command line through lua5.4 and the runner gives the same 'arg'

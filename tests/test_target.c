@@ -8,6 +8,7 @@
 
 #include <math.h>
 #include <pthread.h>
+#include <signal.h>
 #include <stdlib.h>
 #include <string.h>
 
@@ -122,6 +123,42 @@ Test(spectrum_threads, more_threads_than_points) {
   cr_expect(bl_spectrum_dk_e(&c, 3, k, 8, q, got, NULL) == BL_SUCCESS);
   for (i = 0; i < 3; i++)
     expect_same(&ref[i], &got[i], i, 8);
+  bl_quad_free(q);
+}
+
+
+/* A stop flag (issue 16): set, no point is computed, on any thread, and
+** every status is BL_EINTR; cleared, the same workspace computes again,
+** bit for bit as before. */
+Test(spectrum_threads, stop_flag) {
+  bl_case c = make_case("electron", 82, 100.0);
+  double k[4] = { 1.0, 20.0, 50.0, 90.0 };
+  bl_result ref[4], got[4];
+  int rst[4], st[4];
+  unsigned long rcalls;
+  volatile sig_atomic_t flag = 1;
+  bl_quad *q = make_quad();
+  size_t i;
+  int t;
+  serial(&c, k, 4, ref, rst, &rcalls);
+  cr_expect(bl_quad_stopped(q) == 0 && bl_quad_stopped(NULL) == 0);
+  bl_quad_set_stop(q, &flag);
+  cr_expect(bl_quad_stopped(q) == 1);
+  for (t = 1; t <= 3; t++) {
+    bl_quad_reset_calls(q);
+    cr_expect(bl_spectrum_dk_e(&c, 4, k, t, q, got, st) == BL_EINTR,
+              "%d threads: not stopped", t);
+    for (i = 0; i < 4; i++)
+      cr_expect(st[i] == BL_EINTR && got[i].val == 0.0,
+                "%d threads, point %zu: status %d", t, i, st[i]);
+    cr_expect(bl_quad_calls(q) == 0, "%d threads: %lu integrand calls while "
+              "stopped", t, bl_quad_calls(q));
+  }
+  flag = 0;
+  cr_expect(bl_spectrum_dk_e(&c, 4, k, 2, q, got, NULL) == BL_SUCCESS);
+  for (i = 0; i < 4; i++)
+    expect_same(&ref[i], &got[i], i, 2);
+  cr_expect(strcmp(bl_strerror(BL_EINTR), "interrupted (stop flag set)") == 0);
   bl_quad_free(q);
 }
 

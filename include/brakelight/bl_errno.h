@@ -26,8 +26,10 @@ enum {
   BL_EMODEL   = 1004,   /* model cannot serve this request */
   BL_ENOTCONV = 1005,   /* integral did not reach the requested tolerance */
   BL_ENONFINITE = 1006, /* a computation gave a non-finite value */
-  BL_EAMBIGUOUS = 1007  /* a name with two readings (material names:
+  BL_EAMBIGUOUS = 1007, /* a name with two readings (material names:
                         ** "PB", lead or phosphorus + boron) */
+  BL_EINTR    = 1008    /* stopped by the workspace's stop flag
+                        ** (bl_quad_set_stop) before it computed */
 };
 
 /* Message for a status code: ours or GSL's.  Never NULL, static storage. */

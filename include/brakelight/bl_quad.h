@@ -5,6 +5,7 @@
 #ifndef BL_QUAD_H
 #define BL_QUAD_H
 
+#include <signal.h>
 #include <stddef.h>
 
 #ifdef __cplusplus
@@ -35,6 +36,19 @@ double bl_quad_rtol (const bl_quad *q);
 /* Integrand evaluations since the last reset (for tests and benchmarks). */
 unsigned long bl_quad_calls (const bl_quad *q);
 void bl_quad_reset_calls (bl_quad *q);
+
+/*
+** A stop flag for the computations that use this workspace (NULL: none, the
+** default).  While *flag is non-zero, bl_method_dk_e (so every dsigma/dk
+** point of a spectrum, an integral over k or a yield) returns BL_EINTR
+** without computing; a point already running finishes.  The flag is read,
+** never written: a signal handler may set it (sig_atomic_t).  Threads of
+** bl_spectrum_* read the flag of the caller's workspace.
+*/
+void bl_quad_set_stop (bl_quad *q, const volatile sig_atomic_t *flag);
+
+/* 1 if q has a stop flag that is set, 0 otherwise (also for q = NULL). */
+int bl_quad_stopped (const bl_quad *q);
 
 #ifdef __cplusplus
 }

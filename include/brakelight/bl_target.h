@@ -209,6 +209,16 @@ int bl_target_photon_yield_e (const bl_target *t, double thickness,
 #define BL_WORK_KINTEGRAL 45.0      /* points of one integral over k */
 double bl_work_estimate (double rtol, int nelem, double n, double share);
 
+/* The work one integral over k (cross_section, energy_loss) may plan, in
+** integrand calls (about 100 s on one core): a single integral cannot be
+** split over a scan, so its bound is tighter than BL_WORK_MAX. */
+#define BL_WORK_INTEGRAL_MAX 2.5e8
+
+/* The share of one adaptive integral over k at tolerance rtol, in
+** dsigma/dk points: BL_WORK_KINTEGRAL at rtol >= 1e-3, growing by 10^0.1
+** per decade below (measured, src/core/target/target.c). */
+double bl_work_kintegral (double rtol);
+
 #ifdef __cplusplus
 }
 #endif

@@ -11,6 +11,12 @@
      a point of the scan is in none (the message names the point keys and
      the files).  info = { points =, records =, inputs = }.
      opts.allow_missing = true writes a partial file instead of failing.
+     An existing `output` must be a readable file of the same scan (same
+     axes, settings and computation): otherwise merge raises, naming it
+     and saying how to proceed, and leaves it as it is; its records count
+     as one more input for the points no input holds (a merged file is
+     never replaced by fewer points).  While merging, `output` is locked
+     (OUTPUT.lock, as a scan locks its output).
   merge.manifests(paths [, opts]) -> list of infos
      Used by the runner after `-j N`: each manifest line is
      "output<TAB>shard file"; every output is merged from its shard files,
@@ -56,7 +62,7 @@ end
 
 
 --[[ Describe how doc b differs from doc a (same scan?), or nil. ]]
-local function differs(a, b)
+local function differs(a, b, anyshards)
   if #a.axes ~= #b.axes then return "number of axes" end
   for i, x in ipairs(a.axes) do
     local y = b.axes[i]
@@ -69,7 +75,14 @@ local function differs(a, b)
   for _, s in ipairs(a.settings) do sa[#sa + 1] = s.name .. "=" .. s.label end
   for _, s in ipairs(b.settings) do sb[#sb + 1] = s.name .. "=" .. s.label end
   if concat(sa, "\0") ~= concat(sb, "\0") then return "fixed settings" end
-  if a.shard[2] ~= b.shard[2] then
+  if a.computation ~= b.computation then
+    return format("computation fingerprints (%s and %s)",
+                  tostring(a.computation), tostring(b.computation))
+  end
+  if concat(a.declared or {}, ",") ~= concat(b.declared or {}, ",") then
+    return "declared columns"
+  end
+  if not anyshards and a.shard[2] ~= b.shard[2] then
     return format("shard count (%d and %d)", a.shard[2], b.shard[2])
   end
   return nil
@@ -99,12 +112,48 @@ function merge.files(output, inputs, opts)
     end
   end
   local first = docs[1]
+  -- one writer: the output's lock; then an existing output must be this scan
+  local lock
+  local sys = scanfile.sys()
+  if sys then
+    local prev, why
+    lock, prev, why = sys.lock(output .. ".lock")
+    if not lock then
+      error(format("merge: output '%s' is being written by another run " ..
+                   "(%s; lock file '%s'); nothing was merged", output,
+                   why == "held" and (tostring(prev):gsub("\n+$", ""):gsub("\n", ", "))
+                   or tostring(prev), output .. ".lock"), 0)
+    end
+  end
+  local function fail(msg)
+    if lock then lock:release() end
+    error(msg, 0)
+  end
+  local existing
+  do
+    local doc, msg, why = scanfile.read(output)
+    if doc then
+      local what = differs(first, doc, true)
+      if what then
+        fail(format("merge: output '%s' exists and holds a different scan " ..
+                    "(%s differ from '%s'); nothing was merged and it is " ..
+                    "left as it is: choose another output, or move it away " ..
+                    "to replace it", output, what, first.path))
+      end
+      doc.path = output
+      existing = doc
+    elseif why ~= "missing" then
+      fail(format("merge: output '%s' exists but cannot be read (%s); " ..
+                  "nothing was merged and it is left as it is: repair it, " ..
+                  "or move it away to replace it", output, tostring(msg)))
+    end
+  end
   local shardseen = {}
   for _, doc in ipairs(docs) do
     local s = doc.shard[1]
     if doc.shard[2] > 1 and shardseen[s] then
-      error(format("merge: '%s' and '%s' are both shard %d of %d",
-                   shardseen[s], doc.path, s, doc.shard[2]), 0)
+      fail(format("merge: '%s' and '%s' are both shard %d of %d",
+                  shardseen[s], doc.path, s, doc.shard[2]))
     end
     shardseen[s] = doc.path
   end
@@ -115,12 +164,12 @@ function merge.files(output, inputs, opts)
     for j, r in ipairs(doc.records) do
       local key = recordkey(doc, r)
       if not key then
-        error(format("merge: record %d of '%s' lacks an axis value", j,
-                     doc.path), 0)
+        fail(format("merge: record %d of '%s' lacks an axis value", j,
+                    doc.path))
       end
       if from[key] and from[key] ~= doc.path then
-        error(format("merge: point %s is in both '%s' and '%s'", key,
-                     from[key], doc.path), 0)
+        fail(format("merge: point %s is in both '%s' and '%s'", key,
+                    from[key], doc.path))
       end
       from[key] = doc.path
       if not mine[key] then
@@ -128,6 +177,20 @@ function merge.files(output, inputs, opts)
         bykey[key] = {}
       end
       table.insert(bykey[key], r)
+    end
+  end
+  if existing then  -- its points that no input holds stay
+    local mine = {}
+    for _, r in ipairs(existing.records) do
+      local key = recordkey(existing, r)
+      if key and (not from[key] or mine[key]) then
+        if not mine[key] then
+          mine[key] = true
+          bykey[key] = {}
+          from[key] = output
+        end
+        table.insert(bykey[key], r)
+      end
     end
   end
   local keys = allkeys(first)
@@ -138,16 +201,16 @@ function merge.files(output, inputs, opts)
   end
   for k in pairs(bykey) do
     if not known[k] then
-      error(format("merge: point %s of '%s' is not among the points of the " ..
-                   "scan's axes", k, from[k]), 0)
+      fail(format("merge: point %s of '%s' is not among the points of the " ..
+                  "scan's axes", k, from[k]))
     end
   end
   if #missing > 0 and not opts.allow_missing then
     local show = {}
     for i = 1, math.min(5, #missing) do show[i] = missing[i] end
-    error(format("merge: %d of %d points are missing from the %d input " ..
-                 "file(s), e.g. %s", #missing, #keys, #docs,
-                 concat(show, ", ")), 0)
+    fail(format("merge: %d of %d points are missing from the %d input " ..
+                "file(s), e.g. %s", #missing, #keys, #docs,
+                concat(show, ", ")))
   end
   -- columns: union, in order of first appearance, axes first
   local columns, seen = {}, {}
@@ -159,9 +222,9 @@ function merge.files(output, inputs, opts)
                          unit = c.unit }
         columns[#columns + 1] = seen[c.name]
       elseif prev.unit ~= c.unit then
-        error(format("merge: column '%s' has unit '%s' in '%s' and '%s' " ..
-                     "elsewhere", c.name, tostring(c.unit), doc.path,
-                     tostring(prev.unit)), 0)
+        fail(format("merge: column '%s' has unit '%s' in '%s' and '%s' " ..
+                    "elsewhere", c.name, tostring(c.unit), doc.path,
+                    tostring(prev.unit)))
       elseif prev.type ~= c.type then
         prev.type = "string"
       end
@@ -177,11 +240,13 @@ function merge.files(output, inputs, opts)
   local out = { layout = first.layout, tool = first.tool, title = first.title,
                 script = first.script, notes = notes, axes = first.axes,
                 settings = first.settings, shard = { 1, 1 },
+                computation = first.computation, declared = first.declared,
                 columns = columns, records = records }
   local ok, msg = scanfile.write(output, out)
   if not ok then
-    error(format("merge: cannot write '%s': %s", output, tostring(msg)), 0)
+    fail(format("merge: cannot write '%s': %s", output, tostring(msg)))
   end
+  if lock then lock:release() end
   return { points = #keys - #missing, records = #records, inputs = #docs,
            missing = #missing }
 end

@@ -23,9 +23,19 @@
   a legend naming them.  The look: white background, light dotted grid,
   no top or right border, a palette of our own.
 
-  Writes three files next to the image: <stem>.dat (the data, one block
-  per series, each headed by its label), <stem>.gp (the gnuplot script,
-  which reads <stem>.dat from its own directory) and the image.  Without
+  Writes three files next to the image: IMAGE.dat (the data, one block
+  per series, each headed by its label), IMAGE.gp (the gnuplot script,
+  which reads IMAGE.dat from its own directory) and the image, e.g.
+  x.png.dat, x.png.gp, x.png: every image has files of its own.  Each is
+  written whole and renamed into place (the image by gnuplot into a
+  temporary name first).  Texts (title, labels, series names) go into the
+  script as single-quoted gnuplot strings with quotes doubled and line
+  breaks and other control characters replaced by spaces, and without
+  enhanced-text markup: no text can end the string, start a command or
+  a substitution, or turn into sub- or superscripts.
+  In a shard run (--shard, a Slurm shard, a -j worker) plot draws
+  nothing and returns false and why: the run on the merged output draws.
+  Without
   gnuplot (or if it fails) the data and script are still written, a
   message says so on stderr, and plot returns false and the message;
   with `strict = true` it raises instead.  On success it returns true and
@@ -35,6 +45,7 @@
 local plot = {}
 local format, concat = string.format, table.concat
 local compat = require "brakelight.compat"
+local scanfile = require "brakelight.scanfile"
 
 -- our palette: deep teal, brick, ochre, slate blue, olive, plum, graphite
 plot.palette = { "#00717a", "#b5442f", "#c98d1c", "#4a5fa8", "#6b8a2a",
@@ -44,10 +55,14 @@ local function fail(fmt, ...)
   error(format("bad argument #1 to 'plot' (" .. fmt .. ")", ...), 3)
 end
 
---[[ Quote a string for gnuplot (double quotes, escaped). ]]
+--[[ A text as a gnuplot string: single quotes (no backslash escapes, no
+     backquote substitution inside), a quote doubled, control characters
+     (line breaks first) as spaces. ]]
 local function gq(s)
-  return '"' .. tostring(s):gsub('\\', '\\\\'):gsub('"', '\\"') .. '"'
+  s = tostring(s):gsub("[%c]", " "):gsub("'", "''")
+  return "'" .. s .. "'"
 end
+plot.quote = gq
 
 local function shq(s)
   return "'" .. tostring(s):gsub("'", "'\\''") .. "'"
@@ -144,6 +159,23 @@ function plot.draw(spec)
       fail("series #%d needs x and y arrays of equal, non-zero length", i)
     end
   end
+  for _, a in ipairs({ xa, ya }) do
+    if a.range ~= nil and (type(a.range) ~= "table" or
+       type(a.range[1]) ~= "number" or type(a.range[2]) ~= "number") then
+      fail("an axis range must be {lo, hi} (numbers)")
+    end
+  end
+  if spec.size ~= nil and (type(spec.size) ~= "table" or
+     compat.mtype(spec.size[1]) ~= "integer" or compat.mtype(spec.size[2]) ~= "integer") then
+    fail("field 'size' must be {width, height} in pixels (integers)")
+  end
+  -- a shard run draws nothing: the run on the merged output does
+  local ss = package.loaded["brakelight.session"]
+  if type(ss) == "table" and (ss.worker or (ss.shards or 1) > 1) then
+    local m = format("plot: %s not drawn in shard %d of %d (the run on the " ..
+                     "merged output draws it)", out, ss.shard or 0, ss.shards or 0)
+    return false, m
+  end
   local xlog = xa.log
   if xlog == nil then xlog = autolog(series, "x") end
   local ylog = ya.log
@@ -151,23 +183,21 @@ function plot.draw(spec)
 
   local dir, base = out:match("^(.*[/\\])([^/\\]*)$")
   if not dir then dir, base = "", out end
-  local stem = base:gsub("%.%w+$", "")
-  local datname, gpname = stem .. ".dat", stem .. ".gp"
+  local datname, gpname = base .. ".dat", base .. ".gp"
 
   -- the data: one block per series, blocks separated by two blank lines
   local d = { format("# brakelight.plot data for %s; columns: x y; one " ..
                      "block per series (gnuplot index 0, 1, ...)", base) }
   for i, s in ipairs(series) do
     if i > 1 then d[#d + 1] = "\n" end
-    d[#d + 1] = format("# series %d: %s", i, tostring(s.label or i))
+    d[#d + 1] = format("# series %d: %s", i,
+                       (tostring(s.label or i):gsub("%c", " ")))
     for j = 1, #s.x do
       d[#d + 1] = format("%.10g %.10g", s.x[j], s.y[j])
     end
   end
-  local f, msg = io.open(dir .. datname, "w")
-  if not f then error(format("plot: cannot write '%s': %s", dir .. datname, msg), 2) end
-  f:write(concat(d, "\n"), "\n")
-  f:close()
+  local okw, msg = scanfile.write_text(dir .. datname, concat(d, "\n") .. "\n")
+  if not okw then error(format("plot: cannot write '%s': %s", dir .. datname, msg), 2) end
 
   local w, h = 800, 520
   if type(spec.size) == "table" then w, h = spec.size[1], spec.size[2] end
@@ -179,42 +209,56 @@ function plot.draw(spec)
                  "background rgb 'white'", w, h)
       or format("set terminal svg size %d,%d font 'Sans,11' " ..
                 "background rgb 'white' dynamic", w, h),
-    "set output " .. gq(base),
+    "# the image (brakelight.plot passes a temporary name as 'out')",
+    "if (!exists('out')) out = " .. gq(base),
+    "set output out",
     "set encoding utf8",
     "set border 3 lw 1.2 lc rgb '#333333'",
     "set tics nomirror out scale 0.6",
     "set grid xtics ytics mxtics mytics lt 1 lw 0.6 lc rgb '#dddddd' dt 3",
     "set key outside right top Left reverse noopaque samplen 2.5 spacing 1.3",
-    "set xlabel " .. gq(axislabel(xa)),
-    "set ylabel " .. gq(axislabel(ya)),
+    "set xlabel " .. gq(axislabel(xa)) .. " noenhanced",
+    "set ylabel " .. gq(axislabel(ya)) .. " noenhanced",
   }
-  if spec.title then g[#g + 1] = "set title " .. gq(spec.title) .. " font 'Sans,12'" end
+  if spec.title then
+    g[#g + 1] = "set title " .. gq(spec.title) .. " noenhanced font 'Sans,12'"
+  end
   if xlog then g[#g + 1] = "set logscale x 10"; g[#g + 1] = "set format x '10^{%T}'" end
   if ylog then g[#g + 1] = "set logscale y 10"; g[#g + 1] = "set format y '10^{%T}'" end
-  if xa.range then g[#g + 1] = format("set xrange [%s:%s]", xa.range[1], xa.range[2]) end
-  if ya.range then g[#g + 1] = format("set yrange [%s:%s]", ya.range[1], ya.range[2]) end
+  if xa.range then g[#g + 1] = format("set xrange [%.17g:%.17g]", xa.range[1], xa.range[2]) end
+  if ya.range then g[#g + 1] = format("set yrange [%.17g:%.17g]", ya.range[1], ya.range[2]) end
   local parts = {}
   for i, s in ipairs(series) do
     local color = s.color or plot.palette[(i - 1) % #plot.palette + 1]
     parts[i] = format("%s index %d using 1:2 with linespoints lw 2 pt 7 " ..
-                      "ps 0.45 lc rgb '%s' title %s", i == 1 and gq(datname) or "''",
-                      i - 1, color, gq(s.label or ("series " .. i)))
+                      "ps 0.45 lc rgb %s title %s noenhanced",
+                      i == 1 and gq(datname) or "''", i - 1, gq(color),
+                      gq(s.label or ("series " .. i)))
   end
   g[#g + 1] = "plot " .. concat(parts, ", \\\n     ")
-  f, msg = io.open(dir .. gpname, "w")
-  if not f then error(format("plot: cannot write '%s': %s", dir .. gpname, msg), 2) end
-  f:write(concat(g, "\n"), "\n")
-  f:close()
+  okw, msg = scanfile.write_text(dir .. gpname, concat(g, "\n") .. "\n")
+  if not okw then error(format("plot: cannot write '%s': %s", dir .. gpname, msg), 2) end
 
   local info = { image = out, data = dir .. datname, script = dir .. gpname }
   local why
   if not plot.have_gnuplot() then
     why = "gnuplot not found (Debian package gnuplot-nox)"
   else
-    local cmd = format("cd %s && gnuplot %s 2>&1", shq(dir ~= "" and dir or "."),
-                       shq(gpname))
+    -- the image goes to a temporary name, renamed when gnuplot succeeded
+    local tmp = scanfile.tmpname(base):gsub("^.*[/\\]", "")
+    local cmd = format("cd %s && gnuplot -e %s %s 2>&1", shq(dir ~= "" and dir or "."),
+                       shq("out = " .. gq(tmp)), shq(gpname))
     local text, code = compat.capture(cmd)
-    if code ~= 0 then why = "gnuplot failed: " .. text:gsub("%s+$", "") end
+    if code ~= 0 then
+      why = "gnuplot failed: " .. text:gsub("%s+$", "")
+      os.remove(dir .. tmp)
+    else
+      local rok, rerr = os.rename(dir .. tmp, out)
+      if not rok then
+        os.remove(dir .. tmp)
+        why = "cannot rename the image into place: " .. tostring(rerr)
+      end
+    end
   end
   if why then
     local m = format("plot: %s; the data (%s) and the gnuplot script (%s) " ..

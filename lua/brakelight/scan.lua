@@ -120,6 +120,72 @@ local function session()
   return type(s) == "table" and s or nil
 end
 
+--[[ Interrupts: the runner's flag and hold (see src/runner/runner.c);
+     in another host no flag, and hold just calls. ]]
+local function interrupted()
+  local s = session()
+  return s and s.interrupted and s.interrupted() or nil
+end
+local function hold(f, ...)
+  local s = session()
+  if s and s.hold then return s.hold(f, ...) end
+  return f(...)
+end
+-- try(body, handler): body(); on an error, handler(err) with interrupts
+-- held from the moment of the error (no Lua instruction runs between)
+local function try(body, handler)
+  local s = session()
+  if s and s.try then return s.try(body, handler) end
+  local ok, err = pcall(body)
+  if not ok then return handler(err) end
+end
+
+
+--[[ Two 32-bit sums of the bytes of s (mod two primes), as 16 hex digits;
+     plain arithmetic, the same in every Lua. ]]
+local function hash(s)
+  local h1, h2 = 5381, 52711
+  local byte = string.byte
+  for i = 1, #s, 64 do
+    local t = { byte(s, i, i + 63) }
+    for j = 1, #t do
+      h1 = (h1 * 257 + t[j]) % 4294967291
+      h2 = (h2 * 263 + t[j]) % 4294967279
+    end
+  end
+  return format("%08x%08x", h1, h2)
+end
+
+
+--[[
+  Fingerprint of the computation: the bytecode of `each` (string.dump,
+  stripped where the Lua can) and, recursively, of the Lua functions it
+  reaches through upvalues.  Values of upvalues do not count (a log file
+  name or a flag from the environment may differ between the runs of one
+  scan): a change of code or of a constant written in the code does.  The
+  Lua version is part of it: bytecode differs between Luas (and Lua 5.1,
+  5.2 keep line numbers and the chunk name in a dump), so the fingerprint
+  is stable across runs of one host, not across hosts.
+]]
+function scan.fingerprint(f)
+  local parts, seen = { _VERSION, type(jit) == "table" and "jit" or "" }, {}
+  local function add(fn, depth)
+    if seen[fn] then return end
+    seen[fn] = true
+    local ok, code = pcall(string.dump, fn, true)
+    parts[#parts + 1] = ok and code or "C function"
+    if not ok or depth > 16 then return end
+    for i = 1, 255 do
+      local name, v = debug.getupvalue(fn, i)
+      if name == nil then break end
+      if type(v) == "function" then add(v, depth + 1) end
+    end
+  end
+  add(f, 0)
+  return hash(concat(parts, "\0"))
+end
+
+
 --[[ Raise a scan error that names the caller's argument. ]]
 local function argerr(fname, fmt, ...)
   error(format("bad argument #1 to '%s' (" .. fmt .. ")", fname, ...), 3)
@@ -373,7 +439,7 @@ end
   checking it comes from the same scan.  Raises, naming the file, when it
   is unreadable or from another scan; never touches the file.
 ]]
-local function loadinto(d, path, done, selected, fname, strict)
+local function loadinto(d, path, done, selected, fname, strict, ident)
   local doc, msg, why = scanfile.read(path)
   if not doc then
     if why == "missing" then return nil end
@@ -406,6 +472,40 @@ local function loadinto(d, path, done, selected, fname, strict)
   end
   local extra = next(fl)
   if extra then refuse(format("setting %s = %s, absent here", extra, fl[extra])) end
+  -- the same computation: tool version, declared columns, fingerprint
+  local diff = {}
+  local version = (doc.tool or ""):match("^brakelight (%S+)")
+  if version ~= ident.version then
+    diff[#diff + 1] = format("it was written by brakelight %s, this is %s",
+                             tostring(version or "(unknown)"), ident.version)
+  end
+  if doc.computation ~= ident.computation then
+    diff[#diff + 1] = doc.computation and
+      format("its computation ('each' and what it uses) had fingerprint " ..
+             "%s, here %s", doc.computation, ident.computation) or
+      "it records no fingerprint of its computation"
+  end
+  local dc, hc = concat(doc.declared or {}, ","), concat(ident.declared, ",")
+  if dc ~= hc then
+    diff[#diff + 1] = format("its declared columns are {%s}, here {%s}", dc, hc)
+  end
+  if #diff > 0 and not ident.accept then
+    error(format("%s: output '%s' holds results of another computation: %s; " ..
+                 "nothing was computed and the file is left as it is.  To " ..
+                 "recompute, move the file away or choose another output; " ..
+                 "to keep its results and compute only the missing points " ..
+                 "with this code, run again with BRAKELIGHT_ACCEPT=1 in the " ..
+                 "environment (or accept = true in the scan)", fname, path,
+                 concat(diff, "; ")), 0)
+  end
+  for _, n in ipairs(doc.notes or {}) do  -- earlier acceptances stay noted
+    local a = n:match("^accepted earlier results %((.*)%)$")
+    if a then ident.kept[#ident.kept + 1] = a end
+  end
+  if #diff > 0 then ident.accepted[#ident.accepted + 1] = path .. ": " .. concat(diff, "; ") end
+  for _, c in ipairs(doc.columns) do
+    if c.kind == "value" then ident.filecols[c.name] = true end
+  end
   local valuecols = {}
   for _, c in ipairs(doc.columns) do
     if c.kind == "value" then valuecols[#valuecols + 1] = c end
@@ -493,14 +593,58 @@ local function torecords(ret, key, fname)
 end
 
 
+--[[
+  The lock of output `path` (brakelight.sys.lock on PATH.lock), or nil
+  without the module.  A lock held by a live run is an error naming it; a
+  lock file left by a run that no longer holds it is taken over with a
+  note on stderr.
+]]
+local function takelock(path, fname, script)
+  local sys = scanfile.sys()
+  if not sys then return nil end
+  local lockpath = path .. ".lock"
+  local lk, prev, why = sys.lock(lockpath)
+  if not lk then
+    if why == "held" then
+      local who = (prev or ""):gsub("\n+$", ""):gsub("\n", ", ")
+      error(format("%s: output '%s' is being written by another run (%s; " ..
+                   "lock file '%s'); nothing was computed.  Wait for that " ..
+                   "run to end, or stop it, then run again", fname, path,
+                   who ~= "" and who or "holder unknown", lockpath), 0)
+    end
+    error(format("%s: cannot lock output '%s': %s", fname, path,
+                 tostring(prev)), 0)
+  end
+  if prev and prev:find("%S") then
+    io.stderr:write(format("%s: note: taking over the lock of output '%s' " ..
+                           "left by a run that has ended (%s)\n", fname, path,
+                           (prev:gsub("\n+$", ""):gsub("\n", ", "))))
+  end
+  lk:write(format("pid %d\nhost %s\nstarted %s\nscript %s\n", sys.pid(),
+                  sys.host(), os.date("!%Y-%m-%dT%H:%M:%SZ"),
+                  tostring(script or "?")))
+  -- holding the lock, we are the only writer: temporary files of this
+  -- output left by a killed run are garbage
+  local dir, base = path:match("^(.*[/\\])([^/\\]*)$")
+  if not dir then dir, base = "", path end
+  for _, name in ipairs(sys.dir(dir == "" and "." or dir) or {}) do
+    if scanfile.is_tmpname(name, base) then os.remove(dir .. name) end
+  end
+  return lk
+end
+
+
 function scan.run(spec)
   local fname = "scan.run"
   local d = describe(spec, fname)
   if type(spec.each) ~= "function" then
     argerr(fname, "field 'each' must be a function, got %s", type(spec.each))
   end
-  local si, sn = getshard(spec, fname)
   local ss = session()
+  if spec.shard == nil and ss and ss.shard_error then
+    error(fname .. ": " .. ss.shard_error, 2)
+  end
+  local si, sn = getshard(spec, fname)
   if ss and ss.worker and not spec.output then
     error(fname .. ": a scan run by -j workers needs 'output' (the workers " ..
           "hand their points over through files)", 2)
@@ -523,6 +667,7 @@ function scan.run(spec)
     end
   end
   for _, a in ipairs(d.axes) do colseen[a.name] = true end
+  local declared = {}
   if spec.columns ~= nil then
     if type(spec.columns) ~= "table" then
       argerr(fname, "field 'columns' must be a list of names, got %s",
@@ -531,29 +676,41 @@ function scan.run(spec)
     for _, c in ipairs(spec.columns) do
       checkname(fname, "column", c)
       addcol(c)
+      declared[#declared + 1] = c
     end
   end
+  local tool, version = "brakelight", "(unknown)"
+  local okbl, bl = pcall(require, "brakelight")
+  if okbl and type(bl) == "table" and bl._VERSION then
+    version = tostring(bl._VERSION)
+    tool = "brakelight " .. version
+  end
+  tool = tool .. " (" .. _VERSION .. ")"
+  local script = spec.script or (ss and ss.script) or (arg and arg[0])
+  local ident = { version = version, computation = scan.fingerprint(spec.each),
+                  declared = declared, filecols = {}, accepted = {}, kept = {},
+                  accept = spec.accept == true or
+                           os.getenv("BRAKELIGHT_ACCEPT") == "1" }
+  local lock
   if path then
     local ok, msg = scanfile.probe(path)
     if not ok then
       error(format("%s: cannot write output '%s': %s", fname, path,
                    tostring(msg)), 2)
     end
+    lock = takelock(path, fname, script)
+  end
+  local loaded = false   -- saving is allowed once the output is read
+  local function load()
+    if not path then return end
     local what = sn > 1 and format("shard %d of %d", si, sn) or "scan"
     if path ~= spec.output then  -- reuse points of an earlier merged file
-      local cols = loadinto(d, spec.output, done, selected, fname, nil)
+      local cols = loadinto(d, spec.output, done, selected, fname, nil, ident)
       for _, c in ipairs(cols or {}) do addcol(c.name) end
     end
-    local cols = loadinto(d, path, done, selected, fname, what)
+    local cols = loadinto(d, path, done, selected, fname, what, ident)
     for _, c in ipairs(cols or {}) do addcol(c.name) end
   end
-  local tool = "brakelight"
-  local okbl, bl = pcall(require, "brakelight")
-  if okbl and type(bl) == "table" and bl._VERSION then
-    tool = "brakelight " .. bl._VERSION
-  end
-  tool = tool .. " (" .. _VERSION .. ")"
-  local script = spec.script or (ss and ss.script) or (arg and arg[0])
 
   -- the document, rebuilt for every write
   local function document()
@@ -592,32 +749,68 @@ function scan.run(spec)
     end
     local notes = {}
     for i, n in ipairs(spec.notes or {}) do notes[i] = tostring(n) end
+    local seen = {}
+    for _, list in ipairs({ ident.kept, ident.accepted }) do
+      for _, a in ipairs(list) do
+        if not seen[a] then
+          seen[a] = true
+          notes[#notes + 1] = "accepted earlier results (" .. a .. ")"
+        end
+      end
+    end
     return { layout = scanfile.LAYOUT, tool = tool, title = spec.title,
              script = script, notes = notes, axes = axes,
              settings = d.settings, shard = { si, sn }, columns = columns,
+             computation = ident.computation, declared = declared,
              records = recs }, recs
   end
 
+  -- saving: every write runs with interrupts held, so it always ends;
+  -- a failed checkpoint is reported once and retried later, the final
+  -- save a few times before it raises
   local clock = (ss and ss.clock) or os.clock
   local lastend, lastcost, dirty = clock(), 0, false
+  local failing, retryat = nil, 0
+  local function write()
+    return scanfile.write(path, (document()))
+  end
   local function save(force)
-    if not path or not (dirty or force) then return end
+    if not path or not (dirty or force) then return true end
     local now = clock()
     if not force then
+      if failing and now < retryat then return false end
       if spec.checkpoint then
-        if now - lastend < spec.checkpoint then return end
+        if now - lastend < spec.checkpoint then return true end
       elseif now - lastend < 20 * lastcost then
-        return
+        return true
       end
     end
-    local ok, msg = scanfile.write(path, (document()))
-    if not ok then
-      error(format("%s: cannot write output '%s': %s", fname, path,
-                   tostring(msg)), 0)
+    local ok, msg = hold(write)
+    local tries = 1
+    while not ok and force and tries < 4 do  -- the last save: retry
+      local sys = scanfile.sys()
+      if sys then hold(sys.sleep, 0.25 * tries) end
+      ok, msg = hold(write)
+      tries = tries + 1
     end
+    if not ok then
+      if not failing then
+        io.stderr:write(format("%s: warning: cannot write output '%s': %s " ..
+                               "(the points stay in memory; retrying)\n",
+                               fname, path, tostring(msg)))
+      end
+      failing = tostring(msg)
+      retryat = clock() + math.max(1, 20 * lastcost)
+      return false, msg
+    end
+    if failing then
+      io.stderr:write(format("%s: output '%s' written again\n", fname, path))
+    end
+    failing = nil
     lastend = clock()
     lastcost = lastend - now
     dirty = false
+    return true
   end
 
   -- progress
@@ -630,24 +823,30 @@ function scan.run(spec)
   end
   local label = spec.label or spec.title or "scan"
   if sn > 1 then label = format("%s [shard %d/%d]", label, si, sn) end
-  local nreused = 0
-  for _, o in ipairs(order) do if done[o.key] then nreused = nreused + 1 end end
-  local bar = progress.new{ total = #order, label = label, mode = mode,
-                            every = spec.every, clock = ss and ss.clock }
-  local ndone, ncomp = nreused, 0
-  if nreused < #order then bar:update(ndone, 0) end
+  local nreused, ndone, ncomp, bar = 0, 0, 0, nil
 
   local missingfile = false
   if path then
     local f = io.open(path, "rb")
     if f then f:close() else missingfile = true end
   end
+  local checkedcols = false
   local function body()
+    load()
+    for _, o in ipairs(order) do if done[o.key] then nreused = nreused + 1 end end
+    loaded = true
+    bar = progress.new{ total = #order, label = label, mode = mode,
+                        every = spec.every, clock = ss and ss.clock }
+    ndone = nreused
+    if nreused < #order then bar:update(ndone, 0) end
     for _, o in ipairs(order) do
       if not done[o.key] then
+        if interrupted() then error("interrupted", 0) end
         local pt = makepoint(d, o.p, o.idx, o.key)
         local ok, ret = xpcall(function() return spec.each(pt) end,
                               debug.traceback)  -- 5.1: no arguments
+        -- an interrupt caught inside `each` never becomes a result
+        if interrupted() then error("interrupted", 0) end
         if not ok then
           error(format("%s: point %d (%s): %s", fname, o.p, o.key,
                        tostring(ret)), 0)
@@ -662,6 +861,19 @@ function scan.run(spec)
             r[a.name] = a.recvals[o.idx[i]]
           end
         end
+        if not checkedcols and nreused > 0 and not ident.accept then
+          -- reused records must have the columns this code returns
+          checkedcols = true
+          for k in pairs(list[1] or {}) do
+            if not colseen[k] and not ident.filecols[k] then
+              error(format("%s: 'each' returns a column '%s' that the " ..
+                           "records in '%s' lack: they come from another " ..
+                           "computation; move the file away to recompute, " ..
+                           "or run with BRAKELIGHT_ACCEPT=1 to keep them " ..
+                           "(their '%s' stays empty)", fname, k, path, k), 0)
+            end
+          end
+        end
         done[o.key] = list
         dirty = true
         ndone, ncomp = ndone + 1, ncomp + 1
@@ -669,15 +881,44 @@ function scan.run(spec)
         bar:update(ndone, ncomp)
       end
     end
+    if dirty or missingfile or #ident.accepted > 0 then
+      local fin, fmsg = save(true)
+      if not fin then
+        error(format("%s: cannot write output '%s': %s (tried 4 times; the " ..
+                     "%d points computed now are lost)", fname, path,
+                     tostring(fmsg), ncomp), 0)
+      end
+    end
+    if lock then lock:release() end
+    if nreused < #order then bar:finish() end
   end
-  local ok, err = pcall(body)
-  if not ok then
-    pcall(save, true)  -- keep what was computed; the error wins
-    if mode == "bar" then io.stderr:write("\n") end
+  -- on any error or interrupt: keep what was computed (interrupts are
+  -- held from the error on, so this always completes), then raise: an
+  -- interrupt as such, another error as it came
+  try(body, function(err)
+    local saved, msg = true, nil
+    if path and loaded and (dirty or missingfile) then saved, msg = save(true) end
+    if lock then lock:release() end
+    if mode == "bar" and loaded then io.stderr:write("\n") end
+    local sig = interrupted()
+    local where = ""
+    local ndone = 0   -- from what is saved, not the counter (which an
+    for _, o in ipairs(order) do  -- interrupt may have cut before it grew)
+      if done[o.key] then ndone = ndone + 1 end
+    end
+    if path and loaded then
+      where = saved and format("; %d of %d points are in '%s': run the " ..
+                               "same command again to compute the rest",
+                               ndone, #order, path)
+              or format("; the %d points computed now could not be " ..
+                        "written to '%s': %s", ncomp, path, tostring(msg))
+    end
+    if sig then
+      error(format("%s: interrupted by signal %d%s", fname, sig, where), 0)
+    end
+    if not saved then err = tostring(err) .. where end
     error(err, 0)
-  end
-  if dirty or missingfile then save(true) end
-  if nreused < #order then bar:finish() end
+  end)
   if path and ss and ss.manifest then
     local f = io.open(ss.manifest, "a")
     if f then

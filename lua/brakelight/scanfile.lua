@@ -12,6 +12,9 @@
       axes     = { {name =, labels = {...}, unit =, type =}, ... },
       settings = { {name =, label =, unit =}, ... },  -- fixed settings
       shard    = { i, n },                -- this file holds shard i of n
+      computation = "hex",                -- fingerprint of the computation
+                                          -- (brakelight.scan), optional
+      declared = { "dsdk", ... },         -- the scan's `columns`, optional
       columns  = { {name =, kind = "axis"|"value", type =, unit =}, ... },
       records  = { {colname = value, ...}, ... },     -- in point order
     }
@@ -38,9 +41,21 @@
   scanfile.read(path)          -> doc; nil, msg, "missing" when the file
                                   does not exist; nil, msg when unreadable
   scanfile.write(path, doc)    -> true, or nil and a message.  Writes a
-                                  temporary file in the same directory and
-                                  renames it over `path`: a reader sees the
-                                  old file or the new one, never half of one
+                                  temporary file of a name of its own
+                                  (.NAME.PID-N.writing) in the same
+                                  directory, syncs it to disk (fsync, with
+                                  the module loaded) and renames it over
+                                  `path`: a reader sees the old file or the
+                                  new one, never half of one, and two
+                                  writers never share a temporary file
+  scanfile.write_text(path, text) the same for any text
+  scanfile.tmpname(path)       -> a fresh temporary name next to path
+  scanfile.is_tmpname(name, base) -> true for a temporary name of base
+
+  A cell that does not read as its column's type (a number column holding
+  "xx56.9") is an error naming the file, the line and the column; empty
+  cells are nil; "nan", "inf", "-inf" are what the writer writes for
+  those numbers.
   scanfile.probe(path)         -> true, or nil and a message when no file
                                   can be created next to `path`
 ]]
@@ -119,12 +134,14 @@ end
 
 --[[ Split CSV text into rows of fields (quoted fields may span lines). ]]
 local function csvrows(text, path, line0)
-  local rows, row, field = {}, {}, {}
+  local rows, row, field, starts = {}, {}, {}, {}
   local i, n, line = 1, #text, line0
+  local rowstart = line0
   local function endfield() row[#row + 1] = concat(field); field = {} end
   local function endrow()
     endfield()
     rows[#rows + 1] = row
+    starts[#rows] = rowstart
     row = {}
   end
   while i <= n do
@@ -153,6 +170,7 @@ local function csvrows(text, path, line0)
     elseif c == "\n" or c == "\r" then
       endrow()
       line = line + 1
+      rowstart = line
       i = i + ((c == "\r" and text:sub(i + 1, i + 1) == "\n") and 2 or 1)
     else
       local j = text:find('[,\r\n]', i) or n + 1
@@ -161,7 +179,7 @@ local function csvrows(text, path, line0)
     end
   end
   if #field > 0 or #row > 0 then endrow() end
-  return rows
+  return rows, nil, starts
 end
 
 --[[ One CSV line from a list of strings. ]]
@@ -193,6 +211,10 @@ local function encode_csv(doc)
   local function c(s) out[#out + 1] = "# " .. s end
   c(format("brakelight scan table, layout %d", doc.layout or scanfile.LAYOUT))
   c("tool: " .. oneline(doc.tool or "brakelight"))
+  if doc.computation then c("computation: " .. oneline(doc.computation)) end
+  if doc.declared and #doc.declared > 0 then
+    c("declared columns: " .. csvline(doc.declared))
+  end
   if doc.title then c("title: " .. oneline(doc.title)) end
   if doc.script then c("script: " .. oneline(doc.script)) end
   for _, n in ipairs(doc.notes or {}) do c("note: " .. oneline(n)) end
@@ -235,7 +257,8 @@ local function nameunit(s)
   return name, nil, rest
 end
 
---[[ Convert cell text to a value of column type t. ]]
+--[[ Convert cell text to a value of column type t: value, or nil and the
+     reason when the text is not of that type (nil alone: empty). ]]
 local function typed(text, t)
   if text == "" then return nil end
   if t == "number" then
@@ -244,12 +267,13 @@ local function typed(text, t)
       if text == "nan" then return 0 / 0 end
       if text == "inf" then return math.huge end
       if text == "-inf" then return -math.huge end
+      return nil, "is not a number"
     end
     return v
   elseif t == "boolean" then
     if text == "true" then return true end
     if text == "false" then return false end
-    return nil
+    return nil, "is not a boolean (true or false)"
   end
   return text
 end
@@ -273,6 +297,11 @@ local function decode_csv(text, path)
       sawmagic = true
       doc.layout = tonumber(lay)
     elseif body:find("^tool: ") then doc.tool = body:sub(7)
+    elseif body:find("^computation: ") then doc.computation = body:sub(14)
+    elseif body:find("^declared columns: ") then
+      local rows, msg = csvrows(body:sub(19), path, lineno)
+      if not rows then return nil, msg end
+      doc.declared = rows[1] or {}
     elseif body:find("^title: ") then doc.title = body:sub(8)
     elseif body:find("^script: ") then doc.script = body:sub(9)
     elseif body:find("^note: ") then doc.notes[#doc.notes + 1] = body:sub(7)
@@ -307,9 +336,10 @@ local function decode_csv(text, path)
     return nil, format("%s: not a brakelight scan table (no layout line)", path)
   end
   if not doc.shard then return nil, path .. ": no shard line" end
-  local rows, msg = csvrows(text:sub(pos), path, lineno + 1)
+  local rows, msg, starts = csvrows(text:sub(pos), path, lineno + 1)
   if not rows then return nil, msg end
   local header = table.remove(rows, 1)
+  table.remove(starts, 1)
   if not header or #header ~= #doc.columns then
     return nil, format("%s:%d: header has %d columns, comment block lists %d",
                        path, lineno + 1, header and #header or 0, #doc.columns)
@@ -323,12 +353,17 @@ local function decode_csv(text, path)
   for r, row in ipairs(rows) do
     if not (#row == 1 and row[1] == "") then  -- skip blank lines
       if #row ~= #doc.columns then
-        return nil, format("%s: record %d has %d fields, expected %d", path,
-                           r, #row, #doc.columns)
+        return nil, format("%s:%d: record %d has %d fields, expected %d",
+                           path, starts[r], r, #row, #doc.columns)
       end
       local rec = {}
       for j, col in ipairs(doc.columns) do
-        rec[col.name] = typed(row[j], col.type)
+        local v, why = typed(row[j], col.type)
+        if why then
+          return nil, format("%s:%d: column %d ('%s'): %q %s", path,
+                             starts[r], j, col.name, row[j], why)
+        end
+        rec[col.name] = v
       end
       doc.records[#doc.records + 1] = rec
     end
@@ -353,6 +388,10 @@ local function encode_json(doc)
   out[#out + 1] = "{"
   field("brakelight_scan_layout", tostring(doc.layout or scanfile.LAYOUT))
   field("tool", q(doc.tool or "brakelight"))
+  if doc.computation then field("computation", q(doc.computation)) end
+  if doc.declared and #doc.declared > 0 then
+    field("declared_columns", json.encode(doc.declared))
+  end
   if doc.title then field("title", q(doc.title)) end
   if doc.script then field("script", q(doc.script)) end
   field("notes", json.encode(doc.notes or {}))
@@ -407,7 +446,10 @@ local function decode_json(text, path)
   local doc = { layout = t.brakelight_scan_layout, tool = str(t.tool),
                 title = str(t.title), script = str(t.script),
                 notes = t.notes or {}, shard = t.shard, axes = {},
-                settings = {}, columns = {}, records = {} }
+                settings = {}, columns = {}, records = {},
+                computation = str(t.computation),
+                declared = type(t.declared_columns) == "table" and
+                           t.declared_columns or nil }
   if type(doc.shard) ~= "table" or #doc.shard ~= 2 then
     return nil, path .. ": bad or missing 'shard'"
   end
@@ -422,12 +464,31 @@ local function decode_json(text, path)
     doc.columns[i] = { name = c.name, unit = str(c.unit), kind = c.kind,
                        type = c.type }
   end
+  -- records are written one per line after the line '"records": ['
+  local line0 = 0
+  local at = text:find('\n  "records": [', 1, true)
+  if at then
+    local _, nl = text:sub(1, at):gsub("\n", "")
+    line0 = nl + 1
+  end
+  local want = { number = "number", string = "string", boolean = "boolean" }
   for i, r in ipairs(t.records or {}) do
     local rec = {}
-    for _, c in ipairs(doc.columns) do
-      local v = r[c.name]
+    if type(r) ~= "table" then
+      return nil, format("%s:%d: record %d is not an object", path, line0 + i, i)
+    end
+    for j, c in ipairs(doc.columns) do
+      local v, why = r[c.name], nil
       if v == json.null then v = nil end
-      if c.type == "number" and type(v) == "string" then v = typed(v, "number") end
+      if c.type == "number" and type(v) == "string" then
+        v, why = typed(v, "number")
+      elseif v ~= nil and want[c.type] and type(v) ~= want[c.type] then
+        why = "is not a " .. c.type
+      end
+      if why then
+        return nil, format("%s:%d: record %d, column %d ('%s'): %s %s", path,
+                           line0 + i, i, j, c.name, json.encode(r[c.name]), why)
+      end
       rec[c.name] = v
     end
     doc.records[i] = rec
@@ -460,15 +521,54 @@ function scanfile.read(path)
   return scanfile.decode(text, scanfile.format(path), path)
 end
 
---[[ Temporary name next to path: same directory, so rename is atomic. ]]
+--[[ The system helpers of the module (fsync, pid), or nil without it. ]]
+local sys
+local function getsys()
+  if sys == nil then
+    sys = false
+    if pcall(require, "brakelight") then
+      local ok, m = pcall(require, "brakelight.sys")
+      if ok and type(m) == "table" then sys = m end
+    end
+  end
+  return sys or nil
+end
+scanfile.sys = getsys
+
+--[[ This process's id: from the module, else /proc/self/stat, else 0. ]]
+local pid
+local function getpid()
+  if pid == nil then
+    local m = getsys()
+    if m then pid = m.pid() end
+    if pid == nil then
+      local f = io.open("/proc/self/stat", "r")
+      pid = f and tonumber((f:read("*l") or ""):match("^(%d+)")) or 0
+      if f then f:close() end
+    end
+  end
+  return pid
+end
+scanfile.pid = getpid
+
+--[[ Temporary name next to path (same directory, so rename is atomic),
+     unique to this process and call: .NAME.PID-N.writing ]]
+local counter = 0
 local function tmpname(path)
   local dir, base = path:match("^(.*[/\\])([^/\\]*)$")
   if not dir then dir, base = "", path end
-  return dir .. "." .. base .. ".writing"
+  counter = counter + 1
+  return format("%s.%s.%d-%d.writing", dir, base, getpid(), counter)
 end
 scanfile.tmpname = tmpname
 
---[[ Write text to path atomically: temporary file, flush, rename. ]]
+function scanfile.is_tmpname(name, base)
+  local b = name:match("^%.(.*)%.%d+%-%d+%.writing$")
+  return b ~= nil and (base == nil or b == base)
+end
+
+--[[ Write text to path atomically: a temporary file of its own, flush,
+     fsync, rename, fsync of the directory. ]]
 function scanfile.write_text(path, text)
   local tmp = tmpname(path)
   local f, msg = io.open(tmp, "wb")
@@ -477,14 +577,21 @@ function scanfile.write_text(path, text)
   local fok, ferr = true, nil
   if ok then fok, ferr = f:flush() end
   local cok, cerr = f:close()
-  if not (ok and fok and cok) then
+  local m = getsys()
+  local sok, serr = true, nil
+  if ok and fok and cok and m then sok, serr = m.fsync(tmp) end
+  if not (ok and fok and cok and sok) then
     os.remove(tmp)
-    return nil, tmp .. ": " .. tostring(werr or ferr or cerr)
+    return nil, tmp .. ": " .. tostring(werr or ferr or cerr or serr)
   end
   local rok, rerr = os.rename(tmp, path)
   if not rok then
     os.remove(tmp)
     return nil, rerr
+  end
+  if m then
+    local dir = path:match("^(.*)[/\\][^/\\]*$")
+    m.fsync(dir == nil and "." or (dir == "" and "/" or dir))  -- the rename
   end
   return true
 end

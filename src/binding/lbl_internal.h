@@ -6,6 +6,8 @@
 #ifndef LBL_INTERNAL_H
 #define LBL_INTERNAL_H
 
+#include <signal.h>
+
 #include "lbl_compat.h"
 
 #include "brakelight.h"
@@ -69,6 +71,14 @@ double lbl_tothickness (lua_State *L, int t, const char *fname,
 ** .plot, .merge, .json ("brakelight.<name>") on first use.
 */
 void lbl_helpers_open (lua_State *L);
+
+/*
+** The system helpers (src/binding/lsys.c): lbl_sys_open puts
+** "brakelight.sys" in package.preload; lbl_stopflag is the flag that
+** lbl_interrupt sets, the stop flag of every workspace of the module.
+*/
+void lbl_sys_open (lua_State *L);
+const volatile sig_atomic_t *lbl_stopflag (void);
 
 /* Shared by the binding files (macros, the call's options and warnings). */
 #define QUADMETA  "brakelight.Quad"       /* integration workspace */
@@ -153,6 +163,7 @@ int lbl_optthreads (lua_State *L, const Opts *o);
 void lbl_nocoulomb (lua_State *L, Opts *o);
 void lbl_checkwork (lua_State *L, const Opts *o, const char *key,
                     lua_Integer n, double share);
+void lbl_checkintegral (lua_State *L, const Opts *o);
 
 /* Particles (lparticle.c). */
 const char *lbl_particlenames (char *buf, size_t n);

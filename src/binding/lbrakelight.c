@@ -120,5 +120,6 @@ LUAMOD_API int luaopen_brakelight (lua_State *L) {
   lua_setfield(L, -2, "_VERSION");
   lbl_material_open(L);                   /* material functions */
   lbl_helpers_open(L);                    /* brakelight.scan, .plot, ... */
+  lbl_sys_open(L);                        /* require "brakelight.sys" */
   return 1;
 }

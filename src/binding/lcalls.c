@@ -204,7 +204,7 @@ int l_angular (lua_State *L) {
     lbl_optwindow(L, &o, &kmin, &kmax);
   theta = lbl_optarray(L, &o, "theta", 0, BL_PI, 0, "[0, pi] rad", &n);  /* 2 */
   lbl_checkwork(L, &o, "theta", n, hask ? BL_WORK_ANGULAR
-                                    : BL_WORK_ANGULAR * BL_WORK_KINTEGRAL);
+                                    : BL_WORK_ANGULAR * bl_work_kintegral(o.rtol));
   /* all checks done */
   t = lbl_kstart(L, &o, &q, &w);          /* 3: the target */
   lua_createtable(L, (int)n, 0);      /* 4: theta */

@@ -53,6 +53,7 @@ int l_cross_section (lua_State *L) {
   double kmin, kmax, mean, meanerr;
   lbl_readopts(L, "cross_section", cross_section_keys, 1, &o);
   lbl_optwindow(L, &o, &kmin, &kmax);
+  lbl_checkintegral(L, &o);
   /* all checks done */
   t = lbl_kstart(L, &o, &q, &w);             /* 2: the target */
   lbl_kintegral(L, &o, t, BL_TARGET_DK, 0.0, kmin, kmax, q, &w, &r0, &r1);
@@ -91,6 +92,7 @@ int l_energy_loss (lua_State *L) {
   bl_result r1;
   double X0;
   lbl_readopts(L, "energy_loss", energy_loss_keys, 1, &o);
+  lbl_checkintegral(L, &o);
   /* all checks done */
   t = lbl_kstart(L, &o, &q, &w);             /* 2: the target */
   lbl_kintegral(L, &o, t, BL_TARGET_DK, 0.0, 0.0, o.T, q, &w, NULL, &r1);
@@ -148,7 +150,7 @@ int l_photon_yield (lua_State *L) {
                   "got %s", BL_YIELD_MAXBINS, lbl_showval(L, -1, v, sizeof v));
   }
   lua_pop(L, 1);
-  lbl_checkwork(L, &o, "bins", nb, BL_WORK_KINTEGRAL);
+  lbl_checkwork(L, &o, "bins", nb, bl_work_kintegral(o.rtol));
   sp = lbl_getstr(L, 1, o.fname, "spacing", spbuf, sizeof spbuf);
   if (sp != NULL && strcmp(sp, "log") == 0)
     logsp = 1;

@@ -38,6 +38,7 @@
 #define CTXSIZE   256     /* longest context prefix */
 #define MAXPARTS  256     /* parts of one mixture */
 #define MAXNEST   8       /* material tables inside material tables */
+#define MAXSPECS  4096    /* specifications read for one material, in all */
 #define NSUGGEST  3       /* names suggested for an unknown one */
 #define SUMTOL    1e-6    /* as in src/core/materials/fill.c */
 #define MB_CM2    1e-27   /* 1 mb in cm^2 */
@@ -61,6 +62,7 @@ typedef struct Reader {
   const char *fname;    /* Lua name of the function */
   char ctx[CTXSIZE];    /* prefix: "field 'target': part #2 of ...: " */
   int depth;            /* material tables being read */
+  int nspec;            /* specifications read so far (MAXSPECS) */
   const void *open[MAXNEST];   /* those tables, outermost first */
 } Reader;
 
@@ -407,6 +409,10 @@ static void readtable (Reader *r, int idx, bl_material *out) {
 static void readspec (Reader *r, int idx, bl_material *out) {
   char v[80];
   const bl_material *m;
+  if (++r->nspec > MAXSPECS)  /* nested parts multiply: 256^n without it */
+    fail(r, "the material has more than %d parts in all (a part used n "
+         "times in a mixture counts n times; allowed: at most %d)", MAXSPECS,
+         MAXSPECS);
   switch (lua_type(r->L, idx)) {
     case LUA_TSTRING:
       readstring(r, idx, out);
@@ -434,7 +440,7 @@ void lbl_totarget (lua_State *L, int idx, const char *fname,
   idx = lua_absindex(L, idx);
   r.L = L;
   r.fname = fname;
-  r.depth = 0;
+  r.depth = r.nspec = 0;
   if (lua_isnoneornil(L, idx))
     lbl_argfail(L, fname, "missing required field '%s' (%s)", field,
                 ALLOWED);
@@ -742,7 +748,7 @@ static int l_material (lua_State *L) {
   r.L = L;
   r.fname = "material";
   r.ctx[0] = '\0';
-  r.depth = 0;
+  r.depth = r.nspec = 0;
   readspec(&r, 1, &m);
   pushmaterial(L, &m);
   return 1;
@@ -810,7 +816,7 @@ static int l_radiation_length (lua_State *L) {
   r.L = L;
   r.fname = "radiation_length";
   r.ctx[0] = '\0';
-  r.depth = 0;
+  r.depth = r.nspec = 0;
   if (lua_type(L, 1) == LUA_TTABLE
       && lua_getfield(L, 1, "target") != LUA_TNIL) {  /* option table */
     static const char *const keys[] = { "target", NULL };

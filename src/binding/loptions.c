@@ -319,6 +319,29 @@ void lbl_checkwork (lua_State *L, const Opts *o, const char *key,
 
 
 /*
+** Refuse one integral over k (cross_section, energy_loss) whose estimate
+** exceeds BL_WORK_INTEGRAL_MAX, naming rtol and the range this target
+** allows.
+*/
+void lbl_checkintegral (lua_State *L, const Opts *o) {
+  double work = bl_work_estimate(o->rtol, o->target.n, 1.0,
+                                 bl_work_kintegral(o->rtol));
+  double lo = o->rtol;
+  if (work <= BL_WORK_INTEGRAL_MAX)
+    return;
+  while (lo < BL_QUAD_RTOL_MAX && bl_work_estimate(lo, o->target.n, 1.0,
+                                   bl_work_kintegral(lo)) > BL_WORK_INTEGRAL_MAX)
+    lo *= 1.25;
+  lbl_argfail(L, o->fname, "field 'rtol' = %g on %d element(s): one integral "
+              "over k is about %.2g integrand calls (roughly %.0f s on one "
+              "core), more than one integral may plan (%.2g); allowed for "
+              "this target: rtol in [%.2g, %g]", o->rtol, o->target.n, work,
+              work * BL_WORK_NS_PER_CALL * 1e-9, BL_WORK_INTEGRAL_MAX, lo,
+              BL_QUAD_RTOL_MAX);
+}
+
+
+/*
 ** Refuse coulomb = true where the correction is not defined, and a method
 ** without angles for angular distributions: the Born integral ("auto"
 ** means born there) or the distorted waves.

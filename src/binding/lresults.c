@@ -26,6 +26,7 @@ bl_quad *lbl_getquad (lua_State *L, const Opts *o) {
   if (lq == NULL || lq->q == NULL)
     luaL_error(L, "%s: the integration workspace of brakelight is closed",
                o->fname);
+  bl_quad_set_stop(lq->q, lbl_stopflag());   /* lbl_interrupt stops it */
   st = bl_quad_set_rtol(lq->q, o->rtol);
   if (st != BL_SUCCESS)
     lbl_fail(L, "%s: the core refused rtol = %g: %s", o->fname, o->rtol,
@@ -91,6 +92,10 @@ bl_target *lbl_maketarget (lua_State *L, Opts *o, bl_quad *q) {
 */
 void lbl_checkresult (lua_State *L, const Opts *o, int st,
                       const bl_result *r, const char *where) {
+  if (st == BL_EINTR)
+    lbl_fail(L, "%s: interrupted by signal %d (stopped at %s; the points of "
+             "this call are not returned: a scan, brakelight.scan, keeps "
+             "every finished point)", o->fname, (int)*lbl_stopflag(), where);
   if (st != BL_SUCCESS && st != BL_ENONFINITE && !bl_status_soft(st))
     lbl_fail(L, "%s: %s for %s on Z = %d at T = %g MeV, %s (estimate %g +- %g)",
          o->fname, bl_strerror(st), o->particle.name, o->Z, o->T, where,

@@ -32,6 +32,8 @@
 #define SESSION_MOD  "brakelight.session"    /* package.loaded entry */
 #define MANIFEST_ENV "BRAKELIGHT_WORKER_MANIFEST"  /* set for -j workers */
 #define PROGRESS_ENV "BRAKELIGHT_WORKER_PROGRESS"  /* set for -j workers */
+#define SHARDS_ENV   "BRAKELIGHT_SHARDS"   /* as --shards N */
+#define MAXRUNNING   64    /* coroutines tracked for interrupts (nesting) */
 #define MAXJOBS      256
 
 #ifndef PATH_MAX
@@ -49,6 +51,7 @@ typedef struct options {
   int version;       /* --version */
   int quiet;         /* -q or --quiet: no progress output */
   long shard, shards;  /* --shard I/N; 0 if absent */
+  long nshards;      /* --shards N (the shard number from Slurm); 0 if absent */
   long jobs;         /* -j N; 0 if absent */
   int jopt, jlen;    /* argv index of -j and its length (1 or 2 entries) */
   int merge;         /* argv index of --merge; 0 if absent */
@@ -62,6 +65,7 @@ typedef struct options {
 typedef struct session {
   long shard, shards;      /* this process runs shard `shard` of `shards` */
   const char *from;        /* "option", "slurm", "workers" or "none" */
+  const char *sharderr;    /* why a Slurm array gives no shard, or NULL */
   const char *progress;    /* "bar", "lines" or "off" */
   const char *manifest;    /* -j worker: file listing its outputs; or NULL */
   long worker, workers;    /* -j worker index and count; 0 if not a worker */
@@ -69,9 +73,17 @@ typedef struct session {
 } session;
 
 
-/* State for the signal handlers: the running Lua state, the signal. */
+/*
+** State for the signal handlers: the main Lua state, the coroutines being
+** resumed (innermost last), the signal (it stays: an interrupt is never
+** cleared) and the depth of session.hold sections, during which the
+** interrupt waits.
+*/
 static lua_State *globalL = NULL;
 static volatile sig_atomic_t gotsignal = 0;
+static lua_State *running[MAXRUNNING];
+static volatile sig_atomic_t nrunning = 0;
+static volatile sig_atomic_t held = 0;
 static pid_t workerpid[MAXJOBS];
 static volatile sig_atomic_t nworkerpid = 0;
 
@@ -146,9 +158,10 @@ static void print_usage (FILE *f) {
     "\n"
     "options:\n"
     "  -e CODE      run the Lua code CODE (may be repeated; runs before the script)\n"
-    "  --shard I/N  run shard I of N of every scan (1 <= I <= N); without it the\n"
-    "               Slurm job-array variables SLURM_ARRAY_TASK_ID with\n"
-    "               SLURM_ARRAY_TASK_MIN/MAX or SLURM_ARRAY_TASK_COUNT choose it\n"
+    "  --shard I/N  run shard I of N of every scan (1 <= I <= N); in a Slurm\n"
+    "               job array 1-N: --shard \"$SLURM_ARRAY_TASK_ID/N\"\n"
+    "  --shards N   N shards, this one is SLURM_ARRAY_TASK_ID (1..N); or set\n"
+    "               %s=N.  A job array without N stops any scan\n"
     "  -j N         run N local workers (shards 1..N of N), merge their outputs,\n"
     "               then run the script once more on the merged results\n"
     "  -q, --quiet  no progress output on stderr\n"
@@ -163,21 +176,24 @@ static void print_usage (FILE *f) {
     "arg[0]) and in '...'.  The project's lua/ directory is on package.path;\n"
     "%s=DIR puts DIR first (a value containing '?' is used as\n"
     "Lua path templates).\n",
-    PROGNAME, LUA_VERSION_MAJOR, LUA_VERSION_MINOR, PROGNAME, LUAPATH_ENV);
+    PROGNAME, LUA_VERSION_MAJOR, LUA_VERSION_MINOR, PROGNAME, SHARDS_ENV,
+    LUAPATH_ENV);
   fflush(f);
 }
 
 
 /*
-** Report a bad command line on stderr: the reason, the offending argument
-** (NULL if none), then the usage block.
+** Report a bad command line on stderr in one line: the reason, the
+** offending argument (NULL if none) and where the usage is.
 */
 static void usage_error (const char *reason, const char *what) {
   if (what != NULL)
-    fprintf(stderr, "%s: %s '%s'\n", PROGNAME, reason, what);
+    fprintf(stderr, "%s: %s '%s' (try '%s --help')\n", PROGNAME, reason,
+            what, PROGNAME);
   else
-    fprintf(stderr, "%s: %s\n", PROGNAME, reason);
-  print_usage(stderr);
+    fprintf(stderr, "%s: %s (try '%s --help')\n", PROGNAME, reason,
+            PROGNAME);
+  fflush(stderr);
 }
 
 
@@ -245,6 +261,15 @@ static int collectargs (char **argv, int argc, options *o) {
       const char *v = a[7] == '=' ? a + 8 : argv[++i];
       if (v == NULL || !parseshard(v, &o->shard, &o->shards)) {
         usage_error("bad value for --shard (expected I/N with 1 <= I <= N), "
+                    "got", v != NULL ? v : "nothing");
+        return 0;
+      }
+      continue;
+    }
+    if (strcmp(a, "--shards") == 0 || strncmp(a, "--shards=", 9) == 0) {
+      const char *v = a[8] == '=' ? a + 9 : argv[++i];
+      if (v == NULL || !parselong(v, &o->nshards) || o->nshards < 1) {
+        usage_error("bad value for --shards (expected a shard count N >= 1), "
                     "got", v != NULL ? v : "nothing");
         return 0;
       }
@@ -481,73 +506,45 @@ static int slurmvar (const char *name, long *v, char *err, size_t n) {
 
 
 /*
-** Choose the shard from the Slurm job-array variables.  With
-** SLURM_ARRAY_TASK_MIN and _MAX (Slurm sets both for every array), the
-** tasks min, min+step, ..., max are shards 1..count (step 1 unless
-** SLURM_ARRAY_TASK_COUNT says otherwise); with SLURM_ARRAY_TASK_COUNT
-** alone, task ids run 0..count-1.  Returns 1 and sets *i, *cnt when a
-** shard is selected, 0 when SLURM_ARRAY_TASK_ID is unset, -1 with a
-** message in err when the variables do not describe a regular array.
+** The shard of a Slurm job-array task.  The shard count is never guessed
+** from the array variables: a partial resubmission (sbatch --array=2, or
+** 3,7) describes only the tasks submitted, not the scan.  With N given
+** (--shards N or BRAKELIGHT_SHARDS=N) the task id is the shard number,
+** 1..N.  Returns 1 and sets *i, *cnt; 0 when SLURM_ARRAY_TASK_ID is unset,
+** or set without N (message in err: a scan then stops, other scripts run);
+** -1 with a message in err when the values are bad.
 */
-static int slurmshard (long *i, long *cnt, char *err, size_t n) {
-  long id, count = 0, lo = 0, hi = 0, step = 1;
-  int hid, hcount, hlo, hhi;
-  hid = slurmvar("SLURM_ARRAY_TASK_ID", &id, err, n);
+static int slurmshard (long nshards, long *i, long *cnt, char *err,
+                       size_t n) {
+  long id, envn = 0;
+  int hid = slurmvar("SLURM_ARRAY_TASK_ID", &id, err, n), hn;
   if (hid <= 0)
     return hid;
-  if ((hcount = slurmvar("SLURM_ARRAY_TASK_COUNT", &count, err, n)) < 0 ||
-      (hlo = slurmvar("SLURM_ARRAY_TASK_MIN", &lo, err, n)) < 0 ||
-      (hhi = slurmvar("SLURM_ARRAY_TASK_MAX", &hi, err, n)) < 0)
+  if ((hn = slurmvar(SHARDS_ENV, &envn, err, n)) < 0)
     return -1;
-  if (hlo && hhi) {
-    if (hi < lo) {
-      snprintf(err, n, "SLURM_ARRAY_TASK_MAX=%ld is below "
-               "SLURM_ARRAY_TASK_MIN=%ld", hi, lo);
-      return -1;
-    }
-    if (hcount && count > 1) {
-      if ((hi - lo) % (count - 1) != 0 || hi == lo) {
-        snprintf(err, n, "job array %ld-%ld with %ld tasks is not evenly "
-                 "spaced; give --shard I/N", lo, hi, count);
-        return -1;
-      }
-      step = (hi - lo) / (count - 1);
-    }
-    else if (hcount && count == 1 && hi != lo) {
-      snprintf(err, n, "SLURM_ARRAY_TASK_COUNT=1 but the array spans "
-               "%ld-%ld; give --shard I/N", lo, hi);
-      return -1;
-    }
-    else if (hcount && count < 1) {
-      snprintf(err, n, "SLURM_ARRAY_TASK_COUNT=%ld must be at least 1", count);
-      return -1;
-    }
-    else
-      count = hi - lo + 1;
-    if (id < lo || id > hi || (id - lo) % step != 0) {
-      snprintf(err, n, "SLURM_ARRAY_TASK_ID=%ld is not a task of the array "
-               "%ld-%ld step %ld", id, lo, hi, step);
-      return -1;
-    }
-    *i = (id - lo) / step + 1;
-    *cnt = count;
-    return 1;
+  if (nshards == 0 && hn && envn < 1) {
+    snprintf(err, n, "%s=%ld must be a shard count >= 1", SHARDS_ENV, envn);
+    return -1;
   }
-  if (hcount) {
-    if (count < 1 || id >= count) {
-      snprintf(err, n, "SLURM_ARRAY_TASK_ID=%ld is outside 0..%ld "
-               "(SLURM_ARRAY_TASK_COUNT=%ld, no SLURM_ARRAY_TASK_MIN/MAX); "
-               "give --shard I/N", id, count - 1, count);
-      return -1;
-    }
-    *i = id + 1;
-    *cnt = count;
-    return 1;
+  if (nshards == 0)
+    nshards = hn ? envn : 0;
+  if (nshards == 0) {
+    snprintf(err, n, "SLURM_ARRAY_TASK_ID=%ld is set, but the number of "
+             "shards is not given (the array variables describe the tasks "
+             "submitted, which after a partial resubmission are not the "
+             "scan): run with --shard \"$SLURM_ARRAY_TASK_ID/N\", or "
+             "--shards N, or %s=N, with the array 1-N", id, SHARDS_ENV);
+    return 0;
   }
-  snprintf(err, n, "SLURM_ARRAY_TASK_ID=%ld is set, but neither "
-           "SLURM_ARRAY_TASK_COUNT nor SLURM_ARRAY_TASK_MIN/MAX: the number "
-           "of shards is unknown; give --shard I/N", id);
-  return -1;
+  if (id < 1 || id > nshards) {
+    snprintf(err, n, "SLURM_ARRAY_TASK_ID=%ld is not a shard of 1..%ld "
+             "(with %ld shards the array must be 1-%ld, or a part of it)",
+             id, nshards, nshards, nshards);
+    return -1;
+  }
+  *i = id;
+  *cnt = nshards;
+  return 1;
 }
 
 
@@ -563,10 +560,16 @@ static int l_clock (lua_State *L) {
 }
 
 
+static int l_interrupted (lua_State *L);
+static int l_hold (lua_State *L);
+static int l_try (lua_State *L);
+
+
 /*
 ** Publish the session as package.loaded["brakelight.session"], a table
-**   { shard =, shards =, shard_from =, quiet =, stderr_tty =, progress =,
-**     worker =, workers =, manifest =, script =, version =, clock = }
+**   { shard =, shards =, shard_from =, shard_error =, quiet =,
+**     stderr_tty =, progress =, worker =, workers =, manifest =, script =,
+**     version =, clock =, interrupted =, hold =, try = }
 ** read by the Lua helpers (brakelight.scan).
 */
 static void pushsession (lua_State *L, const session *ss, const char *script) {
@@ -598,36 +601,203 @@ static void pushsession (lua_State *L, const session *ss, const char *script) {
     lua_pushstring(L, script);
     lua_setfield(L, -2, "script");
   }
+  if (ss->sharderr != NULL) {
+    lua_pushstring(L, ss->sharderr);
+    lua_setfield(L, -2, "shard_error");
+  }
   lua_pushliteral(L, BL_VERSION);
   lua_setfield(L, -2, "version");
   lua_pushcfunction(L, l_clock);
   lua_setfield(L, -2, "clock");
+  lua_pushcfunction(L, l_interrupted);
+  lua_setfield(L, -2, "interrupted");
+  lua_pushcfunction(L, l_hold);
+  lua_setfield(L, -2, "hold");
+  lua_pushcfunction(L, l_try);
+  lua_setfield(L, -2, "try");
   lua_setfield(L, -2, SESSION_MOD);  /* LOADED[SESSION_MOD] = session */
   lua_pop(L, 1);  /* remove LOADED */
 }
 
 
 /*
-** Hook set by the signal handler: stop the script with an error (which a
-** scan catches to save its points before passing it on).
+** Interrupts.  SIGINT/SIGTERM set `gotsignal` for good and a hook on the
+** main state and on every coroutine being resumed; the hook raises
+** "interrupted by signal N" at every Lua instruction from then on, so a
+** pcall in a script may catch the error but cannot go on: the next
+** instruction raises again.  Only session.hold(f) sections (a scan saving
+** its points) run Lua code undisturbed; the interrupt resumes when they
+** end.  The module's computations stop at their next point
+** (lbl_interrupt).
 */
+/* count hooks only: a call hook would also fire in C functions such as a
+** message handler, turning the interrupt into "error in error handling" */
+#define STOPMASK LUA_MASKCOUNT
+
 static void lstop (lua_State *L, lua_Debug *ar) {
   (void)ar;
-  lua_sethook(L, NULL, 0, 0);  /* reset hook */
+  if (held > 0 || gotsignal == 0)
+    return;
   luaL_error(L, "interrupted by signal %d", (int)gotsignal);
+}
+
+
+/* Arm the hook on the main state and every coroutine being resumed. */
+static void armhooks (void) {
+  sig_atomic_t k;
+  if (globalL != NULL)
+    lua_sethook(globalL, lstop, STOPMASK, 1);
+  for (k = 0; k < nrunning && k < MAXRUNNING; k++)
+    lua_sethook(running[k], lstop, STOPMASK, 1);
 }
 
 
 /*
 ** SIGINT/SIGTERM while Lua runs: restore the default action (a second
-** signal kills) and ask Lua to stop at the next instruction.
+** signal kills), note the signal, stop the module's computations and arm
+** the hooks (unless a hold section runs: it arms them when it ends).
 */
 static void laction (int sig) {
-  int flag = LUA_MASKCALL | LUA_MASKRET | LUA_MASKLINE | LUA_MASKCOUNT;
   signal(sig, SIG_DFL);
   gotsignal = sig;
-  if (globalL != NULL)
-    lua_sethook(globalL, lstop, flag, 1);
+  lbl_interrupt(sig);
+  if (held == 0)
+    armhooks();
+}
+
+
+/* session.interrupted() -> the signal number, or false */
+static int l_interrupted (lua_State *L) {
+  if (gotsignal)
+    lua_pushinteger(L, (lua_Integer)gotsignal);
+  else
+    lua_pushboolean(L, 0);
+  return 1;
+}
+
+
+/*
+** session.hold(f, ...) -> f(...): call f with interrupts held (a signal
+** is noted and acted on when the outermost hold ends).  An error of f
+** passes through unchanged.
+*/
+static int l_hold (lua_State *L) {
+  int st;
+  luaL_checktype(L, 1, LUA_TFUNCTION);
+  held = held + 1;
+  lua_sethook(L, NULL, 0, 0);   /* this thread: no hook while held */
+  st = lua_pcall(L, lua_gettop(L) - 1, LUA_MULTRET, 0);
+  held = held - 1;
+  if (held == 0 && gotsignal)
+    armhooks();
+  if (gotsignal)
+    lua_sethook(L, lstop, STOPMASK, 1);
+  if (st != LUA_OK)
+    return lua_error(L);
+  return lua_gettop(L);
+}
+
+
+/*
+** session.try(body, handler) -> body(): call body; if it raises, call
+** handler(error) with interrupts held from that moment (no Lua
+** instruction runs between the error and the handler), and return what
+** the handler returns or pass its error on.
+*/
+static int l_try (lua_State *L) {
+  int st;
+  luaL_checktype(L, 1, LUA_TFUNCTION);
+  luaL_checktype(L, 2, LUA_TFUNCTION);
+  lua_settop(L, 2);
+  lua_pushvalue(L, 1);
+  if (lua_pcall(L, 0, LUA_MULTRET, 0) == LUA_OK)
+    return lua_gettop(L) - 2;
+  held = held + 1;
+  lua_sethook(L, NULL, 0, 0);
+  lua_pushvalue(L, 2);
+  lua_insert(L, -2);                /* handler, error */
+  st = lua_pcall(L, 1, LUA_MULTRET, 0);
+  held = held - 1;
+  if (held == 0 && gotsignal)
+    armhooks();
+  if (gotsignal)
+    lua_sethook(L, lstop, STOPMASK, 1);
+  if (st != LUA_OK)
+    return lua_error(L);
+  return lua_gettop(L) - 2;
+}
+
+
+/*
+** coroutine.resume with the coroutine on the `running` list while it
+** runs, so that a signal reaches it; and coroutine.wrap made from it.
+*/
+static int l_resume (lua_State *L) {
+  lua_State *co = lua_tothread(L, 1);
+  int st, top, k = -1;
+  luaL_argexpected(L, co != NULL, 1, "coroutine");
+  if (nrunning < MAXRUNNING) {
+    k = (int)nrunning;
+    running[k] = co;
+    nrunning = nrunning + 1;
+  }
+  if (gotsignal && held == 0)
+    lua_sethook(co, lstop, STOPMASK, 1);
+  lua_pushvalue(L, lua_upvalueindex(1));  /* the original resume */
+  lua_insert(L, 1);
+  st = lua_pcall(L, lua_gettop(L) - 1, LUA_MULTRET, 0);
+  if (k >= 0)
+    nrunning = k;
+  if (st != LUA_OK)
+    return lua_error(L);
+  top = lua_gettop(L);
+  return top;
+}
+
+
+static int wrapaux (lua_State *L) {
+  int n = lua_gettop(L);
+  lua_pushvalue(L, lua_upvalueindex(1));   /* resume */
+  lua_pushvalue(L, lua_upvalueindex(2));   /* the coroutine */
+  lua_rotate(L, 1, 2);
+  lua_call(L, n + 1, LUA_MULTRET);
+  if (!lua_toboolean(L, 1)) {   /* error in the coroutine: propagate */
+    lua_settop(L, 2);
+    if (lua_type(L, 2) == LUA_TSTRING) {  /* as coroutine.wrap: position */
+      luaL_where(L, 1);
+      lua_insert(L, 2);
+      lua_concat(L, 2);
+    }
+    return lua_error(L);
+  }
+  return lua_gettop(L) - 1;
+}
+
+
+static int l_wrap (lua_State *L) {
+  luaL_checktype(L, 1, LUA_TFUNCTION);
+  lua_pushvalue(L, lua_upvalueindex(1));  /* resume (ours) */
+  lua_newthread(L);
+  lua_pushvalue(L, 1);
+  lua_xmove(L, lua_tothread(L, -2), 1);  /* the body into the coroutine */
+  lua_pushcclosure(L, wrapaux, 2);
+  return 1;
+}
+
+
+/* Replace coroutine.resume and coroutine.wrap by the tracking ones. */
+static void trackcoroutines (lua_State *L) {
+  if (lua_getglobal(L, "coroutine") != LUA_TTABLE) {
+    lua_pop(L, 1);
+    return;
+  }
+  lua_getfield(L, -1, "resume");
+  lua_pushcclosure(L, l_resume, 1);       /* coroutine, resume */
+  lua_pushvalue(L, -1);
+  lua_setfield(L, -3, "resume");
+  lua_pushcclosure(L, l_wrap, 1);
+  lua_setfield(L, -2, "wrap");
+  lua_pop(L, 1);
 }
 
 
@@ -851,7 +1021,8 @@ static int makesession (const options *o, session *ss) {
   static char progress[8];
   const char *m = getenv(MANIFEST_ENV);
   const char *p = getenv(PROGRESS_ENV);
-  char err[256];
+  static char sharderr[512];
+  char err[512];
   long i, n;
   int sl;
   memset(ss, 0, sizeof *ss);
@@ -860,7 +1031,12 @@ static int makesession (const options *o, session *ss) {
   ss->progress = o->quiet ? "off" : (ss->tty ? "bar" : "lines");
   ss->shard = ss->shards = 1;
   ss->from = "none";
-  sl = slurmshard(&i, &n, err, sizeof err);
+  err[0] = '\0';
+  sl = o->shard > 0 ? 0 : slurmshard(o->nshards, &i, &n, err, sizeof err);
+  if (o->shard > 0 && o->nshards > 0) {
+    l_message("give either --shard I/N or --shards N, not both");
+    return 0;
+  }
   if (o->shard > 0) {
     ss->shard = o->shard;
     ss->shards = o->shards;
@@ -875,12 +1051,24 @@ static int makesession (const options *o, session *ss) {
     ss->shards = n;
     ss->from = "slurm";
   }
-  if (o->jobs > 0 && (o->shard > 0 || sl > 0)) {
-    l_message(o->shard > 0 ? "-j cannot be combined with --shard"
-              : "-j cannot be combined with a Slurm job array "
-                "(SLURM_ARRAY_TASK_ID is set): give one or the other");
+  else if (err[0] != '\0') {   /* an array without N: scans refuse */
+    snprintf(sharderr, sizeof sharderr, "%s", err);
+    ss->sharderr = sharderr;
+  }
+  else if (o->nshards > 0) {
+    l_message("--shards N takes the shard number from SLURM_ARRAY_TASK_ID, "
+              "which is not set: give --shard I/N instead");
     return 0;
   }
+  if (o->jobs > 0 && (o->shard > 0 || sl > 0)) {
+    l_message(o->shard > 0 ? "-j cannot be combined with --shard"
+              : "-j cannot be combined with a Slurm job-array shard "
+                "(--shards N or " SHARDS_ENV " with SLURM_ARRAY_TASK_ID): "
+                "give one or the other");
+    return 0;
+  }
+  if (o->jobs > 0)
+    ss->sharderr = NULL;   /* the workers get --shard w/N */
   if (m != NULL && m[0] != '\0' && strlen(m) < sizeof manifest) {
     strcpy(manifest, m);
     ss->manifest = manifest;
@@ -934,6 +1122,7 @@ static int pmain (lua_State *L) {
   luaL_requiref(L, BL_MODNAME, luaopen_brakelight, 0);  /* LOADED[modname] = module */
   lua_pop(L, 1);  /* remove module; 'require' finds it in LOADED */
   setluapath(L, argv[0]);  /* brakelight.scan, ... come from luaopen_brakelight */
+  trackcoroutines(L);
   globalL = L;
   setsignals(laction);
   if (o.merge) {
@@ -975,6 +1164,8 @@ int main (int argc, char **argv) {
   lua_pushlightuserdata(L, argv);  /* 2nd argument */
   status = lua_pcall(L, 2, 1, 0);  /* do the call */
   result = lua_toboolean(L, -1);  /* get result */
+  lua_sethook(L, NULL, 0, 0);   /* an interrupt: no hook for the finalizers */
+  held = 1;
   report(L, status);
   lua_close(L);
   return (result && status == LUA_OK) ? EXIT_SUCCESS : EXIT_FAILURE;

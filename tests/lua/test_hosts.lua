@@ -4,7 +4,8 @@
   luajit through `make test-lua-hosts`) and through the runner
   build/brakelight (a Lua 5.4 program; this part needs the runner), the
   CSV and JSON outputs are equal byte for byte but for the tool line,
-  which names the Lua of each, and the script line (the script that ran:
+  which names the Lua of each, the computation line (a fingerprint of
+  bytecode, which is per Lua) and the script line (the script that ran:
   this file here, the scan script for the runner).  Integers, integral floats (also 2^40),
   fractions, a 15-digit integer and results from the module are in the
   records.
@@ -46,13 +47,14 @@ local ok, err = pcall(function()
     U.has(a, "brakelight " .. bl._VERSION .. " (" .. _VERSION .. ")",
           "tool line of " .. ext)
     local function strip(t)
-      local n1, n2
+      local n1, n2, n3
       t, n1 = t:gsub('[^\n]*"?tool"?: [^\n]*\n', "", 1)
       t, n2 = t:gsub('[^\n]*"?script"?: [^\n]*\n', "", 1)
-      return t, n1 + n2
+      t, n3 = t:gsub('[^\n]*"?computation"?: [^\n]*\n', "", 1)
+      return t, n1 + n2 + n3
     end
-    U.check(select(2, strip(a)) == 2 and select(2, strip(b)) == 2,
-            "%s: no tool and script lines", ext)
+    U.check(select(2, strip(a)) == 3 and select(2, strip(b)) == 3,
+            "%s: no tool, script and computation lines", ext)
     U.check(strip(a) == strip(b), "%s differs from the runner's:\n%s\n----\n%s",
             ext, a, b)
     U.check(select(2, strip(a):gsub("\n", "")) > 16, "%s: too few lines", ext)

@@ -72,4 +72,35 @@ expect_error("dsdk", bl.dsdk,
   {"field 'T' must be at most 1e+15 times the particle mass", "electron",
    "got 1e+15"})
 
+-- issue 16: every integral has a limit, stated with the parameter and the
+-- range it allows: 32 elements at rtol 1e-12 ran for minutes before
+local els = {"H", "He", "Li", "Be", "B", "C", "N", "O", "F", "Ne", "Na", "Mg",
+             "Al", "Si", "P", "S", "Cl", "Ar", "K", "Ca", "Sc", "Ti", "V", "Cr",
+             "Mn", "Fe", "Co", "Ni", "Cu", "Zn", "Ga", "Ge"}
+local mix = {by = "atoms"}
+for i, e in ipairs(els) do mix[i] = {e, 1 / #els} end
+for _, f in ipairs({"energy_loss", "cross_section"}) do
+  local a = {particle = "electron", target = mix, T = 100, rtol = 1e-12}
+  if f == "cross_section" then a.kmin, a.kmax = 1, 50 end
+  local m = expect_error(f, bl[f], a,
+    {"field 'rtol' = 1e-12 on 32 element(s)", "integrand calls",
+     "allowed for this target: rtol in ["})
+  local lo = tonumber(m:match("rtol in %[([^,]+),"))
+  assert(lo and lo > 1e-12 and lo < 1e-6, m)
+end
+-- photon_yield bins at that tolerance: at most so many
+expect_error("photon_yield", bl.photon_yield,
+  {particle = "electron", target = mix, T = 100, thickness = 0.1, kmin = 1,
+   kmax = 50, bins = 1000, rtol = 1e-10},
+  {"field 'bins' has 1000 points", "allowed: at most"})
+-- nested mixtures: a part used n times counts n times (256^n before)
+local inner = {by = "atoms"}
+for i = 1, 200 do inner[i] = {"Pb", 1 / 200} end
+local mid = {by = "atoms"}
+for i = 1, 200 do mid[i] = {inner, 1 / 200} end
+local outer = {by = "atoms"}
+for i = 1, 200 do outer[i] = {mid, 1 / 200} end
+expect_error("material", bl.material, outer,
+  {"more than 4096 parts in all", "allowed: at most 4096"})
+
 print("test_limits: ok")

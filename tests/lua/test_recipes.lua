@@ -11,10 +11,10 @@ local root = (arg[0]):match("^(.-)tests[/\\]lua[/\\][^/\\]+%.lua$")
 local U = dofile(root .. "tests/lua/lib/scanutil.lua")
 
 local recipes = {
-  radiator_spectrum = { "radiator-spectrum.csv", "radiator-spectrum.gp" },
-  energy_loss_table = { "energy-loss.csv", "energy-loss.gp" },
-  spin_compare = { "spin-compare.csv", "spin-compare.gp" },
-  screening_compare = { "screening-compare.csv", "screening-compare.gp" },
+  radiator_spectrum = { "radiator-spectrum.csv", "radiator-spectrum.png.gp" },
+  energy_loss_table = { "energy-loss.csv", "energy-loss.png.gp" },
+  spin_compare = { "spin-compare.csv", "spin-compare.png.gp" },
+  screening_compare = { "screening-compare.csv", "screening-compare.png.gp" },
   sharded_scan = { "dsdk-table.csv" },
   tungsten_converter = { "tungsten-converter.csv", "tungsten-converter.gp" },
 }

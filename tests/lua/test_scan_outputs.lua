@@ -82,8 +82,7 @@ local ok, err = pcall(function()
   end
   U.check(dj.shard[1] == 1 and dj.shard[2] == 1, "JSON shard")
   -- no temporary file is left next to the outputs
-  U.check(U.read(scanfile.tmpname(out)) == nil, "temporary CSV left")
-  U.check(U.read(scanfile.tmpname(dir .. "/h.json")) == nil, "temporary JSON left")
+  U.check(U.tmpfiles(dir) == "", "temporary files left: %s", U.tmpfiles(dir))
   -- atomic write: a failing write leaves the old file whole
   local okw, msgw = scanfile.write_text(dir .. "/none/x.csv", "x")
   U.check(not okw and msgw, "write into a missing directory succeeded")
@@ -108,11 +107,11 @@ local ok, err = pcall(function()
       U.check(img and #img > 1000, "no %s image", ext)
       if ext == "png" then U.check(img:sub(2, 4) == "PNG", "not a PNG") end
       if ext == "svg" then U.has(img, "<svg", "svg") end
-      local gp = U.read(dir .. "/p.gp")
+      local gp = U.read(dir .. "/p." .. ext .. ".gp")
       U.has(gp, "set logscale x", "log x (3 decades)")
       U.has(gp, "set logscale y", "log y")
-      U.has(gp, 'set xlabel "k [MeV]"', "x label with unit")
-      U.has(gp, "title \"b\"", "legend")
+      U.has(gp, "set xlabel 'k [MeV]' noenhanced", "x label with unit")
+      U.has(gp, "title 'b' noenhanced", "legend")
     end
   end
   -- without gnuplot: a clear message, data and script still written
@@ -127,12 +126,56 @@ print(ok, info.data, info.script)
   U.check(code == 0, "plot without gnuplot raised: %s", se)
   U.has(so, "false", "plot result")
   U.has(se, "gnuplot not found", "message")
-  U.check(U.read(dir .. "/q.dat") and U.read(dir .. "/q.gp"),
+  U.check(U.read(dir .. "/q.svg.dat") and U.read(dir .. "/q.svg.gp"),
           "data or script missing without gnuplot")
-  U.check(not U.read(dir .. "/q.gp"):find("logscale y", 1, true),
+  U.check(not U.read(dir .. "/q.svg.gp"):find("logscale y", 1, true),
           "log axis for data with a negative value")
   U.check(not pcall(plot, { output = dir .. "/x.pdf", series = series }),
           "plot accepted a .pdf output")
+
+  -- issue 16: texts are escaped for gnuplot (a newline, quotes, a
+  -- backslash, a backquote and a macro sign cannot run anything), each
+  -- image has its own data and script, written whole; shards draw nothing
+  local mark = dir .. "/RAN"
+  local evil = "a\nsystem 'touch " .. mark .. "'\n\"x\" \\ `touch " .. mark ..
+               "` @m b_c^2\r"
+  for _, ext in ipairs({ "png", "svg" }) do
+    local okp, info = plot{ output = dir .. "/e." .. ext, title = evil,
+                            x = { label = evil }, y = { label = "y" },
+                            series = { { label = evil, x = { 1, 2 }, y = { 1, 2 } } } }
+    local gp = U.read(dir .. "/e." .. ext .. ".gp")
+    U.check(gp, "no script for e.%s", ext)
+    local lines = 0
+    for l in gp:gmatch("[^\n]+") do
+      lines = lines + 1
+      U.check(not l:find("^system") and not l:find("^\"x"), "a label broke the script: %s", l)
+    end
+    U.check(not gp:find("\r", 1, true), "a carriage return went into the script")
+    U.has(gp, "set title 'a system ''touch " .. mark .. "'' \"x\" \\ `touch " .. mark ..
+          "` @m b_c^2 ' noenhanced", "title quoted")
+    U.has(U.read(dir .. "/e." .. ext .. ".dat"), "# series 1: a system", "data comment")
+    if plot.have_gnuplot() then
+      U.check(okp, "plot with odd texts failed: %s", tostring(info))
+      U.check(#(U.read(dir .. "/e." .. ext) or "") > 1000, "no image e.%s", ext)
+    end
+    U.check(U.read(mark) == nil, "a plot text ran a command")
+  end
+  local pdir = io.popen("ls -a " .. U.q(dir))
+  for name in pdir:lines() do
+    U.check(not name:find("%.writing$"), "temporary file %s left", name)
+  end
+  pdir:close()
+  local sh = dir .. "/shardplot.lua"
+  U.write(sh, [[
+local plot = require "brakelight.plot"
+print(plot{ output = arg[1], series = { { label = "s", x = { 1, 2 }, y = { 1, 2 } } } })
+]])
+  local code2, so2, se2 = U.run("--shard 2/3", sh, U.q(dir .. "/sh.png"))
+  U.check(code2 == 0, "plot in a shard run failed: %s", se2)
+  U.has(so2, "false", "shard plot result")
+  U.has(so2, "not drawn in shard 2 of 3", "shard plot message")
+  U.check(U.read(dir .. "/sh.png.gp") == nil and U.read(dir .. "/sh.png") == nil,
+          "a shard run wrote plot files")
 end)
 U.rmdir(dir)
 if not ok then error(err, 0) end

@@ -71,8 +71,8 @@ local ok, err = pcall(function()
       U.check(#part.records == 7, "error: %d records saved, expected 7",
               #part.records)
     end
-    U.check(U.read(scanfile.tmpname(out)) == nil or how == "kill",
-            "%s: temporary file left behind", how)
+    U.check(U.tmpfiles(dir) == "" or how == "kill",
+            "%s: temporary file left behind: %s", how, U.tmpfiles(dir))
     -- resume: only the missing points are computed
     local log2 = log .. ".2"
     code, so, se = U.run("-q", script, U.q(out) .. " " .. U.q(log2))

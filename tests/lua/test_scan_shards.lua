@@ -1,8 +1,10 @@
 --[[
   test_scan_shards.lua -- issue 5: a 3x3x2 scan sharded 4 ways (by
-  --shard, by the Slurm job-array variables, by -j) and merged equals the
-  unsharded run record for record; merge fails loudly on a missing or a
-  duplicated point.  Cheap points: dsigma/dk at k = T/2, rtol 1e-3.
+  --shard, by a Slurm job array with the shard count given, by -j) and
+  merged equals the unsharded run record for record; merge fails loudly
+  on a missing or a duplicated point.  Issue 16: the shard count of a job
+  array is never guessed (a partial resubmission keeps its shards; without
+  the count a scan stops); option errors are one line.  Cheap points: dsigma/dk at k = T/2, rtol 1e-3.
   Needs the runner: every scan here runs in build/brakelight (its --shard,
   -j, --merge and Slurm handling are what is tested); the checks run in
   any Lua host.
@@ -113,43 +115,73 @@ local ok, err = pcall(function()
   U.check(U.read(dir .. "/m.csv") == U.read(dir .. "/m.csv.before"),
           "failed merge changed the existing output")
 
-  -- Slurm job arrays select the same shards as --shard
-  local arrays = {
-    { "MIN=1 MAX=4", function(i) return i end },
-    { "MIN=10 MAX=13 COUNT=4", function(i) return 9 + i end },
-    { "MIN=0 MAX=6 COUNT=4", function(i) return 2 * (i - 1) end },  -- step 2
-    { "COUNT=4", function(i) return i - 1 end },                    -- 0-based
+  -- Slurm job arrays: the shard count is given (--shard "$ID/N",
+  -- --shards N or BRAKELIGHT_SHARDS=N), never taken from the array
+  -- variables, which describe only the tasks submitted; each way selects
+  -- the same shard files as --shard I/4
+  local ways = {
+    { "--shard", function(i) return "-q --shard " .. i .. "/4", "" end },
+    { "--shards", function() return "-q --shards 4", "" end },
+    { "BRAKELIGHT_SHARDS", function() return "-q", "BRAKELIGHT_SHARDS=4" end },
   }
-  for _, a in ipairs(arrays) do
-    local env = a[1]:gsub("(%u+)=", "SLURM_ARRAY_TASK_%1=")
+  for _, w in ipairs(ways) do
     for i = 1, 4 do
       local sdir = dir .. "/slurm"
       os.execute("mkdir -p " .. U.q(sdir))
-      code, out, e = U.run("-q", script, U.q(sdir .. "/s.csv"),
-                           env .. " SLURM_ARRAY_TASK_ID=" .. a[2](i))
-      U.check(code == 0, "Slurm %s task %d failed: %s", a[1], a[2](i), e)
-      U.has(out, string.format("shard %d/4 from slurm", i), "Slurm " .. a[1])
+      local opts, env = w[2](i)
+      -- a partial resubmission (sbatch --array=I) sets MIN = MAX = COUNT
+      -- of what was submitted: it must not change the shard
+      code, out, e = U.run(opts, script, U.q(sdir .. "/s.csv"), env ..
+                           " SLURM_ARRAY_TASK_ID=" .. i .. " SLURM_ARRAY_TASK_MIN=" ..
+                           i .. " SLURM_ARRAY_TASK_MAX=" .. i ..
+                           " SLURM_ARRAY_TASK_COUNT=1")
+      U.check(code == 0, "Slurm %s task %d failed: %s", w[1], i, e)
+      U.has(out, string.format("shard %d/4 from %s", i,
+                               w[1] == "--shard" and "option" or "slurm"),
+            "Slurm " .. w[1])
       local got = U.read(string.format("%s/s.shard-%d-of-4.csv", sdir, i))
       local want = U.read(string.format("%s/s.shard-%d-of-4.csv", dir, i))
       U.check(got == want, "Slurm %s task %d: shard file differs from " ..
-              "--shard %d/4", a[1], a[2](i), i)
+              "--shard %d/4", w[1], i, i)
       U.rmdir(sdir)
     end
   end
+  -- a job array without the shard count: a scan stops before computing,
+  -- a script without a scan runs
+  code, out, e = U.run("-q", script, U.q(dir .. "/w.csv"),
+                       "SLURM_ARRAY_TASK_ID=2 SLURM_ARRAY_TASK_MIN=2 " ..
+                       "SLURM_ARRAY_TASK_MAX=2 SLURM_ARRAY_TASK_COUNT=1")
+  U.check(code ~= 0, "a job array without N ran a scan")
+  U.has(e, "SLURM_ARRAY_TASK_ID=2 is set, but the number of shards is not given", "no N")
+  U.has(e, '--shard "$SLURM_ARRAY_TASK_ID/N"', "no N: what to do")
+  U.check(U.read(dir .. "/w.csv") == nil and U.read(dir .. "/w.shard-1-of-1.csv") == nil,
+          "a job array without N wrote an output")
+  code, out, e = U.sh("SLURM_ARRAY_TASK_ID=2 " .. U.q(U.runner) ..
+                      " -e 'print(1 + 1)' </dev/null")
+  U.check(code == 0 and out:find("2", 1, true), "a plain script under an array failed: %s", e)
+  -- an id outside 1..N, a malformed id or N: clear errors
+  code, out, e = U.run("-q --shards 4", script, U.q(dir .. "/w.csv"),
+                       "SLURM_ARRAY_TASK_ID=0")
+  U.check(code ~= 0, "task id 0 of 4 shards accepted")
+  U.has(e, "SLURM_ARRAY_TASK_ID=0 is not a shard of 1..4", "id 0")
+  code, out, e = U.run("-q --shards 4", script, U.q(dir .. "/w.csv"),
+                       "SLURM_ARRAY_TASK_ID=x")
+  U.check(code ~= 0, "malformed Slurm id accepted")
+  U.has(e, "SLURM_ARRAY_TASK_ID='x'", "malformed Slurm id")
+  code, out, e = U.run("-q --shards 0", script, U.q(dir .. "/w.csv"))
+  U.check(code ~= 0, "--shards 0 accepted")
+  U.has(e, "bad value for --shards", "bad --shards")
+  U.check(not e:find("usage:", 1, true) and select(2, e:gsub("\n", "")) == 1,
+          "an option error printed more than one line: %s", e)
+  U.has(e, "try 'brakelight --help'", "option error points to --help")
+  code, out, e = U.run("-q --shards 4", script, U.q(dir .. "/w.csv"))
+  U.check(code ~= 0, "--shards without a job array accepted")
+  U.has(e, "--shards N takes the shard number from SLURM_ARRAY_TASK_ID", "--shards alone")
   -- --shard wins over the Slurm variables
   code, out = U.run("-q --shard 2/4", script, U.q(dir .. "/w.csv"),
                     "SLURM_ARRAY_TASK_ID=0 SLURM_ARRAY_TASK_COUNT=3")
   U.check(code == 0, "--shard with Slurm variables failed")
   U.has(out, "shard 2/4 from option", "--shard over Slurm")
-  -- variables that do not describe a regular array: a clear error
-  code, out, e = U.run("-q", script, U.q(dir .. "/w.csv"),
-                       "SLURM_ARRAY_TASK_ID=7 SLURM_ARRAY_TASK_MIN=0 SLURM_ARRAY_TASK_MAX=3")
-  U.check(code ~= 0, "bad Slurm id accepted")
-  U.has(e, "SLURM_ARRAY_TASK_ID=7 is not a task of the array 0-3", "bad Slurm id")
-  code, out, e = U.run("-q", script, U.q(dir .. "/w.csv"),
-                       "SLURM_ARRAY_TASK_ID=x SLURM_ARRAY_TASK_COUNT=4")
-  U.check(code ~= 0, "malformed Slurm id accepted")
-  U.has(e, "SLURM_ARRAY_TASK_ID='x'", "malformed Slurm id")
   code, out, e = U.run("-q --shard 5/4", script, U.q(dir .. "/w.csv"))
   U.check(code ~= 0, "--shard 5/4 accepted")
   U.has(e, "bad value for --shard", "bad --shard")

@@ -19,6 +19,7 @@ const char *bl_strerror (int status) {
     case BL_ENOTCONV: return "integral did not reach the requested tolerance";
     case BL_ENONFINITE: return "non-finite result";
     case BL_EAMBIGUOUS: return "ambiguous name";
+    case BL_EINTR: return "interrupted (stop flag set)";
     default:          return gsl_strerror(status);
   }
 }

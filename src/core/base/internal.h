@@ -6,6 +6,7 @@
 #ifndef BL_BASE_INTERNAL_H
 #define BL_BASE_INTERNAL_H
 
+#include <signal.h>
 #include <stddef.h>
 
 #include "brakelight/bl_quad.h"
@@ -29,6 +30,7 @@ struct bl_quad {
   size_t limit;
   double rtol;
   unsigned long calls;     /* innermost integrand evaluations */
+  const volatile sig_atomic_t *stop;   /* stop flag, or NULL */
 };
 
 /* An integrand that reports the error of its value (a nested integral), or

@@ -289,3 +289,14 @@ int bl_gk_adapt (bl_gkfun f, void *par, double a, double b, double epsabs,
   *err = E + IE;
   return st;
 }
+
+
+void bl_quad_set_stop (bl_quad *q, const volatile sig_atomic_t *flag) {
+  if (q != NULL)
+    q->stop = flag;
+}
+
+
+int bl_quad_stopped (const bl_quad *q) {
+  return q != NULL && q->stop != NULL && *q->stop != 0;
+}

@@ -53,6 +53,10 @@ int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
                     bl_quad *q, bl_result *out) {
   if (out == NULL)
     return BL_EDOMAIN;
+  if (bl_quad_stopped(q)) {      /* interrupted: nothing computed */
+    bl_method_clear(out, BL_METHOD_BORN);
+    return BL_EINTR;
+  }
   switch (method) {
     case BL_METHOD_BORN:
       return bl_dcs_dk_e(c, k, q, out);

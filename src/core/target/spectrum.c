@@ -115,6 +115,7 @@ int bl_spectrum_method_e (const bl_case *c, const bl_he *h, int method,
       bl_quad *w = bl_quad_alloc(q->limit);
       if (w != NULL) {
         w->rtol = q->rtol;  /* same tolerance as the caller's */
+        w->stop = q->stop;  /* and the same stop flag */
         s->q = w;
         s->owned = 1;
       }

@@ -289,6 +289,12 @@ static int kpoint (void *ud, double k, bl_result *out) {
   int i, soft = 0;
   memset(out, 0, sizeof *out);
   out->method = BL_METHOD_BORN;
+  if (bl_quad_stopped(x->q)) {       /* interrupted: stop the integral */
+    x->acc.Z = t->c[0].Z;
+    x->acc.k = k;
+    memset(&x->acc.fail, 0, sizeof x->acc.fail);
+    return BL_EINTR;
+  }
   for (i = 0; i < t->n; i++) {
     const bl_case *c = &t->c[i];
     bl_result r;
@@ -461,4 +467,14 @@ double bl_work_estimate (double rtol, int nelem, double n, double share) {
   ** 2.6e4 at 1e-8, 9.1e4 at 1e-12 */
   double point = 4.5e3 * pow(10.0, 0.11 * -log10(rtol));
   return share * point * nelem * n;
+}
+
+
+double bl_work_kintegral (double rtol) {
+  /* energy_loss of electrons on Pb at T = 100 MeV, method born, one core:
+  ** 0.041 s at rtol 1e-3, 0.086 s at 1e-5, 0.29 s at 1e-7; divided by the
+  ** cost of a point above (x 2.75 from 1e-3 to 1e-7) that is 2.6 times
+  ** the points at 1e-7: 10^0.1 per decade */
+  double dec = rtol > 0.0 ? -log10(rtol) - 3.0 : 0.0;
+  return BL_WORK_KINTEGRAL * pow(10.0, 0.1 * (dec > 0.0 ? dec : 0.0));
 }

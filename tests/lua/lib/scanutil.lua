@@ -65,6 +65,17 @@ function U.data(path)
   return (t:gsub("#[^\n]*\n", ""))
 end
 
+--[[ Names of temporary files (.NAME.PID-N.writing) left in directory d. ]]
+function U.tmpfiles(d)
+  local p = io.popen("ls -a " .. U.q(d))
+  local t = {}
+  for name in p:lines() do
+    if name:find("^%..*%.%d+%-%d+%.writing$") then t[#t + 1] = name end
+  end
+  p:close()
+  return table.concat(t, " ")
+end
+
 function U.check(cond, fmt, ...)
   if not cond then error(string.format(fmt, ...), 2) end
 end
