@@ -16,7 +16,7 @@ local recipes = {
   spin_compare = { "spin-compare.csv", "spin-compare.png.gp" },
   screening_compare = { "screening-compare.csv", "screening-compare.png.gp" },
   sharded_scan = { "dsdk-table.csv" },
-  tungsten_converter = { "tungsten-converter.csv", "tungsten-converter.gp" },
+  tungsten_converter = { "tungsten-converter.csv", "tungsten-converter.png.gp" },
 }
 local dir = U.tmpdir()
 local ok, err = pcall(function()
