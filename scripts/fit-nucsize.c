@@ -23,7 +23,9 @@
 ** least 1/(2 q_N 10^0) = m R / 2, far above the range of the correction
 ** (gamma >= 20 m R where "auto" uses it; gamma >= 2.5e2 m R at the first
 ** node).  Then at the midpoints j + 1/2 the same, against the runtime
-** interpolation (bl_nucsize_at): the worst difference is the node's err.
+** interpolation (bl_nucsize_at): the worst difference where the method
+** holds (delta <= q_N / (2 BL_HE_GAMMA_MR), gamma >= BL_HE_GAMMA_MR m R)
+** is the node's err, which enters the error of a result.
 ** Every Born integral runs at RTOL (default 1e-7); a tolerance miss keeps
 ** its estimate and is counted in the summary.
 */
@@ -147,7 +149,8 @@ static int build (int sp, int ix, bl_quad *q, bl_nuctab *t) {
     if ((st = nodeval(&probe, exp(lnd), q, &N1, &N2)))
       return st;
     bl_nucsize_at(t, exp(lnd), &i1, &i2);
-    t->err = fmax(t->err, fmax(fabs(i1 - N1), fabs(i2 - N2)));
+    if (exp(lnd) <= qN / BL_HE_GAMMA_MR / 2.0 || j == 0)
+      t->err = fmax(t->err, fmax(fabs(i1 - N1), fabs(i2 - N2)));
     if (verbose)
       printf("midpoint delta %.6e  N1 %+.10f (%+.2e)  N2 %+.10f (%+.2e)\n",
              exp(lnd), N1, i1 - N1, N2, i2 - N2);
@@ -274,7 +277,8 @@ int main (int argc, char **argv) {
     "** Per spin (0, 1/2) and grid node x = ln(m R / hbar c) = %.6f + %g ix,\n"
     "** ix = 0 ... %d: N1, N2 at delta = Delta/m = exp(lnd0 + %.6f j),\n"
     "** j < n (src/core/methods/nucsize.c), and the worst interpolation\n"
-    "** error measured at the midpoints, in units of phi: %.2g (spin 0),\n"
+    "** error measured at the midpoints where the high-energy method holds\n"
+    "** (delta <= q_N / 6), in units of phi: %.2g (spin 0),\n"
     "** %.2g (spin 1/2).  %d of the Born integrals missed their tolerance\n"
     "** (their estimates are used).\n"
     "*/\n\n#include \"methods/internal.h\"\n\n"
