@@ -495,7 +495,7 @@ $(ROCKSPEC): scripts/brakelight.rockspec.in $(VERSION_H)
 	sed 's|@VERSION@|$(VERSION)|g' $< > $@
 
 # ---- benchmarks and generators ---------------------------------------------
-.PHONY: bench hf-table error-sweep error-ref dw-positron continuity
+.PHONY: bench hf-table nuc-table error-sweep error-ref dw-positron continuity
 # The fixed earlier commit that make bench and make error-ref build in a git
 # worktree build/base/<commit> (the main before issue 14's integrator).
 BENCH_BASE ?= a2be9749fe3fb2195e4251fa39d1db24ff8cf650
@@ -553,6 +553,15 @@ hf-table:
 	@mkdir -p $(B)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -o $(B)/fit-hf scripts/fit-hf.c $(LIBS)
 	./$(B)/fit-hf -o src/core/models/hf_table.c
+
+# Regenerate src/core/methods/nuc_table.c: the nuclear-size correction of
+# the high-energy method, calibrated on Born integrals (scripts/fit-nucsize.c,
+# about 2 min on two cores).  Never part of all or check.
+nuc-table: $(LIB)
+	@mkdir -p $(B)
+	$(CC) $(CPPFLAGS) -Isrc/core $(CFLAGS) -o $(B)/fit-nucsize \
+	  scripts/fit-nucsize.c $(LIB) $(LIBS)
+	./$(B)/fit-nucsize -j 2 -o src/core/methods/nuc_table.c
 
 # before/after comparison
 # make compare-points [BASE=<git rev>] [COMPARE_POINTS=N] [COMPARE_SEED=S]

@@ -21,7 +21,9 @@
 #    run, the ratios BASE/here of integrand calls, of time per point and of
 #    integrand calls per second on the grid and the real atoms, and the
 #    reference sweep's figures for both with the calls at equal true error
-#    (scripts/error_sweep.c, BENCH_SWEEP_POINTS points, default 2000).
+#    (scripts/error_sweep.c, BENCH_SWEEP_POINTS points, default 2000), and
+#    the calls per second of the kernel bl_bracket_azimuth alone, BASE and
+#    here (scripts/bench_kernel.c, each built with its own tree's headers).
 #
 # Missed targets are reported, never turned into a failing exit status.
 set -uo pipefail
@@ -123,6 +125,29 @@ if wt=$(build_base) \
                "(medians), ratio %.2fx\n", med(rb, nb), med(rh, nb), med(rh, nb) / med(rb, nb)
       }'
   done
+  # the kernel alone (bl_bracket_azimuth), each build with its own headers
+  if ${CC:-cc} -std=c11 -O2 -D_POSIX_C_SOURCE=200809L -I"$wt/include" \
+       -I"$wt/src/core" -I/usr/include/xraylib -o "$B/bench_kernel_base" \
+       scripts/bench_kernel.c "$wt/build/libbrakelight.a" "${LDL[@]}" \
+     && ${CC:-cc} -std=c11 -O2 -D_POSIX_C_SOURCE=200809L -Iinclude -Isrc/core \
+       -I/usr/include/xraylib -o "$B/bench_kernel" scripts/bench_kernel.c \
+       "$B/libbrakelight.a" "${LDL[@]}"; then
+    # best of five alternating runs of each (a shared machine)
+    for i in 1 2 3 4 5; do
+      "$B/bench_kernel_base"; "$B/bench_kernel" | sed 's/^/H /'
+    done | awk '
+      /^#/ { next }
+      $1 == "H" { if ($5 > h[$2]) h[$2] = $5; np[$2] = $3; nt[$2] = $4; next }
+      { if ($4 > b[$1]) b[$1] = $4; if (!($1 in seen)) { seen[$1] = 1; o[++n] = $1 } }
+      END {
+        print "kernel bl_bracket_azimuth (scripts/bench_kernel.c), calls/s, best of 5:"
+        printf "  %-12s %5s %5s %12s %12s %7s\n", "case", "poles", "terms", "BASE", "here", "ratio"
+        for (i = 1; i <= n; i++) { c = o[i]
+          printf "  %-12s %5d %5d %12.4g %12.4g %6.2fx\n", c, np[c], nt[c], b[c], h[c], h[c] / b[c] }
+      }'
+  else
+    echo "bench: the kernel benchmark could not be built"
+  fi
   # the reference sweep (a subset): calls at equal true error
   n=${BENCH_SWEEP_POINTS:-2000}
   "$B/error_sweep_base" run -m "$n" -i tests/data/born-ref.txt \

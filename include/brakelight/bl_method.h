@@ -25,17 +25,26 @@ enum {
 
 /*
 ** Where the closed forms hold.  "auto" takes the high-energy method where
-** the final gamma = E/m is at least BL_HE_GAMMA_MIN: there it agrees with
-** the Born integral within 5.3e-4 for e, mu and pi, Z = 1...100, every
-** screening model, nucleus uniform (tests/test_methods.c); the difference
-** falls like 0.27/gamma.  Complete screening also needs Tsai's screening
+** the final gamma = E/m is at least bl_he_gamma_min: BL_HE_GAMMA_MIN and,
+** with a uniform nucleus of radius R (x = m R / hbar c <= BL_HE_MR_MAX),
+** at least BL_HE_GAMMA_MR x and BL_HE_GAMMA_MR3 x^(1/3).  The nuclear-size
+** correction is calibrated at gamma -> infinity; at finite gamma it is
+** off by about 2 (x / gamma^3)^(1/2) (measured, src/core/methods/
+** highenergy.c), and for Delta > hbar c / (2 R) not known at all.  There
+** it agrees with the Born integral within 1e-3 (worst measured 6.5e-4)
+** for masses from m_e to 1 TeV, spin 0 and 1/2, Z = 1...100, every
+** screening model (tests/test_methods.c); the difference falls like
+** 0.27/gamma.  Complete screening also needs Tsai's screening
 ** variable 100 m_e k / (E0 E Z^1/3) <= BL_COMPLETE_TSAI_GAMMA_MAX (where
 ** the Thomas-Fermi form departs from its limit by about 0.5 %) and a
 ** nucleus point-like at q ~ m: m R <= BL_COMPLETE_MR_MAX hbar c.
 */
 #define BL_HE_GAMMA_MIN            500.0
+#define BL_HE_GAMMA_MR             3.0
+#define BL_HE_GAMMA_MR3            250.0
 #define BL_COMPLETE_TSAI_GAMMA_MAX 0.02
 #define BL_COMPLETE_MR_MAX         0.1
+#define BL_HE_MR_MAX               1e6
 
 /* Lua-facing name of a method id ("born", "high-energy", ...); NULL if
 ** unknown.  Method id of a name; -1 if unknown. */
@@ -49,8 +58,8 @@ int bl_method_find (const char *name);
 typedef struct bl_hetab bl_hetab;
 
 /* Nuclear-size correction of phi1, phi2 at one node of a grid in the
-** projectile mass times the nuclear radius, per spin (cached likewise).
-** Opaque. */
+** projectile mass times the nuclear radius, per spin (a constant table in
+** the library, src/core/methods/nuc_table.c).  Opaque. */
 
 /* Most unreferenced screening tables the cache keeps for reuse; beyond,
 ** the one released longest ago is freed (about 8 KB each). */
@@ -86,11 +95,11 @@ typedef struct bl_he {
 ** Fill *h for case c: fetch the screening tables of (Z, model) from the
 ** cache or build them (about 10 ms each, once per process; thread-safe),
 ** taking one reference on each (see bl_he above).
-** The nuclear-size correction of a uniform nucleus is computed from the
-** Born integral (once per node of a grid in m R and spin) with the
-** workspace q.  BL_SUCCESS, BL_EDOMAIN (NULL c or h; NULL q for a uniform
-** nucleus), BL_ENOMEM, or the status of a failed Born calibration; on
-** failure h holds no reference (cleared).
+** The nuclear-size correction of a uniform nucleus comes from a table in
+** the library (calibrated once on the Born integral per node of a grid in
+** m R and spin, by make nuc-table); q is not used and may be NULL.
+** BL_SUCCESS, BL_EDOMAIN (NULL c or h), BL_ENOMEM or a model's failure;
+** on failure h holds no reference (cleared).
 */
 int bl_he_prepare (const bl_case *c, bl_quad *q, bl_he *h);
 
@@ -102,9 +111,9 @@ int bl_he_prepare (const bl_case *c, bl_quad *q, bl_he *h);
 void bl_he_release (bl_he *h);
 
 /*
-** Free every cached table and nuclear-size node that no bl_he references
-** (those in use stay valid).  Thread-safe.  bl_method_cache_count: the
-** tables and nodes held now, referenced or not.
+** Free every cached screening table that no bl_he references (those in
+** use stay valid).  Thread-safe.  bl_method_cache_count: the tables held
+** now, referenced or not.
 */
 void bl_method_cache_clear (void);
 size_t bl_method_cache_count (void);
@@ -128,8 +137,15 @@ int bl_he_dk_e (const bl_case *c, const bl_he *h, double k,
 int bl_complete_dk_e (const bl_case *c, double k, bl_result *out);
 
 /* 1 if the high-energy method holds at photon energy k of case c to
-** 1e-3 (the switch of method "auto"); 0 otherwise. */
+** 1e-3 (the switch of method "auto"): the final gamma is at least
+** bl_he_gamma_min(c); 0 otherwise. */
 int bl_he_valid (const bl_case *c, double k);
+
+/* The smallest final gamma = E/m where the high-energy method holds for
+** case c: BL_HE_GAMMA_MIN, or with a uniform nucleus (x = m R / hbar c)
+** BL_HE_GAMMA_MR x or BL_HE_GAMMA_MR3 x^(1/3) if larger; HUGE_VAL where
+** the nuclear-size table ends (x > BL_HE_MR_MAX) or c is NULL. */
+double bl_he_gamma_min (const bl_case *c);
 
 /*
 ** dsigma/dk by `method` (BL_METHOD_*); h may be NULL for born and

@@ -243,11 +243,13 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
       break;
     case BL_WARN_METHOD:
       snprintf(msg, sizeof msg, "%s: method '%s' holds for a final gamma = "
-               "E/m >= %g (complete screening also needs Tsai's gamma <= "
-               "%g and a point-like nucleus); here gamma0 = %.4g (%s, "
-               "target %s); method 'born' or 'auto' is exact", text,
-               bl_method_name(o->method), BL_HE_GAMMA_MIN,
-               BL_COMPLETE_TSAI_GAMMA_MAX, g0, p->name, o->target.name);
+               "E/m >= %g and, with a uniform nucleus of radius R, >= %g m R "
+               "/ (hbar c) for m R <= %g hbar c (complete screening also "
+               "needs Tsai's gamma <= %g and a point-like nucleus); here "
+               "gamma0 = %.4g (%s, target %s); method 'born' or 'auto' is "
+               "exact", text, bl_method_name(o->method), BL_HE_GAMMA_MIN,
+               BL_HE_GAMMA_MR, BL_HE_MR_MAX, BL_COMPLETE_TSAI_GAMMA_MAX, g0,
+               p->name, o->target.name);
       break;
     case BL_WARN_SUPPRESS:
       snprintf(msg, sizeof msg, "%s (Stanev et al. fits, Klein 1999 review); "

@@ -49,4 +49,12 @@ int bl_gk_adapt (bl_gkfun f, void *par, double a, double b, double epsabs,
                  double epsrel, size_t limit, int npt, bl_gkpanel *w,
                  double *val, double *err);
 
+/* The same, also stopping (GSL_EMAXITER) before a bisection once the call
+** counter *calls has reached stop (calls NULL: no such bound): a work
+** budget that holds whatever the integrand's own cost. */
+int bl_gk_adapt_budget (bl_gkfun f, void *par, double a, double b,
+                        double epsabs, double epsrel, size_t limit, int npt,
+                        bl_gkpanel *w, const unsigned long *calls,
+                        unsigned long stop, double *val, double *err);
+
 #endif

@@ -223,6 +223,15 @@ static void gk (const gkrule *r, bl_gkfun f, void *par, double a, double b,
 int bl_gk_adapt (bl_gkfun f, void *par, double a, double b, double epsabs,
                  double epsrel, size_t limit, int npt, bl_gkpanel *w,
                  double *val, double *err) {
+  return bl_gk_adapt_budget(f, par, a, b, epsabs, epsrel, limit, npt, w,
+                            NULL, 0, val, err);
+}
+
+
+int bl_gk_adapt_budget (bl_gkfun f, void *par, double a, double b,
+                        double epsabs, double epsrel, size_t limit, int npt,
+                        bl_gkpanel *w, const unsigned long *calls,
+                        unsigned long stop, double *val, double *err) {
   const gkrule *r = npt == 15 ? &rule15 : &rule21;
   double V, E, IE;
   size_t n = 1, i;
@@ -240,7 +249,7 @@ int bl_gk_adapt (bl_gkfun f, void *par, double a, double b, double epsabs,
     rt = tol - IE > 0.5 * tol ? tol - IE : 0.5 * tol;
     if (E <= rt || !isfinite(V) || !isfinite(E))
       break;
-    if (n >= limit) {
+    if (n >= limit || (calls != NULL && *calls >= stop)) {
       st = GSL_EMAXITER;
       break;
     }

@@ -58,7 +58,8 @@
 ** integration"). */
 #define RULE15_RTOL 1e-2
 /* Work budget of one dsigma/dk, in integrand calls (about 0.3 s).  Past it
-** the inner integrals get a single panel each, so a request the integrator
+** the inner integrals get a single panel each and the outer one bisects no
+** more (bl_gk_adapt_budget), so a request the integrator
 ** cannot resolve in double precision ends in bounded time, flagged
 ** BL_ENOTCONV, instead of running for minutes.  Normal points use 1e3 to
 ** 4e4 calls.  (The fuzzing build lowers it, Makefile "fuzz".) */
@@ -425,8 +426,10 @@ int bl_dcs_dk_az_e (const bl_case *c, double k, bl_quad *q,
     double a = pts[i], b = (i + 1 < n) ? pts[i + 1] : smax, v, e;
     /* a later piece (beyond the kink: backward photons) may be negligible
     ** next to the first; it needs only an absolute share of the tolerance */
-    st = bl_gk_adapt(outer_f, &it, a, b, TAIL_SHARE * q->rtol * fabs(val),
-                     q->rtol, q->limit, it.npt, q->pan[0], &v, &e);
+    st = bl_gk_adapt_budget(outer_f, &it, a, b,
+                            TAIL_SHARE * q->rtol * fabs(val), q->rtol,
+                            q->limit, it.npt, q->pan[0], &q->calls,
+                            it.calls0 + CALL_BUDGET, &v, &e);
     note(&it, st);
     val += v;
     abserr += e;

@@ -104,46 +104,65 @@ void bl_bracket_set (const bl_kin *kn, const bl_polar *g, bl_bracket *br) {
 ** >> q^2) costs no digits.  Writing x w_i = 1 - pole_i w_i instead loses
 ** them all: 1e-6 noise at T = 100 GeV.
 */
+/*
+** Cost (issue 14): per pole one sqrt and one division, 1/(R P), from which
+** 1/R and 1/P follow by products (vectorized); the pole factors of the
+** pair terms, (L0 + pole M0)/R and 2 (L1 + pole M1)/P, are taken there
+** once per pole rather than once per term; the sums run in two
+** accumulators.  1.13-1.20x the calls per second of the form before
+** (make bench, "kernel"); values change by rounding only, which the
+** closed form amplifies where it cancels (up to 5e-7 relative at the
+** largest angles, far below every tolerance: make error-sweep unchanged).
+*/
 double bl_bracket_azimuth (const bl_bracket *br, int npole,
                            const double *pole, const double *single,
                            int nterm, const bl_term *term) {
   double m[BL_POLE_MAX], R[BL_POLE_MAX], iR[BL_POLE_MAX], iP[BL_POLE_MAX];
-  double g[BL_POLE_MAX], A[BL_POLE_MAX], B[BL_POLE_MAX];
-  double b = br->b, sum = 0.0;
+  double g[BL_POLE_MAX], F[BL_POLE_MAX], G[BL_POLE_MAX];
+  const double b = br->b, b2 = 2.0 * br->b, Q0 = br->Q0;
+  const double L0 = br->L0, L1 = br->L1, M0 = br->M0, M1 = br->M1;
+  double s0 = 0.0, s1 = 0.0;
   int i, t;
-  for (i = 0; i < npole; i++) {   /* one sqrt, two divisions: vectorizable */
-    m[i] = pole[i] + br->Q0;
-    R[i] = sqrt(m[i] * (m[i] + 2.0 * b));
-    iR[i] = 1.0 / R[i];
-    iP[i] = 1.0 / (m[i] + 2.0 * b + R[i]);
-    g[i] = br->M0 * iR[i] + 2.0 * br->M1 * iP[i];   /* (M0 G0 + M1 G1)/pi */
-    A[i] = br->L0 + pole[i] * br->M0;
-    B[i] = br->L1 + pole[i] * br->M1;
+  for (i = 0; i < npole; i++) {   /* one sqrt, one division: vectorized */
+    double mi = pole[i] + Q0, Ri = sqrt(mi * (mi + b2));
+    double Pi = mi + b2 + Ri, inv = 1.0 / (Ri * Pi);
+    double iRi = Pi * inv, iPi = Ri * inv;
+    m[i] = mi;
+    R[i] = Ri;
+    iR[i] = iRi;
+    iP[i] = iPi;
+    g[i] = M0 * iRi + 2.0 * M1 * iPi;   /* (M0 G0 + M1 G1)/pi */
+    F[i] = (L0 + pole[i] * M0) * iRi;
+    G[i] = 2.0 * (L1 + pole[i] * M1) * iPi;
   }
   for (i = 0; i < npole; i++)
     if (single[i] != 0.0) {
       /* R - pole and P - 2 pole without cancellation (pole >> Q0 + b) */
-      double rp = (2.0 * pole[i] * (br->Q0 + b) + br->Q0 * (br->Q0 + 2.0 * b))
+      double rp = (2.0 * pole[i] * (Q0 + b) + Q0 * (Q0 + b2))
                   / (R[i] + pole[i]);
-      sum += single[i] * (br->L0 * iR[i] + 2.0 * br->L1 * iP[i]
-                          - br->M0 * rp * iR[i]
-                          - br->M1 * (br->Q0 + 2.0 * b + rp) * iP[i]);
+      s0 += single[i] * ((L0 - M0 * rp) * iR[i]
+                         + (2.0 * L1 - M1 * (Q0 + b2 + rp)) * iP[i]);
     }
   /* cppcheck cannot know that term indices are < npole (the contract of
-  ** bl_term): every m, R, iR, iP, A, B, g read below was set above */
+  ** bl_term): every m, R, iR, iP, F, G, g read below was set above */
   for (t = 0; t < nterm; t++) {   /* one division a term, none for squares */
     int ti = term[t].i, tj = term[t].j;
     // cppcheck-suppress uninitvar ; indices < npole, see above
-    double s = m[ti] + m[tj] + 2.0 * b;
-    // cppcheck-suppress uninitvar ; indices < npole, see above
     double irr = ti == tj ? 0.5 * iR[ti] : 1.0 / (R[ti] + R[tj]);
-    double y0 = s * irr * iR[ti] * iR[tj];
     // cppcheck-suppress uninitvar ; indices < npole, see above
-    double y1 = 2.0 * (1.0 + s * irr) * iP[ti] * iP[tj];
+    double sr = (m[ti] + m[tj] + b2) * irr;   /* Y0 = sr/(R_i R_j) */
     // cppcheck-suppress uninitvar ; indices < npole, see above
-    sum += term[t].c * (A[ti] * y0 + B[ti] * y1 - g[tj]);
+    double y0 = sr * F[ti] * iR[tj];
+    // cppcheck-suppress uninitvar ; indices < npole, see above
+    double y1 = (1.0 + sr) * G[ti] * iP[tj];
+    // cppcheck-suppress uninitvar ; indices < npole, see above
+    double v = term[t].c * (y0 + y1 - g[tj]);
+    if (t & 1)
+      s1 += v;
+    else
+      s0 += v;
   }
-  return BL_PI * sum;
+  return BL_PI * (s0 + s1);
 }
 
 

@@ -18,7 +18,7 @@ int bl_method_prepare (const bl_case *c, int method, bl_quad *q, bl_he *h) {
   if (c == NULL)
     return BL_EDOMAIN;
   if (method == BL_METHOD_HIGH_ENERGY
-      || (method == BL_METHOD_AUTO && 1.0 + c->t0 > BL_HE_GAMMA_MIN))
+      || (method == BL_METHOD_AUTO && 1.0 + c->t0 > bl_he_gamma_min(c)))
     return bl_he_prepare(c, q, h);
   return BL_SUCCESS;
 }
@@ -26,12 +26,11 @@ int bl_method_prepare (const bl_case *c, int method, bl_quad *q, bl_he *h) {
 
 void bl_method_cache_clear (void) {
   bl_hetab_clear();
-  bl_nucsize_clear();
 }
 
 
 size_t bl_method_cache_count (void) {
-  return bl_hetab_count() + bl_nucsize_count();
+  return bl_hetab_count();
 }
 
 
@@ -112,10 +111,10 @@ int bl_method_breaks (const bl_case *c, const bl_he *h, int method,
     k[n] = bl_coulomb_kend(c);
     jump[n++] = 0.1;
   }
-  /* "auto" changes method at the final gamma BL_HE_GAMMA_MIN (within 1e-3) */
-  if (method == BL_METHOD_AUTO && h != NULL && h->ready && E0 > BL_HE_GAMMA_MIN
-      && n < nmax) {
-    k[n] = (E0 - BL_HE_GAMMA_MIN) * m;
+  /* "auto" changes method at the final gamma bl_he_gamma_min (within 1e-3) */
+  if (method == BL_METHOD_AUTO && h != NULL && h->ready
+      && E0 > bl_he_gamma_min(c) && n < nmax) {
+    k[n] = (E0 - bl_he_gamma_min(c)) * m;
     jump[n++] = 1e-3;
   }
   return n;

@@ -40,7 +40,7 @@ int bl_he_prepare (const bl_case *c, bl_quad *q, bl_he *h) {
     h->el = bl_hetab_get(BL_HETAB_ELASTIC, &y);
     if (h->el == NULL)
       return BL_ENOMEM;
-    bl_hetab_tails(BL_HETAB_ELASTIC, &y, m, h->tail_el);
+    bl_hetab_tails(h->el, m, h->tail_el);
     h->maxerr = bl_hetab_maxerr(h->el);
   }
   if (c->opts.electrons && c->screening->incoherent != NULL) {
@@ -54,30 +54,23 @@ int bl_he_prepare (const bl_case *c, bl_quad *q, bl_he *h) {
       bl_he_release(h);   /* the references taken so far */
       return st;
     }
-    bl_hetab_tails(BL_HETAB_ELECTRONS, &y, m, h->tail_e);
+    bl_hetab_tails(h->e, m, h->tail_e);
     h->maxerr = fmax(h->maxerr, bl_hetab_maxerr(h->e));
   }
-  if (c->R > 0.0) {
-    st = q == NULL ? BL_EDOMAIN : bl_nucsize_get(c, q, h);
-    if (st != BL_SUCCESS) {
-      bl_he_release(h);
-      return st;
-    }
-  }
+  (void)q;   /* the nuclear size is a table in the source (nucsize.c) */
+  if (c->R > 0.0)
+    bl_nucsize_get(c, h);
   h->ready = 1;
   return BL_SUCCESS;
 }
 
 
 void bl_he_release (bl_he *h) {
-  int i;
   if (h == NULL)
     return;
   bl_hetab_release(h->el);
   bl_hetab_release(h->e);
-  for (i = 0; i < 4; i++)
-    bl_nucsize_release(h->nuc[i]);
-  memset(h, 0, sizeof *h);
+  memset(h, 0, sizeof *h);   /* the nuclear-size nodes are static data */
 }
 
 
@@ -102,8 +95,34 @@ static void phis (const bl_hetab *t, const double tail[4], double Delta,
 }
 
 
+/*
+** The small-angle form with the nuclear-size correction of nucsize.c is
+** the gamma -> infinity limit; at finite gamma the nuclear size shifts it
+** by about 2 (x / gamma^3)^(1/2), x = m R / hbar c, and beyond Delta ~
+** hbar c / R (delta > 1/x) the table has no nodes.  Measured against Born
+** (rtol 1e-6; Hartree-Fock screening, electrons, uniform nucleus; Fe and
+** U; spin 0 and 1/2; y = 0.01 ... 0.99; worst over y): at gamma =
+** max(500, 150 x^(1/3)) 1.0e-3 ... 1.5e-3 for masses 1 ... 100 GeV, at
+** 250 x^(1/3) (BL_HE_GAMMA_MR3) 3.4e-4 ... 9.2e-4; the largest at y -> 1,
+** spin 0, where delta x is largest: there gamma >= 3 x (BL_HE_GAMMA_MR,
+** delta < x/6) is needed too (100 GeV on U at 2.5 x: 3e-2).  Beyond the
+** table (x > BL_HE_MR_MAX) the correction is not known.
+*/
+double bl_he_gamma_min (const bl_case *c) {
+  double mR, g = BL_HE_GAMMA_MIN;
+  if (c == NULL)
+    return HUGE_VAL;
+  mR = c->R * c->particle.mass / BL_HBARC_MEVFM;
+  if (mR > BL_HE_MR_MAX)
+    return HUGE_VAL;
+  if (mR > 0.0)
+    g = fmax(g, fmax(BL_HE_GAMMA_MR * mR, BL_HE_GAMMA_MR3 * cbrt(mR)));
+  return g;
+}
+
+
 int bl_he_valid (const bl_case *c, double k) {
-  return c != NULL && 1.0 + c->t0 - k / c->particle.mass >= BL_HE_GAMMA_MIN;
+  return c != NULL && 1.0 + c->t0 - k / c->particle.mass >= bl_he_gamma_min(c);
 }
 
 

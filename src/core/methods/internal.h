@@ -24,8 +24,10 @@ enum { BL_HETAB_ELASTIC, BL_HETAB_ELECTRONS };
 ** bl_hetab_count: entries held.
 ** bl_hetab_lookup: H1 and H2 at u = ln Delta (Delta in MeV).
 ** bl_hetab_maxerr: the worst interpolation error measured when built.
-** bl_hetab_tails: the four moments of h beyond q = m that replace the
-**   step at q = m by the exact small-angle kernels (m in MeV).
+** bl_hetab_tails: the moments of h beyond q = m that replace the step at
+**   q = m by the exact small-angle kernels (m in MeV), of table t's
+**   representation (out[0], out[1]; out[2], out[3] are 0); kept in t
+**   for its latest masses.
 */
 const bl_hetab *bl_hetab_get (int kind, const bl_yukawa *y);
 void bl_hetab_release (const bl_hetab *t);
@@ -33,24 +35,42 @@ size_t bl_hetab_clear (void);
 size_t bl_hetab_count (void);
 void bl_hetab_lookup (const bl_hetab *t, double u, double *H1, double *H2);
 double bl_hetab_maxerr (const bl_hetab *t);
-void bl_hetab_tails (int kind, const bl_yukawa *y, double m, double out[4]);
+void bl_hetab_tails (const bl_hetab *t, double m, double out[4]);
 
 /*
-** Nuclear size (nucsize.c).
-** bl_nucsize_get: the four grid nodes of case c and their weights into h
-**   (h->nnuc = 0 below the grid), calibrating missing nodes with the Born
-**   integral on workspace q; BL_SUCCESS, BL_ENOMEM or a Born failure.
-** bl_nucsize_at: N1, N2 of one node at delta = Delta/m.
-** Each node in h holds one reference (taken by bl_nucsize_get, also for
-** the nodes of a failed call, left in h->nuc); bl_nucsize_release drops
-** one (NULL: nothing); bl_nucsize_clear frees the unreferenced nodes and
-** returns the count left; bl_nucsize_count counts them.  The nodes are
-** bounded by the grid (2 spins x NUC_NX), so no idle bound is needed.
+** Nuclear size (nucsize.c, its table nuc_table.c made by
+** scripts/fit-nucsize.c through `make nuc-table`).
+** One grid node of x = ln(m R / hbar c) per spin: N1, N2 (the change of
+** phi1, phi2 from a point to a uniform nucleus) at n nodes in ln delta,
+** delta = Delta/m, uniformly NUC_DLN apart from lnd0; err the worst
+** interpolation error measured at the midpoints (units of phi).
 */
-int bl_nucsize_get (const bl_case *c, bl_quad *q, bl_he *h);
-void bl_nucsize_release (const bl_nuctab *t);
-size_t bl_nucsize_clear (void);
-size_t bl_nucsize_count (void);
+#define NUC_NODES 25     /* nodes in delta: q_N 10^(-3 + j/8), j < 25 */
+#define NUC_DLN   0.2878231366242557   /* their step in ln delta */
+#define NUC_X0    (-6.907755278982137) /* grid in x = ln(m R / hbar c): */
+#define NUC_DX    0.25                 /* from ln 1e-3 ... */
+#define NUC_NX    85                   /* ... to ln 1.3e6 */
+#define NUC_A     100.0  /* mass number of the probe nucleus of the grid */
+#define NUC_TOP   1e-2   /* no node above this delta (small angles end) */
+
+struct bl_nuctab {
+  int n;
+  double lnd0;
+  double N1[NUC_NODES], N2[NUC_NODES];
+  double err;
+};
+
+/* The table: [spin 0, spin 1/2][grid index of x]. */
+extern const bl_nuctab bl_nuc_table[2][NUC_NX];
+
+/*
+** bl_nucsize_get: the four grid nodes of case c and their weights into h
+**   (h->nnuc = 0 below the grid, m R < 1e-3 hbar c: there the effect is
+**   below 1e-5); no integral, the table is in the source.
+** bl_nucsize_at: N1, N2 of one node at delta = Delta/m, cubic in ln delta
+**   between the nodes, constant outside them.
+*/
+void bl_nucsize_get (const bl_case *c, bl_he *h);
 void bl_nucsize_at (const bl_nuctab *t, double delta, double *N1,
                     double *N2);
 

@@ -54,6 +54,7 @@
 #define ABOVE    10.0    /* ... to ln(b_max) + ABOVE */
 #define TPANEL   1.0     /* width of the Gauss-Legendre panels in t */
 #define TREACH   12.0    /* integrate h up to Q = b_max e^TREACH */
+#define TAIL_MEMO 8      /* masses whose tails a table keeps */
 
 
 /* 8-point Gauss-Legendre nodes and weights on [-1, 1] (half of them). */
@@ -76,6 +77,10 @@ struct bl_hetab {
   double maxerr;          /* worst midpoint interpolation error */
   int refs;               /* bl_he holding it (under cache_lock) */
   unsigned long stamp;    /* when it last became unreferenced */
+  /* the tails of the latest projectile masses (bl_hetab_tails), under
+  ** cache_lock: a re-prepare of the same case reads them */
+  int ntail, tailnext;
+  double tailm[TAIL_MEMO], tail[TAIL_MEMO][2];
   struct bl_hetab *next;
 };
 
@@ -406,16 +411,18 @@ static void kernels (double s, double *k1, double *k2) {
 ** out[0] = int_0^inf h(q) [1 - k1(q/m)] dq/q (phi1), out[1] the same with
 ** k2 (phi2), replacing the step at q = m by the exact weights.  Terms of
 ** order Delta/m in it are dropped (below 1e-5 of phi where "auto" uses
-** the method).
+** the method).  About 25 us, so the table keeps the tails of its latest
+** TAIL_MEMO masses (under the cache lock; a Lua call prepares its case
+** anew each time).
 */
-void bl_hetab_tails (int kind, const bl_yukawa *y, double m, double out[4]) {
+static void tails (int kind, const bl_yukawa *y, double m, double out[2]) {
   double bmin, bmax, t0, t1;
   int np, p, j, s;
   yrange(y, &bmin, &bmax);
   t0 = fmin(log(bmin / m), 0.0) - 10.0;   /* (1 - k) ~ s^2 below m */
   t1 = fmax(log(bmax / m), 0.0) + TREACH;
   np = (int)ceil((t1 - t0) / TPANEL);
-  out[0] = out[1] = out[2] = out[3] = 0.0;
+  out[0] = out[1] = 0.0;
   for (p = 0; p < np; p++) {
     double mid = t0 + (p + 0.5) * TPANEL, half = 0.5 * TPANEL;
     for (j = 0; j < 4; j++)
@@ -428,6 +435,27 @@ void bl_hetab_tails (int kind, const bl_yukawa *y, double m, double out[4]) {
         out[1] += w * h * (1.0 - k2);
       }
   }
+}
+
+
+void bl_hetab_tails (const bl_hetab *ct, double m, double out[4]) {
+  bl_hetab *t = (bl_hetab *)ct;   /* the memo is ours, under the lock */
+  int i;
+  out[2] = out[3] = 0.0;
+  pthread_mutex_lock(&cache_lock);
+  for (i = 0; i < t->ntail && t->tailm[i] != m; i++)
+    ;
+  if (i == t->ntail) {   /* new mass: compute, replace the oldest */
+    i = t->tailnext;
+    t->tailnext = (i + 1) % TAIL_MEMO;
+    if (t->ntail < TAIL_MEMO)
+      t->ntail++;
+    tails(t->kind, &t->y, m, t->tail[i]);
+    t->tailm[i] = m;
+  }
+  out[0] = t->tail[i][0];
+  out[1] = t->tail[i][1];
+  pthread_mutex_unlock(&cache_lock);
 }
 
 
