@@ -185,8 +185,8 @@ Test(methods, auto_agrees_every_mass, .timeout = 120) {
             cr_assert_eq(bl_method_dk_e(&c, &h, BL_METHOD_AUTO,
                                         (g0 - 0.999 * gmin) * p.mass, q, &ra),
                          BL_SUCCESS);
-            cr_expect_eq(ra.method, BL_METHOD_BORN, "m=%g below the switch",
-                         p.mass);
+            cr_expect_eq(ra.method, BL_METHOD_DISTORTED,
+                         "m=%g below the switch", p.mass);
             bl_he_release(&h);
           }
       }
@@ -219,8 +219,12 @@ Test(methods, heavy_scalar_on_iron) {
                  BL_SUCCESS);
     cr_assert_eq(bl_method_dk_e(&c, &h, BL_METHOD_BORN, k, q, &rb),
                  BL_SUCCESS);
-    cr_expect_eq(ra.method, BL_METHOD_BORN, "y=%g", ys[i]);
-    cr_expect(ra.val == rb.val && ra.val > 0.0, "y=%g: %g %g", ys[i], ra.val,
+    /* below the switch "auto" is the distorted waves; for so heavy a
+    ** projectile the point-charge distortion is left out for the nuclear
+    ** size and the Elwert factor is 1 + O(1e-8): Born */
+    cr_expect_eq(ra.method, BL_METHOD_DISTORTED, "y=%g", ys[i]);
+    cr_expect(fabs(ra.val / rb.val - 1.0) < 1e-6 && ra.val > 0.0,
+              "y=%g: %g %g", ys[i], ra.val,
               rb.val);
     cr_assert_eq(bl_method_dk_e(&c, &h, BL_METHOD_HIGH_ENERGY, k, q, &rh),
                  BL_SUCCESS);

@@ -343,8 +343,8 @@ void lbl_checkintegral (lua_State *L, const Opts *o) {
 
 /*
 ** Refuse coulomb = true where the correction is not defined, and a method
-** without angles for angular distributions: the Born integral ("auto"
-** means born there) or the distorted waves.
+** without angles for angular distributions: the Born integral or the
+** distorted waves ("auto" means the distorted waves there).
 */
 void lbl_nocoulomb (lua_State *L, Opts *o) {
   if (o->bo.coulomb == BL_APPLY_ON)
@@ -357,8 +357,6 @@ void lbl_nocoulomb (lua_State *L, Opts *o) {
                 "distributions come from the Born integral or the distorted "
                 "waves only; allowed here: 'auto' (default), 'born' or "
                 "'distorted'", bl_method_name(o->method));
-  if (o->method != BL_METHOD_DISTORTED)
-    o->method = BL_METHOD_BORN;
 }
 
 

@@ -30,9 +30,11 @@ int main (int argc, char **argv) {
   bl_tresult sp[4], el, yield[4];
   double T, k[4], edges[5];
   bl_quad *q;
-  int st, i, failZ, failbin;
-  if (argc != 3)
-    return fprintf(stderr, "usage: target_values MATERIAL T\n"), 2;
+  int st, i, failZ, failbin, method = BL_METHOD_AUTO;
+  if (argc != 3 && argc != 4)
+    return fprintf(stderr, "usage: target_values MATERIAL T [METHOD]\n"), 2;
+  if (argc == 4 && (method = bl_method_find(argv[3])) < 0)
+    return fprintf(stderr, "target_values: unknown method %s\n", argv[3]), 2;
   gsl_set_error_handler_off();
   T = atof(argv[2]);
   st = bl_material_lookup(&m, argv[1], NULL);
@@ -43,7 +45,7 @@ int main (int argc, char **argv) {
     return fail("workspace", BL_ENOMEM);
   st = bl_target_setup(&t, bl_particle_find("electron"), &m,
                        bl_model_find("hartree-fock"), NULL, T,
-                       &bl_opts_default, BL_METHOD_AUTO, NULL, &failZ);
+                       &bl_opts_default, method, NULL, &failZ);
   if (st == BL_SUCCESS)
     st = bl_target_prepare(&t, q, &failZ);
   if (st != BL_SUCCESS)

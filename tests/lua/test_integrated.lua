@@ -122,13 +122,13 @@ end
 do
   local s = bl.spectrum{ particle = "electron", target = "Cu", T = 1e4,
                          y = { 0.01, 0.5, 0.99 } }
-  check(s.method[1] == "high-energy" and s.method[3] == "born",
+  check(s.method[1] == "high-energy" and s.method[3] == "distorted",
         "auto per point: %s %s", s.method[1], s.method[3])
   check(s.settings.method == "auto" and s.settings.method_requested == "auto",
         "mixed points: %s", s.settings.method)
   local v, _, _, info = bl.dsdk{ particle = "electron", target = "Cu",
                                  T = 10, k = 5 }
-  check(info.settings.method == "born", "low energy: %s",
+  check(info.settings.method == "distorted", "low energy: %s",
         info.settings.method)
   local h = bl.spectrum{ particle = "electron", target = "Cu", T = 1e4,
                          y = { 0.01, 0.5 }, method = "high-energy" }

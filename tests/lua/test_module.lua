@@ -112,11 +112,20 @@ do
   assert(st.nucleus == "uniform" and st.electrons == true)
   assert(st.coulomb == "auto" and st.elwert == "auto")
   assert(s.per_gram > 0 and st.target.per_gram == s.per_gram)
-  assert(st.method == "born")
+  assert(st.method == "distorted", st.method)
   assert(type(s.warnings) == "table")
-  -- electron on lead: 2 pi Z alpha = 3.8, the Born warning names numbers
-  local born
+  -- electron on lead: the distorted waves' model uncertainty, with numbers
+  local dw
   for _, w in ipairs(s.warnings) do
+    if w:find("distorted waves", 1, true) then dw = w end
+  end
+  assert(dw, "no distorted-wave warning for an electron on lead")
+  assert(dw:find("Pb", 1, true) and dw:find("= 0.358", 1, true), dw)
+  -- the Born method says where Born is poor: 2 pi Z alpha = 3.8
+  local sb = bl.spectrum{ particle = "electron", target = 82, T = 10,
+                          k = { 1, 5, 9 }, method = "born" }
+  local born
+  for _, w in ipairs(sb.warnings) do
     if w:find("Born", 1, true) then born = w end
   end
   assert(born, "no Born warning for an electron on lead")
@@ -171,7 +180,7 @@ do
   assert(a.units.theta == "rad" and a.units.d2sigma == "mb/(MeV sr)" and
          a.units.err == "mb/(MeV sr)" and a.units.k == "MeV")
   assert(a.settings.particle.name == "positron" and
-         a.settings.target.Z == 13 and a.settings.method == "born")
+         a.settings.target.Z == 13 and a.settings.method == "distorted")
   assert(type(a.warnings) == "table")
 end
 

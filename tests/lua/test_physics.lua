@@ -100,7 +100,7 @@ do
   local zm = bl.particle{ name = "zm", mass = mu.mass, charge = -1, spin = 0.5 }
   for _, scr in ipairs{ "none", "exponential" } do
     local o = { target = "Pb", T = 2000, k = 700, screening = scr,
-                rtol = 1e-4 }
+                rtol = 1e-4, method = "born" }
     o.particle = z1
     local v1 = bl.dsdk(o)
     o.particle = z2

@@ -66,7 +66,7 @@ int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
     case BL_METHOD_AUTO:
       if (c != NULL && h != NULL && h->ready && bl_he_valid(c, k))
         return closedform(bl_he_dk_e(c, h, k, out), q, out);
-      return bl_dcs_dk_e(c, k, q, out);
+      return bl_dw_dk_e(c, k, q, out);
     case BL_METHOD_DISTORTED:
       return bl_dw_dk_e(c, k, q, out);
     default:
@@ -77,10 +77,11 @@ int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
 
 
 /* The angular and fully differential values exist for the Born and the
-** distorted-wave methods; every other method gives Born's. */
+** distorted-wave methods: "auto" is the distorted waves there, every
+** other method gives Born's. */
 int bl_method_angular_e (const bl_case *c, int method, double k,
                          double theta_k, bl_quad *q, bl_result *out) {
-  if (method == BL_METHOD_DISTORTED)
+  if (method == BL_METHOD_DISTORTED || method == BL_METHOD_AUTO)
     return bl_dw_angular_e(c, k, theta_k, q, out);
   return bl_dcs_angular_e(c, k, theta_k, q, out);
 }
@@ -88,7 +89,7 @@ int bl_method_angular_e (const bl_case *c, int method, double k,
 
 int bl_method_full_e (const bl_case *c, int method, double k, double theta_k,
                       double theta_p, double phi, bl_result *out) {
-  if (method == BL_METHOD_DISTORTED)
+  if (method == BL_METHOD_DISTORTED || method == BL_METHOD_AUTO)
     return bl_dw_full_e(c, k, theta_k, theta_p, phi, out);
   return bl_dcs_full_e(c, k, theta_k, theta_p, phi, out);
 }
@@ -106,8 +107,7 @@ int bl_method_breaks (const bl_case *c, const bl_he *h, int method,
   ** the heaviest atoms) stops where the final gamma falls below
   ** BL_COULOMB_GAMMA_MIN */
   if (c->opts.coulomb == BL_APPLY_AUTO && bl_coulomb_case_valid(c)
-      && n < nmax
-      && method != BL_METHOD_HIGH_ENERGY && method != BL_METHOD_COMPLETE) {
+      && n < nmax && method == BL_METHOD_BORN) {
     k[n] = bl_coulomb_kend(c);
     jump[n++] = 0.1;
   }
