@@ -18,7 +18,7 @@ enum {
   BL_METHOD_BORN        = 0,   /* exact first-order Born integral */
   BL_METHOD_HIGH_ENERGY = 1,   /* screening functions, small angles */
   BL_METHOD_COMPLETE    = 2,   /* Tsai's complete-screening formula */
-  BL_METHOD_AUTO        = 3,   /* born or high-energy, per point */
+  BL_METHOD_AUTO        = 3,   /* distorted or high-energy, per point */
   BL_METHOD_DISTORTED   = 4    /* Sommerfeld-Maue distorted waves */
 };
 #define BL_METHOD_COUNT 5

@@ -7,9 +7,9 @@
   (photonuclear thresholds of many nuclei lie there) decides whether the
   design works.  The same foil serves electron and positron beams.  The
   scan runs over particle, beam energy and method: "born" (the first Born
-  approximation, no correction), "auto" (today's default: Born with the
-  Elwert factor, the high-energy form far above) and "distorted"
-  (Sommerfeld-Maue waves, README "Distorted waves").  Each point gives the
+  approximation, no correction), "auto" (the default: at these energies
+  the distorted waves) and "distorted" (Sommerfeld-Maue waves, README
+  "Distorted waves").  Each point gives the
   spectrum at fixed fractions y = k/T and the thin-foil photon yield above
   7 MeV.  Printed: the yields per method and their ratios, and the
   positron/electron ratio of the yield, which the first Born approximation
