@@ -484,22 +484,15 @@ int bl_dcs_angular_az_e (const bl_case *c, double k, double theta_k,
 }
 
 
-/*
-** Beam-frame angles (photon theta_k, particle theta_p, azimuth phi between
-** them around the beam) to the photon frame: with e1 = unit p0_perp and
-** e2 = k x e1, the final direction has perpendicular components
-**   X = sin(theta_k - theta_p) + 2 cos(theta_k) sin(theta_p) sin^2(phi/2),
-**   Y = -sin(theta_p) sin(phi),
-** and h = 1 - cos(theta) = 2 sin^2((theta_k - theta_p)/2)
-**                         + 2 sin(theta_k) sin(theta_p) sin^2(phi/2).
-*/
+/* The fully differential value; the beam-frame angles go to the photon
+** frame by bl_polar_beam (kin.c). */
 int bl_dcs_full_e (const bl_case *c, double k, double theta_k, double theta_p,
                    double phi, bl_result *out) {
   integ it;
   bl_kin *kn = &it.kn;
   bl_polar g;
   bl_bracket br;
-  double sd, sp, X, Y, rho, v, val;
+  double v, val;
   unsigned warn, applied;
   int st;
   if (out == NULL)
@@ -516,22 +509,7 @@ int bl_dcs_full_e (const bl_case *c, double k, double theta_k, double theta_p,
     return st;
   if (c->opts.coulomb == BL_APPLY_ON)
     warn |= BL_WARN_COULOMB;   /* known for dsigma/dk only */
-  sd = sin(0.5 * (theta_k - theta_p));
-  sp = sin(0.5 * phi);
-  g.ridge = 0;
-  g.h0 = 2.0 * sin(0.5 * theta_k) * sin(0.5 * theta_k);
-  g.s0 = sin(theta_k);
-  g.h = 2.0 * sd * sd + 2.0 * g.s0 * sin(theta_p) * sp * sp;
-  X = sin(theta_k - theta_p) + 2.0 * cos(theta_k) * sin(theta_p) * sp * sp;
-  Y = -sin(theta_p) * sin(phi);
-  rho = hypot(X, Y);
-  g.s = rho;
-  if (rho == 0.0)
-    v = 0.0;
-  else if (X > 0.0)
-    v = Y * Y / (rho * (rho + X));  /* 1 - cos(phi_k) without cancellation */
-  else
-    v = (rho - X) / rho;
+  bl_polar_beam(theta_k, theta_p, phi, &g, &v);
   bl_bracket_set(kn, &g, &br);
   val = bl_bracket_point(&br, v, c->npole, c->pole, it.single, it.nterm,
                          it.term);

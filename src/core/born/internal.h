@@ -91,6 +91,12 @@ int bl_dcs_dk_az_e (const bl_case *c, double k, bl_quad *q,
 int bl_dcs_angular_az_e (const bl_case *c, double k, double theta_k,
                          bl_quad *q, const bl_azimuth *az, bl_result *out);
 
+/* The polar geometry g (ridge off) and v = 1 - cos(phi_k) in the photon
+** frame from beam-frame angles: photon theta_k, particle theta_p, azimuth
+** phi between them around the beam (kin.c). */
+void bl_polar_beam (double theta_k, double theta_p, double phi, bl_polar *g,
+                    double *v);
+
 /* Kinematics of photon energy k (MeV) of case c, with the checks every
 ** method makes: BL_EDOMAIN unless 0 < k < T and the final momentum is
 ** positive. */

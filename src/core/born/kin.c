@@ -190,3 +190,34 @@ int bl_kin_case (const bl_case *c, double k, bl_kin *kn) {
     return BL_EDOMAIN;
   return BL_SUCCESS;
 }
+
+
+/*
+** Beam-frame angles (photon theta_k, particle theta_p, azimuth phi between
+** them around the beam) to the photon frame: with e1 = unit p0_perp and
+** e2 = k x e1, the final direction has perpendicular components
+**   X = sin(theta_k - theta_p) + 2 cos(theta_k) sin(theta_p) sin^2(phi/2),
+**   Y = -sin(theta_p) sin(phi),
+** and h = 1 - cos(theta) = 2 sin^2((theta_k - theta_p)/2)
+**                         + 2 sin(theta_k) sin(theta_p) sin^2(phi/2);
+** v = 1 - cos(phi_k) without cancellation.
+*/
+void bl_polar_beam (double theta_k, double theta_p, double phi, bl_polar *g,
+                    double *v) {
+  double sd = sin(0.5 * (theta_k - theta_p)), sp = sin(0.5 * phi);
+  double X, Y, rho;
+  g->ridge = 0;
+  g->h0 = 2.0 * sin(0.5 * theta_k) * sin(0.5 * theta_k);
+  g->s0 = sin(theta_k);
+  g->h = 2.0 * sd * sd + 2.0 * g->s0 * sin(theta_p) * sp * sp;
+  X = sin(theta_k - theta_p) + 2.0 * cos(theta_k) * sin(theta_p) * sp * sp;
+  Y = -sin(theta_p) * sin(phi);
+  rho = hypot(X, Y);
+  g->s = rho;
+  if (rho == 0.0)
+    *v = 0.0;
+  else if (X > 0.0)
+    *v = Y * Y / (rho * (rho + X));
+  else
+    *v = (rho - X) / rho;
+}

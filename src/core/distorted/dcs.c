@@ -90,32 +90,6 @@ static void clear (bl_result *out) {
 }
 
 
-/*
-** Beam-frame angles to the photon frame, as bl_dcs_full_e does
-** (born/dcs.c): the final direction's polar angle to the photon and the
-** azimuth around it, v = 1 - cos(phi_k), both without cancellation.
-*/
-static void beam_to_photon (double theta_k, double theta_p, double phi,
-                            bl_polar *g, double *v) {
-  double sd = sin(0.5 * (theta_k - theta_p)), sp = sin(0.5 * phi);
-  double X, Y, rho;
-  g->ridge = 0;
-  g->h0 = 2.0 * sin(0.5 * theta_k) * sin(0.5 * theta_k);
-  g->s0 = sin(theta_k);
-  g->h = 2.0 * sd * sd + 2.0 * g->s0 * sin(theta_p) * sp * sp;
-  X = sin(theta_k - theta_p) + 2.0 * cos(theta_k) * sin(theta_p) * sp * sp;
-  Y = -sin(theta_p) * sin(phi);
-  rho = hypot(X, Y);
-  g->s = rho;
-  if (rho == 0.0)
-    *v = 0.0;
-  else if (X > 0.0)
-    *v = Y * Y / (rho * (rho + X));
-  else
-    *v = (rho - X) / rho;
-}
-
-
 /* The fully differential value on case c itself (q-factor rule: the
 ** bracket of the point nucleus times c's target factor). */
 static int full_point (const bl_case *c, double k, double theta_k,
@@ -133,7 +107,7 @@ static int full_point (const bl_case *c, double k, double theta_k,
   st = bl_kin_case(c, k, &d.kn);
   if (st != BL_SUCCESS)
     return st;
-  beam_to_photon(theta_k, theta_p, phi, &g, &v);
+  bl_polar_beam(theta_k, theta_p, phi, &g, &v);
   u = bl_dw_u(&d.kn, &g, v, &q2);
   st = bl_dwk_init(&d, c, k, u, u);
   if (st == BL_SUCCESS)
