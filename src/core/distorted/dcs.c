@@ -1,16 +1,20 @@
 /*
-** dcs.c -- the distorted-wave cross sections: fully differential and
-** dsigma/dk (first version: nested adaptive integrals)
+** dcs.c -- the distorted-wave cross sections: fully differential, photon
+** angular distribution and dsigma/dk
 ** See Copyright Notice in LICENSE
 **
-**   d3sigma / (dk dOmega_k dOmega_p) = (norm / (4 pi^2)) (p / (p0 k)) W(q^2) B
+** On the bare point nucleus
 **
-** as the Born cross section (born/dcs.c), with the distorted-wave bracket
-** B of amp.c for the point nucleus and the case's target factor
-** W = G/(Z^2 q^4) taken at the same momentum transfer.  That is the
-** screening rule: the Coulomb distortion computed for the point nucleus,
-** screening, nuclear size and the atomic electrons as the factor
-** G(q)/Z^2 of the momentum transfer (DEVELOPERS.md, "Distorted waves").
+**   d3sigma / (dk dOmega_k dOmega_p) = (norm / (4 pi^2)) (p / (p0 k)) B / q^4
+**
+** as the Born cross section (born/dcs.c) with the distorted-wave bracket
+** B of amp.c; its integrals use the Born room's polar maps with the
+** azimuth integrated here (bl_azimuth hook).  Screening, nuclear size
+** and the atomic electrons come in by the rule of screened() below
+** (DEVELOPERS.md, "Distorted waves"): the screened Born value times the
+** Elwert factor plus the rest of the point nucleus's distortion, added at
+** high energy and scaled like the screened/unscreened Born ratio for slow
+** projectiles; every value carries its estimated model uncertainty (sys).
 */
 
 #include <math.h>
