@@ -30,8 +30,9 @@
 
 /*
 ** Born validity: Koch & Motz (1959) require 2 pi |z| Z alpha / beta << 1
-** for both velocities; the core warns (BL_WARN_BORN) where it exceeds
-** BL_BORN_XI_MAX after emission.
+** for both velocities (BL_BORN_XI_MAX, the bound the messages quote); the
+** core warns (BL_WARN_BORN) where the size of the Coulomb effects,
+** bl_coulomb_effect, exceeds BL_SYS_WARN.
 */
 #define BL_BORN_XI_MAX 1.0
 
@@ -42,6 +43,14 @@ extern "C" {
 /* The Born parameter 2 pi |z| Z alpha / beta of a projectile of charge z
 ** and mass m (MeV) at kinetic energy T (MeV) in the field of charge Z. */
 double bl_born_xi (double z, int Z, double T, double m);
+
+/* The estimated relative size of the Coulomb effects the first Born
+** approximation leaves out, for a projectile of charge z and mass m (MeV)
+** of kinetic energy T emitting k (MeV) on charge Z: the larger of the
+** Elwert factor's departure from 1 and f(zZ alpha)/(ln(2 E0 E/k) - 1/2).
+** BL_WARN_BORN is set where it exceeds BL_SYS_WARN.  0 for bad
+** arguments. */
+double bl_coulomb_effect (double z, int Z, double m, double T, double k);
 
 #ifdef __cplusplus
 }

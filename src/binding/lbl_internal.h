@@ -126,6 +126,7 @@ typedef struct Warnings {
   unsigned applied;    /* union of BL_APPLIED_* over all points */
   double minsup;       /* smallest suppression factor applied */
   double sysrel;       /* largest relative model uncertainty (sys/val) */
+  double kwin[2];      /* an integral's photon-energy window; 0 0: points */
   char sysat[64];      /* where it was */
 } Warnings;
 
@@ -183,6 +184,7 @@ void lbl_initwarn (Warnings *w, const bl_target *t);
 void lbl_addwarn (Warnings *w, const bl_result *r, double k,
                   const char *at);
 void lbl_addtarget (Opts *o, Warnings *w, const bl_tresult *tr);
+double lbl_coulomb_mean (const Opts *o, int Z, double kmin, double kmax);
 void lbl_computepoint (lua_State *L, Opts *o, const bl_target *t, int kind,
                        double k, double theta_k, double theta_p,
                        double phi, bl_quad *q, Warnings *w,

@@ -74,9 +74,9 @@ int l_cross_section (lua_State *L) {
 
 /*
 ** brakelight.energy_loss{particle =, target =, T =, ...}
-**   -> {dedx, err, sys, per_unit, radiation_length, E_over_X0, units,
-**       settings,
-**       warnings}: the radiative stopping power int_0^T k dsigma/dk dk
+**   -> {dedx, err, sys, per_unit, radiation_length, E_over_X0, note, units,
+**       settings, warnings}: the radiative stopping power
+**       int_0^T k dsigma/dk dk (note: what it contains)
 */
 int l_energy_loss (lua_State *L) {
   static const char *const units[] = {
@@ -104,6 +104,15 @@ int l_energy_loss (lua_State *L) {
   lbl_setnum(L, 3, "per_unit", r1.val);
   lbl_setnum(L, 3, "radiation_length", X0);
   lbl_setnum(L, 3, "E_over_X0", X0 > 0.0 ? (o.T + o.particle.mass) / X0 : 0.0);
+  lua_pushstring(L, o.particle.mass > 2.0 * BL_ME_MEV
+                 ? "bremsstrahlung only: e+e- pair production and "
+                   "photonuclear interactions also take energy from this "
+                   "projectile and are not computed (for muons pair "
+                   "production exceeds bremsstrahlung at high energy: "
+                   "Review of Particle Physics, passage of particles "
+                   "through matter, from memory)"
+                 : "bremsstrahlung: the radiative stopping power");
+  lua_setfield(L, 3, "note");
   lbl_setresult(L, 3, 4, none, units, &o, &w);
   return 1;
 }

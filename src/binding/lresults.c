@@ -195,28 +195,33 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
       snprintf(msg, sizeof msg, "%s: %s (mass %g MeV) treated as point-like",
                text, p->name, p->mass);
       break;
-    case BL_WARN_BORN: {  /* the core's criterion: 2 pi |z| Z alpha / beta */
+    case BL_WARN_BORN: {  /* the core's criterion: bl_coulomb_effect */
       const char *corr =
           (w->applied & BL_APPLIED_COULOMB) && (w->applied & BL_APPLIED_ELWERT)
-          ? "the Coulomb correction and the Elwert factor were applied"
+          ? "the Coulomb correction and the Elwert factor applied here "
+            "contain the leading part of them"
           : (w->applied & BL_APPLIED_COULOMB)
-          ? "the Coulomb correction was applied"
+          ? "the Coulomb correction applied here contains the leading part"
           : (w->applied & BL_APPLIED_ELWERT)
-          ? "the Elwert factor was applied"
-          : "no correction holds here (README, Corrections)";
-      if (w->kborn > 0 && w->kborn < o->T)
-        snprintf(msg, sizeof msg, "%s (2 pi |z| Z alpha/beta = %.3g before "
-                 "emission, %.3g after emitting k = %g MeV; z = %g, Z = %d, "
-                 "T = %g MeV); %s", text,
-                 bl_born_xi(p->charge, zb, o->T, p->mass),
-                 bl_born_xi(p->charge, zb, o->T - w->kborn, p->mass),
-                 w->kborn, p->charge,
-                 zb, o->T, corr);
+          ? "the Elwert factor applied here contains the leading part"
+          : "neither correction holds here";
+      double k = w->kborn > 0 && w->kborn < o->T ? w->kborn : 0.5 * o->T;
+      if (w->kwin[1] > w->kwin[0])
+        snprintf(msg, sizeof msg, "%s: Coulomb effects estimated at %.2g %% "
+                 "of the integrand on average over k in (%g, %g) MeV (%s on "
+                 "Z = %d, T = %g MeV); %s; method 'auto' (distorted waves) "
+                 "contains them (README, Distorted waves)", text,
+                 100.0 * lbl_coulomb_mean(o, zb, w->kwin[0], w->kwin[1]),
+                 w->kwin[0], w->kwin[1], p->name, zb, o->T, corr);
       else
-        snprintf(msg, sizeof msg, "%s (2 pi |z| Z alpha/beta = %.3g; z = %g, "
-                 "Z = %d, T = %g MeV); %s", text,
-                 bl_born_xi(p->charge, zb, o->T, p->mass),
-                 p->charge, zb, o->T, corr);
+        snprintf(msg, sizeof msg, "%s: Coulomb effects estimated at %.2g %% "
+                 "of the value at k = %g MeV (%s on Z = %d, T = %g MeV; 2 pi "
+                 "|z| Z alpha/beta = %.3g after emission); %s; method 'auto' "
+                 "(distorted waves) contains them (README, Distorted waves)",
+                 text, 100.0 * bl_coulomb_effect(p->charge, zb, p->mass, o->T,
+                                                  k),
+                 k, p->name, zb, o->T,
+                 bl_born_xi(p->charge, zb, o->T - k, p->mass), corr);
       break;
     }
     case BL_WARN_VALIDITY:
@@ -286,15 +291,39 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
 
 
 /*
+** The Coulomb effects the Born approximation leaves out (bl_coulomb_effect)
+** averaged over the photon energies of an integral, (kmin, kmax), on a
+** midpoint grid in k: the warning of an integral follows the average, not
+** the tip, where a point's effect grows without bound but weighs little.
+*/
+double lbl_coulomb_mean (const Opts *o, int Z, double kmin, double kmax) {
+  const bl_particle *p = &o->particle;
+  double s = 0.0;
+  int i;
+  for (i = 0; i < 40; i++) {
+    double k = kmin + (kmax - kmin) * (i + 0.5) / 40.0;
+    double e = bl_coulomb_effect(p->charge, Z, p->mass, o->T, k);
+    s += isfinite(e) ? e : 0.0;
+  }
+  return s / 40.0;
+}
+
+
+/*
 ** Push the list of warnings: one string per bit set, in bit order, so the
-** list is deduplicated by construction; empty when none.
+** list is deduplicated by construction; empty when none.  An integral's
+** Born warning stands only where the average effect exceeds BL_SYS_WARN.
 */
 void lbl_pushwarnings (lua_State *L, const Opts *o, const Warnings *w) {
   unsigned i;
   int n = 0;
+  int zb = w->zborn > 0 ? w->zborn : o->Z;
   lua_newtable(L);
   for (i = 0; i < 8 * sizeof w->bits; i++) {
     unsigned bit = 1u << i;
+    if (bit == BL_WARN_BORN && w->kwin[1] > w->kwin[0]
+        && lbl_coulomb_mean(o, zb, w->kwin[0], w->kwin[1]) <= BL_SYS_WARN)
+      continue;
     if (w->bits & bit) {
       pushwarning(L, o, w, bit);
       lua_rawseti(L, -2, ++n);
@@ -484,6 +513,8 @@ void lbl_kintegral (lua_State *L, Opts *o, const bl_target *t, int kind,
   else
     snprintf(at, sizeof at, "the integral over k in (%.6g, %.6g) MeV", kmin,
              kmax);
+  w->kwin[0] = kmin;
+  w->kwin[1] = kmax;
   if (r0 != NULL) {
     lbl_checkresult(L, o, st, &t0.r, at);
     *r0 = t0.r;

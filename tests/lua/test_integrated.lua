@@ -284,6 +284,33 @@ do
   nchecks = nchecks + 6
 end
 
+-- warnings that mean something (issue 16): the Born warning only where
+-- the Coulomb effects Born leaves out exceed 1 % (bl_coulomb_effect: the
+-- Elwert factor's departure from 1, the Davies-Bethe-Maximon correction
+-- over the logarithm), for an integral on average over its k; with the
+-- size and a heading of the README that exists; muon energy loss says
+-- what it leaves out
+do
+  local h = bl.energy_loss{ particle = "electron", target = "H", T = 1000,
+                            method = "born", rtol = 1e-3 }
+  for _, w in ipairs(h.warnings) do
+    check(not w:find("Born", 1, true), "hydrogen at 1 GeV: %s", w)
+  end
+  local p = bl.energy_loss{ particle = "electron", target = "Pb", T = 10,
+                            method = "born", rtol = 1e-3 }
+  local born
+  for _, w in ipairs(p.warnings) do
+    if w:find("first Born", 1, true) then born = w end
+  end
+  check(born and born:find("estimated at 1%d %%") and
+        born:find("(README, Distorted waves)", 1, true),
+        "lead at 10 MeV: %s", tostring(born))
+  local m = bl.energy_loss{ particle = "muon", target = "Fe", T = 1e4,
+                            rtol = 1e-3 }
+  check(m.note:find("pair production", 1, true), "muon note: %s", m.note)
+  nchecks = nchecks + 4
+end
+
 -- the list of methods
 do
   local m = bl.methods()

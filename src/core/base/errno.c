@@ -32,7 +32,7 @@ const char *bl_warn_text (unsigned bit) {
     case BL_WARN_POINTLIKE:
       return "composite projectile treated as a point charge (no form factor)";
     case BL_WARN_BORN:
-      return "first Born approximation poor: 2 pi z Z alpha / beta is not small";
+      return "first Born approximation: it leaves out Coulomb effects above 1 % of the value";
     case BL_WARN_VALIDITY:
       return "a model or correction is used outside its validity";
     case BL_WARN_COULOMB:

@@ -57,13 +57,45 @@ double bl_coulomb_kend (const bl_case *c) {
 }
 
 
-/* The case's warnings and the Born warning of the point (Koch & Motz 1959
-** require 2 pi z Z alpha / beta << 1 for both velocities; we warn once it
-** exceeds 1 after emission, the slower side). */
+/*
+** The size of the Coulomb effects the first Born approximation leaves
+** out, relative: the larger of the low-energy one, the Elwert factor's
+** departure from 1 (Elwert 1939: the ratio of the final to the initial
+** Sommerfeld factor), and the high-energy one, the Davies-Bethe-Maximon
+** correction relative to the unscreened logarithm, f(zZ alpha) /
+** (ln(2 E0 E / k) - 1/2) (Bethe & Maximon 1954; at least 1 in the
+** denominator).  An estimate of the size, measured against the distorted
+** waves within a factor of about 2 (README, Distorted waves).
+*/
+double bl_coulomb_effect (double z, int Z, double m, double T, double k) {
+  double t0, kk, E0, E, p0, p, eta, a, b, fe, L;
+  if (!(m > 0.0) || !(T > 0.0) || !(k > 0.0) || !(k < T) || Z < 1)
+    return 0.0;
+  t0 = T / m;
+  kk = k / m;
+  E0 = 1.0 + t0;
+  E = E0 - kk;
+  p0 = sqrt(t0 * (t0 + 2.0));
+  p = sqrt((t0 - kk) * (t0 - kk + 2.0));
+  eta = -z * Z * BL_ALPHA;
+  a = 2.0 * BL_PI * fabs(eta) * E0 / p0;
+  b = 2.0 * BL_PI * fabs(eta) * E / p;
+  if (!(p > 0.0))
+    return HUGE_VAL;
+  fe = eta > 0.0 ? (p0 * E / (E0 * p)) * expm1(-a) / expm1(-b)
+                 : (p0 * E / (E0 * p)) * exp(a - b) * expm1(-a) / expm1(-b);
+  L = log(2.0 * E0 * E / kk) - 0.5;
+  return fmax(fabs(fe - 1.0), bl_coulomb_f(z * Z * BL_ALPHA) / fmax(L, 1.0));
+}
+
+
+/* The case's warnings and the Born warning of the point: where the
+** Coulomb effects Born leaves out (bl_coulomb_effect) exceed BL_SYS_WARN
+** of the value. */
 unsigned bl_point_warn (const bl_case *c, const bl_kin *kn) {
-  double xi = 2.0 * BL_PI * fabs(c->particle.charge) * c->Z * BL_ALPHA
-              * kn->E / kn->p;
-  return c->warn | (xi > BL_BORN_XI_MAX ? BL_WARN_BORN : 0u);
+  double e = bl_coulomb_effect(c->particle.charge, c->Z, c->particle.mass,
+                               c->T, kn->k * c->particle.mass);
+  return c->warn | (e > BL_SYS_WARN ? BL_WARN_BORN : 0u);
 }
 
 
