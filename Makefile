@@ -524,9 +524,10 @@ $(B)/dw-positron-ratio: scripts/dw-positron-ratio.c $(LIB) $(B)/ref/kim1986.o
 dw-positron: $(B)/dw-positron-ratio
 	./$(B)/dw-positron-ratio
 
-# Steps of dsigma/dk along T, method auto against distorted
-# (scripts/continuity.c; CONT_PER_DECADE points per decade up to CONT_TMAX
-# MeV; a few minutes at the defaults).  Not in check.
+# Steps of dsigma/dk along T, method auto against distorted, and the
+# e-/e+ radiative energy loss in Pb rising with T (scripts/continuity.c;
+# CONT_PER_DECADE points per decade up to CONT_TMAX MeV; several minutes at
+# the defaults).  Not in check.
 CONT_PER_DECADE ?= 10
 CONT_TMAX ?= 1e4
 $(B)/continuity: scripts/continuity.c $(LIB)
@@ -534,6 +535,7 @@ $(B)/continuity: scripts/continuity.c $(LIB)
 	  -I/usr/include/xraylib -o $@ $< $(LIB) $(LIBS)
 continuity: $(B)/continuity
 	./$(B)/continuity -n $(CONT_PER_DECADE) -t $(CONT_TMAX)
+	./$(B)/continuity -e -t $(CONT_TMAX)
 
 # Regenerate the reference set: ERROR_POINTS random points at rtol 1e-10,
 # computed with the integrator of BENCH_BASE (GSL's qag, whose estimates

@@ -9,7 +9,11 @@
 ** 0.05; smooth physics on this grid as < 1e-2).  Not part of make check.
 ** See Copyright Notice in LICENSE
 **
-**   build/continuity [-n points_per_decade] [-t Tmax_MeV]
+**   build/continuity [-n points_per_decade] [-t Tmax_MeV] [-e]
+**
+** -e: instead, the radiative energy loss of e- and e+ in Pb by method
+** "auto" along T (4 points per decade from 1 keV to Tmax): it must rise
+** with T; prints each value and the number of falls.
 */
 
 #include <math.h>
@@ -41,6 +45,52 @@ static double value (const char *particle, int Z, double T, double y,
   return st == BL_SUCCESS || bl_status_soft(st) ? r.val : NAN;
 }
 
+/* Radiative energy loss per atom (MeV mb) of `particle` in element Z at T
+** by method "auto" with the module's defaults. */
+static double eloss (const char *particle, const char *target, double T,
+                     bl_quad *q) {
+  static bl_target t;
+  bl_material m;
+  bl_tresult r;
+  int failZ, st;
+  if (bl_material_lookup(&m, target, NULL) != BL_SUCCESS
+      || bl_target_setup(&t, bl_particle_find(particle), &m,
+                         bl_model_find("hartree-fock"), NULL, T,
+                         &bl_opts_default, BL_METHOD_AUTO, NULL,
+                         &failZ) != BL_SUCCESS
+      || bl_target_prepare(&t, q, &failZ) != BL_SUCCESS)
+    return NAN;
+  st = bl_target_energy_loss_e(&t, q, &r);
+  if (st != BL_SUCCESS && !bl_status_soft(st))
+    r.r.val = NAN;
+  bl_target_release(&t);
+  return r.r.val;
+}
+
+
+static int monotonic (double tmax, bl_quad *q) {
+  static const char *const ps[] = {"electron", "positron"};
+  int ip, i, falls = 0;
+  for (ip = 0; ip < 2; ip++) {
+    double prev = 0.0;
+    for (i = 0; ; i++) {
+      double T = 1e-3 * pow(10.0, i / 4.0), v;
+      if (T > tmax * (1.0 + 1e-9))
+        break;
+      v = eloss(ps[ip], "Pb", T, q);
+      printf("  %-9s Pb T = %10.4g MeV  energy loss %.6e MeV mb%s\n", ps[ip],
+             T, v, i > 0 && !(v > prev) ? "  FALLS" : "");
+      if (i > 0 && !(v > prev))
+        falls++;
+      prev = v;
+      fflush(stdout);
+    }
+  }
+  printf("# %d falls\n", falls);
+  return falls > 0;
+}
+
+
 /* The largest step anomaly of v[0..n-1] and its index. */
 static double anomaly (const double *v, int n, int *at) {
   double worst = 0.0;
@@ -67,21 +117,29 @@ int main (int argc, char **argv) {
   static const int methods[] = {BL_METHOD_AUTO, BL_METHOD_DISTORTED};
   static double T[NMAX], v[NMAX];
   double perdec = 10.0, tmax = 1e4;
+  int eonly = 0;
   bl_quad *q = bl_quad_alloc(200);
   size_t ib, iy, im;
   int opt, n, i;
-  while ((opt = getopt(argc, argv, "n:t:")) != -1) {
+  while ((opt = getopt(argc, argv, "n:t:e")) != -1) {
     if (opt == 'n')
       perdec = atof(optarg);
     else if (opt == 't')
       tmax = atof(optarg);
+    else if (opt == 'e')
+      eonly = 1;
     else {
-      fprintf(stderr, "usage: continuity [-n per_decade] [-t Tmax_MeV]\n");
+      fprintf(stderr, "usage: continuity [-n per_decade] [-t Tmax_MeV] "
+              "[-e]\n");
       return 2;
     }
   }
   if (q == NULL || bl_quad_set_rtol(q, 1e-4) != BL_SUCCESS || perdec < 2)
     return 1;
+  if (eonly) {
+    bl_quad_set_rtol(q, 1e-3);
+    return monotonic(tmax, q);
+  }
   printf("# step anomaly along T (1 keV .. %g MeV, %g per decade): "
          "largest, at T (MeV)\n", tmax, perdec);
   printf("# %-9s %3s %5s  %-24s %-24s\n", "particle", "Z", "y", "auto",
