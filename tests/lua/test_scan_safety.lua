@@ -132,6 +132,11 @@ local ok, err = pcall(function()
     if se:find("points are in", 1, true) then  -- stopped in the scan
       U.has(se, m .. " of " .. total .. " points are in", "fast round " .. round ..
             " (finished = on disk)")
+    elseif m == total then  -- the scan had ended; the signal came after it
+      U.check(leftovers(out) == "", "fast round %d left %s", round,
+              leftovers(out))
+      have = m
+      break
     else  -- stopped while setting up: nothing computed, nothing changed
       U.check(m == have, "fast round %d: stopped before the scan, %d points " ..
               "on disk, %d before", round, m, have)
