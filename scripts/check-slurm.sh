@@ -82,8 +82,10 @@ cleanup() {
   trap - EXIT INT TERM
   # jobs left on this cluster (a failure half-way) end first, so that no
   # slurmstepd outlives its slurmd
-  if [ -n "$submitted" ] && [ -n "$(squeue -h -o %A 2>/dev/null)" ]; then
-    scancel $(squeue -h -o %A 2>/dev/null) 2>/dev/null || true
+  local left=()
+  [ -n "$submitted" ] && mapfile -t left < <(squeue -h -o %A 2>/dev/null)
+  if [ ${#left[@]} -gt 0 ]; then
+    scancel "${left[@]}" 2>/dev/null || true
     for i in $(seq 40); do
       [ -z "$(squeue -h -o %A 2>/dev/null)" ] && break; sleep 0.25
     done
@@ -255,6 +257,7 @@ prepare() {
 # --parsable --array=ARRAY added to its sbatch; prints the job id
 submit() {
   local out
+  # shellcheck disable=SC2317  # (sbatch is called by submit.sh)
   out=$( cd "$1" && \
          sbatch() { command sbatch --parsable --array="$ARRAY" "$@"; } && \
          export ARRAY="$2" && export -f sbatch && bash -e ./submit.sh ) \
@@ -277,7 +280,7 @@ wait_job() {
 # task_state JOB TASK: the state jobcomp/filetxt recorded (the file is
 # written when a task ends; empty if it has no line yet)
 task_state() {
-  local i
+  local i s
   for i in $(seq 20); do
     s=$(grep " ArrayJobId=$1 ArrayTaskId=$2 " "$T/jobcomp.txt" 2>/dev/null \
           | tail -n 1 | sed -n 's/.* JobState=\([A-Z_]*\) .*/\1/p')
@@ -349,7 +352,7 @@ wait_job "$job"
 expect_states "$job" CANCELLED 2
 expect_states "$job" COMPLETED 1 3 4
 kept=$(records "$shard2" | wc -l)
-[ "$kept" -ge 1 ] && [ "$kept" -lt "$per" ] \
+{ [ "$kept" -ge 1 ] && [ "$kept" -lt "$per" ]; } \
   || fail "task 2 cancelled mid-way kept $kept of its $per points (expected 1 to $((per - 1)))"
 if ( cd "$w" && PATH="$tree/build:$PATH" bash -e ./merge.sh ) >"$T/merge2a.log" 2>&1; then
   fail "--merge accepted the shards with task 2 cancelled ($kept of $per points)"
@@ -367,7 +370,7 @@ got=$w/results/slow-table.csv
 dups=$(records "$got" | cut -d, -f1-3 | sort | uniq -d)
 [ -z "$dups" ] || fail "run 2: points twice in the merged table: $dups"
 n2=$(records "$got" | cut -d, -f1-3 | sort -u | wc -l)
-[ "$n2" -eq 16 ] && [ "$(records "$got" | wc -l)" -eq 16 ] \
+{ [ "$n2" -eq 16 ] && [ "$(records "$got" | wc -l)" -eq 16 ]; } \
   || fail "run 2: $n2 distinct points in $(records "$got" | wc -l) records, expected 16"
 BL_SLOW_POINT_SECS=0 build/brakelight -q tests/slurm/slow_scan.lua "$T/ref2" >/dev/null
 same_records "$T/ref2/slow-table.csv" "$got" "run 2 (task 2 cancelled and resubmitted)"
