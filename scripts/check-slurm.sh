@@ -69,7 +69,7 @@ for v in $(compgen -v SLURM_ || true); do unset "$v"; done
 unset BRAKELIGHT_SHARDS BRAKELIGHT_SMALL BL_SLOW_POINT_SECS || true
 
 # ---- the cluster ---------------------------------------------------------------
-T=$(mktemp -d /tmp/bl-slurm.XXXXXX)
+T=$(mktemp -d "${TMPDIR:-/tmp}/bl-slurm.XXXXXX")
 # munged wants every directory above its socket searchable by all
 chmod 755 "$T"
 mkdir -p "$T/key" "$T/sock" "$T/log" "$T/state" "$T/spool"
