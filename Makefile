@@ -204,7 +204,8 @@ test-rock: $(RUNNER)
 # Every part of the suite; make check runs them all after lint.
 .PHONY: test-c test-lua test-embed test-install
 test: test-c test-lua test-lua-hosts test-embed test-install test-rock \
-      test-asan test-tsan valgrind fuzz-smoke sweep-smoke test-lua-asan
+      test-asan test-tsan valgrind fuzz-smoke sweep-smoke test-lua-asan \
+      test-slurm
 
 # The core must not know Lua: no file of src/core/ or include/brakelight/bl_*
 # includes a Lua header.  Then static analysis: cppcheck, gcc -fanalyzer and
@@ -287,6 +288,15 @@ test-embed: $(B)/embed $(MODULE)
 # installed module from the stock interpreter
 test-install: all
 	@bash scripts/check-install.sh
+
+# The README's Slurm job array on a real single-node cluster started by the
+# test (munged, slurmctld, slurmd as its own processes; Debian's packages
+# installed first by install-deps.sh --slurm): merged shards against an
+# unsharded run, and one task cancelled and resubmitted alone.  Says why
+# and exits 0 ("skipped") where the daemons cannot run.  About 20 s.
+.PHONY: test-slurm
+test-slurm: $(RUNNER)
+	@bash scripts/check-slurm.sh
 
 # ---- reliability -------------------------------------------------------------
 ASAN_DIR   = build/asan

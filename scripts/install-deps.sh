@@ -4,6 +4,7 @@
 #   bash scripts/install-deps.sh           build and test packages
 #   bash scripts/install-deps.sh --bench   also python3-scipy (for make bench)
 #   bash scripts/install-deps.sh --plot    also gnuplot-nox (optional plots)
+#   bash scripts/install-deps.sh --slurm   also Slurm and munge (make test-slurm)
 #
 # Called by `make deps`, which `make demo` and `make check` run first, so a
 # fresh Debian machine needs nothing else.  Idempotent: when every package is
@@ -29,8 +30,11 @@ for opt in "$@"; do
   case "$opt" in
     --bench) pkgs+=(python3-scipy) ;;
     --plot)  pkgs+=(gnuplot-nox) ;;
-    -h|--help) sed -n '2,11p' "$0" | sed 's/^# \{0,1\}//'; exit 0 ;;
-    *) echo "install-deps: unknown option '$opt' (allowed: --bench, --plot, --help)" >&2
+    # a single-node cluster for scripts/check-slurm.sh: the controller, the
+    # node daemon, sbatch/squeue/scancel, and munge for their authentication
+    --slurm) pkgs+=(slurmctld slurmd slurm-client munge) ;;
+    -h|--help) sed -n '2,12p' "$0" | sed 's/^# \{0,1\}//'; exit 0 ;;
+    *) echo "install-deps: unknown option '$opt' (allowed: --bench, --plot, --slurm, --help)" >&2
        exit 2 ;;
   esac
 done
