@@ -20,11 +20,14 @@
   - hepmc3: the HepMC3 ASCII format (Asciiv3), MeV and mm: per event the
     beam (status 4) and the atom at rest (status 4, nuclear PDG code
     100ZZZAAA0) into one vertex, the photon, the projectile and the atom
-    (status 1) out of it; weight line W, GenCrossSection attribute (mb
-    converted to pb) and attributes brakelight_hit (nucleus or electron)
-    and brakelight_Z.  Static field: the outgoing atom carries q and the
-    energy of the atom at rest (its recoil energy q^2/2M is neglected), so
-    its mass in the record is sqrt(M^2 - q^2).
+    (status 1) out of it; the weight line W (pb); the attribute
+    GenCrossSection (sigma and its error from setup in pb, accepted and
+    attempted counts -1: the run's counts are in s:stats() and in the
+    LHE and CSV trailers); attributes brakelight_hit (nucleus or
+    electron) and brakelight_Z.  Static field: the outgoing atom carries q
+    and the energy of the atom at rest (its recoil energy q^2/2M is
+    neglected), so its mass in the record is sqrt(M^2 - q^2).  Read back
+    by HepMC3 3.1.2 itself in make test-hepmc3 (tests/hepmc3/).
   - lhe: the Les Houches Event file format (version 3.0), GeV and pb:
     IDWTUP 3 (unweighted: XWGTUP = r XSECUP, r > 1 only for an overweight)
     or 4 (weighted: the mean of XWGTUP estimates sigma); beam and atom
@@ -129,7 +132,7 @@ W.hepmc3 = {
     local pdg = PDG[info.particle] or 0
     local xs = info.sigma * PB_PER_MB
     buf[#buf + 1] = format(
-      "E %s 1 5\nU MEV MM\nW %.17g\nA 0 GenCrossSection %.9g %.9g\nA 0 brakelight_hit %s\nA 0 brakelight_Z %d\n" ..
+      "E %s 1 5\nU MEV MM\nW %.17g\nA 0 GenCrossSection %.9g %.9g -1 -1\nA 0 brakelight_hit %s\nA 0 brakelight_Z %d\n" ..
       "P 1 0 %d 0 0 %.17g %.17g %.17g 4\nP 2 0 %d 0 0 0 %.17g %.17g 4\nV -1 0 [1,2]\n" ..
       "P 3 -1 22 %.17g %.17g %.17g %.17g 0 1\nP 4 -1 %d %.17g %.17g %.17g %.17g %.17g 1\n" ..
       "P 5 -1 %d %.17g %.17g %.17g %.17g %.17g 1\n",
