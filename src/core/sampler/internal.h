@@ -60,20 +60,20 @@ struct bl_sampler {
 
 /*
 ** map.c.
-** smp_weight: the weight at y (after the grid) of element ch: the value
+** bl_smp_weight: the weight at y (after the grid) of element ch: the value
 **   times every Jacobian from the unit cube to (k, Omega_k, Omega_p), in
 **   mb; fills *pt.  0 where the kinematics close.
-** smp_value: the fully differential value (mb/(MeV sr^2)) at the point pt
+** bl_smp_value: the fully differential value (mb/(MeV sr^2)) at the point pt
 **   (its geometry set) for `method`, with the parts of W in pt.
-** smp_event: the lab-frame event of point pt with the overall azimuth
+** bl_smp_event: the lab-frame event of point pt with the overall azimuth
 **   u_az, the sign of phi u_sign and the hit u_hit (uniforms in [0, 1)).
 */
-double smp_weight (const bl_sampler *s, const smp_chan *ch, const double y[4],
+double bl_smp_weight (const bl_sampler *s, const smp_chan *ch, const double y[4],
                    smp_point *pt);
-double smp_value (const bl_sampler *s, const smp_chan *ch, smp_point *pt);
-void smp_geometry (const smp_chan *ch, double kmev, double h0, double h,
+double bl_smp_value (const bl_sampler *s, const smp_chan *ch, smp_point *pt);
+void bl_smp_geometry (const smp_chan *ch, double kmev, double h0, double h,
                    double phi, smp_point *pt);
-void smp_event (const smp_chan *ch, const smp_point *pt, double u_az,
+void bl_smp_event (const smp_chan *ch, const smp_point *pt, double u_az,
                 double u_sign, double u_hit, bl_event *ev);
 
 #endif

@@ -148,7 +148,7 @@ static void beam_angles (const smp_point *pt, double *tk, double *tp,
 
 
 /* The value at pt, whose geometry, v and bracket are set. */
-double smp_value (const bl_sampler *s, const smp_chan *ch, smp_point *pt) {
+double bl_smp_value (const bl_sampler *s, const smp_chan *ch, smp_point *pt) {
   const bl_case *c = &ch->c;
   const bl_kin *kn = &pt->kn;
   double x, B, f;
@@ -172,7 +172,7 @@ double smp_value (const bl_sampler *s, const smp_chan *ch, smp_point *pt) {
 }
 
 
-void smp_geometry (const smp_chan *ch, double kmev, double h0, double h,
+void bl_smp_geometry (const smp_chan *ch, double kmev, double h0, double h,
                    double phi, smp_point *pt) {
   const bl_case *c = &ch->c;
   pt->kmev = kmev;
@@ -188,7 +188,7 @@ void smp_geometry (const smp_chan *ch, double kmev, double h0, double h,
 }
 
 
-double smp_weight (const bl_sampler *s, const smp_chan *ch, const double y[4],
+double bl_smp_weight (const bl_sampler *s, const smp_chan *ch, const double y[4],
                    smp_point *pt) {
   const bl_case *c = &ch->c;
   bl_kin *kn = &pt->kn;
@@ -255,7 +255,7 @@ double smp_weight (const bl_sampler *s, const smp_chan *ch, const double y[4],
     pt->sphi = sin(phi);
     jac *= BL_PI;
   }
-  f = smp_value(s, ch, pt);
+  f = bl_smp_value(s, ch, pt);
   return f * jac * 4.0 * BL_PI * ch->atoms;
 }
 
@@ -268,7 +268,7 @@ double smp_weight (const bl_sampler *s, const smp_chan *ch, const double y[4],
 ** (cos(phi) e1 + sin(phi) e2)] and q = p0 - p - k = q_z khat + (dt + p s
 ** v) e1 - p s sin(phi) e2, q_z and dt without cancellation (parts).
 */
-void smp_event (const smp_chan *ch, const smp_point *pt, double u_az,
+void bl_smp_event (const smp_chan *ch, const smp_point *pt, double u_az,
                 double u_sign, double u_hit, bl_event *ev) {
   const bl_case *c = &ch->c;
   const bl_kin *kn = &pt->kn;

@@ -102,7 +102,7 @@ static double trial (const bl_sampler *s, int e, const double x[4],
   double y[4];
   int bin[4];
   double jac = grid_map(&s->ch[e], x, y, bin);
-  double w = smp_weight(s, &s->ch[e], y, pt) * jac;
+  double w = bl_smp_weight(s, &s->ch[e], y, pt) * jac;
   if (!isfinite(w) || w < 0.0) {
     if (bad != NULL)
       (*bad)++;
@@ -170,7 +170,7 @@ static void train (bl_sampler *s, int e, unsigned *warn) {
       for (dd = 0; dd < SMP_NDIM; dd++)
         x[dd] = bl_rng_uniform(&rng);
       jac = grid_map(ch, x, y, bin);
-      w = smp_weight(s, ch, y, &pt) * jac;
+      w = bl_smp_weight(s, ch, y, &pt) * jac;
       if (!isfinite(w) || w < 0.0)
         continue;
       *warn |= pt.warn;
@@ -380,10 +380,10 @@ int bl_sampler_value (const bl_sampler *s, int i, double k, double h0,
       || !(h0 >= 0.0 && h0 <= 2.0) || !(h >= 0.0 && h <= 2.0)
       || !isfinite(phi))
     return BL_EDOMAIN;
-  smp_geometry(&s->ch[i], k, h0, h, phi, &pt);
+  bl_smp_geometry(&s->ch[i], k, h0, h, phi, &pt);
   if (!(pt.kn.p > 0.0))
     return BL_EDOMAIN;
-  *out = smp_value(s, &s->ch[i], &pt);
+  *out = bl_smp_value(s, &s->ch[i], &pt);
   return isfinite(*out) ? BL_SUCCESS : BL_ENONFINITE;
 }
 
@@ -461,7 +461,7 @@ static void run_block (const bl_sampler *s, int mode, uint64_t b,
       double uh = bl_rng_uniform(&rng);
       if (id >= lo) {
         bl_event *o = &ev[id - lo];
-        smp_event(&s->ch[e], &pt, ua, us, uh, o);
+        bl_smp_event(&s->ch[e], &pt, ua, us, uh, o);
         o->elem = e;
         o->weight = weight;
         o->id = id;
