@@ -31,24 +31,8 @@ typedef struct LSampler {
 static const char *const sampler_keys[] = {
   "particle", "target", "T", "kmin", "kmax", "screening", "nucleus",
   "electrons", "coulomb", "elwert", "method", "seed", "events", "mode",
-  "threads", "shard", NULL
+  "threads", "shard", "setup", NULL
 };
-
-
-static int sampler_gc (lua_State *L) {
-  LSampler *ls = (LSampler *)luaL_checkudata(L, 1, SAMPLERMETA);
-  bl_sampler_free(ls->s);
-  ls->s = NULL;
-  return 0;
-}
-
-
-static LSampler *checksampler (lua_State *L) {
-  LSampler *ls = (LSampler *)luaL_checkudata(L, 1, SAMPLERMETA);
-  if (ls->s == NULL)
-    luaL_error(L, "attempt to use a closed sampler");
-  return ls;
-}
 
 
 /* An integer field key >= lo of the options, or def when absent (def < 0:
@@ -72,6 +56,84 @@ static lua_Integer optint (lua_State *L, const char *fname, const char *key,
                 lbl_showval(L, -1, v, sizeof v));
   lua_pop(L, 1);
   return x;
+}
+
+
+static const char *const setup_keys[] = {
+  "iterations", "points", "cells", "cellpoints", "safety", NULL
+};
+
+
+/* The proposal's settings from the table field `setup` (absent: the
+** defaults); ranges as bl_sampler_new checks them. */
+static void getconf (lua_State *L, const char *fname, bl_sampler_conf *c) {
+  char v[80];
+  int d;
+  bl_sampler_conf_default(c);
+  if (lua_getfield(L, 1, "setup") == LUA_TNIL) {
+    lua_pop(L, 1);
+    return;
+  }
+  if (!lua_istable(L, -1))
+    lbl_argfail(L, fname, "field 'setup' must be a table {iterations =, "
+                "points =, cells = {4 integers}, cellpoints =, safety =}, "
+                "got %s", lbl_showval(L, -1, v, sizeof v));
+  lbl_checkkeys(L, lua_gettop(L), fname, "setup", setup_keys);
+  lua_replace(L, 1);   /* read the fields from this table */
+  c->iterations = (int)optint(L, fname, "iterations", 0, 100, c->iterations,
+                              "grid training passes");
+  c->points = (int)optint(L, fname, "points", 100, 10000000, c->points,
+                          "points per pass and element");
+  c->cellpoints = (int)optint(L, fname, "cellpoints", 2, 100000,
+                              c->cellpoints, "trial points per cell");
+  if (lua_getfield(L, 1, "safety") != LUA_TNIL) {
+    double x = lua_tonumber(L, -1);
+    if (!lua_isnumber(L, -1) || !(x >= 1.0 && x <= 100.0))
+      lbl_argfail(L, fname, "field 'setup.safety' must be a number in "
+                  "[1, 100], got %s", lbl_showval(L, -1, v, sizeof v));
+    c->safety = x;
+  }
+  lua_pop(L, 1);
+  if (lua_getfield(L, 1, "cells") != LUA_TNIL) {
+    long n = 1;
+    if (!lua_istable(L, -1))
+      lbl_argfail(L, fname, "field 'setup.cells' must be 4 integers in "
+                  "[1, 64] (k, photon angle, particle angle, azimuth)");
+    for (d = 0; d < 4; d++) {
+      int isint;
+      lua_Integer x;
+      lua_rawgeti(L, -1, d + 1);
+      x = lua_tointegerx(L, -1, &isint);
+      if (!isint || x < 1 || x > 64)
+        lbl_argfail(L, fname, "field 'setup.cells' must be 4 integers in "
+                    "[1, 64] (k, photon angle, particle angle, azimuth), "
+                    "element %d is %s", d + 1, lbl_showval(L, -1, v,
+                                                           sizeof v));
+      c->cells[d] = (int)x;
+      n *= x;
+      lua_pop(L, 1);
+    }
+    if (n > 100000)
+      lbl_argfail(L, fname, "field 'setup.cells': at most 100000 cells, got "
+                  "%ld", n);
+  }
+  lua_pop(L, 1);
+}
+
+
+static int sampler_gc (lua_State *L) {
+  LSampler *ls = (LSampler *)luaL_checkudata(L, 1, SAMPLERMETA);
+  bl_sampler_free(ls->s);
+  ls->s = NULL;
+  return 0;
+}
+
+
+static LSampler *checksampler (lua_State *L) {
+  LSampler *ls = (LSampler *)luaL_checkudata(L, 1, SAMPLERMETA);
+  if (ls->s == NULL)
+    luaL_error(L, "attempt to use a closed sampler");
+  return ls;
 }
 
 
@@ -113,6 +175,61 @@ static void getshard (lua_State *L, const char *fname, lua_Integer *i,
 
 
 /*
+** Append to the warnings list on the top the approximations of the
+** events: the static field (the recoil energy q^2/2M at q = m and at the
+** largest momentum transfer 2 p0), and where the call's options ask for
+** the Coulomb correction (coulomb = "auto" where it holds), that the
+** events leave it out, with its size: the largest relative change of
+** dsigma/dk at five photon energies of the window.
+*/
+static void pushnotes (lua_State *L, const bl_target *t, bl_quad *q,
+                       double kmin, double kmax, double p0) {
+  double m = t->particle.mass;
+  char buf[MSGSIZE];
+  double mmin = HUGE_VAL, worst = 0.0;
+  int e, i, n = (int)lua_rawlen(L, -1), want = 0;
+  for (e = 0; e < t->n; e++) {
+    double M = bl_element_mass(t->c[e].Z) * AMU_MEV;
+    if (M < mmin)
+      mmin = M;
+    want |= t->c[e].opts.coulomb == BL_APPLY_AUTO;
+  }
+  snprintf(buf, sizeof buf, "events: static field: the atom takes the "
+           "momentum q and no energy (its recoil energy q^2/2M is "
+           "neglected: %.2g MeV at the typical q = m c, %.3g MeV at the "
+           "largest, 2 p0; each event carries q)", m * m / (2.0 * mmin),
+           2.0 * p0 * p0 / mmin);
+  lua_pushstring(L, buf);
+  lua_rawseti(L, -2, ++n);
+  if (want) {
+    bl_target *off = (bl_target *)malloc(sizeof *off);
+    if (off != NULL) {
+      *off = *t;   /* shares t's tables: never released */
+      for (e = 0; e < off->n; e++)
+        off->c[e].opts.coulomb = BL_APPLY_OFF;
+      for (i = 0; i < 5; i++) {
+        double k = kmin * pow(kmax / kmin, (i + 0.5) / 5.0);
+        bl_tresult a, b;
+        if (bl_target_dk_e(t, k, q, &a) == BL_SUCCESS
+            && bl_target_dk_e(off, k, q, &b) == BL_SUCCESS && b.r.val > 0.0
+            && fabs(a.r.val / b.r.val - 1.0) > worst)
+          worst = fabs(a.r.val / b.r.val - 1.0);
+      }
+      free(off);
+    }
+    if (worst > 1e-4) {
+      snprintf(buf, sizeof buf, "events: no Coulomb correction (known for "
+               "dsigma/dk only): their sigma is that of coulomb = false; "
+               "the correction would change dsigma/dk by up to %.2g %% in "
+               "this window", 100.0 * worst);
+      lua_pushstring(L, buf);
+      lua_rawseti(L, -2, ++n);
+    }
+  }
+}
+
+
+/*
 ** brakelight.sampler{particle =, target =, T =, kmin =, kmax =, seed =,
 **   events =, mode =, threads =, shard =, ...} -> a sampler
 */
@@ -125,6 +242,7 @@ int l_sampler (lua_State *L) {
   double kmin, kmax;
   lua_Integer seed, total, si, sn, nb;
   int mode = BL_SAMPLE_UNWEIGHTED, st, e, nthreads;
+  bl_sampler_conf conf;
   char buf[OPTSTRLEN];
   lbl_readopts(L, "sampler", sampler_keys, 0, &o);
   lbl_nocoulomb(L, &o);
@@ -145,13 +263,16 @@ int l_sampler (lua_State *L) {
   }
   getshard(L, o.fname, &si, &sn);
   nthreads = lbl_optthreads(L, &o);
+  lua_pushvalue(L, 1);                          /* keep the options */
+  getconf(L, o.fname, &conf);
+  lua_replace(L, 1);                            /* the options again */
   /* all checks done */
   q = lbl_getquad(L, &o);
   t = lbl_maketarget(L, &o, q);                 /* the call's target */
   ls = (LSampler *)lua_newuserdatauv(L, sizeof *ls, 1);
   memset(ls, 0, sizeof *ls);
   luaL_setmetatable(L, SAMPLERMETA);
-  st = bl_sampler_new(t, kmin, kmax, (uint64_t)seed, NULL, &ls->s);
+  st = bl_sampler_new(t, kmin, kmax, (uint64_t)seed, &conf, &ls->s);
   if (st != BL_SUCCESS)
     lbl_fail(L, "sampler: cannot set up the events of %s on %s at T = %g "
              "MeV: %s", o.particle.name, o.target.name, o.T,
@@ -239,6 +360,7 @@ int l_sampler (lua_State *L) {
     lbl_initwarn(&w, t);
     w.bits |= info.warn;
     lbl_pushwarnings(L, &o, &w);
+    pushnotes(L, t, q, kmin, kmax, ls->p0);
     lua_setfield(L, -2, "warnings");
   }
   lua_setiuservalue(L, -2, 1);

@@ -58,6 +58,25 @@ local s = bl.sampler(spec())
 s:close()
 assert(not pcall(s.events, s, 1))
 
+-- the approximations are in the warnings: the static field always, the
+-- missing Coulomb correction where the options ask for it (8 GeV on W)
+local function has(list, text)
+  for _, w in ipairs(list) do if w:find(text, 1, true) then return true end end
+  return false
+end
+local wi = bl.sampler(spec()):info().warnings
+assert(has(wi, "static field") and has(wi, "no Coulomb correction"))
+wi = bl.sampler(spec{ coulomb = false }):info().warnings
+assert(has(wi, "static field") and not has(wi, "no Coulomb correction"))
+-- setup settings: lighter setups take fewer evaluations; bad ones refused
+local light = bl.sampler(spec{ setup = { iterations = 2, points = 1000,
+  cells = { 4, 4, 4, 2 }, cellpoints = 8, safety = 1.5 } }):info()
+assert(light.setup_evaluations == 2 * 1000 + 128 * 8, light.setup_evaluations)
+refuses(spec{ setup = { cells = { 1, 2 } } }, "field 'setup.cells' must be 4 integers")
+refuses(spec{ setup = { pts = 1 } }, "unknown setup 'pts'")
+refuses(spec{ setup = { safety = 0.5 } }, "setup.safety")
+refuses(spec{ setup = 3 }, "field 'setup' must be a table")
+
 -- info and stats
 local info = bl.sampler(spec()):info()
 assert(info.sigma > 0 and info.err > 0 and info.err < 0.01 * info.sigma)
