@@ -14,7 +14,10 @@
   Shards: with sampler{shard = {i, n}} (or the runner's --shard / Slurm
   array task) OUTPUT becomes "name.shard-i-of-n.ext" (brakelight.scan's
   rule); events.merge{output =, inputs = {...}} joins shard files of one
-  run into one file, events in order, none lost or doubled.
+  run into one file, events in order, and refuses a gap, a double or a
+  file of another run.  With the runner's -j N the workers write the shard
+  files and the final pass (shard 1 of 1) merges them into OUTPUT instead
+  of making the events again (its result field merged = N).
 
   Formats (units of each standard):
   - hepmc3: the HepMC3 ASCII format (Asciiv3), MeV and mm: per event the
@@ -192,6 +195,8 @@ W.lhe = {
   end,
 }
 
+local from_workers   -- below
+
 function events.write(spec)
   if type(spec) ~= "table" then argerr("table expected, got %s", type(spec)) end
   local s, fmt = spec.sampler, spec.format or "hepmc3"
@@ -210,6 +215,10 @@ function events.write(spec)
     argerr("field 'chunk' must be an integer in [1, 1000000], got %s", tostring(chunk))
   end
   local info = s:info()
+  if spec.n == nil then
+    local merged = from_workers(spec, info, fmt)
+    if merged then return merged end
+  end
   local n = spec.n or s:stats().remaining
   local path = shardpath(spec.output, info)
   local part = path .. ".part"
@@ -244,46 +253,139 @@ end
 
 --[[
   events.merge{output =, inputs = {...}, format =}: join the shard files of
-  one run (same settings) into output, in the order given (shard 1 first),
-  atomically; the first file's header, every file's events, the last
-  file's trailer.  Returns the number of events.
+  one run into output, atomically: the first file's header, every file's
+  events, the last file's trailer.  The headers must agree (but the shard
+  and the event range) and the event numbers must run on without a gap or
+  a double from the first file's first event; else it raises and writes
+  nothing.  Returns the number of events.
 ]]
+local ID = {
+  hepmc3 = function(l) return l:sub(1, 2) == "E " and tonumber(l:match("^E (%d+)")) end,
+  lhe = function(l) return l:sub(1, 11) == "#brakelight" and tonumber(l:match("id=(%d+)")) end,
+  csv = function(l) return l:sub(1, 1) ~= "#" and l:sub(1, 3) ~= "id," and tonumber(l:match("^(%d+),")) end,
+}
+local function is_trailer(fmt, l)
+  if fmt == "hepmc3" then return l:find("END_EVENT_LISTING", 1, true) ~= nil end
+  if fmt == "lhe" then return l:sub(1, 4) == "<!--" or l == "</LesHouchesEvents>" end
+  return l:sub(1, 6) == "# run_" or l:sub(1, 13) == "# efficiency " or
+         l:sub(1, 14) == "# overweights " or l:sub(1, 9) == "# excess "
+end
+local function first_event_line(fmt, l)
+  if fmt == "hepmc3" then return l:sub(1, 2) == "E " end
+  if fmt == "lhe" then return l == "<event>" end
+  return l:sub(1, 1) ~= "#" and l:sub(1, 3) ~= "id,"
+end
+local function header_key(l)   -- what must agree between the shards
+  if l:find("shard", 1, true) or l:find("event_range", 1, true) then return nil end
+  return l
+end
+
 function events.merge(spec)
   local fmt = spec.format or "hepmc3"
-  local out = spec.output
+  if not ID[fmt] then
+    error("events.merge: format must be 'hepmc3', 'lhe' or 'csv'", 2)
+  end
+  local out, inputs = spec.output, spec.inputs
   local part = out .. ".part"
   local f = assert(io.open(part, "w"))
-  local nev = 0
-  local is_event = {
-    hepmc3 = function(l) return l:sub(1, 2) == "E " end,
-    lhe = function(l) return l == "<event>" end,
-    csv = function(l) return l:sub(1, 1) ~= "#" and l:sub(1, 3) ~= "id," end,
-  }
-  local is_trailer = {
-    hepmc3 = function(l) return l:find("END_EVENT_LISTING", 1, true) ~= nil end,
-    lhe = function(l) return l:sub(1, 4) == "<!--" or l == "</LesHouchesEvents>" end,
-    csv = function(l) return l:sub(1, 6) == "# run_" or l:sub(1, 13) == "# efficiency" or
-                             l:sub(1, 14) == "# overweights" or l:sub(1, 8) == "# excess" end,
-  }
-  for i, name in ipairs(spec.inputs) do
-    local h = assert(io.open(name, "r"))
-    local inev = false
-    local trailer = {}
-    for l in h:lines() do
-      if is_trailer[fmt](l) then
-        trailer[#trailer + 1] = l
-      elseif is_event[fmt](l) then
-        inev = true; nev = nev + 1; f:write(l, "\n")
-      elseif inev or i == 1 then
-        f:write(l, "\n")
+  local nev, nextid, header0, alltrail = 0, nil, nil, {}
+  local ok, err = pcall(function()
+    for i, name in ipairs(inputs) do
+      local h = io.open(name, "r")
+      if not h then error(format("events.merge: cannot read %s", name), 0) end
+      local inev, trailer, header = false, {}, {}
+      for l in h:lines() do
+        if is_trailer(fmt, l) then
+          -- every shard's statistics stay, each marked with its shard
+          if l:sub(1, 4) == "<!--" then
+            l = format("<!-- shard %d of %d:%s", i, #inputs, l:sub(5))
+            alltrail[#alltrail + 1] = l
+          elseif l:sub(1, 2) == "# " then
+            alltrail[#alltrail + 1] = format("# shard %d of %d: %s", i, #inputs, l:sub(3))
+          else
+            trailer[#trailer + 1] = l
+          end
+        else
+          if not inev and first_event_line(fmt, l) then inev = true end
+          if not inev then
+            local k = header_key(l)
+            if k then header[#header + 1] = k end
+            if i == 1 then f:write(l, "\n") end
+          else
+            local id = ID[fmt](l)
+            if id then
+              if nextid and id ~= nextid then
+                error(format("events.merge: %s: event %d where %d was expected "
+                             .. "(an event lost or doubled)", name, id, nextid), 0)
+              end
+              nextid = id + 1
+              nev = nev + 1
+            end
+            f:write(l, "\n")
+          end
+        end
+      end
+      h:close()
+      local hk = table.concat(header, "\n")
+      if header0 and hk ~= header0 then
+        error(format("events.merge: %s is not a shard of the same run as %s",
+                     name, inputs[1]), 0)
+      end
+      header0 = header0 or hk
+      if i == #inputs then
+        for _, l in ipairs(alltrail) do f:write(l, "\n") end
+        if #trailer > 0 then f:write(concat(trailer, "\n"), "\n") end
       end
     end
-    h:close()
-    if i == #spec.inputs then f:write(concat(trailer, "\n"), "\n") end
-  end
-  assert(f:close())
+  end)
+  f:close()
+  if not ok then os.remove(part); error(err, 0) end
   assert(os.rename(part, out))
   return nev
 end
+
+
+--[[ The shard files of output for n shards, when all exist. ]]
+local function shard_files(output, n)
+  local scan = require "brakelight.scan"
+  local list = {}
+  for i = 1, n do
+    local p = scan.shard_path(output, i, n)
+    local h = io.open(p, "r")
+    if not h then return nil end
+    h:close()
+    list[i] = p
+  end
+  return list
+end
+
+
+--[[
+  The final pass of a -j run (shard 1 of 1, from "workers"): the workers
+  have written complete shard files (each renamed only when complete);
+  merge them instead of making the events again.  Returns the write
+  result, or nil when there is nothing to merge.
+]]
+function from_workers(spec, info, fmt)
+  local ss = package.loaded["brakelight.session"]
+  if type(ss) ~= "table" or ss.shard_from ~= "workers" or info.shard[2] ~= 1
+     or ss.workers then
+    return nil
+  end
+  for n = 2, 256 do
+    local list = shard_files(spec.output, n)
+    if list then
+      local nev = events.merge{ output = spec.output, inputs = list, format = fmt }
+      if nev ~= info.events then
+        error(format("events.write: the shard files of %s hold %d events, the "
+                     .. "run %d", spec.output, nev, info.events), 3)
+      end
+      for _, p in ipairs(list) do os.remove(p) end
+      return { path = spec.output, events = nev, merged = n }
+    end
+  end
+  return nil
+end
+
 
 return events

@@ -8,7 +8,10 @@
   checking the Asciiv3 layout (E/U/W/A/P/V lines, 5 particles, statuses 4
   and 1, the cross-section record), CSV; shards written apart and merged
   equal the unsharded file event for event; no OUTPUT.part left; a failed
-  run leaves no OUTPUT.  Runs in any Lua host.
+  run leaves no OUTPUT; merge refuses a gap and a file of another run; the
+  runner's -j 2 (build/brakelight, started by this test) merges its
+  workers' shard files into the file one process writes.  Runs in any Lua
+  host.
 ]]
 
 local root = (arg[0]):match("^(.-)tests[/\\]lua[/\\][^/\\]+%.lua$") or "./"
@@ -215,6 +218,49 @@ for _ in text:gmatch("<event>\n") do nb = nb + 1 end
 local ne = 0
 for _ in text:gmatch("</event>\n") do ne = ne + 1 end
 assert(nb == 200 and ne == 200, nb .. " " .. ne)
+
+-- merge refuses a gap (a shard missing) and a file of another run
+local ok2, msg2 = pcall(events.merge, { output = tmp .. ".bad.hepmc",
+  inputs = { files[1], files[3] }, format = "hepmc3" })
+assert(not ok2 and msg2:find("lost or doubled", 1, true), tostring(msg2))
+assert(io.open(tmp .. ".bad.hepmc") == nil and io.open(tmp .. ".bad.hepmc.part") == nil)
+local other = events.write{ sampler = bl.sampler(spec{ seed = 9, shard = { 2, 3 } }),
+                            output = tmp .. ".o.hepmc", format = "hepmc3" }
+ok2, msg2 = pcall(events.merge, { output = tmp .. ".bad.hepmc",
+  inputs = { files[1], other.path }, format = "hepmc3" })
+assert(not ok2 and msg2:find("not a shard of the same run", 1, true), tostring(msg2))
+os.remove(other.path)
+
+-- the runner (build/brakelight): -j 2 writes shard files in its workers and
+-- its final pass merges them; the file equals the one of a single process
+local runner = (os.getenv("BL_BUILD_DIR") or (root .. "build")) .. "/brakelight"
+local script = tmp .. ".run.lua"
+local sf = assert(io.open(script, "w"))
+sf:write(string.format([[
+package.path = %q .. "lua/?.lua;" .. package.path
+local bl = require "brakelight"
+local events = require "brakelight.events"
+local s = bl.sampler{ particle = "muon", target = "water", T = 5000, kmin = 50,
+                      seed = 3, events = 1500 }
+events.write{ sampler = s, output = arg[1], format = "lhe" }
+]], root))
+sf:close()
+local function sh(cmd) return os.execute(cmd .. " >/dev/null 2>&1") end
+sh(string.format("%q -q -j 2 %q %q", runner, script, tmp .. ".j.lhe"))
+sh(string.format("%q -q %q %q", runner, script, tmp .. ".one.lhe"))
+local function lhe_events(path)
+  local h = io.open(path)
+  assert(h, "no file " .. path)
+  local t = h:read("*a")
+  h:close()
+  return t:match("</init>\n(.*)\n</event>\n")
+end
+local je, oe = lhe_events(tmp .. ".j.lhe"), lhe_events(tmp .. ".one.lhe")
+assert(je and je == oe, "-j 2 differs from one process")
+for i = 1, 2 do
+  assert(io.open(tmp .. ".j.shard-" .. i .. "-of-2.lhe") == nil, "shard file left")
+end
+for _, x in ipairs{ ".j.lhe", ".one.lhe", ".run.lua" } do os.remove(tmp .. x) end
 
 for _, x in ipairs{ ".lhe", ".hepmc", ".csv", ".merged.hepmc", ".x.lhe.part" } do
   os.remove(tmp .. x)
