@@ -10,8 +10,9 @@
   equal the unsharded file event for event; no OUTPUT.part left; a failed
   run leaves no OUTPUT; merge refuses a gap and a file of another run; the
   runner's -j 2 (build/brakelight, started by this test) merges its
-  workers' shard files into the file one process writes.  Runs in any Lua
-  host.
+  workers' shard files into the file one process writes; SIGINT in the
+  middle of a write leaves no OUTPUT and a .part of whole events.  Runs in
+  any Lua host.
 ]]
 
 local root = (arg[0]):match("^(.-)tests[/\\]lua[/\\][^/\\]+%.lua$") or "./"
@@ -260,7 +261,35 @@ assert(je and je == oe, "-j 2 differs from one process")
 for i = 1, 2 do
   assert(io.open(tmp .. ".j.shard-" .. i .. "-of-2.lhe") == nil, "shard file left")
 end
-for _, x in ipairs{ ".j.lhe", ".one.lhe", ".run.lua" } do os.remove(tmp .. x) end
+for _, x in ipairs{ ".j.lhe", ".one.lhe" } do os.remove(tmp .. x) end
+
+-- SIGINT to the runner in the middle of a long write (1e6 events, ~20 s):
+-- it stops with an error, no OUTPUT, and OUTPUT.part ends on a whole event
+sf = assert(io.open(script, "w"))
+sf:write(string.format([[
+package.path = %q .. "lua/?.lua;" .. package.path
+local bl = require "brakelight"
+local events = require "brakelight.events"
+local s = bl.sampler{ particle = "electron", target = "W", T = 10, kmin = 0.1,
+                      seed = 3, events = 1000000 }
+events.write{ sampler = s, output = arg[1], format = "lhe", chunk = 1000 }
+]], root))
+sf:close()
+local sig = os.execute(string.format("%q -q %q %q >/dev/null 2>&1 & p=$!; "
+  .. "sleep 1.5; kill -INT $p; wait $p; test $? -ne 0", runner, script,
+  tmp .. ".sig.lhe"))
+assert(sig == true or sig == 0, "the interrupted run did not fail")
+assert(io.open(tmp .. ".sig.lhe") == nil, "an interrupted run left OUTPUT")
+local ph = assert(io.open(tmp .. ".sig.lhe.part"))
+local ptext = ph:read("*a")
+ph:close()
+local n1, n2 = 0, 0
+for _ in ptext:gmatch("<event>\n") do n1 = n1 + 1 end
+for _ in ptext:gmatch("</event>\n") do n2 = n2 + 1 end
+assert(n1 > 0 and n1 == n2 and n1 % 1000 == 0, n1 .. " " .. n2)
+assert(ptext:sub(-9) == "</event>\n", "the .part does not end on an event")
+os.remove(tmp .. ".sig.lhe.part")
+os.remove(script)
 
 for _, x in ipairs{ ".lhe", ".hepmc", ".csv", ".merged.hepmc", ".x.lhe.part" } do
   os.remove(tmp .. x)
