@@ -24,8 +24,11 @@ local tmp = os.tmpname()
 os.remove(tmp)
 
 local function spec(extra)
+  -- a light setup (1.3e4 evaluations): these tests check the interface and
+  -- the files, not the proposal, and run under valgrind too
   local t = { particle = "electron", target = "W", T = 8000, kmin = 80,
-              seed = 42, events = 600 }
+              seed = 42, events = 600,
+              setup = { iterations = 2, points = 2000, cellpoints = 8 } }
   for k, v in pairs(extra or {}) do t[k] = v end
   return t
 end
@@ -261,6 +264,16 @@ assert(je and je == oe, "-j 2 differs from one process")
 for i = 1, 2 do
   assert(io.open(tmp .. ".j.shard-" .. i .. "-of-2.lhe") == nil, "shard file left")
 end
+-- a Slurm array task (tasks 4..5: the second is shard 2 of 2) writes the
+-- same shard file as --shard 2/2
+sh(string.format("SLURM_ARRAY_TASK_ID=5 SLURM_ARRAY_TASK_MIN=4 "
+  .. "SLURM_ARRAY_TASK_MAX=5 %q -q %q %q", runner, script, tmp .. ".s.lhe"))
+sh(string.format("%q -q --shard 2/2 %q %q", runner, script, tmp .. ".g.lhe"))
+local se = lhe_events(tmp .. ".s.shard-2-of-2.lhe")
+assert(se and se == lhe_events(tmp .. ".g.shard-2-of-2.lhe"), "Slurm task")
+assert(oe:find(se, 1, true), "shard 2 is not part of the whole run")
+os.remove(tmp .. ".s.shard-2-of-2.lhe")
+os.remove(tmp .. ".g.shard-2-of-2.lhe")
 for _, x in ipairs{ ".j.lhe", ".one.lhe" } do os.remove(tmp .. x) end
 
 -- SIGINT to the runner in the middle of a long write (1e6 events, ~20 s):
