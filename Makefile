@@ -423,10 +423,12 @@ $(B)/tsan_%: tests/tsan/tsan_%.c $(LIB)
 
 tsan-build:
 	@$(MAKE) --no-print-directory B=$(TSAN_DIR) CC=gcc \
-	  SAN_FLAGS="$(TSAN_FLAGS)" $(TSAN_DIR)/tsan_spectra
+	  SAN_FLAGS="$(TSAN_FLAGS)" $(TSAN_DIR)/tsan_spectra $(TSAN_DIR)/tsan_sampler
 
+# (tsan_sampler.c: one event sampler on three application threads at once)
 test-tsan: tsan-build
 	TSAN_OPTIONS="halt_on_error=1 $(TSAN_OPTIONS)" ./$(TSAN_DIR)/tsan_spectra
+	TSAN_OPTIONS="halt_on_error=1 $(TSAN_OPTIONS)" ./$(TSAN_DIR)/tsan_sampler
 
 # ---- install -----------------------------------------------------------------
 # make install PREFIX=... [DESTDIR=...]: static and shared library,
