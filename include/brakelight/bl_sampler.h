@@ -13,11 +13,17 @@
 ** events come unweighted (accept-reject) or weighted.
 **
 ** What the events include: the fully differential value with the Elwert
-** factor where the case applies it; not the Coulomb correction (known for
-** dsigma/dk only) nor the suppression of the medium (LPM, dielectric):
-** their sigma is the integral of the fully differential value, which is
-** what bl_target_cross_section_e gives with the Coulomb correction off
-** and no suppression.  Static field: the atom takes the momentum q = p0 -
+** factor where the case applies it; not the suppression of the medium
+** (LPM, dielectric).  The Coulomb correction is known for dsigma/dk only:
+** by default the events leave it out, and their sigma is what
+** bl_target_cross_section_e gives with the correction off; with
+** conf.coulomb = 1 the nuclear part of the value at photon energy k is
+** multiplied by 1 - Delta(k)/dsigma_N/dk (Delta the correction, dsigma_N
+** the nuclear part's Born dsigma/dk, tabulated at BL_SAMPLER_COULOMB_NODES
+** energies of the window and interpolated in ln k) where the case's
+** option applies the correction: sigma then follows the library's, and
+** the correction is spread over the angles like the Born value (an
+** approximation: its angular shape is not known here).  Static field: the atom takes the momentum q = p0 -
 ** p - k and no energy (its recoil energy q^2/2M is neglected), so E0 = E +
 ** k; the atomic-electron part of the target factor is attributed to "an
 ** atomic electron", but its kinematics are those of the static atom too.
@@ -69,6 +75,9 @@ void bl_rng_init (bl_rng *r, uint64_t seed, uint64_t stream);
 uint64_t bl_rng_u64 (bl_rng *r);
 double bl_rng_uniform (bl_rng *r);
 
+/* Photon energies of the Coulomb factor's table (conf.coulomb). */
+#define BL_SAMPLER_COULOMB_NODES 24
+
 /* Events per block (the unit of streams, threads and shards). */
 #define BL_SAMPLER_BLOCK 256
 /* Most events one bl_sampler_events call returns. */
@@ -95,6 +104,9 @@ typedef struct bl_sampler_conf {
   int cells[4];            /* cells per dimension (default 8, 6, 6, 4) */
   int cellpoints;          /* trial points per cell (default 200) */
   double safety;           /* envelope = safety x largest weight seen (1.3) */
+  int coulomb;             /* 1: the Coulomb correction as a factor of k on
+                           ** the nuclear part where the case's option
+                           ** applies it (default 0: none); see below */
 } bl_sampler_conf;
 
 void bl_sampler_conf_default (bl_sampler_conf *conf);

@@ -31,7 +31,7 @@ typedef struct LSampler {
 static const char *const sampler_keys[] = {
   "particle", "target", "T", "kmin", "kmax", "screening", "nucleus",
   "electrons", "coulomb", "elwert", "method", "seed", "events", "mode",
-  "threads", "shard", "setup", NULL
+  "threads", "shard", "setup", "coulomb_factor", NULL
 };
 
 
@@ -183,7 +183,7 @@ static void getshard (lua_State *L, const char *fname, lua_Integer *i,
 ** dsigma/dk at five photon energies of the window.
 */
 static void pushnotes (lua_State *L, const bl_target *t, bl_quad *q,
-                       double kmin, double kmax, double p0) {
+                       double kmin, double kmax, double p0, int factor) {
   double m = t->particle.mass;
   char buf[MSGSIZE];
   double mmin = HUGE_VAL, worst = 0.0;
@@ -217,11 +217,21 @@ static void pushnotes (lua_State *L, const bl_target *t, bl_quad *q,
       }
       free(off);
     }
-    if (worst > 1e-4) {
+    if (worst > 1e-4 && factor) {
+      snprintf(buf, sizeof buf, "events: the Coulomb correction (known for "
+               "dsigma/dk only) is a factor of k on the nuclear part: it "
+               "keeps dsigma/dk (up to %.2g %% in this window) but its "
+               "angular shape is that of the Born value, an approximation",
+               100.0 * worst);
+      lua_pushstring(L, buf);
+      lua_rawseti(L, -2, ++n);
+    }
+    else if (worst > 1e-4) {
       snprintf(buf, sizeof buf, "events: no Coulomb correction (known for "
                "dsigma/dk only): their sigma is that of coulomb = false; "
                "the correction would change dsigma/dk by up to %.2g %% in "
-               "this window", 100.0 * worst);
+               "this window (coulomb_factor = true applies it as a factor "
+               "of k)", 100.0 * worst);
       lua_pushstring(L, buf);
       lua_rawseti(L, -2, ++n);
     }
@@ -266,6 +276,22 @@ int l_sampler (lua_State *L) {
   lua_pushvalue(L, 1);                          /* keep the options */
   getconf(L, o.fname, &conf);
   lua_replace(L, 1);                            /* the options again */
+  if (lua_getfield(L, 1, "coulomb_factor") != LUA_TNIL) {
+    char v[80];
+    if (!lua_isboolean(L, -1))
+      lbl_argfail(L, o.fname, "field 'coulomb_factor' must be true or false, "
+                  "got %s", lbl_showval(L, -1, v, sizeof v));
+    conf.coulomb = lua_toboolean(L, -1);
+    if (conf.coulomb && o.bo.coulomb == BL_APPLY_OFF)
+      lbl_argfail(L, o.fname, "field 'coulomb_factor' is true, but "
+                  "'coulomb' is false: the factor applies the correction "
+                  "where coulomb = 'auto' would");
+    if (conf.coulomb && o.method == BL_METHOD_DISTORTED)
+      lbl_argfail(L, o.fname, "field 'coulomb_factor' is true, but method "
+                  "'distorted' has no Coulomb correction (its waves hold "
+                  "the Coulomb field)");
+  }
+  lua_pop(L, 1);
   /* all checks done */
   q = lbl_getquad(L, &o);
   t = lbl_maketarget(L, &o, q);                 /* the call's target */
@@ -333,6 +359,8 @@ int l_sampler (lua_State *L) {
   lua_setfield(L, -2, "method");
   lua_pushstring(L, o.screening->name);
   lua_setfield(L, -2, "screening");
+  lua_pushboolean(L, conf.coulomb);
+  lua_setfield(L, -2, "coulomb_factor");
   lua_pushboolean(L, o.bo.electrons);
   lua_setfield(L, -2, "electrons");
   lua_pushstring(L, o.bo.nucleus == BL_NUCLEUS_UNIFORM ? "uniform" : "point");
@@ -360,7 +388,7 @@ int l_sampler (lua_State *L) {
     lbl_initwarn(&w, t);
     w.bits |= info.warn;
     lbl_pushwarnings(L, &o, &w);
-    pushnotes(L, t, q, kmin, kmax, ls->p0);
+    pushnotes(L, t, q, kmin, kmax, ls->p0, conf.coulomb);
     lua_setfield(L, -2, "warnings");
   }
   lua_setiuservalue(L, -2, 1);

@@ -75,6 +75,16 @@ local wi = bl.sampler(spec()):info().warnings
 assert(has(wi, "static field") and has(wi, "no Coulomb correction"))
 wi = bl.sampler(spec{ coulomb = false }):info().warnings
 assert(has(wi, "static field") and not has(wi, "no Coulomb correction"))
+-- coulomb_factor: the correction as a factor of k, sigma lower by ~7 %
+local cf = bl.sampler(spec{ coulomb_factor = true })
+assert(cf:info().coulomb_factor == true)
+assert(has(cf:info().warnings, "is a factor of k on the nuclear part"))
+local ref = bl.cross_section{ particle = "electron", target = "W", T = 8000,
+                              kmin = 80 }
+assert(math.abs(cf:info().sigma / ref.sigma - 1) < 5 * cf:info().err / ref.sigma,
+       cf:info().sigma .. " " .. ref.sigma)
+refuses(spec{ coulomb_factor = true, coulomb = false }, "'coulomb' is false")
+refuses(spec{ coulomb_factor = 1 }, "field 'coulomb_factor' must be true or false")
 -- setup settings: lighter setups take fewer evaluations; bad ones refused
 local light = bl.sampler(spec{ setup = { iterations = 2, points = 1000,
   cells = { 4, 4, 4, 2 }, cellpoints = 8, safety = 1.5 } }):info()

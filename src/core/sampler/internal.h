@@ -25,6 +25,11 @@ typedef struct smp_chan {
   double atoms;                          /* per formula unit */
   double edge[SMP_NDIM][SMP_NBIN + 1];
   int hasridge_b;                        /* c.ridge_b is a finite pole */
+  /* the Coulomb factor of the nuclear part (conf.coulomb): at x =
+  ** ln(k/(cf_E0 - k)) = cf_lo + i cf_step, i < ncf; 1 outside (ncf = 0:
+  ** none) */
+  int ncf;
+  double cf_lo, cf_step, cf_E0, cf[BL_SAMPLER_COULOMB_NODES];
 } smp_chan;
 
 /* A point: the photon-frame geometry and what the event needs of it. */

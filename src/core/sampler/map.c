@@ -120,6 +120,16 @@ static void parts (const smp_chan *ch, smp_point *pt) {
     else
       pt->we += v;
   }
+  if (ch->ncf > 0) {   /* the Coulomb factor, linear in ln(k/(E0 - k)) */
+    double u = (log(pt->kmev / (ch->cf_E0 - pt->kmev)) - ch->cf_lo)
+               / ch->cf_step;
+    if (u >= 0.0 && u <= ch->ncf - 1) {
+      int i = (int)u;
+      if (i > ch->ncf - 2)
+        i = ch->ncf - 2;
+      fe *= ch->cf[i] + (u - i) * (ch->cf[i + 1] - ch->cf[i]);
+    }
+  }
   pt->wel *= fe;
 }
 
