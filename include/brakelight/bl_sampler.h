@@ -20,7 +20,7 @@
 ** conf.coulomb = 1 the nuclear part of the value at photon energy k is
 ** multiplied by 1 - Delta(k)/dsigma_N/dk (Delta the correction, dsigma_N
 ** the nuclear part's Born dsigma/dk, tabulated at BL_SAMPLER_COULOMB_NODES
-** energies of the window and interpolated in ln k) where the case's
+** energies of the window, interpolated in ln(k/(E0 - k))) where the case's
 ** option applies the correction: sigma then follows the library's, and
 ** the correction is spread over the angles like the Born value (an
 ** approximation: its angular shape is not known here).  Static field: the atom takes the momentum q = p0 -
