@@ -205,7 +205,7 @@ test-rock: $(RUNNER)
 .PHONY: test-c test-lua test-embed test-install
 test: test-c test-lua test-lua-hosts test-embed test-install test-rock \
       test-asan test-tsan valgrind fuzz-smoke sweep-smoke test-lua-asan \
-      test-slurm
+      test-slurm test-hepmc3
 
 # The core must not know Lua: no file of src/core/ or include/brakelight/bl_*
 # includes a Lua header.  Then static analysis: cppcheck, gcc -fanalyzer and
@@ -275,6 +275,18 @@ $(B)/target_values: tests/capi/target_values.c $(LIB)
 # tests/lua/*.lua through the runner, and the stock interpreter
 test-lua: $(MODULE) $(RUNNER) $(B)/target_values
 	@bash scripts/run-lua-tests.sh
+
+# HepMC3 files of brakelight.events read back by the HepMC3 library itself
+# (Debian libhepmc3-dev; a small C++ reader, tests/hepmc3/read_hepmc3.cc)
+.PHONY: test-hepmc3
+CXX ?= c++
+$(B)/read_hepmc3: tests/hepmc3/read_hepmc3.cc
+	@mkdir -p $(@D)
+	$(CXX) -O2 -std=c++11 -Wall -Wextra -Werror -o $@ $< -lHepMC3
+
+test-hepmc3: $(B)/read_hepmc3 $(RUNNER)
+	@mkdir -p $(B)/hepmc3
+	./$(RUNNER) tests/hepmc3/roundtrip.lua ./$(B)/read_hepmc3 $(B)/hepmc3
 
 # a C program that embeds Lua and loads the module (tests/embed/embed.c)
 $(B)/embed: tests/embed/embed.c
@@ -420,10 +432,12 @@ $(B)/tsan_%: tests/tsan/tsan_%.c $(LIB)
 
 tsan-build:
 	@$(MAKE) --no-print-directory B=$(TSAN_DIR) CC=gcc \
-	  SAN_FLAGS="$(TSAN_FLAGS)" $(TSAN_DIR)/tsan_spectra
+	  SAN_FLAGS="$(TSAN_FLAGS)" $(TSAN_DIR)/tsan_spectra $(TSAN_DIR)/tsan_sampler
 
+# (tsan_sampler.c: one event sampler on three application threads at once)
 test-tsan: tsan-build
 	TSAN_OPTIONS="halt_on_error=1 $(TSAN_OPTIONS)" ./$(TSAN_DIR)/tsan_spectra
+	TSAN_OPTIONS="halt_on_error=1 $(TSAN_OPTIONS)" ./$(TSAN_DIR)/tsan_sampler
 
 # ---- install -----------------------------------------------------------------
 # make install PREFIX=... [DESTDIR=...]: static and shared library,

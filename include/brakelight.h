@@ -22,5 +22,6 @@
 #include "brakelight/bl_integral.h"
 #include "brakelight/bl_suppress.h"
 #include "brakelight/bl_target.h"
+#include "brakelight/bl_sampler.h"
 
 #endif

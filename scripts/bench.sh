@@ -11,7 +11,9 @@
 #    (scripts/bench_he.c, target 1e6/s) and energy_loss timings
 #    (scripts/bench_integrated.lua: born at rtol 1e-3 within 50 ms, auto
 #    within 5 ms); the distorted-wave dsigma/dk (scripts/bench_dw.c: median
-#    at rtol 1e-3 against 20 ms, and its time ratio to Born);
+#    at rtol 1e-3 against 20 ms, and its time ratio to Born); the event
+#    sampler (scripts/bench_sampler.c: setup time, efficiency, events/s
+#    against 1e5/s, two threads against one);
 # 2. if Debian's /usr/bin/python3 has SciPy, evaluates a few of the same
 #    points with the independent SciPy integration (scripts/bench_scipy.py)
 #    and prints the time ratio and the relative difference of the values.
@@ -86,6 +88,15 @@ if ${CC:-cc} "${CFL[@]}" -o "$B/bench_dw" scripts/bench_dw.c \
   "$B/bench_dw" | tail -n 1 || echo "bench: bench_dw exited with status $?"
 else
   echo "bench: could not build $B/bench_dw" >&2
+fi
+
+echo
+echo "== event sampler (scripts/bench_sampler.c): e- on W, 10 MeV and 10 GeV, born"
+if ${CC:-cc} "${CFL[@]}" -o "$B/bench_sampler" scripts/bench_sampler.c \
+     "$B/libbrakelight.a" "${LDL[@]}"; then
+  "$B/bench_sampler" || echo "bench: bench_sampler exited with status $?"
+else
+  echo "bench: could not build $B/bench_sampler" >&2
 fi
 
 echo

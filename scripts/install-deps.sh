@@ -23,6 +23,8 @@ pkgs=(liblua5.4-dev lua5.4 libgsl-dev libcriterion-dev libxrl-dev clang
 # the other Lua hosts (make lua-hosts, test-lua-hosts): headers and stock
 # interpreters of Lua 5.1, 5.2, 5.3 and LuaJIT 2.1, compat-5.3 for the
 # binding (src/binding/lbl_compat.h), and luarocks (make test-rock)
+# libhepmc3-dev and g++: make test-hepmc3 (HepMC3 reads our files back)
+pkgs+=(libhepmc3-dev g++)
 pkgs+=(liblua5.1-0-dev lua5.1 liblua5.2-dev lua5.2 liblua5.3-dev lua5.3
        libluajit-5.1-dev luajit lua-compat53-dev luarocks)
 

@@ -213,4 +213,8 @@ int l_cross_section (lua_State *L);
 int l_energy_loss (lua_State *L);
 int l_photon_yield (lua_State *L);
 
+/* Events (lsampler.c): the sampler metatable, brakelight.sampler. */
+void lbl_sampler_open (lua_State *L);
+int l_sampler (lua_State *L);
+
 #endif

@@ -98,6 +98,7 @@ static const luaL_Reg brakelight_funcs[] = {
   {"models", l_models},
   {"photon_yield", l_photon_yield},
   {"particle", l_particle},
+  {"sampler", l_sampler},
   {"spectrum", l_spectrum},
   {NULL, NULL}
 };
@@ -113,6 +114,7 @@ LUAMOD_API int luaopen_brakelight (lua_State *L) {
   gsl_set_error_handler_off();
   luaL_checkversion(L);
   createmeta(L);
+  lbl_sampler_open(L);
   luaL_newlibtable(L, brakelight_funcs);  /* module table */
   newquad(L);                             /* shared workspace */
   luaL_setfuncs(L, brakelight_funcs, 1);  /* functions with upvalue */

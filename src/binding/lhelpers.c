@@ -14,7 +14,8 @@
 
 
 /* the helper modules reachable as fields (lua/brakelight/<name>.lua) */
-static const char *const helpers[] = {"json", "merge", "plot", "scan", NULL};
+static const char *const helpers[] = {"events", "json", "merge", "plot", "scan",
+                                      NULL};
 
 
 /*

@@ -17,6 +17,8 @@ local recipes = {
   screening_compare = { "screening-compare.csv", "screening-compare.png.gp" },
   sharded_scan = { "dsdk-table.csv" },
   tungsten_converter = { "tungsten-converter.csv", "tungsten-converter.png.gp" },
+  tungsten_events = { "tungsten-events.hepmc3", "tungsten-events.lhe",
+                      "tungsten-events-angles.png.gp" },
 }
 local dir = U.tmpdir()
 local ok, err = pcall(function()
