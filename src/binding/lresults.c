@@ -203,7 +203,8 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
           ? "the Coulomb correction was applied"
           : (w->applied & BL_APPLIED_ELWERT)
           ? "the Elwert factor was applied"
-          : "no correction holds here (README, Corrections)";
+          : "no correction holds here (README, Where the Born approximation "
+            "holds, and the corrections)";
       if (w->kborn > 0 && w->kborn < o->T)
         snprintf(msg, sizeof msg, "%s (2 pi |z| Z alpha/beta = %.3g before "
                  "emission, %.3g after emitting k = %g MeV; z = %g, Z = %d, "
