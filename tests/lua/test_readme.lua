@@ -61,6 +61,10 @@ end
 local build = os.getenv("BL_BUILD_DIR") or "build"
 if build:sub(1, 1) ~= "/" then build = absroot .. "/" .. build end
 local runner = build .. "/brakelight"
+-- the blocks' build/ is the tree's (the README speaks of it; a module of
+-- build/asan would not load in a stock lua5.4), unless it has no runner
+local treebuild = absroot .. "/build"
+if not U.read(treebuild .. "/brakelight") then treebuild = build end
 local OWNED = "Sharding and parallel runs"
 
 local readme = assert(U.read(R .. "README.md"), "no README.md")
@@ -184,7 +188,7 @@ end
 
 local function newdir()
   local d = U.tmpdir()
-  os.execute("ln -s " .. U.q(build) .. " " .. U.q(d .. "/build") ..
+  os.execute("ln -s " .. U.q(treebuild) .. " " .. U.q(d .. "/build") ..
              " && ln -s " .. U.q(absroot .. "/lua") .. " " .. U.q(d .. "/lua"))
   return d
 end
@@ -266,6 +270,47 @@ local ok, err = pcall(function()
 end)
 for _, d in ipairs(dirs) do U.rmdir(d) end
 if not ok then error(err, 0) end
+
+--[[ Two statements of the README's tables checked directly: dsdk takes
+     y = k/T as spectrum does (the same number as k = y T, bit for bit; both
+     at once is an error naming them), and spectrum's `threads` is the number
+     used (threads = 0: at least 1, at most one per point). ]]
+do
+  local bl = require "brakelight"
+  local base = { particle = "electron", target = "Cu", T = 20, method = "born",
+                 rtol = 1e-3 }
+  local function with(t)
+    local c = {}
+    for k, v in pairs(base) do c[k] = v end
+    for k, v in pairs(t) do c[k] = v end
+    return c
+  end
+  local vy = bl.dsdk(with{ y = 0.25 })
+  local vk = bl.dsdk(with{ k = 5 })
+  if vy ~= vk then fail("dsdk{y = 0.25} = %.17g, dsdk{k = 5} = %.17g", vy, vk) end
+  local okb, eb = pcall(bl.dsdk, with{ y = 0.25, k = 5 })
+  if okb or not tostring(eb):find("'k'", 1, true) or not tostring(eb):find("'y'", 1, true) then
+    fail("dsdk with k and y: expected an error naming both, got %s", tostring(eb))
+  end
+  local oky, ey = pcall(bl.dsdk, with{ y = 1.5 })
+  if oky or not tostring(ey):find("field 'y' must be in (0, 1), got 1.5", 1, true) then
+    fail("dsdk{y = 1.5}: expected the range error, got %s", tostring(ey))
+  end
+  local s0 = bl.spectrum(with{ y = { 0.2, 0.4, 0.6 }, threads = 0 })
+  local _, npout = U.sh("getconf _NPROCESSORS_ONLN")
+  local np = tonumber((npout or ""):match("%d+"))
+  local want = np and math.min(np, 3) or nil
+  if type(s0.threads) ~= "number" or s0.threads < 1 or s0.threads > 3 or
+     (want and s0.threads ~= want) then
+    fail("spectrum{threads = 0}.threads = %s, expected min(processors, points) = %s",
+         tostring(s0.threads), tostring(want))
+  end
+  local s1 = bl.spectrum(with{ y = { 0.2, 0.4, 0.6 }, threads = 1 })
+  if s1.threads ~= 1 then fail("spectrum{threads = 1}.threads = %s", tostring(s1.threads)) end
+  for i = 1, 3 do
+    if s0.dsdk[i] ~= s1.dsdk[i] then fail("spectrum on threads differs at point %d", i) end
+  end
+end
 
 --[[ 3: references to headings. ]]
 local heading_set, anchors = {}, {}
