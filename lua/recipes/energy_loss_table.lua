@@ -8,11 +8,11 @@
 
       -dE/dx / rho = (N_A / A) * integral_0^T k dsigma/dk dk,
 
-  with the module's defaults (method "auto": the exact Born integral where
-  the small-angle form does not hold, the high-energy screening functions
-  above; the field of the atomic electrons, a uniformly charged nucleus,
-  and the Coulomb and Elwert corrections where they hold); targets can be
-  any material, here a few elements and water.  brakelight.energy_loss
+  with the module's defaults (method "auto": the distorted waves below the
+  high-energy switch, the high-energy screening functions with the
+  Coulomb correction above; the field of the atomic electrons, a
+  uniformly charged nucleus); targets can be any material, here a few
+  elements and water.  brakelight.energy_loss
   integrates over the photon energy (the k -> 0 end exactly).  The scan
   writes energy-loss.csv (resumable: kill it and start again) and
   energy-loss.png; a text table goes to stdout.  Also printed: phi_rad =
@@ -63,5 +63,6 @@ io.write(tabular.format(cols, rows))
 
 plot{ output = recipe.path("energy-loss.png"),
       title = "Radiative energy loss of electrons",
-      records = records, x = "T", y = "dEdx", by = "target",
+      records = records, x = { column = "T", label = "kinetic energy T" },
+      y = { column = "dEdx", label = "-dE/dx / rho (radiative)" }, by = "target",
       units = { dEdx = "MeV cm^2/g" } }

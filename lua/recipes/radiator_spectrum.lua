@@ -57,7 +57,8 @@ local records = scan.run{
 
 plot{ output = recipe.path("radiator-spectrum.png"),
       title = "Thin-foil radiator, 2 GeV electrons, 50 um",
-      records = records, x = "k", y = "kdNdk", by = "target",
+      records = records, x = { column = "k", label = "photon energy k" },
+      y = { column = "kdNdk", label = "k dN/dk" }, by = "target",
       units = { kdNdk = "photons per electron" } }
 
 -- photons per electron above 10 % of the beam energy

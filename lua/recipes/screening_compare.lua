@@ -62,5 +62,6 @@ for _, r in ipairs(records) do
 end
 plot{ output = recipe.path("screening-compare.png"),
       title = "Screening models over the bare nucleus, 1 GeV electrons",
-      records = series, x = "y", y = "ratio", by = { "target", "screening" },
+      records = series, x = { column = "y", label = "y = k/T" },
+      y = { column = "ratio", label = "dsigma/dk over the bare nucleus" }, by = { "target", "screening" },
       units = { ratio = "1" } }

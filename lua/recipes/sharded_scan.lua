@@ -46,10 +46,16 @@ local records, info = scan.run{
 if info.selected == info.total then
   local worst = 0
   for _, r in ipairs(records) do worst = math.max(worst, r.err / r.dsdk) end
-  print(string.format("%d points, %d records in %s (%d computed now, %d " ..
-                      "from earlier runs); largest relative error %.2g",
-                      info.total, #records, info.path, info.computed,
-                      info.reused, worst))
+  -- after -j N this is the final pass on the merged file: the workers
+  -- computed (or resumed) every point, so "0 computed now" would mislead
+  local session = package.loaded["brakelight.session"]
+  local how = (session and session.shard_from == "workers") and
+              "merged from the -j workers" or
+              string.format("%d computed now, %d from earlier runs",
+                            info.computed, info.reused)
+  print(string.format("%d points, %d records in %s (%s); largest relative " ..
+                      "error %.2g", info.total, #records, info.path, how,
+                      worst))
 else
   print(string.format("shard %d of %d: %d of %d points in %s; merge the " ..
                       "shards with brakelight --merge", info.shard[1],

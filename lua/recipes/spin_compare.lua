@@ -4,7 +4,7 @@
 
   Scenario (our own): a search for a long-lived charged particle of mass
   800 MeV needs its photon spectrum in a copper absorber.  Its spin is
-  unknown, so both spin 0 and spin 1/2 are computed, next to a muon with
+  unknown, so both spin 0 ("scalar") and spin 1/2 ("fermion") are computed, next to a muon with
   the same Lorentz factor gamma = 40 (muon T = 4.12 GeV, heavy particle
   T = 31.2 GeV).  The scan axis is the projectile; each point returns the
   spectrum at the same fractions y = k/T.  Printed per y: the two
@@ -28,8 +28,8 @@ local MX = 800.0                                -- MeV, hypothetical
 local mu = bl.particle("muon")
 local beams = {
   mu,
-  bl.particle{ name = "X0", mass = MX, charge = 1, spin = 0 },
-  bl.particle{ name = "X1/2", mass = MX, charge = 1, spin = 0.5 },
+  bl.particle{ name = "scalar", mass = MX, charge = 1, spin = 0 },
+  bl.particle{ name = "fermion", mass = MX, charge = 1, spin = 0.5 },
 }
 local Y = small and { 0.1, 0.5, 0.9 } or
           { 0.02, 0.05, 0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 0.95, 0.98 }
@@ -60,16 +60,17 @@ for _, r in ipairs(records) do
 end
 local rows = {}
 for i, y in ipairs(Y) do
-  local x0, xh, m = by["X0"][i], by["X1/2"][i], by[mu.name][i]
+  local x0, xh, m = by["scalar"][i], by["fermion"][i], by[mu.name][i]
   rows[i] = { y, x0.dsdk / xh.dsdk, x0.scaled / m.scaled, xh.scaled / m.scaled }
 end
 io.write(tabular.format({
   { title = "y", unit = "1", fmt = "%.2f" },
   { title = "spin0/spin1/2", unit = "1", fmt = "%.4f" },
-  { title = "X0 vs mu, m^2 scaled", unit = "1", fmt = "%.4f" },
-  { title = "X1/2 vs mu, m^2 scaled", unit = "1", fmt = "%.4f" } }, rows))
+  { title = "scalar vs mu, m^2 scaled", unit = "1", fmt = "%.4f" },
+  { title = "fermion vs mu, m^2 scaled", unit = "1", fmt = "%.4f" } }, rows))
 
 plot{ output = recipe.path("spin-compare.png"),
       title = string.format("Same gamma = %g on Cu: m^2 y dsigma/dy", GAMMA),
-      records = records, x = "y", y = "scaled", by = "particle",
+      records = records, x = { column = "y", label = "y = k/T" },
+      y = { column = "scaled", label = "m^2 y dsigma/dy" }, by = "particle",
       units = { scaled = "mb MeV^2" } }

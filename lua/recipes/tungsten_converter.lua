@@ -96,4 +96,5 @@ end
 
 plot{ output = recipe.path("tungsten-converter.png"),
       title = "0.2 mm W: dsigma/dk by method",
-      records = records, x = "y", y = "dsdk", by = "method" }
+      records = records, x = { column = "y", label = "y = k/T" },
+      y = { column = "dsdk", label = "dsigma/dk" }, by = "method" }

@@ -16,7 +16,7 @@
 
 
 static const char *const dsdk_keys[] = {
-  "particle", "target", "T", "k", "screening", "rtol", "nucleus",
+  "particle", "target", "T", "k", "y", "screening", "rtol", "nucleus",
   "electrons", "coulomb", "elwert", "method", "suppression", NULL
 };
 
@@ -40,8 +40,9 @@ static const char *const differential_keys[] = {
 
 
 /*
-** brakelight.dsdk{particle =, target =, T =, k =, ...}
+** brakelight.dsdk{particle =, target =, T =, k = or y =, ...}
 **   -> dsigma/dk (mb/MeV per atom), its error estimate, warnings list
+** (y = k/T, as in spectrum; exactly one of k and y)
 */
 int l_dsdk (lua_State *L) {
   Opts o;
@@ -51,8 +52,18 @@ int l_dsdk (lua_State *L) {
   Warnings w;
   double k;
   char at[64];
+  int hask, hasy;
   lbl_readopts(L, "dsdk", dsdk_keys, 1, &o);
-  k = lbl_optk(L, &o);
+  hask = (lua_getfield(L, 1, "k") != LUA_TNIL);
+  hasy = (lua_getfield(L, 1, "y") != LUA_TNIL);
+  lua_pop(L, 2);
+  if (hask && hasy)
+    lbl_argfail(L, o.fname, "give exactly one of fields 'k' (photon energy, "
+                "MeV) and 'y' (fraction k/T), got both");
+  if (hasy)
+    k = lbl_optrange(L, &o, "y", "fraction k/T", 0, 1, 1, "(0, 1)") * o.T;
+  else
+    k = lbl_optk(L, &o);
   /* all checks done */
   q = lbl_getquad(L, &o);
   t = lbl_maketarget(L, &o, q);
@@ -156,6 +167,10 @@ int l_spectrum (lua_State *L) {
   lbl_setresult(L, 14, 7, names, units, &o, &w);
   lua_pushnumber(L, lbl_pergram(&o));
   lua_setfield(L, 14, "per_gram");
+  if (nthreads == 0)                  /* the number used, as the core does */
+    nthreads = bl_spectrum_threads_auto();
+  if ((lua_Integer)nthreads > n)
+    nthreads = (int)n;
   lua_pushinteger(L, nthreads);
   lua_setfield(L, 14, "threads");
   return 1;

@@ -57,7 +57,10 @@ dsdk_err({ scrrening = "none" },
          { "unknown option 'scrrening'", "allowed: particle, target, T, k",
            "screening" })
 dsdk_err({ [1] = "electron" }, { "got key 1", "allowed:" })
-dsdk_err({ y = 0.5 }, { "unknown option 'y'" })  -- y belongs to spectrum
+-- y = k/T as in spectrum (issue 16): one of k and y, y in (0, 1)
+dsdk_err({ y = 0.5 }, { "exactly one of fields 'k'", "'y'", "got both" })
+dsdk_err({ k = "<nil>", y = 1 }, { "field 'y' must be in (0, 1)", "got 1" })
+dsdk_err({ k = "<nil>", y = "half" }, { "'y'" })
 
 -- particle
 dsdk_err({ particle = "muon-" },
