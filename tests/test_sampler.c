@@ -545,13 +545,13 @@ Test(sampler_dist, electron_W_10GeV) {
   distributions("electron", "W", 1e4, 10.0, 1000000, 102);
 }
 Test(sampler_dist, muon_W_10GeV) {
-  distributions("muon", "W", 1e4, 100.0, 500000, 103);
+  distributions("muon", "W", 1e4, 100.0, 1000000, 103);
 }
 Test(sampler_dist, pion_Cu_1GeV) {
-  distributions("pion+", "Cu", 1e3, 10.0, 500000, 104);
+  distributions("pion+", "Cu", 1e3, 10.0, 1000000, 104);
 }
 Test(sampler_dist, electron_water_10MeV) {
-  distributions("electron", "water", 10.0, 0.1, 500000, 105);
+  distributions("electron", "water", 10.0, 0.1, 1000000, 105);
 }
 
 
