@@ -196,7 +196,10 @@ scan.run{ axes = { { "a", a }, { "b", a } }, output = arg[1], quiet = true,
   local bg = dir .. "/bg.pid"
   os.execute(string.format("N=6 SLOW=1 %s %s %s & echo $! > %s", U.q(U.runner),
                            U.q(script), U.q(out), U.q(bg)))
-  os.execute("sleep 0.3")
+  -- wait until the first run holds its lock (a loaded machine starts it
+  -- late), at most 10 s
+  os.execute(string.format("for i in $(seq 100); do [ -e %s ] && break; "
+                           .. "sleep 0.1; done", U.q(out .. ".lock")))
   local pid = U.read(bg):match("%d+")
   code, so, se = U.run("", script, U.q(out) .. " " .. U.q(dir .. "/second.log"), "N=6")
   U.check(code ~= 0, "a second writer was let in")
@@ -208,8 +211,11 @@ scan.run{ axes = { { "a", a }, { "b", a } }, output = arg[1], quiet = true,
   U.check(leftovers(out) == "", "lock run left %s", leftovers(out))
   -- a lock left by a killed run: taken over with a note
   out = dir .. "/killed.csv"
-  code = U.sh(string.format("(N=6 SLOW=1 %s %s %s & p=$!; sleep 0.3; kill -KILL $p; wait $p)",
-                            U.q(U.runner), U.q(script), U.q(out)))
+  code = U.sh(string.format("(N=6 SLOW=1 %s %s %s & p=$!; for i in $(seq 100); "
+                            .. "do [ -e %s ] && break; sleep 0.1; done; "
+                            .. "sleep 0.1; kill -KILL $p; wait $p)",
+                            U.q(U.runner), U.q(script), U.q(out),
+                            U.q(out .. ".lock")))
   U.check(U.read(out .. ".lock") ~= nil, "SIGKILL left no lock file")
   U.write(scanfile.tmpname(out), "a temporary file of a killed run")
   code, so, se = U.run("", script, U.q(out), "N=6")
