@@ -88,7 +88,8 @@ Test(corrections, coulomb_difference) {
 }
 
 
-/* Where the default applies it (README, "Corrections"). */
+/* Where the automatic option applies it (README, "Where the Born
+** approximation holds, and the corrections"). */
 Test(corrections, coulomb_validity) {
   bl_opts o = bl_opts_default;
   bl_result r;

@@ -28,8 +28,9 @@ double bl_elwert (const bl_case *c, const bl_kin *kn) {
 
 /*
 ** Where the corrections hold: the bounds and their reasons are in
-** include/brakelight/bl_corrections.h (README, "Corrections").  The
-** Coulomb correction's rule has a part that holds for the whole case
+** include/brakelight/bl_corrections.h (README, "Where the Born
+** approximation holds, and the corrections").  The Coulomb correction's
+** rule has a part that holds for the whole case
 ** (gamma0 and the projectile's Compton wavelength against the nuclear
 ** radius) and the final gamma of the point.
 */
