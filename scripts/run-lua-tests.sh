@@ -13,6 +13,8 @@
 # With the environment variable BL_TEST_WRAP set (a command prefix, e.g.
 # "valgrind --error-exitcode=99 ..."), each tests/lua/*.lua file runs under
 # it and the other checks are skipped (scripts/valgrind-lua.sh uses this).
+# BL_TEST_SKIP (file names, blank-separated) leaves those files out, with a
+# "skip" line.
 #
 #   run-lua-tests.sh --lua INTERP --cpath DIR     (make test-lua-hosts)
 # runs every tests/lua/*.lua with the stock interpreter INTERP (lua5.1,
@@ -120,6 +122,9 @@ else
   tag=
 fi
 for t in tests/lua/*.lua; do
+  case " ${BL_TEST_SKIP:-} " in
+    *" $(basename "$t") "*) printf 'skip  %-40s (BL_TEST_SKIP)\n' "$tag$t"; continue ;;
+  esac
   start=$(now)
   "${wrap[@]}" "${run[@]}" "$t" >"$log" 2>&1 </dev/null
   st=$?
