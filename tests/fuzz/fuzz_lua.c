@@ -863,11 +863,10 @@ static void integralcap (lua_State *L, const char *fname, int t) {
   int many;
   if (!lua_istable(L, t))
     return;
-  /* many points: an integral, a window or a spectrum.  Their method is the
+  /* many points: an integral, a spectrum, an angular distribution.  Their method is the
   ** Born integral: by the distorted waves (the default "auto", about 50
   ** Born points each) one such call under ASan runs for minutes; the
-  ** distorted waves are fuzzed through dsdk, differential and angular
-  ** points at fixed k. */
+  ** distorted waves are fuzzed through dsdk and differential. */
   many = strcmp(fname, "cross_section") == 0
          || strcmp(fname, "energy_loss") == 0
          || strcmp(fname, "photon_yield") == 0
