@@ -411,6 +411,12 @@ static int screened (const bl_case *c, const obs *b, bl_quad *q,
     out->val = 0.0;
     out->warn |= BL_WARN_CLAMPED;
   }
+  /* the sum's error against the tolerance, as every integral says it (a
+  ** value that nearly cancels, or one below the smallest double, has an
+  ** error above rtol times itself) */
+  if (q != NULL && !(out->warn & BL_WARN_CLAMPED)
+      && out->err > bl_quad_rtol(q) * fabs(out->val))
+    out->warn |= BL_WARN_TOLERANCE;
   model_sys(c, &kn, *rule, nuc, out);
   if (!isfinite(out->val))
     return BL_ENONFINITE;
