@@ -94,6 +94,14 @@ typedef struct integ {
 } integ;
 
 
+/* An empty Born result (method 0, BL_METHOD_BORN). */
+static void clear (bl_result *out) {
+  out->val = out->err = out->sys = 0.0;
+  out->warn = out->applied = 0;
+  out->method = 0;
+}
+
+
 /*
 ** Check k and set the kinematics, the target factor for this k (the Elwert
 ** factor scales the nuclear part) and the warnings that depend on k (Born
@@ -403,9 +411,7 @@ int bl_dcs_dk_az_e (const bl_case *c, double k, bl_quad *q,
   int st, n = 0, i;
   if (out == NULL)
     return BL_EDOMAIN;
-  out->val = out->err = out->sys = 0.0;
-  out->warn = out->applied = 0;
-  out->method = 0;   /* BL_METHOD_BORN */
+  clear(out);
   if (c == NULL || q == NULL)
     return BL_EDOMAIN;
   integ_init(&it, c, q, az);
@@ -462,9 +468,7 @@ int bl_dcs_angular_az_e (const bl_case *c, double k, double theta_k,
   int st;
   if (out == NULL)
     return BL_EDOMAIN;
-  out->val = out->err = out->sys = 0.0;
-  out->warn = out->applied = 0;
-  out->method = 0;   /* BL_METHOD_BORN */
+  clear(out);
   if (c == NULL || q == NULL || !(theta_k >= 0.0 && theta_k <= BL_PI))
     return BL_EDOMAIN;
   integ_init(&it, c, q, az);
@@ -497,9 +501,7 @@ int bl_dcs_full_e (const bl_case *c, double k, double theta_k, double theta_p,
   int st;
   if (out == NULL)
     return BL_EDOMAIN;
-  out->val = out->err = out->sys = 0.0;
-  out->warn = out->applied = 0;
-  out->method = 0;   /* BL_METHOD_BORN */
+  clear(out);
   if (c == NULL || !(theta_k >= 0.0 && theta_k <= BL_PI)
       || !(theta_p >= 0.0 && theta_p <= BL_PI) || !isfinite(phi))
     return BL_EDOMAIN;

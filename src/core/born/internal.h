@@ -64,6 +64,10 @@ double bl_bracket_azimuth (const bl_bracket *br, int npole,
                            const double *pole, const double *single,
                            int nterm, const bl_term *term);
 
+/* The target factor W(x) of the same lists at q^2 = x. */
+double bl_target_w (double x, int npole, const double *pole,
+                    const double *single, int nterm, const bl_term *term);
+
 /* B(v) W(x) at one azimuth. */
 double bl_bracket_point (const bl_bracket *br, double v, int npole,
                          const double *pole, const double *single, int nterm,

@@ -166,10 +166,9 @@ double bl_bracket_azimuth (const bl_bracket *br, int npole,
 }
 
 
-double bl_bracket_point (const bl_bracket *br, double v, int npole,
-                         const double *pole, const double *single, int nterm,
-                         const bl_term *term) {
-  double x = br->Q0 + br->b * v, w[BL_POLE_MAX], W = 0.0;
+double bl_target_w (double x, int npole, const double *pole,
+                    const double *single, int nterm, const bl_term *term) {
+  double w[BL_POLE_MAX], W = 0.0;
   int i, t;
   for (i = 0; i < npole; i++) {
     w[i] = 1.0 / (pole[i] + x);
@@ -178,7 +177,16 @@ double bl_bracket_point (const bl_bracket *br, double v, int npole,
   for (t = 0; t < nterm; t++)   /* term indices are < npole (bl_term) */
     // cppcheck-suppress uninitvar ; every w[i], i < npole, is set above
     W += term[t].c * w[term[t].i] * w[term[t].j];
-  return (br->L0 + br->L1 * v - x * (br->M0 + br->M1 * v)) * W;
+  return W;
+}
+
+
+double bl_bracket_point (const bl_bracket *br, double v, int npole,
+                         const double *pole, const double *single, int nterm,
+                         const bl_term *term) {
+  double x = br->Q0 + br->b * v;
+  return (br->L0 + br->L1 * v - x * (br->M0 + br->M1 * v))
+         * bl_target_w(x, npole, pole, single, nterm, term);
 }
 
 

@@ -72,18 +72,13 @@ void bl_dwk_free (bl_dwk *d) {
 
 
 /* The case's target factor W(x) = G/(Z^2 q^4) at q^2 = x, no Elwert
-** factor (the distortion replaces it). */
+** factor (the distortion replaces it): born/kin.c with the case's lists. */
 static double target_w (const bl_case *c, double x) {
-  double w[BL_POLE_MAX], W = 0.0;
-  int i, t;
-  for (i = 0; i < c->npole; i++) {
-    w[i] = 1.0 / (c->pole[i] + x);
-    W += (c->single_el[i] + c->single_e[i]) * w[i];
-  }
-  for (t = 0; t < c->nterm; t++)
-    // cppcheck-suppress uninitvar ; every w[i], i < npole, is set above
-    W += c->term[t].c * w[c->term[t].i] * w[c->term[t].j];
-  return W;
+  double single[BL_POLE_MAX];
+  int i;
+  for (i = 0; i < c->npole; i++)
+    single[i] = c->single_el[i] + c->single_e[i];
+  return bl_target_w(x, c->npole, c->pole, single, c->nterm, c->term);
 }
 
 
