@@ -33,7 +33,7 @@
 ** with delta <= q <= p0 + p + k, 1/(E + p) <= D <= E + p (and D0 alike). */
 static void urange (const bl_kin *kn, double *umin, double *umax) {
   double p0 = kn->p0, p = kn->p, k = kn->k, s = p0 + p + k;
-  double c = log(kn->delta + 2.0 * p) + log(s) - log(4.0 * k * k);
+  double c = log(kn->delta + 2.0 * p) + log(s) - log(4.0) - 2.0 * log(k);
   double lD = log(kn->E + p), lD0 = log(kn->E0 + p0);
   *umin = 2.0 * log(kn->delta) + c - lD - lD0 - U_MARGIN;
   *umax = 2.0 * log(s) + c + lD + lD0 + U_MARGIN;

@@ -101,7 +101,7 @@ static double complex vuu (const bl_dwhyp *h, double u, double complex F,
 /* Fill one side: from the series edge x = xb (u = ub) out to uend. */
 static int side (bl_dwhyp *h, bl_dwside *sd, double xb, double uend) {
   double ub = log1p(-xb), dir = uend < ub ? -1.0 : 1.0;
-  double tend = tau_of(h, uend), du, d2u, u;
+  double tend = tau_of(h, uend), du, d2u, u, span;
   double complex V, Vx, Vu, Vuu;
   double y[4];
   gsl_odeiv2_system sys;
@@ -111,9 +111,10 @@ static int side (bl_dwhyp *h, bl_dwside *sd, double xb, double uend) {
   sd->n = 0;
   sd->f = NULL;
   sd->tau0 = tau_of(h, ub);
-  n = (long)ceil(fabs(tend - sd->tau0) / h->dtau) + 2;
-  if (n > NODE_MAX)
+  span = fabs(tend - sd->tau0) / h->dtau;
+  if (!(span < NODE_MAX))   /* also a span that is not finite */
     return BL_EDOMAIN;
+  n = (long)ceil(span) + 2;
   sd->f = malloc(3 * (size_t)n * sizeof *sd->f);
   if (sd->f == NULL)
     return BL_ENOMEM;
