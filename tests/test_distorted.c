@@ -690,3 +690,26 @@ Test(dwdk, soft_photons) {
   }
   bl_quad_free(q);
 }
+
+
+/* The screening rule at one geometry (dcs.c, screened(): weight w sn for
+** the fully differential value): slow electrons on a heavy atom at small
+** angles, where the point nucleus' Born value is far above the screened
+** one.  The additive rule went below zero there and the value was set
+** to 0 (found by fuzz_lua: 1 eV electrons on Z = 99). */
+Test(dwdk, screened_full_positive) {
+  static const double Ts[] = {1e-6, 1e-4, 1e-2};
+  size_t i;
+  for (i = 0; i < sizeof Ts / sizeof Ts[0]; i++) {
+    bl_case c;
+    bl_result r;
+    dw_case(&c, "electron", 99, Ts[i]);
+    cr_assert_eq(bl_dw_full_e(&c, 0.1 * Ts[i], 0.003, 0.003, 0.003, &r),
+                 BL_SUCCESS);
+    cr_expect(r.val > 0.0 && isfinite(r.sys) && !(r.warn & BL_WARN_CLAMPED),
+              "T = %g: %g (warn 0x%x)", Ts[i], r.val, r.warn);
+    /* the rules' difference is bounded by the larger of the two */
+    cr_expect(r.sys < 5.0 * r.val && (r.warn & BL_WARN_DISTORTED),
+              "T = %g: sys %g of %g", Ts[i], r.sys, r.val);
+  }
+}

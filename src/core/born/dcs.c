@@ -443,8 +443,7 @@ int bl_dcs_dk_az_e (const bl_case *c, double k, bl_quad *q,
   st = finish(&it, val, abserr,
               c->norm * it.kn.p / (it.kn.p0 * it.kn.k) / BL_PI
               / c->particle.mass, warn, applied, out);
-  if (az == NULL && bl_wanted(c->opts.coulomb, bl_coulomb_valid(c, &it.kn),
-                              BL_WARN_COULOMB, &out->warn)) {
+  if (az == NULL && bl_coulomb_wanted(c, &it.kn, &out->warn)) {
     bl_coulomb_subtract(c, &it.kn, out);
     if (!isfinite(out->val) && st == BL_SUCCESS)
       st = GSL_ERANGE;

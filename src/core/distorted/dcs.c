@@ -270,28 +270,6 @@ double bl_dw_sm_estimate (const bl_case *c, const bl_kin *kn) {
 }
 
 
-/*
-** The share of the point-charge distortion kept for a projectile of
-** Compton wavelength lambda = hbar/(m c) on a nucleus of radius R:
-** x^4 / (1 + x^4), x = lambda / (10 R).  The distortion beyond the
-** Sommerfeld normalisation comes from distances ~ lambda (the Coulomb
-** correction's own rule, BL_COULOMB_RADII = 10 radii); inside the nucleus
-** the field is not a point charge's.  Electrons on Pb keep 0.9989, muons
-** 5e-7: the smooth form of the rule the Coulomb correction of the Born
-** and high-energy methods applies as a switch.  A point nucleus keeps 1.
-*/
-static double nuclear_share (const bl_case *c) {
-  double lam, x;
-  if (c->opts.nucleus != BL_NUCLEUS_UNIFORM)
-    return 1.0;
-  lam = BL_HBARC_MEVFM / c->particle.mass;                      /* fm */
-  x = lam / (BL_COULOMB_RADII * bl_nucleus_radius(c->opts.A));
-  x *= x;
-  x *= x;
-  return x / (1.0 + x);
-}
-
-
 /* The model uncertainty: the screening rule's, the functions' own and
 ** the point-charge distortion left out for the nuclear size (nuc).  Added in quadrature; the warning
 ** where the sum exceeds BL_SYS_WARN. */
@@ -328,7 +306,7 @@ static int worse (int st, int s2) {
 **
 **   dsigma = F_E B_n + B_e + Delta (w + (1 - w) B_n / B_pt),  w = beta0^2,
 **
-** Delta times nuclear_share for a uniform nucleus.
+** Delta times bl_coulomb_share (corrections.c) for a uniform nucleus.
 **
 ** w = 1 is Olsen, Maximon & Wergeland's (1957) result for high energies:
 ** the Coulomb correction, from distances ~ hbar/(m c), does not depend on
@@ -391,17 +369,32 @@ static int screened (const bl_case *c, const obs *b, bl_quad *q,
     return st;
   fe = bl_elwert(c, &kn);
   w = (kn.p0 / kn.E0) * (kn.p0 / kn.E0);
-  ns = nuclear_share(c);
+  ns = bl_coulomb_share(c);   /* corrections.c: the same share */
   delta = dp.val - fe * bp.val;
   sn = bp.val > 0.0 ? bn.val / bp.val : 1.0;
+  /* At one geometry (the fully differential value) the additive rule
+  ** holds where screening does not reach the point's momentum transfer
+  ** (sn -> 1); where it does, the distortion of that q is screened too
+  ** and the ratio rule holds: weight w sn.  Measured: with weight w, 10 keV
+  ** electrons on Z = 99 at 3 mrad gave fe bn + w Delta < 0 (Delta ~
+  ** -fe bp, bp >> bn). */
+  if (b->kind == OBS_FULL && sn < 1.0)
+    w *= sn;
   /* the part left out: the point charge's relative distortion |Delta| /
   ** B_pt applied to this value (its real size for the extended nucleus
   ** is not known here) */
   nuc = (1.0 - ns) * fabs(delta) * sn;
   delta *= ns;
-  out->val = fe * bn.val + be + delta * (w + (1.0 - w) * sn);
+  /* fe bn + be + ns Delta (w + (1 - w) sn) written without the
+  ** cancellation of fe bn against Delta (1 - w) sn for slow projectiles,
+  ** where dp << fe bp */
+  out->val = fe * bn.val * (1.0 - ns) + be
+             + ns * (w * (dp.val + fe * (bn.val - bp.val))
+                     + (1.0 - w) * dp.val * sn);
   out->err += fe * bp.err;
-  *rule = (1.0 - w) * fabs(delta) * fabs(1.0 - sn);
+  /* the two rules' difference; the additive one is never below 0 */
+  *rule = (1.0 - w) * fabs(fmax(fe * bn.val + be + delta, 0.0)
+                           - (fe * bn.val + be + delta * sn));
   if (out->val < 0.0) {
     out->val = 0.0;
     out->warn |= BL_WARN_CLAMPED;
