@@ -101,11 +101,6 @@ static void row_gam (int mu, const double complex x[4], double complex y[4]) {
   }
 }
 
-/* |re| + |im|: a cheap modulus for the scale of a cancellation */
-static double cmod (double complex z) {
-  return fabs(creal(z)) + fabs(cimag(z));
-}
-
 /* u (anti = 0) or v (anti = 1) of momentum p, mass m, spin s, as a column;
 ** its Dirac adjoint as a row. */
 static void spinor (const double p[4], double m, int s, int anti,
@@ -135,13 +130,11 @@ typedef struct line {
   double complex b[2][4];   /* spinors at the incoming end */
 } line;
 
-/* Its currents j[mu][so][si], R[pol][mu][so][si]; *scale: largest single
-** emission term. */
+/* Its currents j[mu][so][si], R[pol][mu][so][si]. */
 typedef struct cur {
   int nso, nsi;
   double complex j[4][2][2];
   double complex r[2][4][2][2];
-  double scale;
 } cur;
 
 /* Particle label -> momentum p[label], spinor kind. */
@@ -169,10 +162,9 @@ static void set_end (line *L, const double p[5][4], int out, int label,
 }
 
 static void currents (const line *L, const double k[4], const double eps[2][4],
-                      int want, cur *C) {
+                      cur *C) {
   double da = 2.0 * dot(L->pout, k), db = -2.0 * dot(L->pin, k);
   int mu, pol, so, si;
-  C->scale = 0.0;
   if (L->scalar) {
     double s3[4], sa[4], sb[4], oa[4], ob[4];
     C->nso = C->nsi = 1;
@@ -187,10 +179,7 @@ static void currents (const line *L, const double k[4], const double eps[2][4],
     for (pol = 0; pol < 2; pol++) {
       double ca = dot(oa, eps[pol]) / da, cb = dot(ob, eps[pol]) / db;
       for (mu = 0; mu < 4; mu++) {
-        double t1 = ca * sa[mu], t2 = cb * sb[mu], t3 = -2.0 * eps[pol][mu];
-        C->r[pol][mu][0][0] = t1 + t2 + t3;
-        if (want)
-          C->scale = fmax(C->scale, fmax(fabs(t1), fmax(fabs(t2), fabs(t3))));
+        C->r[pol][mu][0][0] = ca * sa[mu] + cb * sb[mu] - 2.0 * eps[pol][mu];
       }
     }
     return;
@@ -230,11 +219,8 @@ static void currents (const line *L, const double k[4], const double eps[2][4],
       for (mu = 0; mu < 4; mu++)
         for (so = 0; so < 2; so++)
           for (si = 0; si < 2; si++) {
-            double complex t1 = row_col(rowa[so], gb[mu][si]);
-            double complex t2 = row_col(ag[mu][so], colb[si]);
-            C->r[pol][mu][so][si] = t1 + t2;
-            if (want)
-              C->scale = fmax(C->scale, fmax(cmod(t1), cmod(t2)));
+            C->r[pol][mu][so][si] = row_col(rowa[so], gb[mu][si])
+                                    + row_col(ag[mu][so], colb[si]);
           }
     }
   }
@@ -262,14 +248,13 @@ static double complex mdot (const double complex a[4][2][2],
 ** Y out, Y in. */
 static void add_pair (const line *X, double qx, const line *Y, double qy,
                       const int lab[4], double sign, const double k[4],
-                      const double eps[2][4], double complex M[2][BL_EB_NAMP],
-                      double *scale) {
+                      const double eps[2][4], double complex M[2][BL_EB_NAMP]) {
   static const int wt[4] = {8, 4, 2, 1};
   cur cx, cy;
   double tx, ty;
   int pol, a1, a2, b1, b2;
-  currents(X, k, eps, scale != NULL, &cx);
-  currents(Y, k, eps, scale != NULL, &cy);
+  currents(X, k, eps, &cx);
+  currents(Y, k, eps, &cy);
   tx = qsq(X);
   ty = qsq(Y);
   for (pol = 0; pol < 2; pol++)
@@ -279,25 +264,19 @@ static void add_pair (const line *X, double qx, const line *Y, double qy,
           for (b2 = 0; b2 < cy.nsi; b2++) {
             int s = a1 * wt[lab[0]] + a2 * wt[lab[1]] + b1 * wt[lab[2]]
                     + b2 * wt[lab[3]];
-            double complex t1 = sign * qx * qy * qx
-                                * mdot(cx.r[pol], cy.j, a1, a2, b1, b2) / ty;
-            double complex t2 = sign * qx * qy * qy
-                                * mdot(cx.j, cy.r[pol], a1, a2, b1, b2) / tx;
-            M[pol][s] += t1 + t2;
-            if (scale != NULL)
-              *scale = fmax(*scale, fmax(cmod(t1), cmod(t2)));
+            M[pol][s] += sign * qx * qy
+                         * (qx * mdot(cx.r[pol], cy.j, a1, a2, b1, b2) / ty
+                            + qy * mdot(cx.j, cy.r[pol], a1, a2, b1, b2) / tx);
           }
 }
 
 void bl_eb_amplitudes (const bl_ebrems *c, const double p[5][4],
                        const double eps[2][4],
-                       double complex M[2][BL_EB_NAMP], double *scale) {
+                       double complex M[2][BL_EB_NAMP]) {
   const double e2 = 4.0 * BL_PI * BL_ALPHA, e3 = e2 * sqrt(e2);
   line X, Y;
   int pol, s, sc = c->spin2 == 0;
   memset(M, 0, 2 * BL_EB_NAMP * sizeof M[0][0]);
-  if (scale != NULL)
-    *scale = 0.0;
   if (c->kind == BL_EBREMS_POSITRON) {
     static const int lt[4] = {0, 2, 3, 1}, ls[4] = {0, 1, 3, 2};
     /* scattering channel: vbar(p1) ... v(p3), ubar(p4) ... u(p2) */
@@ -305,33 +284,31 @@ void bl_eb_amplitudes (const bl_ebrems *c, const double p[5][4],
     set_end(&X, p, 0, 2, 1.0, 1, 0);
     set_end(&Y, p, 1, 3, 1.0, 0, 0);
     set_end(&Y, p, 0, 1, 1.0, 0, 0);
-    add_pair(&X, -1.0, &Y, -1.0, lt, 1.0, p[4], eps, M, scale);
+    add_pair(&X, -1.0, &Y, -1.0, lt, 1.0, p[4], eps, M);
     /* annihilation channel: vbar(p1) ... u(p2), ubar(p4) ... v(p3) */
     set_end(&X, p, 1, 0, 1.0, 1, 0);
     set_end(&X, p, 0, 1, 1.0, 0, 0);
     set_end(&Y, p, 1, 3, 1.0, 0, 0);
     set_end(&Y, p, 0, 2, 1.0, 1, 0);
-    add_pair(&X, -1.0, &Y, -1.0, ls, -1.0, p[4], eps, M, scale);
+    add_pair(&X, -1.0, &Y, -1.0, ls, -1.0, p[4], eps, M);
   } else {
     static const int ld[4] = {2, 0, 3, 1}, lx[4] = {3, 0, 2, 1};
     set_end(&X, p, 1, 2, c->m, 0, sc);
     set_end(&X, p, 0, 0, c->m, 0, sc);
     set_end(&Y, p, 1, 3, 1.0, 0, 0);
     set_end(&Y, p, 0, 1, 1.0, 0, 0);
-    add_pair(&X, c->z, &Y, -1.0, ld, 1.0, p[4], eps, M, scale);
+    add_pair(&X, c->z, &Y, -1.0, ld, 1.0, p[4], eps, M);
     if (c->kind == BL_EBREMS_ELECTRON) {
       set_end(&X, p, 1, 3, 1.0, 0, 0);
       set_end(&X, p, 0, 0, 1.0, 0, 0);
       set_end(&Y, p, 1, 2, 1.0, 0, 0);
       set_end(&Y, p, 0, 1, 1.0, 0, 0);
-      add_pair(&X, -1.0, &Y, -1.0, lx, -1.0, p[4], eps, M, scale);
+      add_pair(&X, -1.0, &Y, -1.0, lx, -1.0, p[4], eps, M);
     }
   }
   for (pol = 0; pol < 2; pol++)
     for (s = 0; s < BL_EB_NAMP; s++)
       M[pol][s] *= e3;
-  if (scale != NULL)
-    *scale *= e3;
 }
 
 void bl_eb_polarisations (const double k[4], double eps[2][4]) {
@@ -365,7 +342,7 @@ double bl_eb_msq (const bl_ebrems *c, const double p[5][4]) {
   double complex M[2][BL_EB_NAMP];
   int pol, s;
   bl_eb_polarisations(p[4], eps);
-  bl_eb_amplitudes(c, p, eps, M, NULL);
+  bl_eb_amplitudes(c, p, eps, M);
   for (pol = 0; pol < 2; pol++)
     for (s = 0; s < BL_EB_NAMP; s++)
       sum += creal(M[pol][s]) * creal(M[pol][s])

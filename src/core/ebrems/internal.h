@@ -27,13 +27,10 @@ typedef struct bl_ebpoint {
 ** The helicity amplitudes M[pol][s] (e^3 included) for the two polarisation
 ** vectors eps[0], eps[1] (real four-vectors, contravariant), spin index
 ** s = ((s1 * 2 + s2) * 2 + s3) * 2 + s4 (s1 = s3 = 0 for spin 0).
-** *scale (unless NULL) gets the largest |re| + |im| of a single diagram's
-** contribution (the size against which a cancellation, e.g. eps -> k, is
-** judged).
 */
 void bl_eb_amplitudes (const bl_ebrems *c, const double p[5][4],
                        const double eps[2][4],
-                       double complex M[2][BL_EB_NAMP], double *scale);
+                       double complex M[2][BL_EB_NAMP]);
 
 /* Two real transverse unit polarisation vectors of the photon k. */
 void bl_eb_polarisations (const double k[4], double eps[2][4]);
