@@ -140,7 +140,7 @@ typedef struct cur {
 /* Particle label -> momentum p[label], spinor kind. */
 static void set_end (line *L, const double p[5][4], int out, int label,
                      double m, int anti, int scalar) {
-  double complex col[2][4], row[2][4];
+  double complex col[2][4] = {{0}}, row[2][4] = {{0}};
   int s, i;
   for (i = 0; i < 4; i++) {
     double v = anti ? -p[label][i] : p[label][i];
@@ -185,7 +185,7 @@ static void currents (const line *L, const double k[4], const double eps[2][4],
     return;
   }
   {
-    cmat so_m, si_m, E;
+    cmat so_m = {{0}}, si_m = {{0}}, E = {{0}};
     double complex gb[4][2][4], ag[4][2][4], tmp[4], rowa[2][4], colb[2][4];
     double vo[4], vi[4];
     C->nso = C->nsi = 2;
@@ -274,7 +274,7 @@ void bl_eb_amplitudes (const bl_ebrems *c, const double p[5][4],
                        const double eps[2][4],
                        double complex M[2][BL_EB_NAMP]) {
   const double e2 = 4.0 * BL_PI * BL_ALPHA, e3 = e2 * sqrt(e2);
-  line X, Y;
+  line X = {0}, Y = {0};
   int pol, s, sc = c->spin2 == 0;
   memset(M, 0, 2 * BL_EB_NAMP * sizeof M[0][0]);
   if (c->kind == BL_EBREMS_POSITRON) {
