@@ -204,17 +204,23 @@ Test(methods, auto_agrees_every_mass, .timeout = 120) {
 ** Coulomb correction.  Now the first node is at most 1e-4.  Measured after:
 ** 6e-6 (3 MeV), 8e-6 (5 MeV) at gamma0 = 1e6.
 */
+/* Under AddressSanitizer 3 MeV on Pb only: the same code paths. */
 Test(methods, auto_agrees_mev_masses, .timeout = 120) {
+#ifdef __SANITIZE_ADDRESS__
+  static const double masses[] = {3.0};
+  static const int Zs[] = {82};
+#else
   static const double masses[] = {2.0, 3.0, 5.0};
   static const int Zs[] = {82, 92};
+#endif
   static const double ys[] = {0.01, 0.1, 0.5};
   static const double g0s[] = {1e4, 1e6};
   bl_quad *q = bl_quad_alloc(1000);
   size_t im, iz, is, ig, iy;
   cr_assert_eq(bl_quad_set_rtol(q, 1e-6), BL_SUCCESS);
-  for (im = 0; im < 3; im++)
+  for (im = 0; im < sizeof masses / sizeof masses[0]; im++)
     for (is = 0; is < 2; is++)
-      for (iz = 0; iz < 2; iz++)
+      for (iz = 0; iz < sizeof Zs / sizeof Zs[0]; iz++)
         for (ig = 0; ig < 2; ig++) {
           bl_particle p = {"probe", 0.0, -1.0, 0.0, 0u};
           bl_case c;
