@@ -58,6 +58,8 @@ int bl_ebrems_init (bl_ebrems *c, const bl_particle *p, double T) {
       && fabs(fabs(p->charge) - 1.0) <= 1e-12)
     c->kind = p->charge < 0 ? BL_EBREMS_ELECTRON : BL_EBREMS_POSITRON;
   if (c->kind != BL_EBREMS_OTHER) {
+    if (!(T <= BL_EBREMS_T_MAX_E))
+      return BL_EDOMAIN;
     c->m = 1.0;
     c->z = c->kind == BL_EBREMS_ELECTRON ? -1.0 : 1.0;
   }
