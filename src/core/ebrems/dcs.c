@@ -14,15 +14,13 @@
 ** k <= T / (1 + E0 - p0 + p0 (1 - cos theta_k)) (units m_e).
 **
 ** Maps.  Photon angle: sigma_k = ln(1 + h_k / h_kc), h_k = 1 - cos theta_k,
-** h_kc = m^2 / (p0 (E0 + p0)) (the projectile's radiation cone).  Polar
-** angle of Omega_s about the pair's momentum: sigma = ln(1 + h_s / h_sc),
-** h_sc = T4min / (gamma beta p*), where T4min is the smallest recoil energy
-** of the struck electron at this photon direction: the virtual photon's
-** 1/t^2 = 1/(2 m_e T4)^2 peaks there (h_s = 0).  The range is split where the
-** projectile (h_s of the photon) or the electron (the opposite direction)
-** moves along the photon, the peaks of the emission propagators.  Azimuth:
-** phi = pi (1 - cos(pi u)) / 2 on [0, pi] (the integrand is even in phi),
-** which puts points towards phi = 0 and pi, where those peaks sit.
+** h_kc = m^2 / (p0 (E0 + p0)) (the projectile's radiation cone), with
+** sigma_k = smax (2 v - v^2) against the square-root edge.  Omega_s: two
+** channels split by weights, one about the pair axis (the 1/t^2 pole of
+** the struck electron at h_s = 0, for e- e- the exchange pole at h_s = 2),
+** one about the photon direction in the pair frame (projectile or electron
+** along the photon); each half from its pole by ln(1 + d / scale), azimuth
+** uniform on [0, pi] (DEVELOPERS.md, "Electron-target bremsstrahlung").
 ** Every level by bl_gk_adapt (base/quad.c), inner errors weighed into the
 ** outer estimate as in born/dcs.c.
 */
