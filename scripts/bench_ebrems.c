@@ -4,7 +4,7 @@
 ** nuclear Born dsigma/dk point (bl_dcs_dk_e, hydrogen, Hartree-Fock
 ** screening, the module's defaults) of the same projectile, T and k,
 ** measured side by side in this run (`make bench`).  Electrons 10 keV ...
-** 10 MeV and a muon at 1 GeV, k = 0.1, 0.5, 0.9 of the electron-target
+** 100 MeV, a positron at 1 MeV, muons at 1 and 100 GeV, k = 0.1, 0.5, 0.9 of the electron-target
 ** end point.  Never a test.
 ** See Copyright Notice in LICENSE
 */
@@ -29,9 +29,10 @@ static int cmp (const void *a, const void *b) {
 int main (void) {
   static const struct { const char *name; double T; } pts[] = {
     {"electron", 0.01}, {"electron", 0.1}, {"electron", 1.0},
-    {"electron", 10.0}, {"positron", 1.0}, {"muon", 1000.0}};
+    {"electron", 10.0}, {"electron", 100.0}, {"positron", 1.0},
+    {"muon", 1000.0}, {"muon", 1e5}};
   static const double ys[] = {0.1, 0.5, 0.9};
-  double ratio[18], tee[18];
+  double ratio[24], tee[24];
   bl_quad *q = bl_quad_alloc(200);
   size_t ip, iy;
   int n = 0;

@@ -247,7 +247,8 @@ static double complex mdot (const double complex a[4][2][2],
 /* Add sign * A(X, Y) to M; lab[4]: particle labels (0..3) of X out, X in,
 ** Y out, Y in. */
 static void add_pair (const line *X, double qx, const line *Y, double qy,
-                      const int lab[4], double sign, const double k[4],
+                      double tyv, const int lab[4], double sign,
+                      const double k[4],
                       const double eps[2][4], double complex M[2][BL_EB_NAMP]) {
   static const int wt[4] = {8, 4, 2, 1};
   cur cx, cy;
@@ -256,7 +257,7 @@ static void add_pair (const line *X, double qx, const line *Y, double qy,
   currents(X, k, eps, &cx);
   currents(Y, k, eps, &cy);
   tx = qsq(X);
-  ty = qsq(Y);
+  ty = tyv != 0.0 ? tyv : qsq(Y);
   for (pol = 0; pol < 2; pol++)
     for (a1 = 0; a1 < cx.nso; a1++)
       for (a2 = 0; a2 < cx.nsi; a2++)
@@ -273,6 +274,13 @@ static void add_pair (const line *X, double qx, const line *Y, double qy,
 void bl_eb_amplitudes (const bl_ebrems *c, const double p[5][4],
                        const double eps[2][4],
                        double complex M[2][BL_EB_NAMP]) {
+  bl_eb_amplitudes_q(c, p, eps, NULL, M);
+}
+
+void bl_eb_amplitudes_q (const bl_ebrems *c, const double p[5][4],
+                         const double eps[2][4], const double *qy,
+                         double complex M[2][BL_EB_NAMP]) {
+  double q24 = qy != NULL ? qy[0] : 0.0, q23 = qy != NULL ? qy[1] : 0.0;
   const double e2 = 4.0 * BL_PI * BL_ALPHA, e3 = e2 * sqrt(e2);
   line X = {0}, Y = {0};
   int pol, s, sc = c->spin2 == 0;
@@ -284,26 +292,26 @@ void bl_eb_amplitudes (const bl_ebrems *c, const double p[5][4],
     set_end(&X, p, 0, 2, 1.0, 1, 0);
     set_end(&Y, p, 1, 3, 1.0, 0, 0);
     set_end(&Y, p, 0, 1, 1.0, 0, 0);
-    add_pair(&X, -1.0, &Y, -1.0, lt, 1.0, p[4], eps, M);
+    add_pair(&X, -1.0, &Y, -1.0, q24, lt, 1.0, p[4], eps, M);
     /* annihilation channel: vbar(p1) ... u(p2), ubar(p4) ... v(p3) */
     set_end(&X, p, 1, 0, 1.0, 1, 0);
     set_end(&X, p, 0, 1, 1.0, 0, 0);
     set_end(&Y, p, 1, 3, 1.0, 0, 0);
     set_end(&Y, p, 0, 2, 1.0, 1, 0);
-    add_pair(&X, -1.0, &Y, -1.0, ls, -1.0, p[4], eps, M);
+    add_pair(&X, -1.0, &Y, -1.0, 0.0, ls, -1.0, p[4], eps, M);
   } else {
     static const int ld[4] = {2, 0, 3, 1}, lx[4] = {3, 0, 2, 1};
     set_end(&X, p, 1, 2, c->m, 0, sc);
     set_end(&X, p, 0, 0, c->m, 0, sc);
     set_end(&Y, p, 1, 3, 1.0, 0, 0);
     set_end(&Y, p, 0, 1, 1.0, 0, 0);
-    add_pair(&X, c->z, &Y, -1.0, ld, 1.0, p[4], eps, M);
+    add_pair(&X, c->z, &Y, -1.0, q24, ld, 1.0, p[4], eps, M);
     if (c->kind == BL_EBREMS_ELECTRON) {
       set_end(&X, p, 1, 3, 1.0, 0, 0);
       set_end(&X, p, 0, 0, 1.0, 0, 0);
       set_end(&Y, p, 1, 2, 1.0, 0, 0);
       set_end(&Y, p, 0, 1, 1.0, 0, 0);
-      add_pair(&X, -1.0, &Y, -1.0, lx, -1.0, p[4], eps, M);
+      add_pair(&X, -1.0, &Y, -1.0, q23, lx, -1.0, p[4], eps, M);
     }
   }
   for (pol = 0; pol < 2; pol++)
@@ -338,11 +346,16 @@ void bl_eb_polarisations (const double k[4], double eps[2][4]) {
 }
 
 double bl_eb_msq (const bl_ebrems *c, const double p[5][4]) {
+  return bl_eb_msq_q(c, p, NULL);
+}
+
+double bl_eb_msq_q (const bl_ebrems *c, const double p[5][4],
+                    const double *qy) {
   double eps[2][4], sum = 0.0;
   double complex M[2][BL_EB_NAMP];
   int pol, s;
   bl_eb_polarisations(p[4], eps);
-  bl_eb_amplitudes(c, p, eps, M);
+  bl_eb_amplitudes_q(c, p, eps, qy, M);
   for (pol = 0; pol < 2; pol++)
     for (s = 0; s < BL_EB_NAMP; s++)
       sum += creal(M[pol][s]) * creal(M[pol][s])
@@ -352,57 +365,115 @@ double bl_eb_msq (const bl_ebrems *c, const double p[5][4]) {
 
 /* ---- kinematics of one point ---------------------------------------- */
 
-int bl_eb_point_set (const bl_ebrems *c, double k, double hk, double sk,
-                     double hs, double ss, double phis, bl_ebpoint *x) {
-  double m = c->m, ck = 1.0 - hk, cs = 1.0 - hs;
-  double D, w2, w, ps, e3s, e4s, P0, Pv[3], Pn, g, gb, ez[3], ex[3], ey[3];
-  double t[3], sg, cp = cos(phis), sp = sin(phis), pl3, pl4;
+int bl_eb_frame_set (const bl_ebrems *c, double k, double hk, double sk,
+                     bl_ebframe *f) {
+  double m = c->m, ck = 1.0 - hk, D, kap, kpar, kz, r, dc;
   int i;
-  /* W^2 - (m + 1)^2 = 2 T - 2 k (1 + E0 - p0 + p0 h_k) */
-  D = 2.0 * (c->t0 - k * (1.0 + m * m / (c->e0 + c->p0) + c->p0 * hk));
+  /* kappa = p1.k = k (E0 - p0 + p0 h_k), E0 - p0 = m^2 / (E0 + p0) */
+  kap = k * (m * m / (c->e0 + c->p0) + c->p0 * hk);
+  /* W^2 - (m + 1)^2 = 2 T - 2 k - 2 kappa */
+  D = 2.0 * (c->t0 - k - kap);
   if (!(D > 0.0))
     return -1;
-  w2 = (m + 1.0) * (m + 1.0) + D;
-  w = sqrt(w2);
-  ps = sqrt(D * (D + 4.0 * m)) / (2.0 * w);
-  e3s = (2.0 * m * m + 2.0 * m + D) / (2.0 * w);
-  e4s = (2.0 + 2.0 * m + D) / (2.0 * w);
-  P0 = c->e0 + 1.0 - k;
-  Pv[0] = -k * sk;
-  Pv[1] = 0.0;
-  Pv[2] = c->p0 - k * ck;
-  Pn = sqrt(Pv[0] * Pv[0] + Pv[2] * Pv[2]);
-  g = P0 / w;
-  gb = Pn / w;
+  f->k = k; f->hk = hk; f->sk = sk; f->ck = ck;
+  f->kap = kap;
+  f->w2 = (m + 1.0) * (m + 1.0) + D;
+  f->w = sqrt(f->w2);
+  f->ps = sqrt(D * (D + 4.0 * m)) / (2.0 * f->w);
+  f->e3s = (2.0 * m * m + 2.0 * m + D) / (2.0 * f->w);
+  f->e4s = (2.0 + 2.0 * m + D) / (2.0 * f->w);
+  f->P0 = c->e0 + 1.0 - k;
+  f->ez[0] = -k * sk;
+  f->ez[1] = 0.0;
+  f->ez[2] = c->p0 - k * ck;
+  f->Pn = sqrt(f->ez[0] * f->ez[0] + f->ez[2] * f->ez[2]);
   for (i = 0; i < 3; i++)
-    ez[i] = Pv[i] / Pn;
-  /* x axis in the (P, k) plane, towards the photon */
-  ex[0] = ez[2]; ex[1] = 0.0; ex[2] = -ez[0];
-  sg = sk * ex[0] + ck * ex[2];
-  if (sg < 0.0)
+    f->ez[i] /= f->Pn;
+  f->g = f->P0 / f->w;
+  f->gb = f->Pn / f->w;
+  /* x axis in the (P, k) plane, towards the photon: k has the transverse
+  ** component k sk p0 / |P| >= 0 along it */
+  f->ex[0] = f->ez[2]; f->ex[1] = 0.0; f->ex[2] = -f->ez[0];
+  if (sk * f->ex[0] + ck * f->ex[2] < 0.0)
     for (i = 0; i < 3; i++)
-      ex[i] = -ex[i];
-  ey[0] = ez[1] * ex[2] - ez[2] * ex[1];
-  ey[1] = ez[2] * ex[0] - ez[0] * ex[2];
-  ey[2] = ez[0] * ex[1] - ez[1] * ex[0];
+      f->ex[i] = -f->ex[i];
+  f->ey[0] = f->ez[1] * f->ex[2] - f->ez[2] * f->ex[1];
+  f->ey[1] = f->ez[2] * f->ex[0] - f->ez[0] * f->ex[2];
+  f->ey[2] = f->ez[0] * f->ex[1] - f->ez[1] * f->ex[0];
+  /* the photon in the pair frame: energy P.k / W = (kappa + k) / W, the
+  ** transverse part unchanged, the longitudinal one from the mass shell
+  ** (its sign from the boost) */
+  f->kT = k * sk * c->p0 / f->Pn;
+  f->k0s = (kap + k) / f->w;
+  kpar = k * (c->p0 * ck - k) / f->Pn;
+  kz = sqrt(fmax((f->k0s - f->kT) * (f->k0s + f->kT), 0.0));
+  f->kzs = copysign(kz, f->g * kpar - f->gb * k);
+  f->sks = f->kT / f->k0s;
+  f->cks = f->kzs / f->k0s;
+  f->E1s = (m * m + c->e0 - kap) / f->w;
+  /* The smallest recoil T4 (struck electron; hs = 0): with cosh a = g,
+  ** cosh b = e4s, g - e4s = kappa / W exactly and
+  ** tanh((a - b) / 2) = (g - e4s) / (gb + p*), so
+  ** T4min = cosh(a - b) - 1 = 2 r / (1 - r), r = tanh^2: no cancellation. */
+  dc = kap / f->w;
+  r = dc / (f->gb + f->ps);
+  r *= r;
+  f->t4min = 2.0 * r / (1.0 - r);
+  /* the same for the projectile's smallest kinetic energy (hs = 2) when it
+  ** has the electron's mass: e3s = e4s */
+  f->t3min = c->m == 1.0 ? f->t4min
+             : f->g * f->e3s - f->gb * f->ps - m;   /* not used then */
+  return 0;
+}
+
+void bl_eb_point_at (const bl_ebrems *c, const bl_ebframe *f, double hs,
+                     double hs2, double tx, double ty, bl_ebpoint *x) {
+  double m = c->m, cz = hs < 1.0 ? 1.0 - hs : hs2 - 1.0, pl3, pl4, t[3];
+  double t4 = f->t4min + f->gb * f->ps * hs, t3;
+  int i;
   for (i = 0; i < 3; i++)
-    t[i] = ps * ss * (cp * ex[i] + sp * ey[i]);
-  pl3 = gb * e3s + g * ps * cs;
-  pl4 = gb * e4s - g * ps * cs;
+    t[i] = f->ps * (tx * f->ex[i] + ty * f->ey[i]);
+  pl3 = f->gb * f->e3s + f->g * f->ps * cz;
+  pl4 = f->gb * f->e4s - f->g * f->ps * cz;
   x->p[0][0] = c->e0; x->p[0][1] = 0.0; x->p[0][2] = 0.0; x->p[0][3] = c->p0;
   x->p[1][0] = 1.0; x->p[1][1] = 0.0; x->p[1][2] = 0.0; x->p[1][3] = 0.0;
-  x->p[2][0] = g * e3s + gb * ps * cs;
+  /* E3 = m + T3min + gamma beta p* (2 - hs), E4 = 1 + T4 */
+  t3 = f->t3min + f->gb * f->ps * hs2;
+  x->p[2][0] = c->m == 1.0 ? m + t3 : f->g * f->e3s + f->gb * f->ps * cz;
   /* E4 = gamma E4* - gamma beta p* cos: its smallest value (cos = 1) is
   ** (E4*^2 W^2 + |P|^2) / (W (P0 E4* + |P| p*)), free of cancellation */
-  x->p[3][0] = (e4s * e4s * w2 + Pn * Pn) / (w * (P0 * e4s + Pn * ps))
-               + gb * ps * hs;
+  x->p[3][0] = (f->e4s * f->e4s * f->w2 + f->Pn * f->Pn)
+               / (f->w * (f->P0 * f->e4s + f->Pn * f->ps))
+               + f->gb * f->ps * hs;
   for (i = 0; i < 3; i++) {
-    x->p[2][i + 1] = pl3 * ez[i] + t[i];
-    x->p[3][i + 1] = pl4 * ez[i] - t[i];
+    x->p[2][i + 1] = pl3 * f->ez[i] + t[i];
+    x->p[3][i + 1] = pl4 * f->ez[i] - t[i];
   }
-  x->p[4][0] = k; x->p[4][1] = k * sk; x->p[4][2] = 0.0; x->p[4][3] = k * ck;
-  x->pstar = ps;
-  x->w = w;
+  x->p[4][0] = f->k; x->p[4][1] = f->k * f->sk; x->p[4][2] = 0.0;
+  x->p[4][3] = f->k * f->ck;
+  /* the same point in the pair frame, axes (ex, ey, ez) */
+  x->f[0][0] = f->E1s; x->f[0][1] = f->kT; x->f[0][2] = 0.0;
+  x->f[0][3] = f->kzs + f->gb;
+  x->f[1][0] = f->g; x->f[1][1] = 0.0; x->f[1][2] = 0.0; x->f[1][3] = -f->gb;
+  x->f[2][0] = f->e3s; x->f[2][1] = f->ps * tx; x->f[2][2] = f->ps * ty;
+  x->f[2][3] = f->ps * cz;
+  x->f[3][0] = f->e4s; x->f[3][1] = -f->ps * tx; x->f[3][2] = -f->ps * ty;
+  x->f[3][3] = -f->ps * cz;
+  x->f[4][0] = f->k0s; x->f[4][1] = f->kT; x->f[4][2] = 0.0;
+  x->f[4][3] = f->kzs;
+  /* the virtual photons of the struck electron line, exactly */
+  x->q24 = -2.0 * t4;
+  x->q23 = c->m == 1.0 ? -2.0 * t3 : m * m + 1.0 - 2.0 * x->p[2][0];
+  x->pstar = f->ps;
+  x->w = f->w;
+}
+
+int bl_eb_point_set (const bl_ebrems *c, double k, double hk, double sk,
+                     double hs, double ss, double phis, bl_ebpoint *x) {
+  bl_ebframe f;
+  if (bl_eb_frame_set(c, k, hk, sk, &f) != 0)
+    return -1;
+  bl_eb_point_at(c, &f, hs, 2.0 - hs, ss * cos(phis), ss * sin(phis), x);
   return 0;
 }
 
@@ -417,5 +488,11 @@ double bl_eb_d5 (const bl_ebrems *c, const bl_ebpoint *x) {
   double ga = c->spin2 + 1.0, k = x->p[4][0];
   double ph = k / (2.0 * 8.0 * BL_PI * BL_PI * BL_PI)
               * x->pstar / (16.0 * BL_PI * BL_PI * x->w);
-  return S / (4.0 * c->p0) * ph * bl_eb_msq(c, x->p) / (ga * 2.0);
+  double qy[2];
+  qy[0] = x->q24;
+  qy[1] = x->q23;
+  /* |M|^2 is invariant: evaluated in the pair frame, where no particle is
+  ** faster than ~ sqrt(E0) (the lab's propagators lose ~ 1e-16 gamma^2) */
+  return S / (4.0 * c->p0) * ph
+         * bl_eb_msq_q(c, (const double (*)[4])x->f, qy) / (ga * 2.0);
 }

@@ -14,15 +14,13 @@
 ** k <= T / (1 + E0 - p0 + p0 (1 - cos theta_k)) (units m_e).
 **
 ** Maps.  Photon angle: sigma_k = ln(1 + h_k / h_kc), h_k = 1 - cos theta_k,
-** h_kc = m^2 / (p0 (E0 + p0)) (the projectile's radiation cone).  Polar
-** angle of Omega_s about the pair's momentum: sigma = ln(1 + h_s / h_sc),
-** h_sc = T4min / (gamma beta p*), where T4min is the smallest recoil energy
-** of the struck electron at this photon direction: the virtual photon's
-** 1/t^2 = 1/(2 m_e T4)^2 peaks there (h_s = 0).  The range is split where the
-** projectile (h_s of the photon) or the electron (the opposite direction)
-** moves along the photon, the peaks of the emission propagators.  Azimuth:
-** phi = pi (1 - cos(pi u)) / 2 on [0, pi] (the integrand is even in phi),
-** which puts points towards phi = 0 and pi, where those peaks sit.
+** h_kc = m^2 / (p0 (E0 + p0)) (the projectile's radiation cone), with
+** sigma_k = smax (2 v - v^2) against the square-root edge.  Omega_s: two
+** channels split by weights, one about the pair axis (the 1/t^2 pole of
+** the struck electron at h_s = 0, for e- e- the exchange pole at h_s = 2),
+** one about the photon direction in the pair frame (projectile or electron
+** along the photon); each half from its pole by ln(1 + d / scale), azimuth
+** uniform on [0, pi] (DEVELOPERS.md, "Electron-target bremsstrahlung").
 ** Every level by bl_gk_adapt (base/quad.c), inner errors weighed into the
 ** outer estimate as in born/dcs.c.
 */
@@ -58,6 +56,8 @@ int bl_ebrems_init (bl_ebrems *c, const bl_particle *p, double T) {
       && fabs(fabs(p->charge) - 1.0) <= 1e-12)
     c->kind = p->charge < 0 ? BL_EBREMS_ELECTRON : BL_EBREMS_POSITRON;
   if (c->kind != BL_EBREMS_OTHER) {
+    if (!(T <= BL_EBREMS_T_MAX_E))
+      return BL_EDOMAIN;
     c->m = 1.0;
     c->z = c->kind == BL_EBREMS_ELECTRON ? -1.0 : 1.0;
   }
@@ -113,9 +113,14 @@ typedef struct integ {
   bl_quad *q;
   double k;            /* m_e */
   double hk, sk;       /* photon direction */
-  double hs, ss;       /* current projectile polar direction (pair frame) */
-  double hsc;          /* the map's scale in h_s */
+  bl_ebframe f;        /* its pair frame */
+  int ch;              /* channel: 0 pair axis, 1 photon axis */
+  int far;             /* 0: h in [0, 1] from the pole h = 0; 1: from h = 2 */
+  double h, s;         /* current polar distance 1 - cos from the pole of
+                       ** this half (far: the pole h = 2), its sine */
+  double sc[2][2];     /* map scales [channel][pole] */
   double hkc;          /* the map's scale in h_k */
+  double smax;         /* sigma_k at the end point */
   double eps;          /* relative tolerance of the azimuth */
   double eps_mid;      /* of the pair-frame polar angle, under dsigma/dk */
   int npt;
@@ -127,28 +132,72 @@ static void note (integ *it, int st) {
     it->status = st;
 }
 
-/* Azimuth: phi = pi (1 - cos(pi u)) / 2, u in [0, 1]; 2 for the even half. */
-static double phi_f (double u, void *par, double *err) {
-  integ *it = par;
-  bl_ebpoint x;
-  double phi = 0.5 * BL_PI * (1.0 - cos(BL_PI * u));
-  double dphi = 0.5 * BL_PI * BL_PI * sin(BL_PI * u);
-  *err = 0.0;
-  it->q->calls++;
-  if (bl_eb_point_set(it->c, it->k, it->hk, it->sk, it->hs, it->ss, phi, &x)
-      != 0)
-    return 0.0;
-  return 2.0 * dphi * bl_eb_d5(it->c, &x);
+/* 1 - cos of the angle between n (unit) and the axis whose cosine with n
+** is cz, free of cancellation: (n_T^2) / (1 + cz) near the axis. */
+static double vers (double tt2, double cz) {
+  return cz > 0.0 ? tt2 / (1.0 + cz) : 1.0 - cz;
 }
 
+/* The channel weights: each a product of the two poles' peak shapes. */
+static double gshape (const double sc[2], double h, double h2) {
+  return 1.0 / ((h + sc[0]) * (h2 + sc[1]));
+}
+
+/* Azimuth phi = pi u about the channel's axis (the integrand is even in
+** phi: the (P, k) plane is a plane of symmetry); 2 pi for the even half. */
+static double phi_f (double u, void *par, double *err) {
+  integ *it = par;
+  const bl_ebframe *f = &it->f;
+  bl_ebpoint x;
+  double phi = BL_PI * u, cp = cos(phi), sp = sin(phi), hs, hs2, tx, ty, cz;
+  double hk1, hk2, gp, gk, a, b, ca, sa;
+  *err = 0.0;
+  it->q->calls++;
+  /* the polar variable about the channel's axis: (h, 2 - h) */
+  a = it->far ? 2.0 - it->h : it->h;
+  b = it->far ? it->h : 2.0 - it->h;
+  ca = 1.0 - a;
+  sa = it->s;
+  if (it->ch == 0) {
+    hs = a; hs2 = b; tx = sa * cp; ty = sa * sp; cz = ca;
+    /* the photon axis k* = (sks, 0, cks) */
+    {
+      double ck = f->sks * tx + f->cks * cz, t1 = f->cks * tx - f->sks * cz;
+      double tt = t1 * t1 + ty * ty;
+      hk1 = vers(tt, ck);
+      hk2 = vers(tt, -ck);
+    }
+  } else {
+    double nx, nz, tt;
+    hk1 = a; hk2 = b;
+    nx = f->cks * sa * cp + f->sks * ca;
+    ty = sa * sp;
+    nz = -f->sks * sa * cp + f->cks * ca;
+    tx = nx;
+    tt = nx * nx + ty * ty;
+    hs = vers(tt, nz);
+    hs2 = vers(tt, -nz);
+    cz = nz;
+  }
+  (void)cz;
+  gp = gshape(it->sc[0], hs, hs2);
+  gk = gshape(it->sc[1], hk1, hk2);
+  bl_eb_point_at(it->c, f, hs, hs2, tx, ty, &x);
+  return 2.0 * BL_PI * bl_eb_d5(it->c, &x) * (it->ch == 0 ? gp : gk)
+         / (gp + gk);
+}
+
+/* Polar variable sigma = ln(1 + d / scale), d the distance (1 - cos) from
+** the pole of this half. */
 static double hs_f (double sg, void *par, double *err) {
   integ *it = par;
-  double v, e, jac;
-  it->hs = it->hsc * expm1(sg);
-  if (it->hs > 2.0)
-    it->hs = 2.0;
-  it->ss = sqrt(it->hs * (2.0 - it->hs));
-  jac = it->hs + it->hsc;
+  double sc = it->sc[it->ch][it->far], d, v, e, jac;
+  d = sc * expm1(sg);
+  if (d > 1.0)
+    d = 1.0;
+  it->h = d;
+  it->s = sqrt(d * (2.0 - d));
+  jac = d + sc;
   /* an inner integral that misses its tolerance still reports its error,
   ** which the outer level weighs into its own: its status is not kept */
   (void)bl_gk_adapt(phi_f, it, 0.0, 1.0, 0.0, it->eps, it->q->limit, it->npt,
@@ -157,70 +206,50 @@ static double hs_f (double sg, void *par, double *err) {
   return jac * v;
 }
 
-/* The pair-frame geometry at the current photon direction: the map scale
-** and the split points (projectile or electron along the photon). */
-static int pair_frame (integ *it, double *hsplit) {
-  bl_ebpoint x;
-  double Pv[3], Pn, w, g, gb, kpar, ck = 1.0 - it->hk, cks, t4;
+/* The pair-frame geometry at the current photon direction: the scales of
+** the four poles.  Pair axis: hs = 0 (the struck electron's smallest
+** recoil, 1/t^2), hs = 2 (for e- e-: the projectile's, the exchange
+** channel's 1/u^2).  Photon axis: the projectile along k* (1/(p3.k)) and
+** the electron along k* (1/(p4.k)). */
+static int pair_frame (integ *it) {
+  bl_ebframe *f = &it->f;
   const bl_ebrems *c = it->c;
-  if (bl_eb_point_set(c, it->k, it->hk, it->sk, 0.0, 0.0, 0.0, &x) != 0)
+  double gp;
+  if (bl_eb_frame_set(c, it->k, it->hk, it->sk, f) != 0)
     return -1;
-  Pv[0] = -it->k * it->sk;
-  Pv[2] = c->p0 - it->k * ck;
-  Pn = sqrt(Pv[0] * Pv[0] + Pv[2] * Pv[2]);
-  w = x.w;
-  g = (c->e0 + 1.0 - it->k) / w;
-  gb = Pn / w;
-  kpar = (Pv[0] * it->sk + Pv[2] * ck) / Pn;   /* cos(k, P) in the lab */
-  cks = (g * kpar - gb) / (g - gb * kpar);      /* the same in the pair frame */
-  if (cks > 1.0) cks = 1.0;
-  if (cks < -1.0) cks = -1.0;
-  hsplit[0] = 1.0 - cks;
-  hsplit[1] = 1.0 + cks;
-  t4 = x.p[3][0] - 1.0;
-  it->hsc = fmax(t4 / (gb * x.pstar), 1e-15);
+  gp = f->gb * f->ps;
+  it->sc[0][0] = fmin(fmax(f->t4min / gp, 1e-300), 1.0);
+  it->sc[0][1] = c->kind == BL_EBREMS_ELECTRON
+                 ? fmin(fmax(f->t3min / gp, 1e-300), 1.0) : 1.0;
+  it->sc[1][0] = fmin(c->m * c->m / (f->ps * (f->e3s + f->ps)), 1.0);
+  it->sc[1][1] = fmin(1.0 / (f->ps * (f->e4s + f->ps)), 1.0);
   return 0;
 }
 
 /* d2sigma/(dk dOmega_k) at the photon direction of it, units
-** lambda_e^2/m_e per sr; *err its error. */
+** lambda_e^2/m_e per sr; *err its error: two channels, each two halves. */
 static double angular (integ *it, double eps, int outer, double *err) {
-  double hsplit[2], cut[4], v = 0.0, e = 0.0;
-  int n = 0, i;
+  double v = 0.0, e = 0.0;
   *err = 0.0;
-  if (pair_frame(it, hsplit) != 0)
+  if (pair_frame(it) != 0)
     return 0.0;
-  cut[n++] = 0.0;
-  for (i = 0; i < 2; i++) {
-    double s = log1p(hsplit[i] / it->hsc);
-    if (s > 0.0 && hsplit[i] < 2.0)
-      cut[n++] = s;
-  }
-  if (n == 3 && cut[1] > cut[2]) {
-    double t = cut[1];
-    cut[1] = cut[2];
-    cut[2] = t;
-  }
-  cut[n++] = log1p(2.0 / it->hsc);
   it->eps = EPS_SHARE * eps;
-  for (i = 0; i + 1 < n; i++) {
-    double pv, pe;
-    int st;
-    if (!(cut[i + 1] > cut[i]))
-      continue;
-    if (outer)
-      st = bl_gk_adapt_budget(hs_f, it, cut[i], cut[i + 1], 0.0, eps,
-                              it->q->limit, it->npt, it->q->pan[1],
-                              &it->q->calls, it->q->calls + CALL_BUDGET,
-                              &pv, &pe);
-    else
-      st = bl_gk_adapt(hs_f, it, cut[i], cut[i + 1], 0.0, eps, it->q->limit,
-                       it->npt, it->q->pan[1], &pv, &pe);
-    if (outer)
-      note(it, st);
-    v += pv;
-    e += pe;
-  }
+  for (it->ch = 0; it->ch < 2; it->ch++)
+    for (it->far = 0; it->far < 2; it->far++) {
+      double pv, pe, top = log1p(1.0 / it->sc[it->ch][it->far]);
+      int st;
+      if (outer)
+        st = bl_gk_adapt_budget(hs_f, it, 0.0, top, 0.0, eps, it->q->limit,
+                                it->npt, it->q->pan[1], &it->q->calls,
+                                it->q->calls + CALL_BUDGET, &pv, &pe);
+      else
+        st = bl_gk_adapt(hs_f, it, 0.0, top, 0.0, eps, it->q->limit,
+                         it->npt, it->q->pan[1], &pv, &pe);
+      if (outer)
+        note(it, st);
+      v += pv;
+      e += pe;
+    }
   *err = e;
   return v;
 }
@@ -268,17 +297,20 @@ int bl_ebrems_angular_e (const bl_ebrems *c, double k, double theta_k,
   return finish(out, it.status);
 }
 
-static double hk_f (double sg, void *par, double *err) {
+/* Photon angle: sigma_k = ln(1 + h_k / h_kc) = smax (2 v - v^2), v in
+** [0, 1]: the square root of the closing phase space at the end point
+** h_k = hmax (p* ~ sqrt(hmax - h_k)) becomes smooth in v. */
+static double hk_f (double v, void *par, double *err) {
   integ *it = par;
-  double v, jac;
+  double sg = it->smax * v * (2.0 - v), val, jac;
   it->hk = it->hkc * expm1(sg);
   if (it->hk > 2.0)
     it->hk = 2.0;
   it->sk = sqrt(it->hk * (2.0 - it->hk));
-  jac = it->hk + it->hkc;
-  v = angular(it, it->eps_mid, 0, err);
+  jac = (it->hk + it->hkc) * it->smax * 2.0 * (1.0 - v);
+  val = angular(it, it->eps_mid, 0, err);
   *err *= 2.0 * BL_PI * jac;
-  return 2.0 * BL_PI * jac * v;
+  return 2.0 * BL_PI * jac * val;
 }
 
 int bl_ebrems_dk_e (const bl_ebrems *c, double k, bl_quad *q, bl_result *out) {
@@ -299,7 +331,8 @@ int bl_ebrems_dk_e (const bl_ebrems *c, double k, bl_quad *q, bl_result *out) {
     hmax = 2.0;
   setup(&it, c, k, q);
   it.eps_mid = EPS_SHARE * q->rtol;
-  st = bl_gk_adapt_budget(hk_f, &it, 0.0, log1p(hmax / it.hkc), 0.0, q->rtol,
+  it.smax = log1p(hmax / it.hkc);
+  st = bl_gk_adapt_budget(hk_f, &it, 0.0, 1.0, 0.0, q->rtol,
                           q->limit, it.npt, q->pan[0], &q->calls,
                           q->calls + CALL_BUDGET, &v, &e);
   note(&it, st);

@@ -16,9 +16,36 @@
 ** (electron out), p[4] = k. */
 typedef struct bl_ebpoint {
   double p[5][4];
+  double f[5][4];  /* the same momenta in the rest frame of p3 + p4, axes
+                   ** (ex, ey, ez) of bl_ebframe */
+  double q24, q23; /* (p4 - p2)^2 and (p3 - p2)^2, free of cancellation */
   double pstar;    /* |p3| = |p4| in the rest frame of p3 + p4 */
   double w;        /* invariant mass of p3 + p4 */
 } bl_ebpoint;
+
+/* What one photon (energy k, direction h_k = 1 - cos theta_k, sine sk)
+** fixes: the pair's invariant mass, its frame (ez along P = p1 + p2 - k,
+** ex towards the photon), the photon there, the smallest recoils. */
+typedef struct bl_ebframe {
+  double k, hk, sk, ck, kap;    /* kap = p1.k */
+  double w, w2, ps, e3s, e4s;   /* W, W^2, p*, E3*, E4* */
+  double P0, Pn, g, gb;         /* lab |P|, gamma, gamma beta of the pair */
+  double ez[3], ex[3], ey[3];   /* lab components of the axes */
+  double k0s, kT, kzs, sks, cks; /* the photon in the pair frame */
+  double E1s;                   /* the projectile's energy there */
+  double t4min, t3min;          /* T4 at hs = 0, E3 - m at hs = 2 */
+} bl_ebframe;
+
+/* The frame at photon energy k (m_e) and direction: 0, or -1 beyond the end
+** point. */
+int bl_eb_frame_set (const bl_ebrems *c, double k, double hk, double sk,
+                     bl_ebframe *f);
+
+/* The point of f whose projectile moves in the pair frame along
+** n = (tx, ty, 1 - hs) (axes ex, ey, ez), hs2 = 2 - hs (both given, each
+** free of cancellation near its pole). */
+void bl_eb_point_at (const bl_ebrems *c, const bl_ebframe *f, double hs,
+                     double hs2, double tx, double ty, bl_ebpoint *x);
 
 /* Number of amplitudes per polarisation: 2^4 spin states (spin 0: 4). */
 #define BL_EB_NAMP 16
@@ -31,6 +58,14 @@ typedef struct bl_ebpoint {
 void bl_eb_amplitudes (const bl_ebrems *c, const double p[5][4],
                        const double eps[2][4],
                        double complex M[2][BL_EB_NAMP]);
+
+/* The same with the virtual photons of the struck electron line given:
+** qy[0] = (p4 - p2)^2, qy[1] = (p3 - p2)^2 (NULL: from the components). */
+void bl_eb_amplitudes_q (const bl_ebrems *c, const double p[5][4],
+                         const double eps[2][4], const double *qy,
+                         double complex M[2][BL_EB_NAMP]);
+double bl_eb_msq_q (const bl_ebrems *c, const double p[5][4],
+                    const double *qy);
 
 /* Two real transverse unit polarisation vectors of the photon k. */
 void bl_eb_polarisations (const double k[4], double eps[2][4]);
