@@ -23,5 +23,6 @@
 #include "brakelight/bl_suppress.h"
 #include "brakelight/bl_target.h"
 #include "brakelight/bl_sampler.h"
+#include "brakelight/bl_ebrems.h"
 
 #endif

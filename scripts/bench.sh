@@ -13,7 +13,9 @@
 #    within 5 ms); the distorted-wave dsigma/dk (scripts/bench_dw.c: median
 #    at rtol 1e-3 against 20 ms, and its time ratio to Born); the event
 #    sampler (scripts/bench_sampler.c: setup time, efficiency, events/s
-#    against 1e5/s, two threads against one);
+#    against 1e5/s, two threads against one); the electron-target
+#    dsigma/dk (scripts/bench_ebrems.c: time per point at rtol 1e-3 and its
+#    ratio to the nuclear Born point of the same T and k);
 # 2. if Debian's /usr/bin/python3 has SciPy, evaluates a few of the same
 #    points with the independent SciPy integration (scripts/bench_scipy.py)
 #    and prints the time ratio and the relative difference of the values.
@@ -88,6 +90,15 @@ if ${CC:-cc} "${CFL[@]}" -o "$B/bench_dw" scripts/bench_dw.c \
   "$B/bench_dw" | tail -n 1 || echo "bench: bench_dw exited with status $?"
 else
   echo "bench: could not build $B/bench_dw" >&2
+fi
+
+echo
+echo "== electron target (scripts/bench_ebrems.c): rtol 1e-3, against nuclear Born in the same run"
+if ${CC:-cc} "${CFL[@]}" -o "$B/bench_ebrems" scripts/bench_ebrems.c \
+     "$B/libbrakelight.a" "${LDL[@]}"; then
+  "$B/bench_ebrems" || echo "bench: bench_ebrems exited with status $?"
+else
+  echo "bench: could not build $B/bench_ebrems" >&2
 fi
 
 echo

@@ -15,8 +15,8 @@
 ** each spin and each node x = ln(m R / hbar c) = NUC_X0 + NUC_DX ix, a
 ** probe particle of that m R on a bare nucleus of A = NUC_A (Z = 50, no
 ** screening, no electrons), at delta = Delta/m = q_N 10^(-3 + j/8),
-** q_N = 1/(m R), j = 0 ... NUC_NODES - 1, as long as delta <= NUC_TOP (one
-** node at delta = 1e-4 where q_N 1e-3 is already above it):
+** q_N = 1/(m R), j = 0 ... NUC_NODES - 1, as long as delta <= NUC_TOP (from
+** NUC_DMIN = 1e-4 instead where q_N 1e-3 is above it):
 **   d(v) = [Born_uniform - Born_point] k / norm = w1(v) N1 - w2(v) N2
 ** at v = E/E0 = 0.5 and 0.1 for spin 1/2 (solved for N1, N2) and at 0.5
 ** for spin 0 (N2 = 0), with the final gamma E = (1 - v) / (2 delta): at
@@ -131,17 +131,16 @@ static int build (int sp, int ix, bl_quad *q, bl_nuctab *t) {
     return st;
   probe.mass = mR * BL_HBARC_MEVFM / c.R;
   memset(t, 0, sizeof *t);
-  t->lnd0 = log(qN) - 3.0 * log(10.0);
+  /* from 1e-3 q_N, or from NUC_DMIN if that is lower: N also changes
+  ** with delta at delta ~ 1e-2 (q ~ m), so for m R < 10 a first node at
+  ** 1e-3 q_N left N constant from too high a delta (3 MeV masses on Pb,
+  ** m R = 0.108: 1.4e-3 of the value, measured against Born) */
+  t->lnd0 = fmin(log(qN) - 3.0 * log(10.0), log(NUC_DMIN));
   for (j = 0; j < NUC_NODES && exp(t->lnd0 + j * NUC_DLN) <= NUC_TOP; j++) {
     if ((st = nodeval(&probe, exp(t->lnd0 + j * NUC_DLN), q, &t->N1[j],
                       &t->N2[j])))
       return st;
     t->n = j + 1;
-  }
-  if (t->n == 0) {   /* q_N far above the small-angle range: N is flat */
-    t->lnd0 = log(1e-4);
-    t->n = 1;
-    return nodeval(&probe, 1e-4, q, &t->N1[0], &t->N2[0]);
   }
   for (j = 0; j + 1 < t->n; j++) {   /* measured interpolation error */
     double i1, i2;

@@ -84,7 +84,19 @@ Test(corrections, coulomb_difference) {
                   + 0.0083 * pow(fz, 4) - 0.002 * pow(fz, 6));
   want = 82.0 * 82.0 * BL_ALPHA * RE2_MB / k * 4.0 * fz
          * (1.0 + v * v - 2.0 * v / 3.0);
-  EXPECT_REL(b - a, want, 1e-9, "Born minus corrected");
+  /* the uniform nucleus keeps the share x^4/(1 + x^4), x = hbar/(m c) /
+  ** (10 R), R = 1.2 A^1/3 fm (bl_dcs.h), A = 207 for Pb: our own rule
+  ** (corrections.c, bl_coulomb_share) */
+  {
+    double x = BL_HBARC_MEVFM / BL_ME_MEV / (10.0 * 1.2 * cbrt(207.0));
+    x = pow(x, 4.0);
+    EXPECT_REL(b - a, want * x / (1.0 + x), 1e-9, "Born minus corrected");
+  }
+  /* a point nucleus keeps the whole correction */
+  on.nucleus = off.nucleus = BL_NUCLEUS_POINT;
+  a = dsdk_opts("electron", 82, "exponential", T, y, &on, 1e-5, &r);
+  b = dsdk_opts("electron", 82, "exponential", T, y, &off, 1e-5, NULL);
+  EXPECT_REL(b - a, want, 1e-9, "Born minus corrected, point nucleus");
 }
 
 

@@ -424,3 +424,34 @@ Test(target, material_sum_failure_and_release) {
             bl_method_cache_count(), before);
   bl_quad_free(q);
 }
+
+
+/* An interrupted target spectrum (stop flag set): BL_EINTR, and no point
+** of a compound counts as finished (its elements come one after another
+** over every k); cleared, the same call gives every point. */
+Test(target, spectrum_interrupted) {
+  static bl_target t;
+  bl_material m;
+  bl_tresult r[3];
+  double k[3] = { 1e3, 1e5, 5e5 };
+  int st[3], i;
+  volatile sig_atomic_t flag = 1;
+  bl_quad *q = bl_quad_alloc(1000);
+  cr_assert(q != NULL);
+  cr_assert(bl_material_lookup(&m, "PbWO4", NULL) == BL_SUCCESS);
+  cr_assert(bl_target_setup(&t, bl_particle_find("muon"), &m,
+                            bl_model_find("hartree-fock"), NULL, 1e6,
+                            &bl_opts_default, BL_METHOD_HIGH_ENERGY, NULL,
+                            NULL) == BL_SUCCESS);
+  cr_assert(bl_target_prepare(&t, q, NULL) == BL_SUCCESS);
+  bl_quad_set_stop(q, &flag);
+  cr_expect(bl_target_spectrum_e(&t, 3, k, 1, q, r, st) == BL_EINTR);
+  for (i = 0; i < 3; i++)
+    cr_expect(st[i] == BL_EINTR, "point %d: status %d", i, st[i]);
+  flag = 0;
+  cr_expect(bl_target_spectrum_e(&t, 3, k, 1, q, r, st) == BL_SUCCESS);
+  for (i = 0; i < 3; i++)
+    cr_expect(st[i] == BL_SUCCESS && r[i].r.val > 0.0, "point %d", i);
+  bl_target_release(&t);
+  bl_quad_free(q);
+}

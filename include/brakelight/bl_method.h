@@ -23,6 +23,11 @@ enum {
 };
 #define BL_METHOD_COUNT 5
 
+/* Below k = BL_DW_SOFT_Y T the distorted-wave method gives the Born value
+** times its distorted/Born ratio at BL_DW_SOFT_Y T (the soft terms of the
+** amplitudes cancel beyond double precision there; BL_WARN_SOFT). */
+#define BL_DW_SOFT_Y 1e-9
+
 /*
 ** Where the closed forms hold.  "auto" takes the high-energy method where
 ** the final gamma = E/m is at least bl_he_gamma_min: BL_HE_GAMMA_MIN and,

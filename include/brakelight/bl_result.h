@@ -24,10 +24,12 @@ enum {
                                 ** where it does not hold */
   BL_WARN_SUPPRESS  = 1u << 9,  /* LPM/dielectric suppression: an approximate
                                 ** treatment, see its warning */
-  BL_WARN_DISTORTED = 1u << 10  /* distorted waves: estimated model uncertainty
+  BL_WARN_DISTORTED = 1u << 10, /* distorted waves: estimated model uncertainty
                                 ** (sys) above BL_SYS_WARN of the value */
+  BL_WARN_SOFT      = 1u << 11  /* distorted waves below k = BL_DW_SOFT_Y T:
+                                ** Born times the ratio at that k */
 };
-#define BL_WARN_COUNT 11
+#define BL_WARN_COUNT 12
 
 /* The share of the value above which a model uncertainty (sys) is
 ** warned about. */

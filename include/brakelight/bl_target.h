@@ -135,7 +135,11 @@ int bl_target_dk_e (const bl_target *t, double k, bl_quad *q,
 ** out[i] and status[i] (status may be NULL) per point.  Allocates scratch
 ** space for n results.  Returns BL_SUCCESS, the first hard failure in the
 ** order element by element, point by point (that point's out->Z, ->k,
-** ->fail say where), or BL_ENOMEM.
+** ->fail say where), or BL_ENOMEM.  With the workspace's stop flag set
+** (bl_quad_set_stop) it returns BL_EINTR; the points finished over every
+** element are complete in out[] and every other point has status
+** BL_EINTR (a target of several elements finishes none before its last
+** element has begun).
 */
 int bl_target_spectrum_e (const bl_target *t, size_t n, const double *k,
                           int nthreads, bl_quad *q, bl_tresult *out,

@@ -5,12 +5,15 @@
 ** See Copyright Notice in LICENSE
 */
 
+#include <errno.h>
+#include <fcntl.h>
 #include <float.h>
 #include <math.h>
 #include <stdarg.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <unistd.h>
 
 #include "lbl_internal.h"
 
@@ -79,6 +82,90 @@ int l_dsdk (lua_State *L) {
 
 
 /*
+** The finished points of an interrupted spectrum, kept in a new file of
+** the current directory, spectrum-interrupted-PID[-N].csv: written as
+** NAME.part, synced, then linked to the name (never over an existing
+** file).  Fills `name` (or the reason it failed, *ok = 0).
+*/
+static void keep_spectrum (const Opts *o, lua_Integer n, const double *k,
+                           const double *x, int hask, const bl_tresult *res,
+                           const int *sts, lua_Integer done, char *name,
+                           size_t size, int *ok) {
+  char part[256];
+  FILE *f;
+  lua_Integer i;
+  int fd, j, e;
+  *ok = 0;
+  snprintf(part, sizeof part, "spectrum-interrupted-%ld.csv.part",
+           (long)getpid());
+  fd = open(part, O_WRONLY | O_CREAT | O_EXCL | O_CLOEXEC, 0644);
+  if (fd < 0 || (f = fdopen(fd, "w")) == NULL) {
+    snprintf(name, size, "cannot create '%s': %s", part, strerror(errno));
+    if (fd >= 0)
+      close(fd);
+    return;
+  }
+  fprintf(f, "# brakelight %s: spectrum interrupted by signal %d, %lld of "
+          "%lld points finished\n# %s on %s, T = %.17g MeV, method %s, "
+          "rtol %g\n# units k MeV, y 1, dsdk mb/MeV, err mb/MeV\n"
+          "k,y,dsdk,err\n", BL_VERSION, (int)*lbl_stopflag(),
+          (long long)done, (long long)n, o->particle.name, o->target.name,
+          o->T, bl_method_name(o->method), o->rtol);
+  for (i = 0; i < n; i++)
+    if (sts[i] != BL_EINTR)
+      fprintf(f, "%.17g,%.17g,%.17g,%.17g\n", k[i], hask ? k[i] / o->T
+              : x[i], res[i].r.val, res[i].r.err);
+  e = fflush(f) != 0 || ferror(f) || fsync(fileno(f)) != 0 ? errno : 0;
+  if (fclose(f) != 0 && e == 0)
+    e = errno ? errno : EIO;
+  if (e != 0) {
+    snprintf(name, size, "cannot write '%s': %s", part, strerror(e));
+    unlink(part);
+    return;
+  }
+  for (j = 0; j < 100; j++) {
+    if (j == 0)
+      snprintf(name, size, "spectrum-interrupted-%ld.csv", (long)getpid());
+    else
+      snprintf(name, size, "spectrum-interrupted-%ld-%d.csv", (long)getpid(),
+               j);
+    if (link(part, name) == 0) {
+      unlink(part);
+      *ok = 1;
+      return;
+    }
+    if (errno != EEXIST)
+      break;
+  }
+  e = errno;
+  snprintf(name, size, "kept in '%s' only: %s", part, strerror(e));
+}
+
+
+/* Raise the interrupt of a spectrum, its finished points kept. */
+static void spectrum_stopped (lua_State *L, const Opts *o, lua_Integer n,
+                              const double *k, const double *x, int hask,
+                              const bl_tresult *res, const int *sts) {
+  char name[512];
+  lua_Integer i, done = 0;
+  int ok = 0;
+  for (i = 0; i < n; i++)
+    done += sts[i] != BL_EINTR;
+  if (done > 0)
+    keep_spectrum(o, n, k, x, hask, res, sts, done, name, sizeof name, &ok);
+  if (done == 0)
+    lbl_fail(L, "%s: interrupted by signal %d before any point was finished "
+             "(a target of several elements finishes its points with its "
+             "last element; a scan, brakelight.scan, keeps every finished "
+             "point)", o->fname, (int)*lbl_stopflag());
+  lbl_fail(L, "%s: interrupted by signal %d; %lld of %lld points finished, "
+           "%s%s%s (columns k, y, dsdk, err)", o->fname,
+           (int)*lbl_stopflag(), (long long)done, (long long)n,
+           ok ? "kept in '" : "not kept: ", name, ok ? "'" : "");
+}
+
+
+/*
 ** brakelight.spectrum{..., k = {...}} or {..., y = {...}}
 **   -> {k, y, dsdk, err, coulomb_applied, elwert_applied, method, per_gram,
 **       threads, units, settings, warnings}
@@ -129,6 +216,8 @@ int l_spectrum (lua_State *L) {
   st = bl_target_spectrum_e(t, (size_t)n, k, nthreads, q, res, sts);
   if (st == BL_ENOMEM)
     lbl_fail(L, "%s: out of memory for %lld points", o.fname, (long long)n);
+  if (st == BL_EINTR)
+    spectrum_stopped(L, &o, n, k, x, hask, res, sts);
   if (st != BL_SUCCESS)               /* the point that failed */
     for (i = 0; i < n; i++)
       if (sts[i] != BL_SUCCESS && !bl_status_soft(sts[i])) {

@@ -276,6 +276,14 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                (p->charge * zb * BL_ALPHA) * (p->charge * zb * BL_ALPHA),
                BL_HBARC_MEVFM / p->mass, 1.2 * cbrt(round(bl_element_mass(zb))));
       break;
+    case BL_WARN_SOFT:
+      snprintf(msg, sizeof msg, "%s = %g MeV (%s on %s, T = %g MeV): the "
+               "amplitudes' soft terms cancel beyond double precision below "
+               "it; the ratio's change below that k is estimated from its "
+               "change over the decade above, per decade, and is in sys "
+               "(README, Distorted waves)", text, BL_DW_SOFT_Y * o->T,
+               p->name, o->target.name, o->T);
+      break;
     case BL_WARN_CLAMPED:
       snprintf(msg, sizeof msg, "%s (%s on %s at T = %g MeV, near the tip of "
                "the spectrum; coulomb = false gives the uncorrected value, "

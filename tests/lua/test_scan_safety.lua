@@ -306,11 +306,33 @@ bl.spectrum{ particle = "electron", target = "Pb", T = 100, k = k, rtol = 1e-8,
              method = "born", threads = 2 }
 print("spectrum ended")]])
   t0 = os.time()
-  code, so, se = U.sh(string.format("(%s %s & p=$!; sleep 0.5; kill -INT $p; wait $p)",
-                                    U.q(U.runner), U.q(dir .. "/spec.lua")))
+  code, so, se = U.sh(string.format("(r=$(realpath %s); cd %s && \"$r\" spec.lua & p=$!; sleep 1; kill -INT $p; wait $p)",
+                                    U.q(U.runner), U.q(dir)))
   U.check(code ~= 0 and not so:find("spectrum ended", 1, true), "spectrum not stopped")
   U.check(os.time() - t0 < 10, "spectrum went on after SIGINT (%d s)", os.time() - t0)
   U.has(se, "spectrum: interrupted by signal 2", "spectrum interrupt")
+  -- and the finished points are kept, in a new file it names
+  local nfin, kept = se:match("(%d+) of 4000 points finished, kept in '([^']+)'")
+  U.check(kept ~= nil, "finished points not kept: %s", se)
+  if kept then
+    local body = U.read(dir .. "/" .. kept) or ""
+    local rows, good = 0, 0
+    for line in body:gmatch("[^\n]+") do
+      local kk, yy, v = line:match("^([%d.e+-]+),([%d.e+-]+),([%d.e+-]+),")
+      if kk then
+        rows = rows + 1
+        -- each row is the value spectrum gives for that k alone
+        if rows <= 3 then
+          local one = require("brakelight").dsdk{ particle = "electron", target = "Pb", T = 100,
+                               k = tonumber(kk), rtol = 1e-8, method = "born" }
+          good = good + (math.abs(one / tonumber(v) - 1) < 1e-12 and 1 or 0)
+        end
+      end
+    end
+    U.check(rows == tonumber(nfin) and rows > 0, "kept %d rows, message says %s", rows, nfin)
+    U.check(good == math.min(rows, 3), "kept values differ from dsdk (%d of 3 equal)", good)
+    U.check(U.read(dir .. "/" .. kept .. ".part") == nil, "a .part file was left")
+  end
 
   -- 10. failed checkpoints (in this process): reported, retried, not
   -- fatal; a last save that keeps failing is an error saying so

@@ -38,7 +38,8 @@ struct bl_quad {
 typedef double (*bl_gkfun) (double x, void *par, double *err);
 
 /*
-** int_a^b f by Gauss-Kronrod panels (npt = 15: 7/15 points, else 10/21), bisecting the panel with
+** int_a^b f by Gauss-Kronrod panels (npt = 7: 3/7 points, 15: 7/15,
+** else 10/21), bisecting the panel with
 ** the largest error until the total error (rule plus integrand errors)
 ** is at most max(epsabs, epsrel |val|).  Panels come from w (limit of
 ** them).  Returns BL_SUCCESS, GSL_EMAXITER (limit panels used) or

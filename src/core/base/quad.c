@@ -179,12 +179,28 @@ static const double wgk15[8] = {
   0.204432940075298892414161999234649, 0.209482141084727828012999174891714
 };
 
+/* The 7-point Kronrod extension of the 3-point Gauss rule (Kronrod 1965;
+** checked when written: exact for x^k up to k = 11, not for 12):
+** xgk7[1] and the centre are the Gauss nodes. */
+static const double xgk7[4] = {
+  0.960491268708020283423507092516930, 0.774596669241483377035853079956480,
+  0.434243749346802558002071502868439, 0.0
+};
+static const double wg3[2] = {
+  0.555555555555555555555555555555556, 0.888888888888888888888888888888889
+};
+static const double wgk7[4] = {
+  0.104656226026467265193823857117106, 0.268488089868333440728569223901040,
+  0.401397414775962222905051818618433, 0.450916538658474142345110087045571
+};
+
 typedef struct gkrule {
   int n;                 /* node pairs; the centre is node n */
   const double *x, *wk, *wg;
   int gcentre;           /* 1: the centre is a Gauss node (odd Gauss rule) */
 } gkrule;
 
+static const gkrule rule7 = {3, xgk7, wgk7, wg3, 1};
 static const gkrule rule15 = {7, xgk15, wgk15, wg7, 1};
 static const gkrule rule21 = {10, xgk, wgk, wg, 0};
 
@@ -232,7 +248,7 @@ int bl_gk_adapt_budget (bl_gkfun f, void *par, double a, double b,
                         double epsabs, double epsrel, size_t limit, int npt,
                         bl_gkpanel *w, const unsigned long *calls,
                         unsigned long stop, double *val, double *err) {
-  const gkrule *r = npt == 15 ? &rule15 : &rule21;
+  const gkrule *r = npt == 7 ? &rule7 : npt == 15 ? &rule15 : &rule21;
   double V, E, IE;
   size_t n = 1, i;
   int st = 0;   /* BL_SUCCESS */

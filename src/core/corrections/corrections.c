@@ -39,17 +39,58 @@ int bl_elwert_valid (const bl_kin *kn) {
 }
 
 
+/*
+** The share of the point-charge Coulomb correction kept for a projectile
+** of Compton wavelength lambda = hbar/(m c) on a uniform nucleus of radius
+** R: x^4 / (1 + x^4), x = lambda / (BL_COULOMB_RADII R).  The correction
+** comes from distances ~ lambda (Davies, Bethe & Maximon 1954); inside
+** the nucleus the field is not a point charge's.  Electrons on Pb keep
+** 0.9989, muons 5e-7; the rule "lambda >= BL_COULOMB_RADII R" is share
+** >= 1/2.  The same share weighs the distortion of the distorted-wave
+** method (distorted/dcs.c), so the two join without a step.  A point
+** nucleus keeps 1.
+*/
+double bl_coulomb_share (const bl_case *c) {
+  double x;
+  if (c->opts.nucleus != BL_NUCLEUS_UNIFORM)
+    return 1.0;
+  x = BL_HBARC_MEVFM / c->particle.mass
+      / (BL_COULOMB_RADII * bl_nucleus_radius(c->opts.A));
+  x *= x;
+  x *= x;
+  return x / (1.0 + x);
+}
+
+
 int bl_coulomb_case_valid (const bl_case *c) {
-  double lambda = BL_HBARC_MEVFM / c->particle.mass;          /* fm */
-  return 1.0 + c->t0 >= BL_COULOMB_GAMMA0_MIN
-         && lambda >= BL_COULOMB_RADII * bl_nucleus_radius(c->opts.A);
+  return 1.0 + c->t0 >= BL_COULOMB_GAMMA0_MIN && bl_coulomb_share(c) >= 0.5;
 }
 
 
 int bl_coulomb_valid (const bl_case *c, const bl_kin *kn) {
-  double lambda = BL_HBARC_MEVFM / c->particle.mass;          /* fm */
-  return kn->E0 >= BL_COULOMB_GAMMA0_MIN && kn->E >= BL_COULOMB_GAMMA_MIN
-         && lambda >= BL_COULOMB_RADII * bl_nucleus_radius(c->opts.A);
+  return bl_coulomb_case_valid(c) && kn->E >= BL_COULOMB_GAMMA_MIN;
+}
+
+
+/* Where "auto" subtracts it: the gamma bounds, and a share of at least
+** COULOMB_SHARE_MIN (below, at most 1e-3 of a correction of a few per
+** cent is left out). */
+#define COULOMB_SHARE_MIN 1e-3
+
+int bl_coulomb_case_auto (const bl_case *c) {
+  return 1.0 + c->t0 >= BL_COULOMB_GAMMA0_MIN
+         && bl_coulomb_share(c) >= COULOMB_SHARE_MIN;
+}
+
+
+int bl_coulomb_wanted (const bl_case *c, const bl_kin *kn, unsigned *warn) {
+  if (c->opts.coulomb == BL_APPLY_ON) {
+    if (!bl_coulomb_valid(c, kn))
+      *warn |= BL_WARN_COULOMB;
+    return 1;
+  }
+  return c->opts.coulomb == BL_APPLY_AUTO && bl_coulomb_case_auto(c)
+         && kn->E >= BL_COULOMB_GAMMA_MIN;
 }
 
 
@@ -113,13 +154,15 @@ int bl_wanted (int opt, int valid, unsigned bit, unsigned *warn) {
 ** phi2 of the nuclear part by 4 f(z Z alpha), i.e. by
 **   (norm / k) 4 f [(1 + v^2) - (2/3) v]   (spin 1/2),
 **   (norm / k) 4 f [2 v - (2/3) v]         (spin 0: 1 + v^2 -> 2 v),
-** v = E/E0.  The spin-0 form assumes the correction, an eikonal phase at
-** leading order, is the same for both spins.  A correction larger than the
-** Born value leaves 0 and a warning.
+** v = E/E0, times the nuclear-size share bl_coulomb_share.  The spin-0
+** form assumes the correction, an eikonal phase at leading order, is the
+** same for both spins.  A correction larger than the Born value leaves 0
+** and a warning.
 */
 void bl_coulomb_subtract (const bl_case *c, const bl_kin *kn, bl_result *out) {
   double v = kn->E / kn->E0;
-  double f = bl_coulomb_f(c->particle.charge * c->Z * BL_ALPHA);
+  double f = bl_coulomb_f(c->particle.charge * c->Z * BL_ALPHA)
+             * bl_coulomb_share(c);
   double shape = kn->spin > 0.25 ? 1.0 + v * v - 2.0 * v / 3.0
                                  : 4.0 * v / 3.0;
   out->val -= c->norm / (kn->k * c->particle.mass) * 4.0 * f * shape;
@@ -148,8 +191,7 @@ double bl_corrections_closed (const bl_case *c, const bl_kin *kn,
     fe = bl_elwert(c, kn);
     out->applied |= BL_APPLIED_ELWERT;
   }
-  *coul = bl_wanted(c->opts.coulomb, bl_coulomb_valid(c, kn), BL_WARN_COULOMB,
-                    &out->warn);
+  *coul = bl_coulomb_wanted(c, kn, &out->warn);
   if (*coul)
     out->applied |= BL_APPLIED_COULOMB;
   return fe;

@@ -27,6 +27,13 @@ int bl_coulomb_valid (const bl_case *c, const bl_kin *kn);
 ** photon energy (MeV) above which the final gamma is too low. */
 int bl_coulomb_case_valid (const bl_case *c);
 double bl_coulomb_kend (const bl_case *c);
+/* The nuclear-size share of the correction (1 for a point nucleus); where
+** "auto" subtracts it for the whole case; whether the case's option
+** subtracts it at kn (BL_WARN_COULOMB in *warn when forced on where it
+** does not hold). */
+double bl_coulomb_share (const bl_case *c);
+int bl_coulomb_case_auto (const bl_case *c);
+int bl_coulomb_wanted (const bl_case *c, const bl_kin *kn, unsigned *warn);
 void bl_coulomb_subtract (const bl_case *c, const bl_kin *kn, bl_result *out);
 
 /*

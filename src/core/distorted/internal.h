@@ -92,6 +92,10 @@ double bl_dw_sm_estimate (const bl_case *c, const bl_kin *kn);
 int bl_dw_full_e (const bl_case *c, double k, double theta_k, double theta_p,
                   double phi, bl_result *out);
 int bl_dw_dk_e (const bl_case *c, double k, bl_quad *q, bl_result *out);
+/* dsigma/dk without the soft-photon rule below BL_DW_SOFT_Y T (the
+** tests compare the rule with it where it still resolves). */
+int bl_dw_dk_direct_e (const bl_case *c, double k, bl_quad *q,
+                       bl_result *out);
 /* d2sigma/(dk dOmega_k), mb/(MeV sr), at photon angle theta_k. */
 int bl_dw_angular_e (const bl_case *c, double k, double theta_k, bl_quad *q,
                      bl_result *out);

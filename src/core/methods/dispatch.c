@@ -106,7 +106,7 @@ int bl_method_breaks (const bl_case *c, const bl_he *h, int method,
   /* the Coulomb correction (a few per cent near the tip, up to 10 % on
   ** the heaviest atoms) stops where the final gamma falls below
   ** BL_COULOMB_GAMMA_MIN */
-  if (c->opts.coulomb == BL_APPLY_AUTO && bl_coulomb_case_valid(c)
+  if (c->opts.coulomb == BL_APPLY_AUTO && bl_coulomb_case_auto(c)
       && n < nmax && method == BL_METHOD_BORN) {
     k[n] = bl_coulomb_kend(c);
     jump[n++] = 0.1;

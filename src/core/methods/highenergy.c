@@ -153,7 +153,8 @@ int bl_he_dk_e (const bl_case *c, const bl_he *h, double k, bl_result *out) {
     p2 += h->nucw[i] * N2;
   }
   if (coul)   /* subtracted after the Elwert factor, as in src/core/born/dcs.c */
-    f = 4.0 * bl_coulomb_f(c->particle.charge * c->Z * BL_ALPHA);
+    f = 4.0 * bl_coulomb_f(c->particle.charge * c->Z * BL_ALPHA)
+        * bl_coulomb_share(c);
   if (h->e != NULL) {
     phis(h->e, h->tail_e, Delta, m, &e1, &e2);
     e1 /= c->Z;

@@ -52,6 +52,7 @@ void bl_hetab_tails (const bl_hetab *t, double m, double out[4]);
 #define NUC_NX    85                   /* ... to ln 1.3e6 */
 #define NUC_A     100.0  /* mass number of the probe nucleus of the grid */
 #define NUC_TOP   1e-2   /* no node above this delta (small angles end) */
+#define NUC_DMIN  1e-4   /* the first node at or below this delta */
 
 struct bl_nuctab {
   int n;

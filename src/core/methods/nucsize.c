@@ -16,11 +16,13 @@
 ** are proportional: only N1 - N2/3 enters; N2 = 0).  scripts/fit-nucsize.c
 ** computes these once per grid node of x (step 0.25, from m R = 1e-3 to
 ** 1.3e6 hbar c, a probe particle of the node's m R on a nucleus of
-** A = 100) at delta = q_N 10^(-3 + j/8) up to q_N and NUC_TOP, and writes
+** A = 100) at delta = q_N 10^(-3 + j/8) (from NUC_DMIN = 1e-4 where that
+** is lower) up to q_N and NUC_TOP, and writes
 ** them into nuc_table.c (`make nuc-table`) with the interpolation error it
 ** measured at the midpoints; nothing is integrated at run time.  Between
 ** the nodes N is cubic in ln delta, outside them constant (below the first
-** node the change is O(delta/q_N) < 1e-3 of N; above the last one, delta >
+** node, delta <= 1e-3 q_N and <= 1e-4, the change is O(delta/q_N) and
+** O(delta) < 1e-3 of N; above the last one, delta >
 ** q_N, the high-energy form does not hold and says so: bl_he_valid).  A
 ** case takes four grid nodes around its x with cubic Lagrange weights.
 ** Below m R = 1e-3 hbar c (electrons on hydrogen are at 3e-3) the effect

@@ -95,7 +95,7 @@ static int coulomb_table (bl_sampler *s, smp_chan *ch) {
   int i, t, n = BL_SAMPLER_COULOMB_NODES, st = BL_SUCCESS;
   ch->ncf = 0;
   if (!(c->opts.coulomb == BL_APPLY_ON
-        || (c->opts.coulomb == BL_APPLY_AUTO && bl_coulomb_case_valid(c))))
+        || (c->opts.coulomb == BL_APPLY_AUTO && bl_coulomb_case_auto(c))))
     return BL_SUCCESS;
   kc = c->opts.coulomb == BL_APPLY_ON ? s->kmax : bl_coulomb_kend(c);
   if (kc > s->kmax)

@@ -216,6 +216,37 @@ int bl_target_dk_e (const bl_target *t, double k, bl_quad *q,
 }
 
 
+/*
+** A spectrum interrupted during element j (its stop flag set): a point is
+** finished when every element has been added, so only when j is the last
+** element and the point's own evaluation ran (status not BL_EINTR); those
+** get the element and the suppression, every other point status
+** BL_EINTR.  Returns BL_EINTR.
+*/
+static int interrupted (const bl_target *t, int j, size_t n, const double *k,
+                        bl_result *r, const int *st, bl_tresult *out,
+                        int *status) {
+  size_t i;
+  for (i = 0; i < n; i++) {
+    int s = st[i];
+    if (j == t->n - 1 && s != BL_EINTR) {
+      out[i].Z = t->c[j].Z;
+      s = checkelement(t, j, s, &r[i], k[i], &out[i]);
+      if (s == BL_SUCCESS) {
+        if (status != NULL && st[i] != BL_SUCCESS)
+          status[i] = st[i];    /* a soft failure: a best estimate */
+        addelement(t, j, &r[i], &out[i].r, &out[i]);
+        suppress(t, k[i], &out[i].r, &out[i]);
+        continue;
+      }
+    }
+    if (status != NULL)
+      status[i] = BL_EINTR;
+  }
+  return BL_EINTR;
+}
+
+
 int bl_target_spectrum_e (const bl_target *t, size_t n, const double *k,
                           int nthreads, bl_quad *q, bl_tresult *out,
                           int *status) {
@@ -244,6 +275,10 @@ int bl_target_spectrum_e (const bl_target *t, size_t n, const double *k,
   for (j = 0; j < t->n && ret == BL_SUCCESS; j++) {   /* element by element */
     bl_spectrum_method_e(&t->c[j], &t->he[j], t->method, n, k, nthreads, q,
                          r, st);
+    if (bl_quad_stopped(q)) {   /* interrupted: keep the finished points */
+      ret = interrupted(t, j, n, k, r, st, out, status);
+      break;
+    }
     for (i = 0; i < n; i++) {
       int s = st[i];
       out[i].Z = t->c[j].Z;

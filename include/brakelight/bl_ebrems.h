@@ -1,0 +1,101 @@
+/*
+** bl_ebrems.h -- bremsstrahlung of a projectile on a free electron at rest:
+** the exact tree-level (lowest-order QED) cross section with recoil, all
+** diagrams, exchange (e-) and annihilation (e+)
+** See Copyright Notice in LICENSE
+**
+** Process: a(p1) + e-(p2) -> a(p3) + e-(p4) + photon(k), the electron at
+** rest in the lab, the projectile along +z.  Radiation from both lines; for
+** an electron projectile the exchange diagrams (relative sign -1, identical
+** final particles: factor 1/2 on the full phase space); for a positron the
+** annihilation-channel diagrams (relative sign -1).  The squared matrix
+** element is summed numerically over every spin state and two photon
+** polarisations (DEVELOPERS.md, "Electron-target bremsstrahlung").
+**
+** Angles.  theta_k: photon against the beam (lab).  theta_s, phi_s: the
+** direction of the outgoing projectile in the rest frame of p3 + p4, polar
+** axis along the momentum of p3 + p4 (= p1 + p2 - k), azimuth measured from
+** the half-plane that holds the photon.  Units: MeV, mb, sr.
+*/
+#ifndef BL_EBREMS_H
+#define BL_EBREMS_H
+
+#include "brakelight/bl_particle.h"
+#include "brakelight/bl_quad.h"
+#include "brakelight/bl_result.h"
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/* Which diagrams: a projectile distinguishable from the electron, an
+** electron (exchange), a positron (annihilation). */
+enum {
+  BL_EBREMS_OTHER    = 0,
+  BL_EBREMS_ELECTRON = 1,
+  BL_EBREMS_POSITRON = 2
+};
+
+/* One projectile at one energy on a free electron at rest.  Filled by
+** bl_ebrems_init; read-only afterwards.  Inside: units of m_e (hbar = c =
+** m_e = 1). */
+typedef struct bl_ebrems {
+  int kind;         /* BL_EBREMS_* (electron / positron: the mass is BL_ME_MEV
+                    ** and |charge| = 1, spin 1/2) */
+  int spin2;        /* twice the spin: 0 or 1 */
+  double z;         /* projectile charge (units of e) */
+  double m;         /* projectile mass / m_e */
+  double t0, e0, p0;  /* kinetic energy, total energy, momentum / m_e */
+  double T;         /* kinetic energy, MeV */
+  double ymax;      /* k_max / T = 1 / (1 + E0 - p0) (E0, p0 in m_e) */
+} bl_ebrems;
+
+/* The largest kinetic energy accepted (MeV): a bound on the rounding of
+** the forward kinematics (relative ~1e-16 gamma^2 in the propagators).
+** The amplitudes are checked from 10 keV to 100 MeV; the integrals meet
+** rtol 1e-3 up to about 10 MeV (electrons; beyond, BL_WARN_TOLERANCE
+** says so): DEVELOPERS.md, "Electron-target bremsstrahlung". */
+#define BL_EBREMS_T_MAX 1e5
+
+/* Set up projectile p at kinetic energy T (MeV).  BL_EDOMAIN if p is not a
+** valid particle (bl_particle_check) or T is not in (0, BL_EBREMS_T_MAX]. */
+int bl_ebrems_init (bl_ebrems *c, const bl_particle *p, double T);
+
+/* The photon end point k_max (MeV): T m_e / (m_e + E0 - p0), with
+** E0 - p0 = m^2 / (E0 + p0); dsigma/dk is exactly 0 above it. */
+double bl_ebrems_kmax (const bl_ebrems *c);
+
+/* Sum over all spins and both photon polarisations of |M|^2 (including
+** e^6 = (4 pi alpha)^3; units m_e^-2) at the final momenta p3, p4, k
+** (four-vectors (E, px, py, pz) in units of m_e, lab frame; p1 and p2 are
+** those of c).  Momentum conservation is the caller's: not checked.
+** BL_EDOMAIN if a momentum is not finite; BL_ENONFINITE if the value is not
+** finite (a propagator at zero). */
+int bl_ebrems_msq (const bl_ebrems *c, const double p3[4], const double p4[4],
+                   const double k[4], double *msq);
+
+/* Fully differential cross section d5sigma/(dk dOmega_k dOmega_s)
+** (mb/(MeV sr^2)) at photon energy k (MeV) and the angles above (rad).
+** 0 at and beyond the end point of this photon direction.  BL_EDOMAIN
+** (with *val = 0) unless 0 < k, 0 <= theta_k, theta_s <= pi, phi_s finite. */
+int bl_ebrems_point (const bl_ebrems *c, double k, double theta_k,
+                     double theta_s, double phi_s, double *val);
+
+/* Photon angular distribution d2sigma/(dk dOmega_k) (mb/(MeV sr)) at k
+** (MeV) and theta_k (rad), integrated over Omega_s at the tolerance of q.
+** BL_EDOMAIN unless 0 < k and 0 <= theta_k <= pi; BL_ENOTCONV when the
+** tolerance is not met (out filled, BL_WARN_TOLERANCE); BL_EINTR if q's
+** stop flag is set. */
+int bl_ebrems_angular_e (const bl_ebrems *c, double k, double theta_k,
+                         bl_quad *q, bl_result *out);
+
+/* Photon spectrum dsigma/dk (mb/MeV) at k (MeV), integrated over the photon
+** direction and Omega_s at the tolerance of q; exactly 0 for k >= k_max.
+** Status as bl_ebrems_angular_e. */
+int bl_ebrems_dk_e (const bl_ebrems *c, double k, bl_quad *q, bl_result *out);
+
+#ifdef __cplusplus
+}
+#endif
+
+#endif
