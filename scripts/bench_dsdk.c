@@ -26,6 +26,8 @@
 
 #include "brakelight.h"
 
+#include "bench_util.h"
+
 #define TARGET_S   2e-3    /* goal per dsigma/dk point (issue 2, section 8) */
 #define BUDGET_S   0.5     /* wall time spent repeating one point, at most */
 #define MAXREPS    21
@@ -40,12 +42,6 @@ static const double grid_y[] = {0.1, 0.5, 0.9};
 /*
 ** Monotonic wall clock, seconds.
 */
-static double now (void) {
-  struct timespec ts;
-  clock_gettime(CLOCK_MONOTONIC, &ts);
-  return ts.tv_sec + 1e-9 * ts.tv_nsec;
-}
-
 
 static int cmpdouble (const void *a, const void *b) {
   double x = *(const double *)a, y = *(const double *)b;

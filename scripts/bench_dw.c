@@ -14,16 +14,7 @@
 
 #include "brakelight.h"
 
-static double now (void) {
-  struct timespec t;
-  clock_gettime(CLOCK_MONOTONIC, &t);
-  return (double)t.tv_sec + 1e-9 * (double)t.tv_nsec;
-}
-
-static int cmp (const void *a, const void *b) {
-  double x = *(const double *)a, y = *(const double *)b;
-  return (x > y) - (x < y);
-}
+#include "bench_util.h"
 
 int main (void) {
   static const char *const parts[] = {"electron", "positron"};

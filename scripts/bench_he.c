@@ -23,14 +23,10 @@
 
 #include "brakelight.h"
 
+#include "bench_util.h"
+
 #define TARGET 1e6   /* evaluations per second */
 
-
-static double now (void) {
-  struct timespec ts;
-  clock_gettime(CLOCK_MONOTONIC, &ts);
-  return ts.tv_sec + 1e-9 * ts.tv_nsec;
-}
 
 
 int main (int argc, char **argv) {

@@ -23,15 +23,11 @@
 
 #include "born/internal.h"
 
+#include "bench_util.h"
+
 #define NG 64
 #define SPAN_S 0.2
 
-
-static double now (void) {
-  struct timespec ts;
-  clock_gettime(CLOCK_MONOTONIC, &ts);
-  return ts.tv_sec + 1e-9 * ts.tv_nsec;
-}
 
 
 static bl_bracket br[NG * NG];

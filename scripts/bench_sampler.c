@@ -17,13 +17,9 @@
 
 #include "brakelight.h"
 
-#define N 500000
+#include "bench_util.h"
 
-static double now (void) {
-  struct timespec t;
-  clock_gettime(CLOCK_MONOTONIC, &t);
-  return t.tv_sec + 1e-9 * t.tv_nsec;
-}
+#define N 500000
 
 int main (void) {
   static const double Ts[] = {10.0, 1e4};

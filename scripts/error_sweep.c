@@ -43,6 +43,8 @@
 
 #include "brakelight.h"
 
+#include "bench_util.h"
+
 #define MAXRTOL 8
 /* True errors below this are not resolved by references at 1e-10 (whose
 ** own true errors are smaller still); estimate/true ratios use
@@ -223,12 +225,6 @@ static void runall (job *jb, int nthreads) {
   pthread_mutex_destroy(&jb->mu);
 }
 
-
-static double now (void) {
-  struct timespec ts;
-  clock_gettime(CLOCK_MONOTONIC, &ts);
-  return ts.tv_sec + 1e-9 * ts.tv_nsec;
-}
 
 
 static int cmpd (const void *a, const void *b) {
