@@ -194,7 +194,8 @@ static void elastic (const bl_ebrems *c, double ths, double phs, double thk,
 ** Omega_s carries) and Bhabha (e+ e-), Berestetskii, Lifshitz &
 ** Pitaevskii, QED, §81; a spin-1/2 heavy projectile, Peskin & Schroeder
 ** §5.4 (e- mu-) with both masses; a spin-0 projectile, scalar QED (Peskin
-** & Schroeder §9.1 vertex, the electron trace as §5.1); transcribed in
+** & Schroeder §9.1 vertex, the electron trace as §5.1; the section
+** numbers from memory, the formulas rederived); transcribed in
 ** tests/ref/ebref.c.  The remainder is O(k): measured up to 5.3e-4 of the
 ** ratio at k = 1e-4 k_max (the antimuon at 100 MeV), ten times less at
 ** 1e-5 k_max, as a first-order remainder must be.  Both
