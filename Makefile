@@ -80,7 +80,9 @@ $(B)/core/born/kin.o: CFLAGS += -O3 -fno-math-errno
 # the electron-target amplitudes: complex products without the C99 Annex G
 # inf/nan recovery (a library call per product, 5x the cost; no operand is
 # ever infinite there)
-$(B)/core/ebrems/amp.o: CFLAGS += -O3 -fcx-limited-range -fno-math-errno
+# (gcc only: Debian 12's clang, of make fuzz-build, does not know the flag)
+$(B)/core/ebrems/amp.o: CFLAGS += -O3 -fno-math-errno \
+  $(if $(findstring clang,$(CC)),,-fcx-limited-range)
 
 $(LIB): $(CORE_OBJ)
 	rm -f $@
