@@ -35,8 +35,11 @@
 #include "ebrems/internal.h"
 
 /* Work budget of one dsigma/dk in integrand calls: past it the outer
-** integral bisects no more and the result is flagged. */
+** integral bisects no more and the result is flagged.  (The fuzzing
+** build lowers it, Makefile "fuzz".) */
+#ifndef CALL_BUDGET
 #define CALL_BUDGET 4000000UL
+#endif
 
 /* The relative tolerance of an inner level as a share of the level above. */
 #ifndef EPS_SHARE
