@@ -63,6 +63,16 @@ build_base () {
   fi
   echo "$wt"
 }
+# bench_prog NAME: build scripts/NAME.c against this tree's library and run
+# it; a failed build or run is said, and the benchmark goes on.
+bench_prog () {
+  if ${CC:-cc} "${CFL[@]}" -o "$B/$1" "scripts/$1.c" \
+       "$B/libbrakelight.a" "${LDL[@]}"; then
+    "$B/$1" || echo "bench: $1 exited with status $?"
+  else
+    echo "bench: could not build $B/$1" >&2
+  fi
+}
 if [ "${1:-}" = "--base-only" ]; then
   build_base
   exit $?
@@ -85,30 +95,15 @@ fi
 
 echo
 echo "== distorted waves (scripts/bench_dw.c): rtol 1e-3, against Born in the same run"
-if ${CC:-cc} "${CFL[@]}" -o "$B/bench_dw" scripts/bench_dw.c \
-     "$B/libbrakelight.a" "${LDL[@]}"; then
-  "$B/bench_dw" | tail -n 1 || echo "bench: bench_dw exited with status $?"
-else
-  echo "bench: could not build $B/bench_dw" >&2
-fi
+bench_prog bench_dw | tail -n 1
 
 echo
 echo "== electron target (scripts/bench_ebrems.c): rtol 1e-3, against nuclear Born in the same run"
-if ${CC:-cc} "${CFL[@]}" -o "$B/bench_ebrems" scripts/bench_ebrems.c \
-     "$B/libbrakelight.a" "${LDL[@]}"; then
-  "$B/bench_ebrems" || echo "bench: bench_ebrems exited with status $?"
-else
-  echo "bench: could not build $B/bench_ebrems" >&2
-fi
+bench_prog bench_ebrems
 
 echo
 echo "== event sampler (scripts/bench_sampler.c): e- on W, 10 MeV and 10 GeV, born"
-if ${CC:-cc} "${CFL[@]}" -o "$B/bench_sampler" scripts/bench_sampler.c \
-     "$B/libbrakelight.a" "${LDL[@]}"; then
-  "$B/bench_sampler" || echo "bench: bench_sampler exited with status $?"
-else
-  echo "bench: could not build $B/bench_sampler" >&2
-fi
+bench_prog bench_sampler
 
 echo
 echo "== this tree against BASE $BASE (same sources of scripts/, both libraries)"

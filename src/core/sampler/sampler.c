@@ -497,15 +497,16 @@ static void run_block (const bl_sampler *s, int mode, uint64_t b,
     double x[4], w, weight;
     smp_point pt;
     int j, e, c, bad = 0;
+    j = pick(mode == BL_SAMPLE_UNWEIGHTED ? s->cumenv : s->cumprob, nall,
+             bl_rng_uniform(&rng));
+    e = j / s->ncell;
+    c = j % s->ncell;
+    cell_point(s, c, &rng, x);
+    w = trial(s, e, x, &pt, &bad);
+    st->trials++;
+    st->nonfinite += (uint64_t)bad;
     if (mode == BL_SAMPLE_UNWEIGHTED) {
       double r;
-      j = pick(s->cumenv, nall, bl_rng_uniform(&rng));
-      e = j / s->ncell;
-      c = j % s->ncell;
-      cell_point(s, c, &rng, x);
-      w = trial(s, e, x, &pt, &bad);
-      st->trials++;
-      st->nonfinite += (uint64_t)bad;
       if (!(bl_rng_uniform(&rng) * s->env[j] < w))
         continue;
       r = w / s->env[j];
@@ -520,13 +521,6 @@ static void run_block (const bl_sampler *s, int mode, uint64_t b,
       weight = r * s->sigma / (double)total;
     }
     else {
-      j = pick(s->cumprob, nall, bl_rng_uniform(&rng));
-      e = j / s->ncell;
-      c = j % s->ncell;
-      cell_point(s, c, &rng, x);
-      w = trial(s, e, x, &pt, &bad);
-      st->trials++;
-      st->nonfinite += (uint64_t)bad;
       weight = w * V / s->prob[j] / (double)total;
       st->sum_w += weight;
       st->sum_w2 += weight * weight;
