@@ -101,8 +101,10 @@ static void keep_spectrum (const Opts *o, lua_Integer n, const double *k,
   fd = open(part, O_WRONLY | O_CREAT | O_EXCL | O_CLOEXEC, 0644);
   if (fd < 0 || (f = fdopen(fd, "w")) == NULL) {
     snprintf(name, size, "cannot create '%s': %s", part, strerror(errno));
-    if (fd >= 0)
+    if (fd >= 0) {
       close(fd);
+      unlink(part);   /* ours: created above */
+    }
     return;
   }
   fprintf(f, "# brakelight %s: spectrum interrupted by signal %d, %lld of "
