@@ -80,6 +80,13 @@ void lbl_helpers_open (lua_State *L);
 void lbl_sys_open (lua_State *L);
 const volatile sig_atomic_t *lbl_stopflag (void);
 
+/*
+** A C closure whose upvalue 1 is a computing library function: it calls
+** that function with SIGINT and SIGTERM guarded, so that a long call stops
+** at its next point in any host (src/binding/lsys.c).
+*/
+int lbl_guarded (lua_State *L);
+
 /* Shared by the binding files (macros, the call's options and warnings). */
 #define QUADMETA  "brakelight.Quad"       /* integration workspace */
 #define PARTMETA  "brakelight.Particle"   /* particle object */

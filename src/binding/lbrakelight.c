@@ -105,6 +105,25 @@ static const luaL_Reg brakelight_funcs[] = {
 
 
 /*
+** The functions that compute (a call may be long) run guarded, so that
+** SIGINT and SIGTERM stop them at their next point in any host
+** (lbl_guarded); the module table is on top.
+*/
+static void guard (lua_State *L) {
+  static const char *const computing[] = {
+    "angular", "cross_section", "differential", "dsdk", "energy_loss",
+    "photon_yield", "sampler", "spectrum", NULL
+  };
+  const char *const *name;
+  for (name = computing; *name != NULL; name++) {
+    lua_getfield(L, -1, *name);
+    lua_pushcclosure(L, lbl_guarded, 1);
+    lua_setfield(L, -2, *name);
+  }
+}
+
+
+/*
 ** Open the module: the GSL error handler is switched off (process-wide:
 ** GSL's default handler aborts), and the library functions share one
 ** integration workspace as upvalue 1; the pure-Lua helpers are fields
@@ -118,6 +137,7 @@ LUAMOD_API int luaopen_brakelight (lua_State *L) {
   luaL_newlibtable(L, brakelight_funcs);  /* module table */
   newquad(L);                             /* shared workspace */
   luaL_setfuncs(L, brakelight_funcs, 1);  /* functions with upvalue */
+  guard(L);
   lua_pushliteral(L, BL_VERSION);
   lua_setfield(L, -2, "_VERSION");
   lbl_material_open(L);                   /* material functions */

@@ -45,12 +45,129 @@
 #define LOCKTEXT_MAX 4096    /* longest holder text read back */
 
 
-/* Set by lbl_interrupt (a signal handler): every workspace of the module
-** has it as stop flag.  Process-wide, as signals are. */
+/* Set by lbl_interrupt (a signal handler) or by onsignal: every workspace
+** of the module has it as stop flag.  Process-wide, as signals are. */
 static volatile sig_atomic_t stopflag = 0;
+static volatile sig_atomic_t sticky = 0;   /* lbl_interrupt was called */
 
 void lbl_interrupt (int sig) {
+  sticky = 1;
   stopflag = sig != 0 ? sig : 1;
+}
+
+
+/*
+** The guard of a computing call (lbl_guarded).  The stock interpreters
+** (lua.c, luajit.c) catch SIGINT with a handler that only sets a hook,
+** which runs when the next Lua instruction does: a long call of the
+** module would not see it.  For the length of a call the guard puts its
+** own handler before the one there: it sets the stop flag, so the call
+** stops at its next point, and passes the signal on to the handler it
+** found (lua.c's then raises "interrupted!" in Lua as before; the
+** runner's calls lbl_interrupt).  Where there was none (the default
+** action), it puts the default back, so a second signal acts at once, and
+** lbl_guarded raises the signal again when the call has kept what it
+** finished.  An ignored signal stays ignored.
+*/
+static const int guardsig[2] = {SIGINT, SIGTERM};
+static struct sigaction before[2];   /* the dispositions the guard found */
+static int installed[2];             /* the guard's handler was put there */
+static int depth = 0;                /* guarded calls running (a finalizer
+                                     ** may run one inside another) */
+
+static void onsignal (int sig, siginfo_t *info, void *ctx) {
+  const struct sigaction *b = &before[sig == SIGTERM];
+  if (!stopflag)
+    stopflag = sig;
+  if (b->sa_flags & SA_SIGINFO)
+    b->sa_sigaction(sig, info, ctx);
+  else if (b->sa_handler == SIG_DFL)
+    sigaction(sig, b, NULL);   /* async-signal-safe */
+  else if (b->sa_handler != SIG_IGN)
+    b->sa_handler(sig);
+}
+
+
+static int isours (const struct sigaction *a) {
+  return (a->sa_flags & SA_SIGINFO) && a->sa_sigaction == onsignal;
+}
+
+
+static void guard_on (void) {
+  struct sigaction sa, cur;
+  int i;
+  if (depth++ > 0)
+    return;
+  if (!sticky)
+    stopflag = 0;   /* a signal of an earlier call was handled there */
+  memset(&sa, 0, sizeof sa);
+  sa.sa_sigaction = onsignal;
+  sa.sa_flags = SA_SIGINFO | SA_RESTART;
+  sigemptyset(&sa.sa_mask);
+  for (i = 0; i < 2; i++) {
+    installed[i] = 0;
+    if (sigaction(guardsig[i], NULL, &cur) != 0 || cur.sa_handler == SIG_IGN
+        || isours(&cur))
+      continue;
+    if (sigaction(guardsig[i], &sa, &before[i]) == 0)
+      installed[i] = 1;
+  }
+}
+
+
+/* Put back what guard_on found; -> the signal whose default action is
+** still to be taken (0: none); *passed is 1 if the guard passed a signal
+** on to the host's handler. */
+static int guard_off (int *passed) {
+  struct sigaction cur;
+  int i, sig = 0;
+  *passed = 0;
+  if (--depth > 0)
+    return 0;
+  for (i = 0; i < 2; i++) {
+    if (!installed[i])
+      continue;
+    if (sigaction(guardsig[i], NULL, &cur) == 0 && isours(&cur))
+      sigaction(guardsig[i], &before[i], NULL);
+    if (!sticky && stopflag == guardsig[i]) {
+      if (!(before[i].sa_flags & SA_SIGINFO)
+          && before[i].sa_handler == SIG_DFL)
+        sig = guardsig[i];
+      else
+        *passed = 1;
+    }
+    installed[i] = 0;
+  }
+  return sig;
+}
+
+
+/*
+** A computing library function, upvalue 1, called with the guard on
+** (the arguments and results pass through; an error is raised again as it
+** came).  A signal whose action was the default is raised again once the
+** call is over: the process ends as it would have, after a spectrum kept
+** its finished points.  A call that stopped on a signal passed on to the
+** host's handler raises its own error, which says what was kept: the
+** hook that lua.c's handler set, which would replace that error by its
+** "interrupted!" (or, in LuaJIT, by "error in error handling"), is
+** cleared, as its own first run would have cleared it.
+*/
+int lbl_guarded (lua_State *L) {
+  int n = lua_gettop(L), st, sig, passed;
+  lua_pushvalue(L, lua_upvalueindex(1));
+  lua_insert(L, 1);
+  guard_on();
+  st = lua_pcall(L, n, LUA_MULTRET, 0);
+  sig = guard_off(&passed);
+  if (sig != 0)
+    raise(sig);
+  if (st != 0) {
+    if (passed)
+      lua_sethook(L, NULL, 0, 0);
+    return lua_error(L);
+  }
+  return lua_gettop(L);
 }
 
 const volatile sig_atomic_t *lbl_stopflag (void) {

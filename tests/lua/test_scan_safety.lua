@@ -334,6 +334,48 @@ print("spectrum ended")]])
     U.check(U.read(dir .. "/" .. kept .. ".part") == nil, "a .part file was left")
   end
 
+  -- 9b. the same in the stock interpreter: the module's guard stops the
+  -- call on SIGINT (passed on to lua.c's handler) and on SIGTERM (whose
+  -- default action then ends the process), and the message names the file
+  local build = os.getenv("BL_BUILD_DIR") or "build"
+  build = build:sub(1, 1) == "/" and build or root .. build
+  U.write(dir .. "/stock.lua", [[
+package.cpath = arg[1] .. "/?.so;" .. package.cpath
+local bl = require "brakelight"
+local k = {}
+for i = 1, 4000 do k[i] = 0.5 + i * 0.02 end
+bl.spectrum{ particle = "electron", target = "Pb", T = 100, k = k, rtol = 1e-8,
+             method = "born", threads = 2 }
+print("spectrum ended")]])
+  local sys = require "brakelight.sys"
+  for _, sig in ipairs{ "INT", "TERM" } do
+    local old = {}
+    for _, name in ipairs(sys.dir(dir)) do old[name] = true end
+    t0 = os.time()
+    code, so, se = U.sh(string.format("(b=$(realpath %s); cd %s && lua5.4 stock.lua \"$b\" & p=$!; sleep 1; kill -%s $p; wait $p; echo \"status $?\")",
+                                      U.q(build), U.q(dir), sig))
+    U.check(not so:find("spectrum ended", 1, true), "stock lua5.4: spectrum not stopped by SIG%s", sig)
+    U.check(os.time() - t0 < 10, "stock lua5.4: spectrum went on after SIG%s (%d s)", sig, os.time() - t0)
+    local kept
+    if sig == "INT" then
+      U.has(so, "status 1", "stock lua5.4 exit status after SIGINT")
+      U.has(se, "spectrum: interrupted by signal 2", "stock lua5.4 spectrum interrupt")
+      kept = se:match("points finished, kept in '([^']+)'")
+      U.check(kept ~= nil, "stock lua5.4: finished points not named: %s", se)
+    else   -- the default action, after the points are kept: no message
+      U.has(so, "status 143", "stock lua5.4 exit status after SIGTERM")
+      for _, name in ipairs(sys.dir(dir)) do
+        if name:find("^spectrum%-interrupted%-.*%.csv$") and not old[name] then kept = name end
+      end
+      U.check(kept ~= nil, "stock lua5.4: no file kept after SIGTERM")
+    end
+    if kept then
+      local body = U.read(dir .. "/" .. kept) or ""
+      U.has(body, "spectrum interrupted by signal " .. (sig == "INT" and 2 or 15), "kept file header")
+      U.check(select(2, body:gsub("\n[%d.]", "")) > 0, "stock lua5.4: kept file has no rows")
+    end
+  end
+
   -- 10. failed checkpoints (in this process): reported, retried, not
   -- fatal; a last save that keeps failing is an error saying so
   local scan = require "brakelight.scan"
