@@ -242,10 +242,29 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                "for electrons); here gamma0 = %.4g (%s, T = %g MeV)", text,
                BL_ELWERT_GAMMA0_MAX, BL_ELWERT_T_ELECTRON, g0, p->name, o->T);
       break;
-    case BL_WARN_STATIC_E:
-      snprintf(msg, sizeof msg, "%s (%s, mass %g MeV; electrons = false "
-               "leaves the nucleus only)", text, p->name, p->mass);
+    case BL_WARN_STATIC_E: {
+      /* the size: Tsai's complete-screening share of the electron term
+      ** (Tsai 1974, Rev. Mod. Phys. 46, 815, Eq. 3.83: Z L'_rad against
+      ** Z^2 L_rad) on the lightest element; the end point of a photon
+      ** from a collision with a free electron at rest, from
+      ** s = M^2 + m^2 + 2 m E0 and W >= M + m at theta_k = 0:
+      ** k_max = m T / (E0 + m - p0) */
+      int ze = o->target.n > 0 ? o->target.comp[0].Z : o->Z;
+      double zz = (double)ze, lp = bl_lrad_prime(ze);
+      double share = lp / (zz * bl_lrad(ze) + lp);
+      double e0 = o->T + p->mass, p0 = sqrt(o->T * (o->T + 2.0 * p->mass));
+      double ymax = BL_ME_MEV / (e0 - p0 + BL_ME_MEV);
+      snprintf(msg, sizeof msg, "%s: the electron term, about %.3g %% of "
+               "the value on Z = %d (Tsai's complete-screening share), is "
+               "counted up to the tip, while a free electron at rest takes "
+               "the recoil only up to y = k/T = %.4g (%s, mass %g MeV, "
+               "T = %g MeV): above that y the value is too high by that "
+               "share, below it the recoil is neglected; electrons = false "
+               "leaves the nucleus only "
+               "(README, What is computed)", text,
+               100.0 * share, ze, ymax, p->name, p->mass, o->T);
       break;
+    }
     case BL_WARN_METHOD:
       snprintf(msg, sizeof msg, "%s: method '%s' holds for a final gamma = "
                "E/m >= %g and, with a uniform nucleus of radius R, >= %g m R "

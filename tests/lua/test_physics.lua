@@ -230,4 +230,39 @@ do
   end
 end
 
+-- 9. the static-electron warning gives its size and the end point:
+-- Tsai's complete-screening share L'/(Z L + L') (Tsai 1974, Rev. Mod.
+-- Phys. 46, 815, Eqs. 3.66-3.67 and 3.83; Z >= 5) on the lightest element,
+-- and the end point of a photon from a free electron at rest, which at
+-- high energy is v = 1/(1 + M^2/(2 m E)) (the muon-electron limit of
+-- Kelner, Kokoulin & Petrukhin 1995, as the issue quotes it)
+do
+  local function tsai_share(Z)
+    local l, lp = math.log(184.15 / Z^(1/3)), math.log(1194 / Z^(2/3))
+    return lp / (Z * l + lp)
+  end
+  local M = bl.particle("muon").mass
+  for _, c in ipairs{ { "Fe", 26, 1e7 }, { "CaCO3", 6, 1e4 } } do
+    local _, _, w = bl.dsdk{ particle = "muon", target = c[1], T = c[3],
+                             k = c[3] / 2, rtol = 1e-3 }
+    local text
+    for _, x in ipairs(w) do
+      if x:find("static charges", 1, true) then text = x end
+    end
+    check(text ~= nil, "muon on %s: no static-electron warning", c[1])
+    local pct, z, y = text:match("about ([%d.]+) %% of the value on Z = (%d+)"
+                                 .. ".-up to y = k/T = ([%d.]+)")
+    check(tonumber(z) == c[2], "muon on %s: share on Z = %s", c[1], tostring(z))
+    check(math.abs(tonumber(pct) / (100 * tsai_share(c[2])) - 1) < 0.02,
+          "muon on %s: share %s %% against Tsai's %.3g %%", c[1], tostring(pct),
+          100 * tsai_share(c[2]))
+    if c[3] >= 1e6 then
+      local E = c[3] + M
+      local v = 1 / (1 + M * M / (2 * ME * E))
+      check(math.abs(tonumber(y) / v - 1) < 1e-3,
+            "muon at %g MeV: end point y = %s against %.4g", c[3], tostring(y), v)
+    end
+  end
+end
+
 print("test_physics: ok")
