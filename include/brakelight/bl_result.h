@@ -14,7 +14,10 @@ enum {
   BL_WARN_TOLERANCE = 1u << 0,  /* requested tolerance not reached: err says how far */
   BL_WARN_POINTLIKE = 1u << 1,  /* composite projectile treated as a point charge */
   BL_WARN_BORN      = 1u << 2,  /* z Z alpha / beta not small: first Born approximation poor */
-  BL_WARN_VALIDITY  = 1u << 3,  /* a model or correction used outside its validity */
+  BL_WARN_VALIDITY  = 1u << 3,  /* reserved: no computation sets it (the
+                                 ** specific bits below say what is outside
+                                 ** its validity); kept so the bits keep
+                                 ** their values */
   BL_WARN_COULOMB   = 1u << 4,  /* Coulomb correction requested outside its validity */
   BL_WARN_ELWERT    = 1u << 5,  /* Elwert factor requested outside its validity */
   BL_WARN_STATIC_E  = 1u << 6,  /* atomic electrons as static charges: no recoil */

@@ -224,11 +224,6 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                  bl_born_xi(p->charge, zb, o->T - k, p->mass), corr);
       break;
     }
-    case BL_WARN_VALIDITY:
-      snprintf(msg, sizeof msg, "%s (screening '%s', %s, target %s, "
-               "T = %g MeV)", text, o->screening->name, p->name,
-               o->target.name, o->T);
-      break;
     case BL_WARN_COULOMB:
       snprintf(msg, sizeof msg, "%s: it holds for gamma >= %g before and "
                ">= %g after emission and hbar/(m c) >= %g nuclear radii; here "

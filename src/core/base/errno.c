@@ -33,8 +33,6 @@ const char *bl_warn_text (unsigned bit) {
       return "composite projectile treated as a point charge (no form factor)";
     case BL_WARN_BORN:
       return "first Born approximation: it leaves out Coulomb effects above 1 % of the value";
-    case BL_WARN_VALIDITY:
-      return "a model or correction is used outside its validity";
     case BL_WARN_COULOMB:
       return "Coulomb correction applied outside its validity (high energy, "
              "light projectile)";
