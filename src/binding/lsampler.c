@@ -431,7 +431,7 @@ static void pushevent (lua_State *L, const bl_event *e) {
 /* Make up to n events from ls->next into a new table on the stack. */
 static lua_Integer makeevents (lua_State *L, LSampler *ls, lua_Integer n) {
   bl_event *ev;
-  bl_sample_stats st;
+  bl_sample_stats st, st0 = ls->st;
   lua_Integer i, done = 0;
   int status;
   if ((uint64_t)n > ls->hi - ls->next)
@@ -442,6 +442,16 @@ static lua_Integer makeevents (lua_State *L, LSampler *ls, lua_Integer n) {
   ev = (bl_event *)lua_newuserdatauv(L, sizeof *ev * CHUNK, 0);  /* scratch */
   while (done < n) {
     lua_Integer m = n - done < CHUNK ? n - done : CHUNK;
+    if (*lbl_stopflag()) {
+      /* events are numbered: rewind, so that a retry gets these again */
+      ls->next -= (uint64_t)done;
+      ls->st = st0;
+      lbl_fail(L, "sampler: interrupted by signal %d after %lld of %lld "
+               "events (not returned; the sampler stands at event %llu "
+               "again, and s:iter(n) makes them %d at a time)",
+               (int)*lbl_stopflag(), (long long)done, (long long)n,
+               (unsigned long long)ls->next, CHUNK);
+    }
     status = bl_sampler_events(ls->s, ls->mode, ls->next, (size_t)m,
                                ls->total, ls->nthreads, ev, &st);
     if (status != BL_SUCCESS)
@@ -584,6 +594,9 @@ void lbl_sampler_open (lua_State *L) {
   luaL_setfuncs(L, sampler_meta, 0);
   luaL_newlibtable(L, sampler_meth);
   luaL_setfuncs(L, sampler_meth, 0);
+  lua_getfield(L, -1, "events");          /* long: SIGINT stops it */
+  lua_pushcclosure(L, lbl_guarded, 1);
+  lua_setfield(L, -2, "events");
   lua_setfield(L, -2, "__index");
   lua_pop(L, 1);
 }

@@ -376,6 +376,27 @@ print("spectrum ended")]])
     end
   end
 
+  -- 9c. sampler:events(n) in the stock interpreter: SIGINT stops it between
+  -- chunks, the sampler is rewound (a retry gives the same events as an
+  -- uninterrupted sampler) and the script may go on
+  U.write(dir .. "/events.lua", [[
+package.cpath = arg[1] .. "/?.so;" .. package.cpath
+local bl = require "brakelight"
+local o = { particle = "electron", target = "W", T = 10, kmin = 0.1, seed = 7,
+            events = 1e8 }
+local s = bl.sampler(o)
+local ok, err = pcall(s.events, s, 1e8)
+print(ok, err)
+local a, b = s:events(2), bl.sampler(o):events(2)
+local same = a[2].id == b[2].id
+for i = 1, 4 do same = same and a[2].k[i] == b[2].k[i] end
+print(same and "same events" or "other events")]])
+  code, so, se = U.sh(string.format("(b=$(realpath %s); cd %s && lua5.4 events.lua \"$b\" & p=$!; sleep 1; kill -INT $p; wait $p)",
+                                    U.q(build), U.q(dir)))
+  U.check(code == 0, "stock lua5.4 sampler script failed after SIGINT: %s", se)
+  U.has(so, "sampler: interrupted by signal 2 after", "sampler interrupt")
+  U.has(so, "same events", "sampler rewound after the interrupt")
+
   -- 10. failed checkpoints (in this process): reported, retried, not
   -- fatal; a last save that keeps failing is an error saying so
   local scan = require "brakelight.scan"
