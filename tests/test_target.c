@@ -455,3 +455,66 @@ Test(target, spectrum_interrupted) {
   bl_target_release(&t);
   bl_quad_free(q);
 }
+
+
+/*
+** The radiative energy loss of electrons and positrons in Pb by the default
+** method rises with T (issue 12: no switch may make it fall, as the old
+** Coulomb-correction switch did, 7.65 to 7.03 MeV cm^2/g between 50.5 and
+** 51 MeV).  Internal consistency, no outside source: one T per decade from
+** 1 keV to 1 PeV and three points around each old switch (2 MeV, 50.6
+** MeV), rtol 1e-3.  The finer scan is make continuity (4 per decade to
+** 1 PeV, -e).
+*/
+static double eloss_pb (const char *particle, double T, bl_quad *q) {
+  bl_target t;
+  bl_material m;
+  bl_tresult r;
+  int failZ, st;
+  memset(&t, 0, sizeof t);
+  cr_assert_eq(bl_material_lookup(&m, "Pb", NULL), BL_SUCCESS);
+  cr_assert_eq(bl_target_setup(&t, bl_particle_find(particle), &m,
+                               bl_model_find("hartree-fock"), NULL, T,
+                               &bl_opts_default, BL_METHOD_AUTO, NULL,
+                               &failZ), BL_SUCCESS);
+  cr_assert_eq(bl_target_prepare(&t, q, &failZ), BL_SUCCESS);
+  st = bl_target_energy_loss_e(&t, q, &r);
+  bl_target_release(&t);
+  cr_assert(st == BL_SUCCESS || bl_status_soft(st), "%s T = %g: status %d",
+            particle, T, st);
+  cr_assert(isfinite(r.r.val) && r.r.val > 0, "%s T = %g: %g", particle, T,
+            r.r.val);
+  return r.r.val;
+}
+
+Test(target, energy_loss_rises, .timeout = 600) {
+  static const char *const ps[] = {"electron", "positron"};
+  static const double near[] = {1.96, 2.0, 2.04, 49.6, 50.6, 51.6};
+  double T[32], prev;
+  bl_quad *q = bl_quad_alloc(200);
+  int n = 0, i, j, ip;
+  cr_assert_eq(bl_quad_set_rtol(q, 1e-3), BL_SUCCESS);
+#ifdef __SANITIZE_ADDRESS__
+  for (i = 3; i <= 6; i++) {           /* AddressSanitizer: 1 .. 1e3 MeV */
+#else
+  for (i = 0; i <= 12; i++) {          /* 1e-3 .. 1e9 MeV */
+#endif
+    double t = 1e-3 * pow(10.0, i);
+    for (j = 0; j < 6; j++)            /* the old switches, in order */
+      if (near[j] < t && (n == 0 || near[j] > T[n - 1]))
+        T[n++] = near[j];
+    T[n++] = t;
+  }
+  for (ip = 0; ip < 2; ip++) {
+    prev = 0.0;
+    for (i = 0; i < n; i++) {
+      double v = eloss_pb(ps[ip], T[i], q);
+      cr_expect(v > prev, "%s in Pb: energy loss %.6g at T = %g MeV, not "
+                "above %.6g at %g MeV", ps[ip], v, T[i], prev,
+                i > 0 ? T[i - 1] : 0.0);
+      prev = v;
+    }
+  }
+  bl_quad_free(q);
+}
+
