@@ -28,6 +28,7 @@
 #include <dirent.h>
 #include <errno.h>
 #include <fcntl.h>
+#include <pthread.h>
 #include <signal.h>
 #include <stdlib.h>
 #include <string.h>
@@ -73,7 +74,9 @@ static const int guardsig[2] = {SIGINT, SIGTERM};
 static struct sigaction before[2];   /* the dispositions the guard found */
 static int installed[2];             /* the guard's handler was put there */
 static int depth = 0;                /* guarded calls running (a finalizer
-                                     ** may run one inside another) */
+                                     ** may run one inside another, and
+                                     ** states of other threads theirs) */
+static pthread_mutex_t guardlock = PTHREAD_MUTEX_INITIALIZER;
 
 static void onsignal (int sig, siginfo_t *info, void *ctx) {
   const struct sigaction *b = &before[sig == SIGTERM];
@@ -96,8 +99,11 @@ static int isours (const struct sigaction *a) {
 static void guard_on (void) {
   struct sigaction sa, cur;
   int i;
-  if (depth++ > 0)
+  pthread_mutex_lock(&guardlock);
+  if (depth++ > 0) {
+    pthread_mutex_unlock(&guardlock);
     return;
+  }
   if (!sticky)
     stopflag = 0;   /* a signal of an earlier call was handled there */
   memset(&sa, 0, sizeof sa);
@@ -105,13 +111,16 @@ static void guard_on (void) {
   sa.sa_flags = SA_SIGINFO | SA_RESTART;
   sigemptyset(&sa.sa_mask);
   for (i = 0; i < 2; i++) {
+    /* before[] is complete before the handler that reads it is in */
     installed[i] = 0;
-    if (sigaction(guardsig[i], NULL, &cur) != 0 || cur.sa_handler == SIG_IGN
-        || isours(&cur))
+    if (sigaction(guardsig[i], NULL, &cur) != 0 || isours(&cur)
+        || (!(cur.sa_flags & SA_SIGINFO) && cur.sa_handler == SIG_IGN))
       continue;
-    if (sigaction(guardsig[i], &sa, &before[i]) == 0)
+    before[i] = cur;
+    if (sigaction(guardsig[i], &sa, NULL) == 0)
       installed[i] = 1;
   }
+  pthread_mutex_unlock(&guardlock);
 }
 
 
@@ -122,8 +131,11 @@ static int guard_off (int *passed) {
   struct sigaction cur;
   int i, sig = 0;
   *passed = 0;
-  if (--depth > 0)
+  pthread_mutex_lock(&guardlock);
+  if (--depth > 0) {
+    pthread_mutex_unlock(&guardlock);
     return 0;
+  }
   for (i = 0; i < 2; i++) {
     if (!installed[i])
       continue;
@@ -138,6 +150,7 @@ static int guard_off (int *passed) {
     }
     installed[i] = 0;
   }
+  pthread_mutex_unlock(&guardlock);
   return sig;
 }
 
