@@ -370,7 +370,8 @@ asan-c-build:
 	@$(MAKE) --no-print-directory B=$(ASAN_DIR) SAN_FLAGS="$(ASAN_FLAGS)" \
 	  $(TEST_SRC:tests/%.c=$(ASAN_DIR)/%)
 test-asan: asan-c-build
-	@$(MAKE) --no-print-directory B=$(ASAN_DIR) SAN_FLAGS="$(ASAN_FLAGS)" test-c
+	@LSAN_OPTIONS="$(if $(wildcard scripts/lsan.supp),suppressions=$(CURDIR)/scripts/lsan.supp:print_suppressions=0) $(LSAN_OPTIONS)" \
+	  $(MAKE) --no-print-directory B=$(ASAN_DIR) SAN_FLAGS="$(ASAN_FLAGS)" test-c
 
 # The Lua tests under AddressSanitizer and UBSan (gcc): the core, the
 # module, the runner and target_values built in build/asan (the same
