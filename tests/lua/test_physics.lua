@@ -232,7 +232,8 @@ end
 
 -- 9. the static-electron warning gives its size and the end point:
 -- Tsai's complete-screening share L'/(Z L + L') (Tsai 1974, Rev. Mod.
--- Phys. 46, 815, Eqs. 3.66-3.67 and 3.83; Z >= 5) on the lightest element,
+-- Phys. 46, 815: L_rad = ln(184.15 Z^-1/3), L'_rad = ln(1194 Z^-2/3) for
+-- Z >= 5, the electron term Z L'_rad beside Z^2 L_rad) on the lightest element,
 -- and the end point of a photon from a free electron at rest, which at
 -- high energy is v = 1/(1 + M^2/(2 m E)) (the muon-electron limit of
 -- Kelner, Kokoulin & Petrukhin 1995, as the issue quotes it)
