@@ -296,8 +296,9 @@ $(B)/test_%: tests/test_%.c $(REF_OBJ) $(LIB)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -Itests/ref -o $@ $< $(REF_OBJ) $(LIB) \
 	  -lcriterion $(LIBS)
 
+TEST_JOBS ?= 2
 test-c: $(TEST_BIN)
-	@set -e; for t in $(TEST_BIN); do echo "== $$t"; ./$$t --jobs 2; done
+	@set -e; for t in $(TEST_BIN); do echo "== $$t"; ./$$t --jobs $(TEST_JOBS); done
 
 # a program of the C API alone (tests/capi/), compared with the module by
 # tests/lua/test_c_api.lua
@@ -369,9 +370,13 @@ FUZZ_SMOKE_SECS  ?= 30
 asan-c-build:
 	@$(MAKE) --no-print-directory B=$(ASAN_DIR) SAN_FLAGS="$(ASAN_FLAGS)" \
 	  $(TEST_SRC:tests/%.c=$(ASAN_DIR)/%)
+# One test at a time: Criterion 2.4's own runner leaks 48 bytes (a calloc
+# inside libcriterion.so.3, no frame of ours) under --jobs 2, which
+# LeakSanitizer reports; a suppression by library would hide every leak of
+# ours too, as each test runs below Criterion's frames.
 test-asan: asan-c-build
-	@LSAN_OPTIONS="$(if $(wildcard scripts/lsan.supp),suppressions=$(CURDIR)/scripts/lsan.supp:print_suppressions=0) $(LSAN_OPTIONS)" \
-	  $(MAKE) --no-print-directory B=$(ASAN_DIR) SAN_FLAGS="$(ASAN_FLAGS)" test-c
+	@$(MAKE) --no-print-directory B=$(ASAN_DIR) SAN_FLAGS="$(ASAN_FLAGS)" \
+	  TEST_JOBS=1 test-c
 
 # The Lua tests under AddressSanitizer and UBSan (gcc): the core, the
 # module, the runner and target_values built in build/asan (the same
