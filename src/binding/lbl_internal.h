@@ -81,11 +81,11 @@ void lbl_sys_open (lua_State *L);
 const volatile sig_atomic_t *lbl_stopflag (void);
 
 /*
-** A C closure whose upvalue 1 is a computing library function: it calls
-** that function with SIGINT and SIGTERM guarded, so that a long call stops
-** at its next point in any host (src/binding/lsys.c).
+** Replace field `name` of the table on top, a computing library function,
+** by a closure that calls it with SIGINT and SIGTERM guarded, so that a
+** long call stops at its next point in any host (src/binding/lsys.c).
 */
-int lbl_guarded (lua_State *L);
+void lbl_guardfield (lua_State *L, const char *name);
 
 /* Shared by the binding files (macros, the call's options and warnings). */
 #define QUADMETA  "brakelight.Quad"       /* integration workspace */

@@ -107,7 +107,7 @@ static const luaL_Reg brakelight_funcs[] = {
 /*
 ** The functions that compute (a call may be long) run guarded, so that
 ** SIGINT and SIGTERM stop them at their next point in any host
-** (lbl_guarded); the module table is on top.
+** (lbl_guardfield); the module table is on top.
 */
 static void guard (lua_State *L) {
   static const char *const computing[] = {
@@ -115,11 +115,8 @@ static void guard (lua_State *L) {
     "photon_yield", "sampler", "spectrum", NULL
   };
   const char *const *name;
-  for (name = computing; *name != NULL; name++) {
-    lua_getfield(L, -1, *name);
-    lua_pushcclosure(L, lbl_guarded, 1);
-    lua_setfield(L, -2, *name);
-  }
+  for (name = computing; *name != NULL; name++)
+    lbl_guardfield(L, *name);
 }
 
 

@@ -240,8 +240,9 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
     case BL_WARN_STATIC_E: {
       /* the size: Tsai's complete-screening share of the electron term
       ** (Tsai 1974, Rev. Mod. Phys. 46, 815: the complete-screening terms
-      ** Z L'_rad against Z^2 L_rad) on the lightest element; the end point of a photon
-      ** from a collision with a free electron at rest, from
+      ** Z L'_rad against Z^2 L_rad) on the lightest element; the end
+      ** point of a photon from a collision with a free electron at rest,
+      ** from
       ** s = M^2 + m^2 + 2 m E0 and W >= M + m at theta_k = 0:
       ** k_max = m T / (E0 + m - p0) */
       int ze = o->target.n > 0 ? o->target.comp[0].Z : o->Z;

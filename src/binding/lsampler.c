@@ -594,9 +594,7 @@ void lbl_sampler_open (lua_State *L) {
   luaL_setfuncs(L, sampler_meta, 0);
   luaL_newlibtable(L, sampler_meth);
   luaL_setfuncs(L, sampler_meth, 0);
-  lua_getfield(L, -1, "events");          /* long: SIGINT stops it */
-  lua_pushcclosure(L, lbl_guarded, 1);
-  lua_setfield(L, -2, "events");
+  lbl_guardfield(L, "events");            /* long: SIGINT stops it */
   lua_setfield(L, -2, "__index");
   lua_pop(L, 1);
 }

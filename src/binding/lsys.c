@@ -58,7 +58,7 @@ void lbl_interrupt (int sig) {
 
 
 /*
-** The guard of a computing call (lbl_guarded).  The stock interpreters
+** The guard of a computing call (lbl_guardfield).  The stock interpreters
 ** (lua.c, luajit.c) catch SIGINT with a handler that only sets a hook,
 ** which runs when the next Lua instruction does: a long call of the
 ** module would not see it.  For the length of a call the guard puts its
@@ -67,7 +67,7 @@ void lbl_interrupt (int sig) {
 ** found (lua.c's then raises "interrupted!" in Lua as before; the
 ** runner's calls lbl_interrupt).  Where there was none (the default
 ** action), it puts the default back, so a second signal acts at once, and
-** lbl_guarded raises the signal again when the call has kept what it
+** guarded raises the signal again when the call has kept what it
 ** finished.  An ignored signal stays ignored.
 */
 static const int guardsig[2] = {SIGINT, SIGTERM};
@@ -166,7 +166,7 @@ static int guard_off (int *passed) {
 ** "interrupted!" (or, in LuaJIT, by "error in error handling"), is
 ** cleared, as its own first run would have cleared it.
 */
-int lbl_guarded (lua_State *L) {
+static int guarded (lua_State *L) {
   int n = lua_gettop(L), st, sig, passed;
   lua_pushvalue(L, lua_upvalueindex(1));
   lua_insert(L, 1);
@@ -181,6 +181,13 @@ int lbl_guarded (lua_State *L) {
     return lua_error(L);
   }
   return lua_gettop(L);
+}
+
+
+void lbl_guardfield (lua_State *L, const char *name) {
+  lua_getfield(L, -1, name);
+  lua_pushcclosure(L, guarded, 1);
+  lua_setfield(L, -2, name);
 }
 
 const volatile sig_atomic_t *lbl_stopflag (void) {
