@@ -227,6 +227,6 @@ int bl_dw_bracket (const bl_dwk *d, const bl_polar *g, double v,
   }
   else
     *B = 0.5 * dirac_sum(kn, j0, j1, j2, P0, P);
-  *B *= exp(d->lnscale);
+  *B *= d->scale;
   return isfinite(*B) ? BL_SUCCESS : BL_ENONFINITE;
 }

@@ -61,6 +61,7 @@ int bl_dwk_init (bl_dwk *d, const bl_case *c, double k, double umin,
   eta0 = d->zeta * d->kn.E0 / d->kn.p0;
   eta = d->zeta * d->kn.E / d->kn.p;
   d->lnscale = bl_dw_lnscale(&d->kn, d->zeta);
+  d->scale = exp(d->lnscale);
   return bl_dwhyp_init(&d->hyp, eta0, eta, umin - U_MARGIN, umax + U_MARGIN);
 }
 
@@ -145,6 +146,7 @@ typedef struct dwaz {
   const bl_polar *g;   /* the polar geometry of the current azimuth */
   double phiw;
   int status;          /* first failure of the bracket */
+  double single[BL_POLE_MAX];   /* the target factor's lists (target_w) */
 } dwaz;
 
 
@@ -159,7 +161,8 @@ static double az_f (double u, void *par, double *err) {
       x->status = st;
     return 0.0;
   }
-  return B * target_w(x->c, q2) * (phi + x->phiw);
+  return B * bl_target_w(q2, x->c->npole, x->c->pole, x->single,
+                         x->c->nterm, x->c->term) * (phi + x->phiw);
 }
 
 
@@ -182,6 +185,7 @@ static double az_phi (void *ctx, const bl_polar *g, const bl_bracket *br,
 /* The table of V for photon energy k, the hook; out cleared. */
 static int start (dwaz *x, bl_azimuth *az, const bl_case *c, double k,
                   bl_quad *q, bl_result *out) {
+  int i;
   x->d.hyp.neg.f = x->d.hyp.pos.f = NULL;
   x->d.hyp.neg.n = x->d.hyp.pos.n = 0;
   if (out == NULL)
@@ -192,6 +196,8 @@ static int start (dwaz *x, bl_azimuth *az, const bl_case *c, double k,
   x->c = c;
   x->q = q;
   x->status = BL_SUCCESS;
+  for (i = 0; i < c->npole; i++)
+    x->single[i] = c->single_el[i] + c->single_e[i];
   az->phi = az_phi;
   az->ctx = x;
   return bl_dwk_init(&x->d, c, k, 0.0, 0.0);

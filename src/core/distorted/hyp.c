@@ -176,6 +176,7 @@ int bl_dwhyp_init (bl_dwhyp *h, double eta0, double eta, double umin,
   h->b = I * eta;
   h->scale = BL_PI * fabs(eta0);
   h->ab = fabs(eta0 * eta);
+  h->sab = sqrt(h->ab);
   h->w = fabs(eta0) + fabs(eta) + 1.0;
   h->x1 = X1_MAX / (1.0 + h->ab + fabs(eta0) + fabs(eta));
   if (h->x1 > X1_MAX)
@@ -211,7 +212,7 @@ int bl_dwhyp_eval (const bl_dwhyp *h, double x, double u, double complex *V,
                    double complex *Vx) {
   const bl_dwside *sd;
   const double complex *f0, *f1;
-  double tau, r, t, dt, du, d2u;
+  double tau, r, t, dt, sq, g, omx;
   double complex D, c3, c4, c5, P, dP;
   long j;
   if (fabs(x) <= h->x1) {
@@ -219,7 +220,10 @@ int bl_dwhyp_eval (const bl_dwhyp *h, double x, double u, double complex *V,
     return 0;
   }
   sd = u < 0.0 ? &h->neg : &h->pos;
-  tau = tau_of(h, u);
+  /* tau_of and dtau/du (u_of) with one square root: sqrt(|u|) > 0 here */
+  sq = sqrt(fabs(u));
+  tau = h->w * u + (u < 0.0 ? -2.0 : 2.0) * h->sab * sq;
+  g = h->w + h->sab / sq;
   r = fabs(tau - sd->tau0) / h->dtau;
   j = (long)r;
   if (sd->f == NULL || j < 0 || j + 1 >= sd->n)
@@ -238,9 +242,10 @@ int bl_dwhyp_eval (const bl_dwhyp *h, double x, double u, double complex *V,
     P = f0[0] + t * (d0 + t * (0.5 * s0 + t * (c3 + t * (c4 + t * c5))));
     dP = d0 + t * (s0 + t * (3.0 * c3 + t * (4.0 * c4 + t * 5.0 * c5)));
   }
-  u_of(h, tau, &du, &d2u);
+  /* 1 - x: exact from x where x < 1/2, else from u (x -> 1) */
+  omx = x < 0.5 ? 1.0 - x : exp(u);
   *V = P;
-  /* dV/dx = -(dV/du) / (1 - x), dV/du = (dP/dt / dt) / (du/dtau) */
-  *Vx = -(dP / dt) / du / exp(u);
+  /* dV/dx = -(dV/du) / (1 - x), dV/du = (dP/dt / dt) dtau/du */
+  *Vx = -(dP / dt) * g / omx;
   return 0;
 }

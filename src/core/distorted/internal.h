@@ -34,7 +34,7 @@ typedef struct bl_dwhyp {
   double complex a, b;        /* i eta0, i eta */
   double scale;               /* pi |eta0| */
   double x1;                  /* the series for |x| <= x1 */
-  double w, ab;               /* the map tau(u) */
+  double w, ab, sab;          /* the map tau(u); sab = sqrt(ab) */
   double dtau;                /* node spacing in tau */
   bl_dwside neg, pos;         /* u < 0 (0 < x < 1) and u > 0 (x < 0) */
 } bl_dwhyp;
@@ -59,7 +59,7 @@ int bl_dwhyp_eval (const bl_dwhyp *h, double x, double u, double complex *V,
 typedef struct bl_dwk {
   bl_kin kn;
   double zeta;
-  double lnscale;
+  double lnscale, scale;     /* scale = exp(lnscale) */
   bl_dwhyp hyp;
 } bl_dwk;
 
