@@ -193,26 +193,58 @@ double bl_dw_u (const bl_kin *kn, const bl_polar *g, double v, double *q2) {
 }
 
 
-int bl_dw_bracket (const bl_dwk *d, const bl_polar *g, double v,
-                   double *B, double *q2out) {
+/* The same vectors as geom_set, the parts that do not depend on phi. */
+void bl_dw_polar_set (const bl_dwk *d, const bl_polar *g, bl_dwpolar *o) {
   const bl_kin *kn = &d->kn;
-  double p0 = kn->p0, p = kn->p, k = kn->k;
-  double Sv[3], gmd, bmd, al, amb, amg;
-  const double *P0, *P, *q;
-  double complex V, Vx, Db, Dg, Dd, j0, j1[3], j2[3];
-  geom o;
-  int i;
-  geom_set(kn, g, v, &o);
-  P0 = o.P0;  P = o.P;  q = o.q;
-  al = o.al;  amb = o.amb;  amg = o.amg;
-  *q2out = o.q2;
+  double p0 = kn->p0, p = kn->p, k = kn->k, amb, amg, gmd, bmd;
+  o->P0x = p0 * g->s0;
+  o->P0z = p0 * (1.0 - g->h0);
+  o->ps = p * g->s;
+  o->Pz = p * (1.0 - g->h);
+  if (g->ridge) {  /* measured from the ridge (as in born/kin.c) */
+    o->qz = g->qzs + p * g->dh;
+    o->qx0 = -p * g->dh * (2.0 - g->h - g->hs) / (g->s + g->ss);
+  }
+  else {
+    o->qz = kn->delta - p0 * g->h0 + p * g->h;
+    o->qx0 = o->P0x - o->ps;
+  }
+  amb = -k * p * (g->h + kn->hc);          /* alpha - beta < 0 */
+  amg = k * p0 * (g->h0 + kn->hc0);        /* alpha - gamma > 0 */
   gmd = p * (p + k * (1.0 - g->h) + p0);   /* gamma - delta */
   bmd = p0 * (p0 + p - k * (1.0 - g->h0)); /* beta - delta */
-  if (bl_dwhyp_eval(&d->hyp, 1.0 - o.omx, log(o.omx), &V, &Vx) != 0)
+  /* 1 - x = alpha (alpha - beta - gamma + delta)/((alpha-beta)(alpha-gamma))
+  ** with alpha - beta - gamma + delta = -(p0 + p - k)(p0 + p + k)/2 */
+  o->omxc = (kn->delta + 2.0 * p) * (p0 + p + k) / (-4.0 * amb * amg);
+  /* Db = cb1 V + cb2 alpha V', Dg = cg1 V + cg2 alpha V',
+  ** Dd = cd alpha V' (amp.c's head) */
+  o->cb1 = d->hyp.a / amb;
+  o->cg1 = d->hyp.b / amg;
+  o->cb2 = gmd / (amb * amb * amg);
+  o->cg2 = bmd / (amb * amg * amg);
+  o->cd = -1.0 / (amb * amg);
+}
+
+
+int bl_dw_bracket_at (const bl_dwk *d, const bl_dwpolar *o, double v,
+                      double sphi, double *B, double *q2out) {
+  const bl_kin *kn = &d->kn;
+  double p0 = kn->p0, p = kn->p;
+  double P0[3], P[3], q[3], Sv[3], q2, al, omx;
+  double complex V, Vx, Db, Dg, Dd, j0, j1[3], j2[3];
+  int i;
+  P0[0] = o->P0x;  P0[1] = 0.0;  P0[2] = o->P0z;
+  P[0] = o->ps * (1.0 - v);  P[1] = o->ps * sphi;  P[2] = o->Pz;
+  q[0] = o->qx0 + o->ps * v;  q[1] = -P[1];  q[2] = o->qz;
+  q2 = q[0] * q[0] + q[1] * q[1] + q[2] * q[2];
+  *q2out = q2;
+  al = 0.5 * q2;
+  omx = q2 * o->omxc;
+  if (bl_dwhyp_eval(&d->hyp, 1.0 - omx, log(omx), &V, &Vx) != 0)
     return BL_EDOMAIN;
-  Db = d->hyp.a * V / amb + Vx * al * gmd / (amb * amb * amg);
-  Dg = d->hyp.b * V / amg + Vx * al * bmd / (amb * amg * amg);
-  Dd = -Vx * al / (amb * amg);
+  Db = o->cb1 * V + (o->cb2 * al) * Vx;
+  Dg = o->cg1 * V + (o->cg2 * al) * Vx;
+  Dd = (o->cd * al) * Vx;
   for (i = 0; i < 3; i++)
     Sv[i] = p0 * P[i] + p * P0[i];
   j0 = -I * (p0 * Db + p * Dg);
@@ -229,4 +261,13 @@ int bl_dw_bracket (const bl_dwk *d, const bl_polar *g, double v,
     *B = 0.5 * dirac_sum(kn, j0, j1, j2, P0, P);
   *B *= d->scale;
   return isfinite(*B) ? BL_SUCCESS : BL_ENONFINITE;
+}
+
+
+int bl_dw_bracket (const bl_dwk *d, const bl_polar *g, double v,
+                   double *B, double *q2out) {
+  bl_dwpolar o;
+  bl_dw_polar_set(d, g, &o);
+  return bl_dw_bracket_at(d, &o, v, sqrt(fmax(v * (2.0 - v), 0.0)), B,
+                          q2out);
 }

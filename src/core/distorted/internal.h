@@ -81,6 +81,23 @@ double bl_dw_u (const bl_kin *kn, const bl_polar *g, double v, double *q2);
 int bl_dw_bracket (const bl_dwk *d, const bl_polar *g, double v, double *B,
                    double *q2);
 
+/* The parts of the bracket that do not depend on the azimuth, at one
+** polar geometry: the momenta (photon frame), q = (qx0 + ps v, -ps sin
+** phi, qz), 1 - x = q^2 omxc and the coefficients of D_beta, D_gamma,
+** D_delta in V and V' (amp.c). */
+typedef struct bl_dwpolar {
+  double P0x, P0z, ps, Pz, qx0, qz, omxc;
+  double cb2, cg2, cd;
+  double complex cb1, cg1;
+} bl_dwpolar;
+
+void bl_dw_polar_set (const bl_dwk *d, const bl_polar *g, bl_dwpolar *o);
+
+/* bl_dw_bracket at the polar geometry o, v = 1 - cos phi and
+** sphi = sin phi. */
+int bl_dw_bracket_at (const bl_dwk *d, const bl_dwpolar *o, double v,
+                      double sphi, double *B, double *q2);
+
 /* Estimated relative error of the Sommerfeld-Maue functions at kn (see
 ** dcs.c). */
 double bl_dw_sm_estimate (const bl_case *c, const bl_kin *kn);
