@@ -216,10 +216,10 @@ void bl_dw_polar_set (const bl_dwk *d, const bl_polar *g, bl_dwpolar *o) {
   /* 1 - x = alpha (alpha - beta - gamma + delta)/((alpha-beta)(alpha-gamma))
   ** with alpha - beta - gamma + delta = -(p0 + p - k)(p0 + p + k)/2 */
   o->omxc = (kn->delta + 2.0 * p) * (p0 + p + k) / (-4.0 * amb * amg);
-  /* Db = cb1 V + cb2 alpha V', Dg = cg1 V + cg2 alpha V',
+  /* Db = i cb1 V + cb2 alpha V', Dg = i cg1 V + cg2 alpha V',
   ** Dd = cd alpha V' (amp.c's head) */
-  o->cb1 = d->hyp.a / amb;
-  o->cg1 = d->hyp.b / amg;
+  o->cb1 = cimag(d->hyp.a) / amb;   /* a = i eta0, b = i eta */
+  o->cg1 = cimag(d->hyp.b) / amg;
   o->cb2 = gmd / (amb * amb * amg);
   o->cg2 = bmd / (amb * amg * amg);
   o->cd = -1.0 / (amb * amg);
@@ -242,8 +242,8 @@ int bl_dw_bracket_at (const bl_dwk *d, const bl_dwpolar *o, double v,
   omx = q2 * o->omxc;
   if (bl_dwhyp_eval(&d->hyp, 1.0 - omx, log(omx), &V, &Vx) != 0)
     return BL_EDOMAIN;
-  Db = o->cb1 * V + (o->cb2 * al) * Vx;
-  Dg = o->cg1 * V + (o->cg2 * al) * Vx;
+  Db = o->cb1 * (I * V) + (o->cb2 * al) * Vx;
+  Dg = o->cg1 * (I * V) + (o->cg2 * al) * Vx;
   Dd = (o->cd * al) * Vx;
   for (i = 0; i < 3; i++)
     Sv[i] = p0 * P[i] + p * P0[i];

@@ -84,11 +84,10 @@ int bl_dw_bracket (const bl_dwk *d, const bl_polar *g, double v, double *B,
 /* The parts of the bracket that do not depend on the azimuth, at one
 ** polar geometry: the momenta (photon frame), q = (qx0 + ps v, -ps sin
 ** phi, qz), 1 - x = q^2 omxc and the coefficients of D_beta, D_gamma,
-** D_delta in V and V' (amp.c). */
+** D_delta in V (i cb1, i cg1: a and b are imaginary) and V' (amp.c). */
 typedef struct bl_dwpolar {
   double P0x, P0z, ps, Pz, qx0, qz, omxc;
-  double cb2, cg2, cd;
-  double complex cb1, cg1;
+  double cb1, cg1, cb2, cg2, cd;
 } bl_dwpolar;
 
 void bl_dw_polar_set (const bl_dwk *d, const bl_polar *g, bl_dwpolar *o);
