@@ -15,7 +15,7 @@
 /*
 ** V(x) = 2F1(i eta0, i eta; 1; x) and V'(x) for real x < 1 at fixed eta0,
 ** eta (one photon energy), in the variable u = ln(1 - x).  Near x = 0 a
-** series; elsewhere a table of V, dV/du, d2V/du2 made by integrating the
+** series; elsewhere a table made from V, dV/du, d2V/du2 by integrating the
 ** hypergeometric equation outward from the edge of the series region,
 ** read by quintic Hermite interpolation.  Values carry the factor
 ** exp(-scale) (scale = pi |eta0|): V grows like exp(pi min(|eta0|, |eta|))
@@ -27,7 +27,8 @@
 typedef struct bl_dwside {
   int n;                      /* nodes 0..n-1; node 0 at the series edge */
   double tau0;                /* tau of node 0 */
-  double complex *f;          /* 3 n values: V, V_tau, V_tautau per node */
+  double complex *f;          /* 6 per node: the coefficients of the
+                                 quintic in t of the interval it begins */
 } bl_dwside;
 
 typedef struct bl_dwhyp {
