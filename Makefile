@@ -83,6 +83,10 @@ $(B)/core/born/kin.o: CFLAGS += -O3 -fno-math-errno
 # (gcc only: Debian 12's clang, of make fuzz-build, does not know the flag)
 $(B)/core/ebrems/amp.o: CFLAGS += -O3 -fno-math-errno \
   $(if $(findstring clang,$(CC)),,-fcx-limited-range)
+# the same for the distorted-wave bracket and its Gauss function (their
+# complex operands are finite: a non-finite bracket is reported as such)
+$(B)/core/distorted/amp.o $(B)/core/distorted/hyp.o: CFLAGS += -O3 \
+  -fno-math-errno $(if $(findstring clang,$(CC)),,-fcx-limited-range)
 
 $(LIB): $(CORE_OBJ)
 	rm -f $@

@@ -68,62 +68,86 @@ double bl_dw_lnscale (const bl_kin *kn, double zeta) {
 }
 
 
-/* 2x2 complex matrices, row-major.  (Fields are assigned one by one:
-** gcc's analyzer misreads complex values in aggregate initialisers.) */
-typedef struct m2 { double complex a, b, c, d; } m2;
-
-static m2 mset (double complex a, double complex b, double complex c,
-                double complex d) {
-  m2 r;
-  r.a = a;
-  r.b = b;
-  r.c = c;
-  r.d = d;
-  return r;
-}
-
-static m2 mmul (m2 x, m2 y) {
-  return mset(x.a * y.a + x.b * y.c, x.a * y.b + x.b * y.d,
-              x.c * y.a + x.d * y.c, x.c * y.b + x.d * y.d);
-}
-
-static m2 madd (m2 x, m2 y) {
-  return mset(x.a + y.a, x.b + y.b, x.c + y.c, x.d + y.d);
-}
-
-static m2 mscale (m2 x, double complex s) {
-  return mset(s * x.a, s * x.b, s * x.c, s * x.d);
-}
-
-static m2 mdag (m2 x) {
-  return mset(conj(x.a), conj(x.c), conj(x.b), conj(x.d));
-}
-
-static double complex mtr (m2 x) { return x.a + x.d; }
-
-/* sigma.v for a complex 3-vector */
-static m2 sdot (double complex x, double complex y, double complex z) {
-  return mset(z, x - I * y, x + I * y, -z);
-}
-
 /*
-** Tr[O M0 O^+ Mf] for O = [[Ev, Od], [Od, Ev]] (blocks of 2x2) and
-** M = [[E+1, s.p], [s.p, E-1]]: the spin sum of the Dirac amplitude.
+** The spin sum of the Dirac amplitude u_f^+ O u_0 for one photon
+** polarisation.  O = [[A, C], [C, A]] in 2x2 blocks (A from the correction
+** operators, C = J0 sigma.eps) and the spin projectors
+** M = [[E + 1, sigma.p], [sigma.p, E - 1]]; the block rotation
+** (tau_x + tau_z)/sqrt 2, which keeps the trace, makes O block-diagonal,
+** diag(A + C, A - C), and M = [[E + sigma.p, 1], [1, E - sigma.p]]:
+**
+**   Tr[O M0 O^+ Mf] = Tr[P L0 P^+ L] + Tr[N R0 N^+ R] + 2 Re Tr[P N^+],
+**
+** P = A + C, N = A - C, L = E + sigma.p, R = E - sigma.p (and L0, R0).
+** With A = s + sigma.v and C = sigma.c the last term is
+** 4 (|s|^2 + |v|^2 - |c|^2).  (The 4x4 product of 2x2 blocks it replaces
+** cost ten times as much: tests/test_distorted.c checks the bracket
+** against the Born one and Sommerfeld's formula.)
 */
-static double dirac_trace (m2 Ev, m2 Od, double E0, m2 sp0, double E, m2 sp) {
-  /* X = O M0 (the diagonal blocks of M0 are multiples of 1) */
-  m2 X00 = madd(mscale(Ev, E0 + 1.0), mmul(Od, sp0));
-  m2 X01 = madd(mmul(Ev, sp0), mscale(Od, E0 - 1.0));
-  m2 X10 = madd(mscale(Od, E0 + 1.0), mmul(Ev, sp0));
-  m2 X11 = madd(mmul(Od, sp0), mscale(Ev, E0 - 1.0));
-  /* Y = O^+ Mf */
-  m2 Evd = mdag(Ev), Odd = mdag(Od);
-  m2 Y00 = madd(mscale(Evd, E + 1.0), mmul(Odd, sp));
-  m2 Y01 = madd(mmul(Evd, sp), mscale(Odd, E - 1.0));
-  m2 Y10 = madd(mscale(Odd, E + 1.0), mmul(Evd, sp));
-  m2 Y11 = madd(mmul(Odd, sp), mscale(Evd, E - 1.0));
-  return creal(mtr(mmul(X00, Y00)) + mtr(mmul(X01, Y10))
-               + mtr(mmul(X10, Y01)) + mtr(mmul(X11, Y11)));
+
+/* Tr[P L0 P^+ L] for P = s + sigma.w, L0 = e0 + sg sigma.p0 with
+** p0_y = 0 (real: the initial momentum lies in the x-z plane) and
+** L = e + sg sigma.p. */
+static double side_trace (double complex s, const double complex w[3],
+                          double e0, const double p0[3], double e,
+                          const double p[3], double sg) {
+  double complex P11 = s + w[2], P12 = w[0] - I * w[1];
+  double complex P21 = w[0] + I * w[1], P22 = s - w[2];
+  double a0 = e0 + sg * p0[2], d0 = e0 - sg * p0[2], b0 = sg * p0[0];
+  double a = e + sg * p[2], d = e - sg * p[2];
+  double complex be = sg * (p[0] - I * p[1]);
+  /* X = P L0, then the Hermitian Y = X P^+ */
+  double complex X11 = P11 * a0 + P12 * b0, X12 = P11 * b0 + P12 * d0;
+  double complex X21 = P21 * a0 + P22 * b0, X22 = P21 * b0 + P22 * d0;
+  double y11 = creal(X11 * conj(P11) + X12 * conj(P12));
+  double y22 = creal(X21 * conj(P21) + X22 * conj(P22));
+  double complex Y21 = X21 * conj(P11) + X22 * conj(P12);
+  return y11 * a + y22 * d + 2.0 * creal(Y21 * be);
+}
+
+
+static double cabs2 (double complex z) {
+  return creal(z) * creal(z) + cimag(z) * cimag(z);
+}
+
+
+/* The sum over both linear polarisations (x, y) of the spin-summed
+** |u_f^+ O u_0|^2, O = (alpha.eps) J0 + (i/2E)(alpha.J2)(alpha.eps)
+** - (i/2E0)(alpha.eps)(alpha.J1). */
+static double dirac_sum (const bl_kin *kn, double complex j0,
+                         const double complex j1[3],
+                         const double complex j2[3], const double P0[3],
+                         const double P[3]) {
+  double h = 0.5 / kn->E, h0 = 0.5 / kn->E0, sum = 0.0;
+  int e;
+  for (e = 0; e < 2; e++) {
+    /* (sigma.a)(sigma.b) = a.b + i sigma.(a x b); eps = x or y:
+    ** A = s + sigma.v, s = i (J2.eps h - J1.eps h0),
+    ** v = -(J2 x eps) h + (eps x J1) h0 */
+    double complex s, v[3], wp[3], wm[3];
+    int i;
+    if (e == 0) {
+      s = I * (j2[0] * h - j1[0] * h0);
+      v[0] = 0.0;
+      v[1] = -j2[2] * h - j1[2] * h0;
+      v[2] = j2[1] * h + j1[1] * h0;
+    }
+    else {
+      s = I * (j2[1] * h - j1[1] * h0);
+      v[0] = j2[2] * h + j1[2] * h0;
+      v[1] = 0.0;
+      v[2] = -j2[0] * h - j1[0] * h0;
+    }
+    for (i = 0; i < 3; i++)
+      wp[i] = wm[i] = v[i];
+    wp[e] += j0;
+    wm[e] -= j0;
+    sum += side_trace(s, wp, kn->E0, P0, kn->E, P, 1.0)
+           + side_trace(s, wm, kn->E0, P0, kn->E, P, -1.0)
+           + 4.0 * (cabs2(s) + cabs2(v[0]) + cabs2(v[1]) + cabs2(v[2])
+                    - cabs2(j0));
+  }
+  return sum;
 }
 
 
@@ -169,26 +193,58 @@ double bl_dw_u (const bl_kin *kn, const bl_polar *g, double v, double *q2) {
 }
 
 
-int bl_dw_bracket (const bl_dwk *d, const bl_polar *g, double v,
-                   double *B, double *q2out) {
+/* The same vectors as geom_set, the parts that do not depend on phi. */
+void bl_dw_polar_set (const bl_dwk *d, const bl_polar *g, bl_dwpolar *o) {
   const bl_kin *kn = &d->kn;
-  double p0 = kn->p0, p = kn->p, k = kn->k;
-  double Sv[3], gmd, bmd, al, amb, amg;
-  const double *P0, *P, *q;
-  double complex V, Vx, Db, Dg, Dd, j0, j1[3], j2[3];
-  geom o;
-  int i;
-  geom_set(kn, g, v, &o);
-  P0 = o.P0;  P = o.P;  q = o.q;
-  al = o.al;  amb = o.amb;  amg = o.amg;
-  *q2out = o.q2;
+  double p0 = kn->p0, p = kn->p, k = kn->k, amb, amg, gmd, bmd;
+  o->P0x = p0 * g->s0;
+  o->P0z = p0 * (1.0 - g->h0);
+  o->ps = p * g->s;
+  o->Pz = p * (1.0 - g->h);
+  if (g->ridge) {  /* measured from the ridge (as in born/kin.c) */
+    o->qz = g->qzs + p * g->dh;
+    o->qx0 = -p * g->dh * (2.0 - g->h - g->hs) / (g->s + g->ss);
+  }
+  else {
+    o->qz = kn->delta - p0 * g->h0 + p * g->h;
+    o->qx0 = o->P0x - o->ps;
+  }
+  amb = -k * p * (g->h + kn->hc);          /* alpha - beta < 0 */
+  amg = k * p0 * (g->h0 + kn->hc0);        /* alpha - gamma > 0 */
   gmd = p * (p + k * (1.0 - g->h) + p0);   /* gamma - delta */
   bmd = p0 * (p0 + p - k * (1.0 - g->h0)); /* beta - delta */
-  if (bl_dwhyp_eval(&d->hyp, 1.0 - o.omx, log(o.omx), &V, &Vx) != 0)
+  /* 1 - x = alpha (alpha - beta - gamma + delta)/((alpha-beta)(alpha-gamma))
+  ** with alpha - beta - gamma + delta = -(p0 + p - k)(p0 + p + k)/2 */
+  o->omxc = (kn->delta + 2.0 * p) * (p0 + p + k) / (-4.0 * amb * amg);
+  /* Db = i cb1 V + cb2 alpha V', Dg = i cg1 V + cg2 alpha V',
+  ** Dd = cd alpha V' (amp.c's head) */
+  o->cb1 = cimag(d->hyp.a) / amb;   /* a = i eta0, b = i eta */
+  o->cg1 = cimag(d->hyp.b) / amg;
+  o->cb2 = gmd / (amb * amb * amg);
+  o->cg2 = bmd / (amb * amg * amg);
+  o->cd = -1.0 / (amb * amg);
+}
+
+
+int bl_dw_bracket_at (const bl_dwk *d, const bl_dwpolar *o, double v,
+                      double sphi, double *B, double *q2out) {
+  const bl_kin *kn = &d->kn;
+  double p0 = kn->p0, p = kn->p;
+  double P0[3], P[3], q[3], Sv[3], q2, al, omx;
+  double complex V, Vx, Db, Dg, Dd, j0, j1[3], j2[3];
+  int i;
+  P0[0] = o->P0x;  P0[1] = 0.0;  P0[2] = o->P0z;
+  P[0] = o->ps * (1.0 - v);  P[1] = o->ps * sphi;  P[2] = o->Pz;
+  q[0] = o->qx0 + o->ps * v;  q[1] = -P[1];  q[2] = o->qz;
+  q2 = q[0] * q[0] + q[1] * q[1] + q[2] * q[2];
+  *q2out = q2;
+  al = 0.5 * q2;
+  omx = q2 * o->omxc;
+  if (bl_dwhyp_eval(&d->hyp, 1.0 - omx, log(omx), &V, &Vx) != 0)
     return BL_EDOMAIN;
-  Db = d->hyp.a * V / amb + Vx * al * gmd / (amb * amb * amg);
-  Dg = d->hyp.b * V / amg + Vx * al * bmd / (amb * amg * amg);
-  Dd = -Vx * al / (amb * amg);
+  Db = o->cb1 * (I * V) + (o->cb2 * al) * Vx;
+  Dg = o->cg1 * (I * V) + (o->cg2 * al) * Vx;
+  Dd = (o->cd * al) * Vx;
   for (i = 0; i < 3; i++)
     Sv[i] = p0 * P[i] + p * P0[i];
   j0 = -I * (p0 * Db + p * Dg);
@@ -201,20 +257,17 @@ int bl_dw_bracket (const bl_dwk *d, const bl_polar *g, double v,
     double complex Ay = 2.0 * (P0[1] * j0 - I * j1[1]);
     *B = creal(Ax * conj(Ax) + Ay * conj(Ay));
   }
-  else {
-    m2 s1 = sdot(j1[0], j1[1], j1[2]), s2 = sdot(j2[0], j2[1], j2[2]);
-    m2 sp0 = sdot(P0[0], P0[1], P0[2]), sp = sdot(P[0], P[1], P[2]);
-    double sum = 0.0;
-    int e;
-    for (e = 0; e < 2; e++) {   /* linear polarisations along x and y */
-      m2 se = e == 0 ? sdot(1.0, 0.0, 0.0) : sdot(0.0, 1.0, 0.0);
-      m2 Od = mscale(se, j0);
-      m2 Ev = madd(mscale(mmul(s2, se), I / (2.0 * kn->E)),
-                   mscale(mmul(se, s1), -I / (2.0 * kn->E0)));
-      sum += dirac_trace(Ev, Od, kn->E0, sp0, kn->E, sp);
-    }
-    *B = 0.5 * sum;
-  }
-  *B *= exp(d->lnscale);
+  else
+    *B = 0.5 * dirac_sum(kn, j0, j1, j2, P0, P);
+  *B *= d->scale;
   return isfinite(*B) ? BL_SUCCESS : BL_ENONFINITE;
+}
+
+
+int bl_dw_bracket (const bl_dwk *d, const bl_polar *g, double v,
+                   double *B, double *q2out) {
+  bl_dwpolar o;
+  bl_dw_polar_set(d, g, &o);
+  return bl_dw_bracket_at(d, &o, v, sqrt(fmax(v * (2.0 - v), 0.0)), B,
+                          q2out);
 }

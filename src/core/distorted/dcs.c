@@ -61,6 +61,7 @@ int bl_dwk_init (bl_dwk *d, const bl_case *c, double k, double umin,
   eta0 = d->zeta * d->kn.E0 / d->kn.p0;
   eta = d->zeta * d->kn.E / d->kn.p;
   d->lnscale = bl_dw_lnscale(&d->kn, d->zeta);
+  d->scale = exp(d->lnscale);
   return bl_dwhyp_init(&d->hyp, eta0, eta, umin - U_MARGIN, umax + U_MARGIN);
 }
 
@@ -134,6 +135,9 @@ static int full_point (const bl_case *c, double k, double theta_k,
 */
 
 #define AZ_LIMIT 64   /* panels of one azimuthal integral */
+#ifndef AZ_NPT
+#define AZ_NPT 15
+#endif
 #ifndef AZ_SHARE
 #define AZ_SHARE 1.0  /* its relative tolerance, as a share of rtol */
 #endif
@@ -142,16 +146,19 @@ typedef struct dwaz {
   const bl_case *c;
   bl_dwk d;
   bl_quad *q;
-  const bl_polar *g;   /* the polar geometry of the current azimuth */
+  bl_dwpolar pg;       /* the polar geometry of the current azimuth */
   double phiw;
   int status;          /* first failure of the bracket */
+  double single[BL_POLE_MAX];   /* the target factor's lists (target_w) */
 } dwaz;
 
 
 static double az_f (double u, void *par, double *err) {
   dwaz *x = par;
-  double phi = x->phiw * expm1(u), sp = sin(0.5 * phi), B, q2;
-  int st = bl_dw_bracket(&x->d, x->g, 2.0 * sp * sp, &B, &q2);
+  double phi = x->phiw * expm1(u), sp = sin(0.5 * phi), cp = cos(0.5 * phi);
+  double B, q2;
+  int st = bl_dw_bracket_at(&x->d, &x->pg, 2.0 * sp * sp, 2.0 * sp * cp, &B,
+                            &q2);
   *err = 0.0;
   x->q->calls++;
   if (st != BL_SUCCESS) {
@@ -159,7 +166,8 @@ static double az_f (double u, void *par, double *err) {
       x->status = st;
     return 0.0;
   }
-  return B * target_w(x->c, q2) * (phi + x->phiw);
+  return B * bl_target_w(q2, x->c->npole, x->c->pole, x->single,
+                         x->c->nterm, x->c->term) * (phi + x->phiw);
 }
 
 
@@ -167,13 +175,13 @@ static double az_phi (void *ctx, const bl_polar *g, const bl_bracket *br,
                       double *err) {
   dwaz *x = ctx;
   double val, umax;
-  x->g = g;
+  bl_dw_polar_set(&x->d, g, &x->pg);
   x->phiw = br->b > 0.0 ? sqrt(2.0 * br->Q0 / br->b) : BL_PI;
   if (!(x->phiw > 1e-300))
     x->phiw = 1e-300;
   umax = log1p(BL_PI / x->phiw);
   bl_gk_adapt(az_f, x, 0.0, umax, 0.0, AZ_SHARE * bl_quad_rtol(x->q),
-              x->q->limit < AZ_LIMIT ? x->q->limit : AZ_LIMIT, 15,
+              x->q->limit < AZ_LIMIT ? x->q->limit : AZ_LIMIT, AZ_NPT,
               x->q->pan[2], &val, err);
   return val;
 }
@@ -182,6 +190,7 @@ static double az_phi (void *ctx, const bl_polar *g, const bl_bracket *br,
 /* The table of V for photon energy k, the hook; out cleared. */
 static int start (dwaz *x, bl_azimuth *az, const bl_case *c, double k,
                   bl_quad *q, bl_result *out) {
+  int i;
   x->d.hyp.neg.f = x->d.hyp.pos.f = NULL;
   x->d.hyp.neg.n = x->d.hyp.pos.n = 0;
   if (out == NULL)
@@ -192,6 +201,8 @@ static int start (dwaz *x, bl_azimuth *az, const bl_case *c, double k,
   x->c = c;
   x->q = q;
   x->status = BL_SUCCESS;
+  for (i = 0; i < c->npole; i++)
+    x->single[i] = c->single_el[i] + c->single_e[i];
   az->phi = az_phi;
   az->ctx = x;
   return bl_dwk_init(&x->d, c, k, 0.0, 0.0);

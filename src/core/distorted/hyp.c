@@ -98,6 +98,28 @@ static double complex vuu (const bl_dwhyp *h, double u, double complex F,
 }
 
 
+/*
+** The quintic Hermite polynomial of each interval from the values, first
+** and second tau-derivatives at its nodes (6 per node in f, the last 3
+** free), in place: interval j's coefficients c0 ... c5 in t = (tau -
+** tau_j) / dt replace node j, which no later interval reads.
+*/
+static void coefficients (double complex *f, long n, double dt) {
+  long j;
+  for (j = 0; j + 1 < n; j++) {
+    double complex *f0 = f + 6 * j, *f1 = f0 + 6;
+    double complex d0 = f0[1] * dt, d1 = f1[1] * dt;
+    double complex s0 = f0[2] * dt * dt, s1 = f1[2] * dt * dt;
+    double complex D = f1[0] - f0[0];
+    f0[1] = d0;
+    f0[2] = 0.5 * s0;
+    f0[3] = 10.0 * D - 6.0 * d0 - 4.0 * d1 - 0.5 * (3.0 * s0 - s1);
+    f0[4] = -15.0 * D + 8.0 * d0 + 7.0 * d1 + 0.5 * (3.0 * s0 - 2.0 * s1);
+    f0[5] = 6.0 * D - 3.0 * (d0 + d1) - 0.5 * (s0 - s1);
+  }
+}
+
+
 /* Fill one side: from the series edge x = xb (u = ub) out to uend. */
 static int side (bl_dwhyp *h, bl_dwside *sd, double xb, double uend) {
   double ub = log1p(-xb), dir = uend < ub ? -1.0 : 1.0;
@@ -115,7 +137,7 @@ static int side (bl_dwhyp *h, bl_dwside *sd, double xb, double uend) {
   if (!(span < NODE_MAX))   /* also a span that is not finite */
     return BL_EDOMAIN;
   n = (long)ceil(span) + 2;
-  sd->f = malloc(3 * (size_t)n * sizeof *sd->f);
+  sd->f = malloc(6 * (size_t)n * sizeof *sd->f);
   if (sd->f == NULL)
     return BL_ENOMEM;
   series(h, xb, &V, &Vx);
@@ -144,15 +166,17 @@ static int side (bl_dwhyp *h, bl_dwside *sd, double xb, double uend) {
     V = y[0] + I * y[1];
     Vu = y[2] + I * y[3];
     Vuu = vuu(h, uj, V, Vu);
-    sd->f[3 * j] = V;
-    sd->f[3 * j + 1] = Vu * du;
-    sd->f[3 * j + 2] = Vuu * du * du + Vu * d2u;
+    sd->f[6 * j] = V;
+    sd->f[6 * j + 1] = Vu * du;
+    sd->f[6 * j + 2] = Vuu * du * du + Vu * d2u;
     if (!isfinite(creal(V)) || !isfinite(cimag(V))) {
       st = BL_ENONFINITE;
       break;
     }
   }
   gsl_odeiv2_driver_free(drv);
+  if (st == BL_SUCCESS)
+    coefficients(sd->f, n, dir * h->dtau);
   if (st != BL_SUCCESS) {
     free(sd->f);
     sd->f = NULL;
@@ -176,6 +200,7 @@ int bl_dwhyp_init (bl_dwhyp *h, double eta0, double eta, double umin,
   h->b = I * eta;
   h->scale = BL_PI * fabs(eta0);
   h->ab = fabs(eta0 * eta);
+  h->sab = sqrt(h->ab);
   h->w = fabs(eta0) + fabs(eta) + 1.0;
   h->x1 = X1_MAX / (1.0 + h->ab + fabs(eta0) + fabs(eta));
   if (h->x1 > X1_MAX)
@@ -210,37 +235,33 @@ void bl_dwhyp_free (bl_dwhyp *h) {
 int bl_dwhyp_eval (const bl_dwhyp *h, double x, double u, double complex *V,
                    double complex *Vx) {
   const bl_dwside *sd;
-  const double complex *f0, *f1;
-  double tau, r, t, dt, du, d2u;
-  double complex D, c3, c4, c5, P, dP;
+  const double complex *c;
+  double tau, r, t, dt, sq, g, omx;
+  double complex P, dP;
   long j;
   if (fabs(x) <= h->x1) {
     series(h, x, V, Vx);
     return 0;
   }
   sd = u < 0.0 ? &h->neg : &h->pos;
-  tau = tau_of(h, u);
+  /* tau_of and dtau/du (u_of) with one square root: sqrt(|u|) > 0 here */
+  sq = sqrt(fabs(u));
+  tau = h->w * u + (u < 0.0 ? -2.0 : 2.0) * h->sab * sq;
+  g = h->w + h->sab / sq;
   r = fabs(tau - sd->tau0) / h->dtau;
   j = (long)r;
   if (sd->f == NULL || j < 0 || j + 1 >= sd->n)
     return -1;
   t = r - (double)j;
   dt = (u < 0.0 ? -1.0 : 1.0) * h->dtau;   /* tau step from node j to j+1 */
-  f0 = sd->f + 3 * j;
-  f1 = f0 + 3;
-  {
-    double complex d0 = f0[1] * dt, d1 = f1[1] * dt;
-    double complex s0 = f0[2] * dt * dt, s1 = f1[2] * dt * dt;
-    D = f1[0] - f0[0];
-    c3 = 10.0 * D - 6.0 * d0 - 4.0 * d1 - 0.5 * (3.0 * s0 - s1);
-    c4 = -15.0 * D + 8.0 * d0 + 7.0 * d1 + 0.5 * (3.0 * s0 - 2.0 * s1);
-    c5 = 6.0 * D - 3.0 * (d0 + d1) - 0.5 * (s0 - s1);
-    P = f0[0] + t * (d0 + t * (0.5 * s0 + t * (c3 + t * (c4 + t * c5))));
-    dP = d0 + t * (s0 + t * (3.0 * c3 + t * (4.0 * c4 + t * 5.0 * c5)));
-  }
-  u_of(h, tau, &du, &d2u);
+  c = sd->f + 6 * j;
+  P = c[0] + t * (c[1] + t * (c[2] + t * (c[3] + t * (c[4] + t * c[5]))));
+  dP = c[1] + t * (2.0 * c[2] + t * (3.0 * c[3] + t * (4.0 * c[4]
+                                                     + t * 5.0 * c[5])));
+  /* 1 - x: exact from x where x < 1/2, else from u (x -> 1) */
+  omx = x < 0.5 ? 1.0 - x : exp(u);
   *V = P;
-  /* dV/dx = -(dV/du) / (1 - x), dV/du = (dP/dt / dt) / (du/dtau) */
-  *Vx = -(dP / dt) / du / exp(u);
+  /* dV/dx = -(dV/du) / (1 - x), dV/du = (dP/dt / dt) dtau/du */
+  *Vx = -(dP / dt) * g / omx;
   return 0;
 }

@@ -15,7 +15,7 @@
 /*
 ** V(x) = 2F1(i eta0, i eta; 1; x) and V'(x) for real x < 1 at fixed eta0,
 ** eta (one photon energy), in the variable u = ln(1 - x).  Near x = 0 a
-** series; elsewhere a table of V, dV/du, d2V/du2 made by integrating the
+** series; elsewhere a table made from V, dV/du, d2V/du2 by integrating the
 ** hypergeometric equation outward from the edge of the series region,
 ** read by quintic Hermite interpolation.  Values carry the factor
 ** exp(-scale) (scale = pi |eta0|): V grows like exp(pi min(|eta0|, |eta|))
@@ -27,14 +27,15 @@
 typedef struct bl_dwside {
   int n;                      /* nodes 0..n-1; node 0 at the series edge */
   double tau0;                /* tau of node 0 */
-  double complex *f;          /* 3 n values: V, V_tau, V_tautau per node */
+  double complex *f;          /* 6 per node: the coefficients of the
+                                 quintic in t of the interval it begins */
 } bl_dwside;
 
 typedef struct bl_dwhyp {
   double complex a, b;        /* i eta0, i eta */
   double scale;               /* pi |eta0| */
   double x1;                  /* the series for |x| <= x1 */
-  double w, ab;               /* the map tau(u) */
+  double w, ab, sab;          /* the map tau(u); sab = sqrt(ab) */
   double dtau;                /* node spacing in tau */
   bl_dwside neg, pos;         /* u < 0 (0 < x < 1) and u > 0 (x < 0) */
 } bl_dwhyp;
@@ -59,7 +60,7 @@ int bl_dwhyp_eval (const bl_dwhyp *h, double x, double u, double complex *V,
 typedef struct bl_dwk {
   bl_kin kn;
   double zeta;
-  double lnscale;
+  double lnscale, scale;     /* scale = exp(lnscale) */
   bl_dwhyp hyp;
 } bl_dwk;
 
@@ -80,6 +81,22 @@ double bl_dw_u (const bl_kin *kn, const bl_polar *g, double v, double *q2);
 ** of born/kin.c, which it becomes as zeta -> 0; q^2 in *q2. */
 int bl_dw_bracket (const bl_dwk *d, const bl_polar *g, double v, double *B,
                    double *q2);
+
+/* The parts of the bracket that do not depend on the azimuth, at one
+** polar geometry: the momenta (photon frame), q = (qx0 + ps v, -ps sin
+** phi, qz), 1 - x = q^2 omxc and the coefficients of D_beta, D_gamma,
+** D_delta in V (i cb1, i cg1: a and b are imaginary) and V' (amp.c). */
+typedef struct bl_dwpolar {
+  double P0x, P0z, ps, Pz, qx0, qz, omxc;
+  double cb1, cg1, cb2, cg2, cd;
+} bl_dwpolar;
+
+void bl_dw_polar_set (const bl_dwk *d, const bl_polar *g, bl_dwpolar *o);
+
+/* bl_dw_bracket at the polar geometry o, v = 1 - cos phi and
+** sphi = sin phi. */
+int bl_dw_bracket_at (const bl_dwk *d, const bl_dwpolar *o, double v,
+                      double sphi, double *B, double *q2);
 
 /* Estimated relative error of the Sommerfeld-Maue functions at kn (see
 ** dcs.c). */
