@@ -31,6 +31,9 @@
 
 
 static bl_bracket br[NG * NG];
+#ifdef BL_WPOLES
+static bl_wpoles wp;
+#endif
 
 
 static void run (const char *name, const char *particle, int Z, double T) {
@@ -57,11 +60,18 @@ static void run (const char *name, const char *particle, int Z, double T) {
       g.s = sqrt(g.h * (2.0 - g.h));
       bl_bracket_set(&kn, &g, &br[i * NG + j]);
     }
+#ifdef BL_WPOLES   /* the target factor sorted once (set-up, not timed) */
+  bl_wpoles_set(&wp, c.npole, c.pole, single, c.nterm, c.term);
+#endif
   t0 = now();
   do {
     for (n = 0; n < NG * NG; n++)
+#ifdef BL_WPOLES
+      sum += bl_bracket_azimuth(&br[n], &wp);
+#else
       sum += bl_bracket_azimuth(&br[n], c.npole, c.pole, single, c.nterm,
                                 c.term);
+#endif
     reps++;
     t = now() - t0;
   } while (t < SPAN_S);

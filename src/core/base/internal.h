@@ -50,6 +50,13 @@ int bl_gk_adapt (bl_gkfun f, void *par, double a, double b, double epsabs,
                  double epsrel, size_t limit, int npt, bl_gkpanel *w,
                  double *val, double *err);
 
+/* One panel [a, b] of the npt-point rule (as bl_gk_adapt): p->val the
+** Kronrod value, p->d = |K - G|, p->A = int |f|, p->err its error model.
+** The one Gauss-Kronrod implementation of the core: the k integrals of
+** target/integral.c take their panels from it too. */
+void bl_gk_panel (bl_gkfun f, void *par, double a, double b, int npt,
+                  bl_gkpanel *p);
+
 /* The same, also stopping (GSL_EMAXITER) before a bisection once the call
 ** counter *calls has reached stop (calls NULL: no such bound): a work
 ** budget that holds whatever the integrand's own cost. */

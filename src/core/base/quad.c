@@ -236,6 +236,18 @@ static void gk (const gkrule *r, bl_gkfun f, void *par, double a, double b,
 }
 
 
+/* The rule of npt points (7, 15, else 21). */
+static const gkrule *rule_of (int npt) {
+  return npt == 7 ? &rule7 : npt == 15 ? &rule15 : &rule21;
+}
+
+
+void bl_gk_panel (bl_gkfun f, void *par, double a, double b, int npt,
+                  bl_gkpanel *p) {
+  gk(rule_of(npt), f, par, a, b, 0, 0, p);
+}
+
+
 int bl_gk_adapt (bl_gkfun f, void *par, double a, double b, double epsabs,
                  double epsrel, size_t limit, int npt, bl_gkpanel *w,
                  double *val, double *err) {
@@ -248,7 +260,7 @@ int bl_gk_adapt_budget (bl_gkfun f, void *par, double a, double b,
                         double epsabs, double epsrel, size_t limit, int npt,
                         bl_gkpanel *w, const unsigned long *calls,
                         unsigned long stop, double *val, double *err) {
-  const gkrule *r = npt == 7 ? &rule7 : npt == 15 ? &rule15 : &rule21;
+  const gkrule *r = rule_of(npt);
   double V, E, IE;
   size_t n = 1, i;
   int st = 0;   /* BL_SUCCESS */

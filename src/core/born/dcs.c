@@ -97,6 +97,7 @@ typedef struct integ {
   int nterm;                /* the target factor, Elwert factor applied */
   bl_term term[BL_TERM_MAX];
   double single[BL_POLE_MAX];
+  bl_wpoles wp;             /* the same, sorted for the azimuth */
 } integ;
 
 
@@ -139,6 +140,7 @@ static int setup (const bl_case *c, double k, integ *it, unsigned *warn,
     if (t < c->nelastic)
       it->term[t].c *= fe;
   }
+  bl_wpoles_set(&it->wp, c->npole, c->pole, it->single, it->nterm, it->term);
   return BL_SUCCESS;
 }
 
@@ -163,8 +165,7 @@ static double phi_at (integ *it, double h, double *err) {
   if (it->az != NULL)
     return it->az->phi(it->az->ctx, &it->g, &br, err);
   it->q->calls++;
-  v = bl_bracket_azimuth(&br, it->c->npole, it->c->pole, it->single,
-                         it->nterm, it->term);
+  v = bl_bracket_azimuth(&br, &it->wp);
   /* B >= 0 and W >= 0: a negative value is rounding of cancelling poles
   ** (uniform nucleus without electrons, y -> 1; scripts/sweep.lua found
   ** dsigma/dk < 0 there).  NaN passes on, to be reported. */

@@ -57,12 +57,33 @@ void bl_kin_set (bl_kin *kn, double t0, double k, double spin);
 /* Bracket coefficients at the polar geometry g. */
 void bl_bracket_set (const bl_kin *kn, const bl_polar *g, bl_bracket *br);
 
-/* Azimuthal integral  int_0^pi B(v) W(x) dphi  with
-** W(x) = sum_i single[i] w_i + sum_t c_t w_i w_j, w_i = 1/(pole[i] + x),
-** pole[i] >= 0 and pole[i] <= pole[j] in every term; closed form. */
-double bl_bracket_azimuth (const bl_bracket *br, int npole,
-                           const double *pole, const double *single,
-                           int nterm, const bl_term *term);
+/*
+** The target factor W(x) = sum_i single[i] w_i + sum_t c_t w_i w_j,
+** w_i = 1/(pole[i] + x), sorted for the closed-form azimuth once per case
+** and photon energy (bl_wpoles_set), not once per call: per pole its
+** single coefficient, the coefficient of its square w_i^2 and the sum of
+** the coefficients of the pairs i < j whose larger pole it is; the pairs
+** i < j themselves (one term per pair, repeated pairs merged).
+*/
+#define BL_WPOLES 1
+typedef struct bl_wpoles {
+  int npole, npair;
+  double pole[BL_POLE_MAX];
+  double single[BL_POLE_MAX];
+  double square[BL_POLE_MAX];
+  double second[BL_POLE_MAX];
+  int pi[BL_TERM_MAX], pj[BL_TERM_MAX];
+  double pc[BL_TERM_MAX];
+} bl_wpoles;
+
+/* Fill w from the lists (pole[i] >= 0, pole[i] <= pole[j] in every term,
+** indices < npole <= BL_POLE_MAX). */
+void bl_wpoles_set (bl_wpoles *w, int npole, const double *pole,
+                    const double *single, int nterm, const bl_term *term);
+
+/* Azimuthal integral  int_0^pi B(v) W(x) dphi  of the target factor w;
+** closed form. */
+double bl_bracket_azimuth (const bl_bracket *br, const bl_wpoles *w);
 
 /* The target factor W(x) of the same lists at q^2 = x. */
 double bl_target_w (double x, int npole, const double *pole,

@@ -43,6 +43,8 @@
 #include "brakelight/bl_errno.h"
 #include "brakelight/bl_integral.h"
 
+#include "base/internal.h"
+
 
 #define LIMIT     200     /* subintervals per piece */
 #define MEMO_MIN  256     /* slots of the first memo, on the stack */
@@ -205,49 +207,32 @@ static double integrand (double x, void *params) {
 }
 
 
-/* Gauss-Kronrod 15-point nodes on [-1, 1] (the non-negative half, node
-** 7 at 0) and weights; the 7-point Gauss rule uses the odd nodes
-** (QUADPACK's qk15 constants). */
-static const double xgk[8] = {
-  0.991455371120812639206854697526329, 0.949107912342758524526189684047851,
-  0.864864423359769072789712788640926, 0.741531185599394439863864773280788,
-  0.586087235467691130294144845693013, 0.405845151377397166906606412076961,
-  0.207784955007898467600689403773245, 0.0
-};
-static const double wgk[8] = {
-  0.022935322010529224963732008058970, 0.063092092629978553290700663189204,
-  0.104790010322250183839876322541518, 0.140653259715525918745189590510238,
-  0.169004726639267902826583426598550, 0.190350578064785409913256402421014,
-  0.204432940075298892414161999234649, 0.209482141084727828012999174891714
-};
-static const double wg[4] = {
-  0.129484966168869693270611432679082, 0.279705391489276667901467771423780,
-  0.381830050505118944950369775488975, 0.417959183673469387755102040816327
-};
-
 typedef struct seg {
   double a, b, val, err;
 } seg;
 
 
+/* The integrand in the form of the core's Gauss-Kronrod panels (its
+** points carry no error of their own here: their errors are accounted
+** apart, ki->relerr). */
+static double integrand_gk (double x, void *params, double *err) {
+  *err = 0.0;
+  return integrand(x, params);
+}
+
+
 /*
-** The 15-point Kronrod value of [a, b] with |K15 - G7| as its error: the
+** The 15-point Kronrod value of [a, b] (bl_gk_panel of base/quad.c, the
+** one Gauss-Kronrod rule of the core) with |K15 - G7| as its error: the
 ** error of the 7-point rule, so a generous bound for the 15-point one on
-** a smooth integrand (QUADPACK's sharper heuristic scaling would bisect
-** integrands whose points carry their own small quadrature noise).
+** a smooth integrand (a sharper model would bisect integrands whose
+** points carry their own small quadrature noise).
 */
 static void gk15 (kint *ki, seg *g) {
-  double c = 0.5 * (g->a + g->b), h = 0.5 * (g->b - g->a);
-  double fc = integrand(c, ki), k = wgk[7] * fc, gs = wg[3] * fc;
-  int j;
-  for (j = 0; j < 7; j++) {
-    double f = integrand(c - h * xgk[j], ki) + integrand(c + h * xgk[j], ki);
-    k += wgk[j] * f;
-    if (j % 2 == 1)
-      gs += wg[j / 2] * f;
-  }
-  g->val = k * h;
-  g->err = fabs((k - gs) * h);
+  bl_gkpanel p;
+  bl_gk_panel(integrand_gk, ki, g->a, g->b, 15, &p);
+  g->val = p.val;
+  g->err = p.d;
 }
 
 
