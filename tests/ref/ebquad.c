@@ -51,10 +51,11 @@ static real qsqrt (real x) {
 }
 
 int ebquad_point (int kind, double m, double z, int spin2, double t0,
-                  double k, double hk, double hs, double phi, int frame,
+                  double k, double hk, double hs, double hs2, double phi,
+                  int frame,
                   double *msq, double mom[5][4]) {
   real M = m, e0, p0, ck, sk, P[4], Pn, W2, W, ps, e3s, e4s, ez[3], ex[3];
-  real ey[3], n[3], ss, kv[4], p[5][4], g, gb, dz, cf, sf, nx;
+  real ey[3], n[3], ss, cz, kv[4], p[5][4], g, gb, dz, cf, sf, nx;
   int i, j;
   e0 = (real) t0 + M;
   p0 = qsqrt((real) t0 * ((real) t0 + 2 * M));
@@ -86,12 +87,14 @@ int ebquad_point (int kind, double m, double z, int spin2, double t0,
   ey[0] = ez[1] * ex[2] - ez[2] * ex[1];
   ey[1] = ez[2] * ex[0] - ez[0] * ex[2];
   ey[2] = ez[0] * ex[1] - ez[1] * ex[0];
-  ss = qsqrt((real) hs * (2 - (real) hs));
+  /* cos theta_s = 1 - hs near the pole hs = 0, hs2 - 1 near hs = 2 */
+  cz = hs <= 1.0 ? 1 - (real) hs : (real) hs2 - 1;
+  ss = qsqrt((1 - cz) * (1 + cz));
   cf = cos(phi); sf = sin(phi);
   /* cos and sin of phi in double, as the core takes them: the direction
   ** is a unit vector to 1e-16, the same test point for both */
   for (i = 0; i < 3; i++)
-    n[i] = ss * (cf * ex[i] + sf * ey[i]) + (1 - (real) hs) * ez[i];
+    n[i] = ss * (cf * ex[i] + sf * ey[i]) + cz * ez[i];
   g = P[0] / W;
   gb = Pn / W;
   memset(p, 0, sizeof p);

@@ -48,6 +48,10 @@
 
 typedef double complex cmat[4][4];
 
+#ifndef AXIAL_MIN
+#define AXIAL_MIN 1e-3
+#endif
+
 static double dot (const double a[4], const double b[4]) {
   return a[0] * b[0] - a[1] * b[1] - a[2] * b[2] - a[3] * b[3];
 }
@@ -252,12 +256,43 @@ static void add_pair (const line *X, double qx, const line *Y, double qy,
                       const double eps[2][4], double complex M[2][BL_EB_NAMP]) {
   static const int wt[4] = {8, 4, 2, 1};
   cur cx, cy;
+  double complex cyj[4][2][2];
   double tx, ty;
   int pol, a1, a2, b1, b2;
   currents(X, k, eps, &cx);
   currents(Y, k, eps, &cy);
   tx = qsq(X);
   ty = tyv != 0.0 ? tyv : qsq(Y);
+#ifdef EB_AXIAL
+  {
+    /* the struck line's current in the axial gauge n = X's incoming
+    ** momentum: j' = j - (j.n / q.n) q, q = Y's momentum transfer; by the
+    ** Ward identity of X's radiating current R_X.q = 0, R_X.j' = R_X.j */
+    double qv[4], n[4], qn;
+    int mu;
+    for (mu = 0; mu < 4; mu++) {
+      qv[mu] = Y->pout[mu] - Y->pin[mu];
+      n[mu] = X->pin[mu];
+    }
+    qn = dot(qv, n);
+    if (fabs(qn) >= AXIAL_MIN * (fabs(qv[0] * n[0])
+                                + sqrt((qv[1] * qv[1] + qv[2] * qv[2]
+                                        + qv[3] * qv[3])
+                                       * (n[1] * n[1] + n[2] * n[2]
+                                          + n[3] * n[3]))))
+    for (b1 = 0; b1 < cy.nso; b1++)
+      for (b2 = 0; b2 < cy.nsi; b2++) {
+        double complex jn = cy.j[0][b1][b2] * n[0] - cy.j[1][b1][b2] * n[1]
+                            - cy.j[2][b1][b2] * n[2] - cy.j[3][b1][b2] * n[3];
+        for (mu = 0; mu < 4; mu++)
+          cyj[mu][b1][b2] = cy.j[mu][b1][b2] - jn / qn * qv[mu];
+      }
+    else
+      memcpy(cyj, cy.j, sizeof cyj);
+  }
+#else
+  memcpy(cyj, cy.j, sizeof cyj);
+#endif
   for (pol = 0; pol < 2; pol++)
     for (a1 = 0; a1 < cx.nso; a1++)
       for (a2 = 0; a2 < cx.nsi; a2++)
@@ -266,7 +301,7 @@ static void add_pair (const line *X, double qx, const line *Y, double qy,
             int s = a1 * wt[lab[0]] + a2 * wt[lab[1]] + b1 * wt[lab[2]]
                     + b2 * wt[lab[3]];
             M[pol][s] += sign * qx * qy
-                         * (qx * mdot(cx.r[pol], cy.j, a1, a2, b1, b2) / ty
+                         * (qx * mdot(cx.r[pol], cyj, a1, a2, b1, b2) / ty
                             + qy * mdot(cx.j, cy.r[pol], a1, a2, b1, b2) / tx);
           }
 }
@@ -482,6 +517,24 @@ double bl_eb_unit (void) {
   return lam * lam / BL_FM2_PER_MB / BL_ME_MEV;
 }
 
+/* S(q)/Z = sum_i alpha_i q^2 / (b_i^2 + q^2), q^2 = |p4|^2 = T4 (T4 + 2)
+** from the exact T4 = -q24 / 2 of the point (lab = atom rest frame); for
+** e- e- the slower final electron's, T3 = -q23 / 2 (bl_ebrems.h).  A
+** fitted form (the Hartree-Fock one has terms of both signs) is not let
+** below 0. */
+double bl_eb_binding (const bl_ebrems *c, const bl_ebpoint *x) {
+  double t = -0.5 * x->q24, q2, w = 0.0;
+  int i;
+  if (c->Z == 0)
+    return 1.0;
+  if (c->kind == BL_EBREMS_ELECTRON && -0.5 * x->q23 < t)
+    t = -0.5 * x->q23;
+  q2 = t * (t + 2.0);
+  for (i = 0; i < c->inc.n; i++)
+    w += c->inc.alpha[i] * q2 / (c->inc.b[i] * c->inc.b[i] + q2);
+  return w > 0.0 ? w : 0.0;
+}
+
 double bl_eb_d5 (const bl_ebrems *c, const bl_ebpoint *x) {
   /* S / (4 m_e p0) * k / (2 (2 pi)^3) * p* / (16 pi^2 W) * msq / (g_a g_e) */
   double S = c->kind == BL_EBREMS_ELECTRON ? 0.5 : 1.0;
@@ -494,5 +547,6 @@ double bl_eb_d5 (const bl_ebrems *c, const bl_ebpoint *x) {
   /* |M|^2 is invariant: evaluated in the pair frame, where no particle is
   ** faster than ~ sqrt(E0) (the lab's propagators lose ~ 1e-16 gamma^2) */
   return S / (4.0 * c->p0) * ph
-         * bl_eb_msq_q(c, (const double (*)[4])x->f, qy) / (ga * 2.0);
+         * bl_eb_msq_q(c, (const double (*)[4])x->f, qy) / (ga * 2.0)
+         * bl_eb_binding(c, x);
 }

@@ -86,6 +86,9 @@ int bl_eb_point_set (const bl_ebrems *c, double k, double hk, double sk,
 ** sr^2 (lambda_e = hbar / (m_e c)). */
 double bl_eb_d5 (const bl_ebrems *c, const bl_ebpoint *x);
 
+/* The binding weight S(q)/Z of x (1 for a free electron; 0 <= w <= 1). */
+double bl_eb_binding (const bl_ebrems *c, const bl_ebpoint *x);
+
 /* lambda_e^2 / m_e in mb/MeV. */
 double bl_eb_unit (void);
 
