@@ -58,15 +58,17 @@ typedef struct bl_ebrems {
 /* The largest kinetic energy accepted (MeV): a bound on the rounding of
 ** the gauge cancellations at the smallest momentum transfers.  The
 ** amplitudes are evaluated in the rest frame of p3 + p4 (gamma ~ sqrt(E0)
-** there); against the quadruple-precision trace route of
-** tests/ref/ebquad.c, |M|^2 keeps (worst of 60 points at and near the
-** poles, measured) 2e-6 for e- and e+ at 10 GeV, 1.5e-5 at 100 GeV; at
-** 1 TeV 3e-4 (e+) but a factor 9 off at the e- e- exchange pole.  Hence
-** electrons and positrons up to BL_EBREMS_T_MAX_E = 100 GeV, other
-** projectiles up to BL_EBREMS_T_MAX (DEVELOPERS.md, "Electron-target
-** bremsstrahlung"). */
-#define BL_EBREMS_T_MAX 1e5
-#define BL_EBREMS_T_MAX_E 1e5
+** there), with the struck electron's transfer given exactly and, from a
+** Lorentz factor 100 up, its current in the axial gauge of the radiating
+** line (amp.c).  Against the quadruple-precision trace route of
+** tests/ref/ebquad.c, |M|^2 keeps (worst of 40 random points at and near
+** the poles, measured) 1e-9 for e+- at 10 GeV, 1e-8 at 100 GeV, 1.1e-5
+** at 1 TeV, but only 5e-2 at 10 TeV; 5e-11 for a muon at 10 TeV.  Hence
+** electrons and positrons up to BL_EBREMS_T_MAX_E = 1 TeV, other
+** projectiles up to BL_EBREMS_T_MAX = 10 TeV (DEVELOPERS.md,
+** "Electron-target bremsstrahlung"). */
+#define BL_EBREMS_T_MAX 1e7
+#define BL_EBREMS_T_MAX_E 1e6
 
 /* Set up projectile p at kinetic energy T (MeV).  BL_EDOMAIN if p is not a
 ** valid particle (bl_particle_check) or T is not in (0, BL_EBREMS_T_MAX]
@@ -103,7 +105,13 @@ double bl_ebrems_kmax (const bl_ebrems *c);
 /* Sum over all spins and both photon polarisations of |M|^2 (including
 ** e^6 = (4 pi alpha)^3; units m_e^-2) at the final momenta p3, p4, k
 ** (four-vectors (E, px, py, pz) in units of m_e, lab frame; p1 and p2 are
-** those of c).  Momentum conservation is the caller's: not checked.
+** those of c).  Momentum conservation is the caller's: not checked.  The
+** free electron (binding is not applied here).  Evaluated as given, in the
+** lab: at high energy the rounding of the lab components themselves
+** limits it near the struck electron's pole (measured against
+** tests/ref/ebquad.c, worst of 21 points: 1.4e-7 for e- at 10 GeV, 2e-5
+** at 100 GeV, 1e-3 at 1 TeV); the cross sections below do not use this
+** route.
 ** BL_EDOMAIN if a momentum is not finite; BL_ENONFINITE if the value is not
 ** finite (a propagator at zero). */
 int bl_ebrems_msq (const bl_ebrems *c, const double p3[4], const double p4[4],
