@@ -72,6 +72,46 @@ int bl_ebrems_init (bl_ebrems *c, const bl_particle *p, double T) {
   return BL_SUCCESS;
 }
 
+int bl_ebrems_set_binding (bl_ebrems *c, int Z, const bl_model *model,
+                           const double *params) {
+  double p[16];
+  bl_yukawa y;
+  double sum = 0.0;
+  int i;
+  if (c == NULL || Z < 0 || Z > BL_ZMAX)
+    return BL_EDOMAIN;
+  if (Z == 0 || model == NULL) {
+    c->Z = 0;
+    memset(&c->inc, 0, sizeof c->inc);
+    return BL_SUCCESS;
+  }
+  if (model->incoherent == NULL
+      || model->nparams > (int)(sizeof p / sizeof p[0]))
+    return BL_EMODEL;
+  if (params != NULL)
+    for (i = 0; i < model->nparams; i++)
+      p[i] = params[i];
+  else
+    bl_model_defaults(model, p);
+  memset(&y, 0, sizeof y);
+  if (model->incoherent(Z, p, &y) != BL_SUCCESS)
+    return BL_EMODEL;
+  if (y.n < 1 || y.n > BL_YUKAWA_MAX)
+    return BL_EMODEL;
+  for (i = 0; i < y.n; i++) {
+    if (!(isfinite(y.alpha[i]) && y.b[i] >= 0.0 && isfinite(y.b[i])))
+      return BL_EMODEL;
+    sum += y.alpha[i];
+  }
+  if (!(fabs(sum - 1.0) <= 1e-9))
+    return BL_EMODEL;   /* S(q) -> Z at large q: the form's sum rule */
+  c->Z = Z;
+  c->inc = y;
+  for (i = 0; i < y.n; i++)
+    c->inc.b[i] = y.b[i] / BL_ME_MEV;
+  return BL_SUCCESS;
+}
+
 double bl_ebrems_kmax (const bl_ebrems *c) {
   return c->ymax * c->T;
 }
@@ -224,6 +264,19 @@ static int pair_frame (integ *it) {
   it->sc[0][0] = fmin(fmax(f->t4min / gp, 1e-300), 1.0);
   it->sc[0][1] = c->kind == BL_EBREMS_ELECTRON
                  ? fmin(fmax(f->t3min / gp, 1e-300), 1.0) : 1.0;
+  if (c->Z > 0) {
+    /* binding: S(q)/Z ~ q^2 / b^2 below the smallest screening momentum
+    ** b, so the pole's peak widens to T4 = sqrt(1 + b^2) - 1 */
+    double b = c->inc.b[0], tb;
+    int i;
+    for (i = 1; i < c->inc.n; i++)
+      b = fmin(b, c->inc.b[i]);
+    tb = b * b / (sqrt(1.0 + b * b) + 1.0);
+    if ((tb - f->t4min) / gp > it->sc[0][0])
+      it->sc[0][0] = fmin((tb - f->t4min) / gp, 1.0);
+    if (c->kind == BL_EBREMS_ELECTRON && (tb - f->t3min) / gp > it->sc[0][1])
+      it->sc[0][1] = fmin((tb - f->t3min) / gp, 1.0);
+  }
   it->sc[1][0] = fmin(c->m * c->m / (f->ps * (f->e3s + f->ps)), 1.0);
   it->sc[1][1] = fmin(1.0 / (f->ps * (f->e4s + f->ps)), 1.0);
   return 0;

@@ -11,6 +11,16 @@
 
 #include "brakelight/bl_ebrems.h"
 
+/* The struck electron line's momentum transfers, exactly: t[0] = (p4 -
+** p2)^2, t[1] = (p3 - p2)^2, and the vectors v[0] = p4 - p2, v[1] = p3 -
+** p2 in the frame of the momenta they go with (nv = 0: no vectors, nv = 1:
+** v[0] only, nv = 2: both). */
+typedef struct bl_ebq {
+  double t[2];
+  double v[2][4];
+  int nv;
+} bl_ebq;
+
 /* Momenta of one point, lab frame, units of m_e: p[0] = p1 (projectile in),
 ** p[1] = p2 (electron at rest), p[2] = p3 (projectile out), p[3] = p4
 ** (electron out), p[4] = k. */
@@ -19,6 +29,7 @@ typedef struct bl_ebpoint {
   double f[5][4];  /* the same momenta in the rest frame of p3 + p4, axes
                    ** (ex, ey, ez) of bl_ebframe */
   double q24, q23; /* (p4 - p2)^2 and (p3 - p2)^2, free of cancellation */
+  bl_ebq q;        /* the same with the vectors in the pair frame (f) */
   double pstar;    /* |p3| = |p4| in the rest frame of p3 + p4 */
   double w;        /* invariant mass of p3 + p4 */
 } bl_ebpoint;
@@ -59,13 +70,13 @@ void bl_eb_amplitudes (const bl_ebrems *c, const double p[5][4],
                        const double eps[2][4],
                        double complex M[2][BL_EB_NAMP]);
 
-/* The same with the virtual photons of the struck electron line given:
-** qy[0] = (p4 - p2)^2, qy[1] = (p3 - p2)^2 (NULL: from the components). */
+/* The same with the struck electron line's transfers given (NULL: from
+** the components). */
 void bl_eb_amplitudes_q (const bl_ebrems *c, const double p[5][4],
-                         const double eps[2][4], const double *qy,
+                         const double eps[2][4], const bl_ebq *qy,
                          double complex M[2][BL_EB_NAMP]);
 double bl_eb_msq_q (const bl_ebrems *c, const double p[5][4],
-                    const double *qy);
+                    const bl_ebq *qy);
 
 /* Two real transverse unit polarisation vectors of the photon k. */
 void bl_eb_polarisations (const double k[4], double eps[2][4]);
@@ -85,6 +96,9 @@ int bl_eb_point_set (const bl_ebrems *c, double k, double hk, double sk,
 /* d5sigma/(dk dOmega_k dOmega_s) at x in units of lambda_e^2 / m_e per
 ** sr^2 (lambda_e = hbar / (m_e c)). */
 double bl_eb_d5 (const bl_ebrems *c, const bl_ebpoint *x);
+
+/* The binding weight S(q)/Z of x (1 for a free electron; 0 <= w <= 1). */
+double bl_eb_binding (const bl_ebrems *c, const bl_ebpoint *x);
 
 /* lambda_e^2 / m_e in mb/MeV. */
 double bl_eb_unit (void);
