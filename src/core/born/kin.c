@@ -252,9 +252,11 @@ static inline double pair_sum (const bl_wpoles *w, int t, const azp *a) {
 ** of the two chosen once at load time (ifunc): the pole loop then takes
 ** four poles a step.  Without FMA (a separate target), so the rounding,
 ** and every value, is the same on every machine: only the lanes differ.
+** Not under ThreadSanitizer: the resolver runs during relocation, before
+** the sanitizer's runtime is up, and its instrumented code crashes there.
 */
 #if defined(__GNUC__) && !defined(__clang__) && defined(__x86_64__) \
-    && defined(__linux__)
+    && defined(__linux__) && !defined(__SANITIZE_THREAD__)
 #define AZ_CLONES __attribute__((target_clones("avx2", "default")))
 #else
 #define AZ_CLONES
