@@ -19,6 +19,7 @@
 #include "brakelight.h"
 #include "testutil.h"
 #include "kochmotz.h"
+#include "born/internal.h"   /* bl_target_w: the form factor's identity */
 
 /* ==================================================================
 ** the Born cross sections of the core against closed forms
@@ -1216,4 +1217,88 @@ Test(born, electron_part_complete_screening) {
       want = tsai(Zs[j], 1e5, 0.5, 1, 0) - tsai(Zs[j], 1e5, 0.5, 0, 0);
       EXPECT_REL(a - b, want, 0.01, "%s Z=%d", models[i], Zs[j]);
     }
+}
+
+
+/*
+** The projectile's charge form factor (bl_case_set_formfactor): the target
+** factor rebuilt with it is F_p^2 times the point-charge one, elastic and
+** electron parts alike, F_p = lam/(lam + q^2), lam = 6/r^2 (a monopole of
+** mean square radius r^2) -- the partial fractions of src/core/born/case.c
+** checked as an identity at momentum transfers from far below the atomic
+** scale up to the largest of the case (qmax2), to 1e-5 of the point-charge
+** factor: where F_p^2 is small the rebuilt factor is a difference of terms
+** of the point-charge size, so its rounding is relative to that (measured
+** at most 4.4e-6, at q^2 > 17 lam where F_p^2 < 0.003).
+*/
+Test(formfactor, target_factor_times_ff2) {
+  static const char *const names[] = {"pion+", "kaon-", "proton"};
+  static const int Zs[] = {1, 6, 29, 82};
+  size_t i, j;
+  for (i = 0; i < 3; i++)
+    for (j = 0; j < 4; j++) {
+      const bl_particle *p = bl_particle_find(names[i]);
+      bl_opts o = bl_opts_default;
+      bl_case pt, ff;
+      double r = bl_particle_radius(p), rm, lam, lx;
+      cr_assert(r > 0.0, "%s has a radius", names[i]);
+      cr_assert_eq(bl_case_setup(&pt, p, Zs[j], bl_model_find("hartree-fock"),
+                                 NULL, 1e3, &o), BL_SUCCESS);
+      ff = pt;
+      cr_assert_eq(bl_case_set_formfactor(&ff, r), BL_SUCCESS);
+      rm = r * p->mass / BL_HBARC_MEVFM;
+      lam = 6.0 / (rm * rm);
+      for (lx = -12.0; lx <= 4.0; lx += 0.25) {
+        double x = pow(10.0, lx) * lam, f = lam / (lam + x);
+        double e0 = bl_target_w(x, pt.npole, pt.pole, pt.single_el,
+                                pt.nelastic, pt.term);
+        double e1 = bl_target_w(x, ff.npole, ff.pole, ff.single_el,
+                                ff.nelastic, ff.term);
+        double i0 = bl_target_w(x, pt.npole, pt.pole, pt.single_e,
+                                pt.nterm - pt.nelastic, pt.term + pt.nelastic);
+        double i1 = bl_target_w(x, ff.npole, ff.pole, ff.single_e,
+                                ff.nterm - ff.nelastic, ff.term + ff.nelastic);
+        if (x > pt.qmax2)
+          break;
+        cr_expect(fabs(e1 - f * f * e0) <= 1e-5 * fabs(e0),
+                  "%s Z=%d elastic x/lam=%g: %.15g against %.15g (F^2 %g)",
+                  names[i], Zs[j], x / lam, e1, f * f * e0, f * f);
+        cr_expect(fabs(i1 - f * f * i0) <= 1e-5 * fabs(i0),
+                  "%s Z=%d electrons x/lam=%g: %.15g against %.15g (F^2 %g)",
+                  names[i], Zs[j], x / lam, i1, f * f * i0, f * f);
+      }
+    }
+}
+
+
+/* The size the point-charge warning reports: it vanishes with the radius
+** (1e-4 fm: below 1e-6 of the value), is negative (the form factor only
+** removes momentum transfers), and bad radii are refused. */
+Test(formfactor, effect_limits) {
+  const bl_particle *p = bl_particle_find("proton");
+  bl_material m;
+  bl_target t;
+  bl_quad *q = bl_quad_alloc(1000);
+  bl_tresult a, b, c;
+  bl_case cs;
+  cr_assert_eq(bl_material_element(&m, 82), BL_SUCCESS);
+  cr_assert_eq(bl_target_setup(&t, p, &m, bl_model_find("hartree-fock"), NULL,
+                               1e3, &bl_opts_default, BL_METHOD_BORN, NULL,
+                               NULL), BL_SUCCESS);
+  cr_assert_eq(bl_target_prepare(&t, q, NULL), BL_SUCCESS);
+  bl_quad_set_rtol(q, 1e-8);
+  cr_assert_eq(bl_target_born_dk_e(&t, 300.0, 1, 0.0, q, &a), BL_SUCCESS);
+  cr_assert_eq(bl_target_born_dk_e(&t, 300.0, 1, 1e-4, q, &b), BL_SUCCESS);
+  EXPECT_REL(b.r.val, a.r.val, 1e-6, "radius 1e-4 fm");
+  bl_quad_set_rtol(q, 1e-4);
+  cr_assert_eq(bl_target_born_dk_e(&t, 300.0, 1, bl_particle_radius(p), q,
+                                   &c), BL_SUCCESS);
+  cr_expect(c.r.val < a.r.val && c.r.val > 0.0, "%g vs %g", c.r.val, a.r.val);
+  cr_expect_eq(bl_target_born_dk_e(&t, 300.0, 1, -1.0, q, &c), BL_EDOMAIN);
+  cs = t.c[0];
+  cr_expect_eq(bl_case_set_formfactor(&cs, 0.0), BL_EDOMAIN);
+  cr_expect_eq(bl_case_set_formfactor(&cs, NAN), BL_EDOMAIN);
+  cr_expect_eq(bl_particle_radius(bl_particle_find("muon")), 0.0);
+  bl_target_release(&t);
+  bl_quad_free(q);
 }

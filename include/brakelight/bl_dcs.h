@@ -101,6 +101,15 @@ int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
                    const bl_model *screening, const double *params, double T,
                    const bl_opts *o);
 
+/* Rebuild the target factor of a set-up case with the projectile's charge
+** form factor, a monopole of root-mean-square radius `radius` fm, on the
+** momentum transfer to the atom: W -> F_p(q)^2 W (Born approximation; the
+** photon vertex is real, F_p(0) = 1).  Used to estimate what the point
+** charge leaves out (bl_target_formfactor_effect); no method applies it.
+** BL_EDOMAIN for radius <= 0 or not finite; BL_EMODEL if the poles do not
+** fit.  Undo it with bl_case_setup. */
+int bl_case_set_formfactor (bl_case *c, double radius);
+
 /* Uniform sphere of radius R: F_N(x)^2 with x = q R, and the rational
 ** approximation the core integrates (src/core/born/nucleus.c). */
 double bl_nucleus_ff2 (double x);

@@ -32,6 +32,13 @@ const bl_particle *bl_particle_find (const char *name);
 ** finite, charge == 0 or not finite, or spin not 0 / 0.5. */
 int bl_particle_check (const bl_particle *p);
 
+/* Root-mean-square charge radius in fm of a composite preset (pions,
+** kaons, proton; matched by mass, charge, spin and the composite flag,
+** so a copy of a preset counts); 0 for a point-like or user-made
+** particle (radius unknown).  Used to estimate the effect of the form
+** factor the computations leave out (bl_target_formfactor_effect). */
+double bl_particle_radius (const bl_particle *p);
+
 #ifdef __cplusplus
 }
 #endif

@@ -130,6 +130,18 @@ int bl_target_dk_e (const bl_target *t, double k, bl_quad *q,
                     bl_tresult *out);
 
 /*
+** The exact-Born dsigma/dk of the target at k, against which warnings
+** size what a method or the point charge leaves out: every element by
+** the Born integral (BL_METHOD_BORN) with its corrections, or without
+** them when plain is non-zero; with the projectile's charge form factor
+** of root-mean-square radius `radius` fm when radius > 0
+** (bl_case_set_formfactor).  Exceptions as bl_target_dk_e; BL_EDOMAIN for
+** radius < 0 or q NULL.
+*/
+int bl_target_born_dk_e (const bl_target *t, double k, int plain,
+                         double radius, bl_quad *q, bl_tresult *out);
+
+/*
 ** dsigma/dk at the n photon energies k[0..n-1] on nthreads threads per
 ** element (bl_spectrum_method_e: bit for bit the same for any count);
 ** out[i] and status[i] (status may be NULL) per point.  Allocates scratch

@@ -135,6 +135,12 @@ typedef struct Warnings {
   double sysrel;       /* largest relative model uncertainty (sys/val) */
   double kwin[2];      /* an integral's photon-energy window; 0 0: points */
   char sysat[64];      /* where it was */
+  const bl_target *t;  /* the call's target: the sizes of the POINTLIKE,
+                       ** METHOD and CLAMPED warnings are measured on it */
+  double kseen;        /* largest k of a point; 0: none */
+  double kmethod;      /* largest k flagged BL_WARN_METHOD */
+  double kclamp[2];    /* smallest and largest k flagged BL_WARN_CLAMPED */
+  int nclamp;          /* points flagged BL_WARN_CLAMPED */
 } Warnings;
 
 

@@ -113,6 +113,7 @@ void lbl_initwarn (Warnings *w, const bl_target *t) {
   w->bits = t->warn;
   w->kborn = -1;
   w->minsup = 1.0;
+  w->t = t;
 }
 
 
@@ -132,6 +133,16 @@ void lbl_addwarn (Warnings *w, const bl_result *r, double k,
   }
   if ((r->warn & BL_WARN_BORN) && k > w->kborn)
     w->kborn = k;
+  if (k > w->kseen)
+    w->kseen = k;
+  if ((r->warn & BL_WARN_METHOD) && k > w->kmethod)
+    w->kmethod = k;
+  if (r->warn & BL_WARN_CLAMPED) {
+    if (w->nclamp++ == 0 || k < w->kclamp[0])
+      w->kclamp[0] = k;
+    if (k > w->kclamp[1])
+      w->kclamp[1] = k;
+  }
   if (r->val != 0.0 && r->sys / fabs(r->val) > w->sysrel) {
     w->sysrel = r->sys / fabs(r->val);
     snprintf(w->sysat, sizeof w->sysat, "%s", at);
@@ -175,6 +186,70 @@ void lbl_computepoint (lua_State *L, Opts *o, const bl_target *t, int kind,
 }
 
 
+/* Rtol of the exact-Born evaluations that size a warning: they say how
+** large an effect is, to a per cent or so, not the value itself. */
+#define SIZE_RTOL 1e-3
+
+/*
+** The photon energy at which a warning's size is measured: the middle of
+** an integral's window, else the largest k of the points flagged (kflag,
+** 0: none), else of all points, else T/2; below the tip, where the Born
+** value vanishes.
+*/
+static double sizek (const Opts *o, const Warnings *w, double kflag) {
+  double k = w->kwin[1] > w->kwin[0] ? 0.5 * (w->kwin[0] + w->kwin[1])
+             : kflag > 0.0 ? kflag : w->kseen > 0.0 ? w->kseen : 0.5 * o->T;
+  return fmin(k, 0.999 * o->T);
+}
+
+
+/*
+** The exact-Born dsigma/dk of the call's target at k (bl_target_born_dk_e:
+** plain, without corrections, or with them; with the projectile's form
+** factor of `radius` fm if > 0) into *v; 0 when it cannot be had (no
+** target, no memory, a failure): the caller then says "not estimated".
+*/
+static int bornat (const Warnings *w, double k, int plain, double radius,
+                   double *v) {
+  bl_quad *q;
+  bl_tresult tr;
+  int st;
+  if (w->t == NULL || (q = bl_quad_alloc(QUAD_LIMIT)) == NULL)
+    return 0;
+  bl_quad_set_rtol(q, SIZE_RTOL);
+  st = bl_target_born_dk_e(w->t, k, plain, radius, q, &tr);
+  bl_quad_free(q);
+  *v = tr.r.val;
+  return (st == BL_SUCCESS || bl_status_soft(st)) && isfinite(*v)
+         && *v > 0.0;
+}
+
+
+/*
+** The relative change of dsigma/dk at k when the projectile's charge form
+** factor is included (exact Born, without corrections): *rel; 0 when the
+** radius is unknown or an evaluation failed.
+*/
+static int formfactorsize (const Opts *o, const Warnings *w, double k,
+                           double *rel) {
+  double r = bl_particle_radius(&o->particle), v0, v1;
+  if (!(r > 0.0) || !bornat(w, k, 1, 0.0, &v0) || !bornat(w, k, 1, r, &v1))
+    return 0;
+  *rel = v1 / v0 - 1.0;
+  return 1;
+}
+
+
+/* The point-like warning stands where the form factor's effect is
+** above BL_SYS_WARN or unknown (radius not known). */
+static int pointlike_matters (const Opts *o, const Warnings *w) {
+  double rel;
+  if (!formfactorsize(o, w, sizek(o, w, 0.0), &rel))
+    return 1;
+  return fabs(rel) > BL_SYS_WARN;
+}
+
+
 /* Push the string for warning bit `bit`, with the numbers of this call. */
 static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                          unsigned bit) {
@@ -191,10 +266,29 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                "(worst relative error estimate %.3g at %s)", text, w->ntol,
                w->npts, o->rtol, w->worst, w->worstat);
       break;
-    case BL_WARN_POINTLIKE:
-      snprintf(msg, sizeof msg, "%s: %s (mass %g MeV) treated as point-like",
-               text, p->name, p->mass);
+    case BL_WARN_POINTLIKE: {
+      double k = sizek(o, w, 0.0), rel, r = bl_particle_radius(p);
+      if (formfactorsize(o, w, k, &rel))
+        snprintf(msg, sizeof msg, "%s: with its charge form factor (a "
+                 "monopole of radius %g fm) the exact-Born dsigma/dk of %s "
+                 "on %s at T = %g MeV, k = %g MeV changes by %+.3g %% (the "
+                 "form factor cuts the momentum transfers above about "
+                 "hbar c/r = %.3g MeV, which a nucleus of radius R already "
+                 "cuts above hbar c/R)%s (README, What is computed)", text, r,
+                 p->name, o->target.name, o->T, k, 100.0 * rel,
+                 BL_HBARC_MEVFM / r, p->spin > 0.25
+                 ? "; its anomalous magnetic moment is not included either, "
+                   "and its size is not estimated here" : "");
+      else
+        snprintf(msg, sizeof msg, "%s: %s (mass %g MeV, T = %g MeV) on %s: "
+                 "%s, so the form factor's effect is not estimated; it cuts "
+                 "the momentum transfers above about hbar c/r for a charge "
+                 "radius r (README, What is computed)", text, p->name,
+                 p->mass, o->T, o->target.name, r > 0.0
+                 ? "the exact-Born evaluation that sizes it failed"
+                 : "its charge radius is not known");
       break;
+    }
     case BL_WARN_BORN: {  /* the core's criterion: bl_coulomb_effect */
       const char *corr =
           (w->applied & BL_APPLIED_COULOMB) && (w->applied & BL_APPLIED_ELWERT)
@@ -261,16 +355,32 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                100.0 * share, ze, ymax, p->name, p->mass, o->T);
       break;
     }
-    case BL_WARN_METHOD:
-      snprintf(msg, sizeof msg, "%s: method '%s' holds for a final gamma = "
-               "E/m >= %g and, with a uniform nucleus of radius R, >= %g m R "
-               "/ (hbar c) for m R <= %g hbar c (complete screening also "
-               "needs Tsai's gamma <= %g and a point-like nucleus); here "
-               "gamma0 = %.4g (%s, target %s); method 'born' or 'auto' is "
-               "exact", text, bl_method_name(o->method), BL_HE_GAMMA_MIN,
-               BL_HE_GAMMA_MR, BL_HE_MR_MAX, BL_COMPLETE_TSAI_GAMMA_MAX, g0,
-               p->name, o->target.name);
+    case BL_WARN_METHOD: {
+      double k = sizek(o, w, w->kmethod), vb;
+      bl_tresult tr;
+      bl_quad *q = bl_quad_alloc(QUAD_LIMIT);
+      char size[160] = "its deviation from the exact Born value was not "
+                       "estimated (an evaluation failed)";
+      int st = BL_EDOMAIN;
+      if (q != NULL) {   /* the method's own value at k, then Born's */
+        bl_quad_set_rtol(q, SIZE_RTOL);
+        st = bl_target_dk_e(w->t, k, q, &tr);
+        bl_quad_free(q);
+      }
+      if ((st == BL_SUCCESS || bl_status_soft(st)) && bornat(w, k, 0, 0.0, &vb))
+        snprintf(size, sizeof size, "at k = %g MeV it gives %+.3g %% of the "
+                 "exact Born value (same corrections)", k,
+                 100.0 * (tr.r.val / vb - 1.0));
+      snprintf(msg, sizeof msg, "%s: %s; method '%s' holds for a final "
+               "gamma = E/m >= %g and, with a uniform nucleus of radius R, "
+               ">= %g m R / (hbar c) for m R <= %g hbar c (complete "
+               "screening also needs Tsai's gamma <= %g and a point-like "
+               "nucleus); here gamma0 = %.4g (%s, target %s); method 'born' "
+               "or 'auto' is exact", text, size, bl_method_name(o->method),
+               BL_HE_GAMMA_MIN, BL_HE_GAMMA_MR, BL_HE_MR_MAX,
+               BL_COMPLETE_TSAI_GAMMA_MAX, g0, p->name, o->target.name);
       break;
+    }
     case BL_WARN_SUPPRESS:
       snprintf(msg, sizeof msg, "%s (Stanev et al. fits, Klein 1999 review); "
                "E_LPM = %.4g MeV for %s in %s (X0 = %.4g cm)%s; smallest "
@@ -299,12 +409,27 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                "(README, Distorted waves)", text, BL_DW_SOFT_Y * o->T,
                p->name, o->target.name, o->T);
       break;
-    case BL_WARN_CLAMPED:
-      snprintf(msg, sizeof msg, "%s (%s on %s at T = %g MeV, near the tip of "
-               "the spectrum; coulomb = false gives the uncorrected value, "
-               "method = 'born' the exact integral)", text, p->name,
+    case BL_WARN_CLAMPED: {
+      char where[256];
+      double vb;
+      if (w->kwin[1] > w->kwin[0])
+        snprintf(where, sizeof where, "at photon energies inside (%g, %g) "
+                 "MeV, where the integrand is then 0", w->kwin[0], w->kwin[1]);
+      else if (bornat(w, fmin(w->kclamp[1], 0.999 * o->T), 1, 0.0, &vb))
+        snprintf(where, sizeof where, "at %d of %d points, k = %g to %g MeV, "
+                 "where the true value is positive: the exact Born value "
+                 "without corrections at k = %g MeV is %.3g mb/MeV",
+                 w->nclamp, w->npts, w->kclamp[0], w->kclamp[1],
+                 fmin(w->kclamp[1], 0.999 * o->T), vb);
+      else
+        snprintf(where, sizeof where, "at %d of %d points, k = %g to %g MeV",
+                 w->nclamp, w->npts, w->kclamp[0], w->kclamp[1]);
+      snprintf(msg, sizeof msg, "%s %s (%s on %s at T = %g MeV; coulomb = "
+               "false gives the uncorrected value, method = 'born' or "
+               "'auto' the exact one)", text, where, p->name,
                o->target.name, o->T);
       break;
+    }
     default:
       snprintf(msg, sizeof msg, "%s (warning bit 0x%x)", text, bit);
       break;
@@ -346,6 +471,9 @@ void lbl_pushwarnings (lua_State *L, const Opts *o, const Warnings *w) {
     unsigned bit = 1u << i;
     if (bit == BL_WARN_BORN && w->kwin[1] > w->kwin[0]
         && lbl_coulomb_mean(o, zb, w->kwin[0], w->kwin[1]) <= BL_SYS_WARN)
+      continue;
+    if (bit == BL_WARN_POINTLIKE && (w->bits & bit)
+        && !pointlike_matters(o, w))
       continue;
     if (w->bits & bit) {
       pushwarning(L, o, w, bit);

@@ -138,7 +138,9 @@ do
   end
 end
 
--- warnings: none for an electron on carbon, point-like for hadrons
+-- warnings: none for an electron on carbon; for hadrons at 2 GeV on carbon
+-- the point charge, with the size of the form factor they leave out
+-- (above 1 % here: test_physics.lua 10 checks the size)
 do
   local s = bl.spectrum{ particle = "electron", target = "C", T = 10,
                          y = { 0.1, 0.5, 0.9 }, rtol = 1e-3 }
@@ -153,18 +155,20 @@ do
                             y = { 0.3 }, rtol = 1e-3 }
     local found
     for _, msg in ipairs(sp.warnings) do
-      if msg:find("treated as point-like", 1, true) and
-         msg:find(name, 1, true) then found = true end
+      if msg:find("treated as a point charge", 1, true) and
+         msg:find(name, 1, true) and msg:find("changes by -", 1, true) then
+        found = true
+      end
     end
     assert(found, name .. ": no point-like warning: " ..
            table.concat(sp.warnings, "; "))
     local _, _, dw = bl.dsdk{ particle = name, target = "C", T = 2000,
                               k = 600, rtol = 1e-3 }
-    assert(#dw >= 1 and dw[1]:find("point-like", 1, true))
+    assert(#dw >= 1 and dw[1]:find("point charge", 1, true))
     local _, aw = bl.differential{ particle = name, target = "C", T = 2000,
                                    k = 600, theta_k = 0.01, theta_p = 0.01,
                                    phi = 0 }
-    assert(#aw >= 1 and aw[1]:find("point-like", 1, true))
+    assert(#aw >= 1 and aw[1]:find("point charge", 1, true))
   end
 end
 

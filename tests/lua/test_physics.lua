@@ -266,4 +266,82 @@ do
   end
 end
 
+-- 10. the point-charge warning of a composite projectile gives its size:
+-- the exact-Born dsigma/dk with the projectile's charge form factor, a
+-- monopole F = 1/(1 + q^2 r^2/6) (r = 0.841 fm for the proton, from
+-- memory), against the point charge.  Every momentum transfer of the Born
+-- integral is at least delta = p0 - p - k (kinematics), and F falls with
+-- q, so the value drops by at least 1 - F(delta)^2: for a proton of 1 GeV
+-- on hydrogen at k = 900 MeV, delta = 351 MeV and the drop is >= 47 %.
+-- Where the nucleus already cuts the momentum transfers (a pion of 10 MeV
+-- on lead) the effect is below 1 % and no warning stands.
+do
+  local function pointlike(w)
+    for _, x in ipairs(w) do
+      if x:find("point charge", 1, true) then return x end
+    end
+    return nil
+  end
+  local HBARC = 197.3269804
+  local M = bl.particle("proton").mass
+  local T, k = 1000, 900
+  local p0 = math.sqrt(T * (T + 2 * M))
+  local p = math.sqrt((T - k) * (T - k + 2 * M))
+  local delta, r = p0 - p - k, 0.841
+  local F = 1 / (1 + (delta * r / HBARC)^2 / 6)
+  local _, _, w = bl.dsdk{ particle = "proton", target = "H", T = T, k = k,
+                           rtol = 1e-3 }
+  local text = pointlike(w)
+  check(text ~= nil, "proton on H: no point-charge warning")
+  local pct = tonumber(text:match("changes by ([-+%d.e]+) %%"))
+  check(pct ~= nil and pct <= -100 * (1 - F * F) and pct > -100,
+        "proton on H at k = 900 MeV: %s %%, the bound is %.3g %%",
+        tostring(pct), -100 * (1 - F * F))
+  _, _, w = bl.dsdk{ particle = "pion+", target = "Pb", T = 10, k = 5 }
+  text = pointlike(w)
+  check(text == nil, "pion+ on Pb at 10 MeV: %s", text or "")
+end
+
+-- 11. the warnings of a form used outside its range give their size: a
+-- muon of 1 GeV on lead with the high-energy form forced (gamma0 = 10.5,
+-- far below its range): the method warning states the deviation from the
+-- exact Born value at the largest k, which the test recomputes; the
+-- clamped warning (the Coulomb correction above the value at the tip) names
+-- the points and the exact Born value there
+do
+  local function find(w, s)
+    for _, x in ipairs(w) do
+      if x:find(s, 1, true) then return x end
+    end
+    return nil
+  end
+  local o = { particle = "muon", target = "Pb", T = 1000, rtol = 1e-4 }
+  for _, k in ipairs{ 300, 900 } do
+    local q = {}
+    for key, v in pairs(o) do q[key] = v end
+    q.k, q.method = k, "high-energy"
+    local vh, _, w = bl.dsdk(q)
+    q.method = "born"
+    local vb = bl.dsdk(q)
+    local text = find(w, "does not hold")
+    check(text ~= nil, "muon k = %g: no method warning", k)
+    local kk, pct = text:match("at k = ([%d.e+]+) MeV it gives ([-+%d.e]+) %%")
+    check(tonumber(kk) == k and math.abs(tonumber(pct) - 100 * (vh / vb - 1))
+          < 0.05 + 1e-3 * math.abs(tonumber(pct)),
+          "muon k = %g: %s %% at k = %s against %.4g %%", k, tostring(pct),
+          tostring(kk), 100 * (vh / vb - 1))
+    if vh == 0 then
+      local c = find(w, "set to 0")
+      check(c ~= nil, "muon k = %g: value 0 without the clamped warning", k)
+      local n, vb0 = c:match("at (%d+) of 1 points.-without corrections "
+                             .. "at k = [%d.e+]+ MeV is ([%d.e+-]+) mb")
+      q.coulomb, q.elwert = false, false
+      local plain = bl.dsdk(q)
+      check(n == "1" and rel(tonumber(vb0), plain) < 6e-3,   -- 3 digits
+            "muon k = %g: clamped warning %s (plain Born %g)", k, tostring(c),
+            plain)
+    end
+  end
+end
+
 print("test_physics: ok")

@@ -74,6 +74,54 @@ static int addterm (bl_case *c, int el, double x1, double x2, double coef) {
 
 
 /*
+** The projectile's charge form factor as one pole, F_p = lam/(lam + q^2)
+** (a monopole with the projectile's mean square radius 6/lam), applied to
+** the elastic vector sum_i a_i/(x_i + q^2):
+**   lam/((x + q^2)(lam + q^2)) = lam/(lam - x) [1/(x + q^2) - 1/(lam + q^2)],
+** so the vector stays a sum of simple poles, one more.  A pole within 2 %
+** of lam moves lam to 1.02 times it (the radius by 1 %, within its own
+** uncertainty), which bounds the weights' cancellation at 50.  Returns the
+** new length; *lam is the pole used.
+*/
+static int formfactor (double *vp, double *va, int n, double *lam) {
+  double extra = 0.0;
+  int i;
+  for (i = 0; i < n; i++)
+    if (fabs(*lam - vp[i]) < 0.02 * vp[i])
+      *lam = 1.02 * vp[i];
+  for (i = 0; i < n; i++) {
+    double f = *lam / (*lam - vp[i]);
+    extra -= va[i] * f;
+    va[i] *= f;
+  }
+  vp[n] = *lam;
+  va[n] = extra;
+  return n + 1;
+}
+
+
+/*
+** An electron term coef w_0 w_x (w_0 = 1/q^2) with the form factor on both
+** factors: F_p w_0 = w_0 - v and F_p w_x = lam/(lam - x) (w_x - v),
+** v = 1/(lam + q^2), so F_p^2 w_0 w_x is four pole products.
+*/
+static int electronff (bl_case *c, double x, double coef, double lam) {
+  double f = coef * lam / (lam - x);
+  int st;
+  if (fabs(lam - x) < 0.02 * x)
+    return BL_EMODEL;   /* an atomic pole at a hadron's: not in practice */
+  st = addterm(c, 0, 0.0, x, f);
+  if (st == BL_SUCCESS)
+    st = addterm(c, 0, 0.0, lam, -f);
+  if (st == BL_SUCCESS)
+    st = addterm(c, 0, x, lam, -f);
+  if (st == BL_SUCCESS)
+    st = addterm(c, 0, lam, lam, f);
+  return st;
+}
+
+
+/*
 ** The target factor W = G / (Z^2 q^4) as terms c w_i w_j (units m = 1):
 **   elastic:   ((Z F_N - F) / (Z q^2))^2 = (sum_i a_i w_i - sum_j c_j u_j)^2,
 **     1 - F/Z = sum_i a_i q^2 w_i from the model (Yukawa form), and
@@ -83,10 +131,10 @@ static int addterm (bl_case *c, int el, double x1, double x2, double coef) {
 **     S/Z = sum_k g_k q^2 w_k from the model's incoherent function,
 **     w_0 = 1/q^2.
 */
-static int targetfactor (bl_case *c) {
+static int targetfactor (bl_case *c, double lam) {
   bl_yukawa y;
-  double vp[BL_YUKAWA_MAX + BL_NUCLEUS_NPOLE];   /* poles of the vector */
-  double va[BL_YUKAWA_MAX + BL_NUCLEUS_NPOLE];   /* and their weights */
+  double vp[BL_YUKAWA_MAX + BL_NUCLEUS_NPOLE + 1];   /* poles of the vector */
+  double va[BL_YUKAWA_MAX + BL_NUCLEUS_NPOLE + 1];   /* and their weights */
   double m = c->particle.mass;
   int n = 0, i, j, st;
   st = c->screening->yukawa(c->Z, c->params, &y);
@@ -109,6 +157,8 @@ static int targetfactor (bl_case *c) {
       va[n++] = -bl_nucleus_coef[j];
     }
   }
+  if (lam > 0.0)
+    n = formfactor(vp, va, n, &lam);
   c->npole = c->nterm = 0;
   c->qmax2 = 4.0 * (sqrt(c->t0 * (c->t0 + 2.0)) + 1.0)
              * (sqrt(c->t0 * (c->t0 + 2.0)) + 1.0);
@@ -127,7 +177,8 @@ static int targetfactor (bl_case *c) {
       return BL_EMODEL;
     for (i = 0; i < y.n; i++) {
       double b = y.b[i] / m;
-      st = addterm(c, 0, 0.0, b * b, y.alpha[i] / c->Z);
+      st = lam > 0.0 ? electronff(c, b * b, y.alpha[i] / c->Z, lam)
+                     : addterm(c, 0, 0.0, b * b, y.alpha[i] / c->Z);
       if (st != BL_SUCCESS)
         return st;
     }
@@ -193,5 +244,16 @@ int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
   c->warn = (p->flags & BL_PARTICLE_COMPOSITE) ? BL_WARN_POINTLIKE : 0u;
   if (c->opts.electrons && p->mass > 2.0 * BL_ME_MEV)
     c->warn |= BL_WARN_STATIC_E;
-  return targetfactor(c);
+  return targetfactor(c, 0.0);
+}
+
+
+int bl_case_set_formfactor (bl_case *c, double radius) {
+  double r;
+  if (c == NULL || !(radius > 0.0) || !isfinite(radius))
+    return BL_EDOMAIN;
+  r = radius * c->particle.mass / BL_HBARC_MEVFM;   /* units of 1/m */
+  if (!(r > 0.0) || !isfinite(6.0 / (r * r)))
+    return BL_EDOMAIN;
+  return targetfactor(c, 6.0 / (r * r));
 }

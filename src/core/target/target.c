@@ -217,6 +217,47 @@ int bl_target_dk_e (const bl_target *t, double k, bl_quad *q,
 
 
 /*
+** The exact-Born dsigma/dk of the target at k, the reference the size of
+** a warning is measured against: each element by the Born integral with
+** its corrections (plain = 0) or without them (plain = 1), the projectile
+** a point charge (radius 0) or with its charge form factor of that radius
+** (bl_case_set_formfactor); the medium's suppression as bl_target_dk_e.
+*/
+int bl_target_born_dk_e (const bl_target *t, double k, int plain,
+                         double radius, bl_quad *q, bl_tresult *out) {
+  int i, soft = BL_SUCCESS;
+  if (out == NULL)
+    return BL_EDOMAIN;
+  clear(out);
+  if (t == NULL || t->n < 1 || q == NULL || radius < 0.0)
+    return BL_EDOMAIN;
+  out->k = k;
+  for (i = 0; i < t->n; i++) {
+    bl_case c = t->c[i];
+    bl_result r;
+    int st = BL_SUCCESS;
+    if (plain)
+      c.opts.coulomb = c.opts.elwert = BL_APPLY_OFF;
+    if (radius > 0.0)
+      st = bl_case_set_formfactor(&c, radius);
+    if (st == BL_SUCCESS)
+      st = bl_method_dk_e(&c, NULL, BL_METHOD_BORN, k, q, &r);
+    else
+      memset(&r, 0, sizeof r);
+    out->Z = c.Z;
+    if (st != BL_SUCCESS && bl_status_soft(st))
+      soft = st;
+    st = checkelement(t, i, st, &r, k, out);
+    if (st != BL_SUCCESS)
+      return st;
+    addelement(t, i, &r, &out->r, out);
+  }
+  suppress(t, k, &out->r, out);
+  return soft;
+}
+
+
+/*
 ** A spectrum interrupted during element j (its stop flag set): a point is
 ** finished when every element has been added, so only when j is the last
 ** element and the point's own evaluation ran (status not BL_EINTR); those
