@@ -138,7 +138,7 @@ typedef struct Warnings {
   const bl_target *t;  /* the call's target: the sizes of the POINTLIKE,
                        ** METHOD and CLAMPED warnings are measured on it */
   double kseen;        /* largest k of a point; 0: none */
-  double kmethod;      /* largest k flagged BL_WARN_METHOD */
+  double kbit[BL_WARN_COUNT];  /* largest k flagged by each bit; 0: none */
   double kclamp[2];    /* smallest and largest k flagged BL_WARN_CLAMPED */
   int nclamp;          /* points flagged BL_WARN_CLAMPED */
 } Warnings;

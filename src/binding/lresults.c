@@ -120,6 +120,7 @@ void lbl_initwarn (Warnings *w, const bl_target *t) {
 /* Add one point's result, computed at photon energy k, described by `at`. */
 void lbl_addwarn (Warnings *w, const bl_result *r, double k,
                   const char *at) {
+  int i;
   w->npts++;
   w->bits |= r->warn;
   w->applied |= r->applied;
@@ -135,8 +136,9 @@ void lbl_addwarn (Warnings *w, const bl_result *r, double k,
     w->kborn = k;
   if (k > w->kseen)
     w->kseen = k;
-  if ((r->warn & BL_WARN_METHOD) && k > w->kmethod)
-    w->kmethod = k;
+  for (i = 0; i < BL_WARN_COUNT; i++)
+    if ((r->warn & (1u << i)) && k > w->kbit[i])
+      w->kbit[i] = k;
   if (r->warn & BL_WARN_CLAMPED) {
     if (w->nclamp++ == 0 || k < w->kclamp[0])
       w->kclamp[0] = k;
@@ -203,6 +205,15 @@ static double sizek (const Opts *o, const Warnings *w, double kflag) {
 }
 
 
+/* The largest k of the points flagged by warning bit `bit`; 0: none. */
+static double kbit (const Warnings *w, unsigned bit) {
+  int i = 0;
+  while (i < BL_WARN_COUNT - 1 && (1u << i) != bit)
+    i++;
+  return w->kbit[i];
+}
+
+
 /*
 ** The exact-Born dsigma/dk of the call's target at k (bl_target_born_dk_e:
 ** plain, without corrections, or with them; with the projectile's form
@@ -217,11 +228,30 @@ static int bornat (const Warnings *w, double k, int plain, double radius,
   if (w->t == NULL || (q = bl_quad_alloc(QUAD_LIMIT)) == NULL)
     return 0;
   bl_quad_set_rtol(q, SIZE_RTOL);
+  bl_quad_set_stop(q, lbl_stopflag());   /* interrupted: no size */
   st = bl_target_born_dk_e(w->t, k, plain, radius, q, &tr);
   bl_quad_free(q);
   *v = tr.r.val;
   return (st == BL_SUCCESS || bl_status_soft(st)) && isfinite(*v)
          && *v > 0.0;
+}
+
+
+/*
+** How much the corrections applied change the exact-Born value at the
+** largest k flagged by `bit` (the sizing k of sizek): into size, as a
+** clause of the warning; "not estimated" when an evaluation failed.
+*/
+static void correctionsize (const Opts *o, const Warnings *w, unsigned bit,
+                            char *size, size_t n) {
+  double k = sizek(o, w, kbit(w, bit)), vc, vp;
+  if (bornat(w, k, 0, 0.0, &vc) && bornat(w, k, 1, 0.0, &vp))
+    snprintf(size, n, "here the corrections applied change the exact-Born "
+             "dsigma/dk at k = %g MeV by %+.3g %%", k,
+             100.0 * (vc / vp - 1.0));
+  else
+    snprintf(size, n, "its size here was not estimated (an evaluation "
+             "failed)");
 }
 
 
@@ -318,19 +348,31 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                  bl_born_xi(p->charge, zb, o->T - k, p->mass), corr);
       break;
     }
-    case BL_WARN_COULOMB:
+    case BL_WARN_COULOMB: {
+      char size[192];
+      correctionsize(o, w, bit, size, sizeof size);
       snprintf(msg, sizeof msg, "%s: it holds for gamma >= %g before and "
                ">= %g after emission and hbar/(m c) >= %g nuclear radii; here "
                "gamma0 = %.4g, hbar/(m c) = %.3g fm (%s, target %s; for "
-               "angular distributions it is not available at all)", text,
-               BL_COULOMB_GAMMA0_MIN, BL_COULOMB_GAMMA_MIN, BL_COULOMB_RADII,
-               g0, BL_HBARC_MEVFM / p->mass, p->name, o->target.name);
+               "angular distributions it is not available at all); %s; "
+               "coulomb = 'auto' applies it only where it holds, method "
+               "'auto' (distorted waves) contains Coulomb effects at every "
+               "energy", text, BL_COULOMB_GAMMA0_MIN, BL_COULOMB_GAMMA_MIN,
+               BL_COULOMB_RADII, g0, BL_HBARC_MEVFM / p->mass, p->name,
+               o->target.name, size);
       break;
-    case BL_WARN_ELWERT:
+    }
+    case BL_WARN_ELWERT: {
+      char size[192];
+      correctionsize(o, w, bit, size, sizeof size);
       snprintf(msg, sizeof msg, "%s: it holds for gamma0 <= %.4g (T <= %g MeV "
-               "for electrons); here gamma0 = %.4g (%s, T = %g MeV)", text,
-               BL_ELWERT_GAMMA0_MAX, BL_ELWERT_T_ELECTRON, g0, p->name, o->T);
+               "for electrons); here gamma0 = %.4g (%s, T = %g MeV); %s; "
+               "elwert = 'auto' applies it only where it holds, method "
+               "'auto' (distorted waves) contains Coulomb effects at every "
+               "energy", text, BL_ELWERT_GAMMA0_MAX, BL_ELWERT_T_ELECTRON, g0,
+               p->name, o->T, size);
       break;
+    }
     case BL_WARN_STATIC_E: {
       /* the size: Tsai's complete-screening share of the electron term
       ** (Tsai 1974, Rev. Mod. Phys. 46, 815: the complete-screening terms
@@ -356,7 +398,7 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
       break;
     }
     case BL_WARN_METHOD: {
-      double k = sizek(o, w, w->kmethod), vb;
+      double k = sizek(o, w, kbit(w, BL_WARN_METHOD)), vb;
       bl_tresult tr;
       bl_quad *q = bl_quad_alloc(QUAD_LIMIT);
       char size[160] = "its deviation from the exact Born value was not "
@@ -364,10 +406,12 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
       int st = BL_EDOMAIN;
       if (q != NULL) {   /* the method's own value at k, then Born's */
         bl_quad_set_rtol(q, SIZE_RTOL);
+        bl_quad_set_stop(q, lbl_stopflag());   /* interrupted: no size */
         st = bl_target_dk_e(w->t, k, q, &tr);
         bl_quad_free(q);
       }
-      if ((st == BL_SUCCESS || bl_status_soft(st)) && bornat(w, k, 0, 0.0, &vb))
+      if ((st == BL_SUCCESS || bl_status_soft(st))
+          && bornat(w, k, 0, 0.0, &vb))
         snprintf(size, sizeof size, "at k = %g MeV it gives %+.3g %% of the "
                  "exact Born value (same corrections)", k,
                  100.0 * (tr.r.val / vb - 1.0));

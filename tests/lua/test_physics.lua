@@ -344,4 +344,30 @@ do
   end
 end
 
+-- 12. a correction forced outside its validity says how much it changes
+-- the value there: both corrections on an electron of 5 MeV on lead
+-- (Elwert factor above its 2 MeV, Coulomb correction below gamma0 = 100)
+do
+  local o = { particle = "electron", target = "Pb", T = 5, k = 4,
+              method = "born", rtol = 1e-4 }
+  local function with(c, e)
+    local q = {}
+    for key, v in pairs(o) do q[key] = v end
+    q.coulomb, q.elwert = c, e
+    return bl.dsdk(q)
+  end
+  local both, _, w = with(true, true)
+  local plain = with(false, false)
+  local n = 0
+  for _, x in ipairs(w) do
+    if x:find("outside its validity", 1, true) then
+      local pct = tonumber(x:match("k = 4 MeV by ([-+%d.e]+) %%"))
+      check(pct ~= nil and math.abs(pct - 100 * (both / plain - 1)) < 0.05,
+            "forced corrections: %s against %.4g %%", x, 100 * (both / plain - 1))
+      n = n + 1
+    end
+  end
+  check(n == 2, "forced corrections: %d warnings with a size", n)
+end
+
 print("test_physics: ok")
