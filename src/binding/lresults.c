@@ -504,7 +504,8 @@ double lbl_coulomb_mean (const Opts *o, int Z, double kmin, double kmax) {
 /*
 ** Push the list of warnings: one string per bit set, in bit order, so the
 ** list is deduplicated by construction; empty when none.  An integral's
-** Born warning stands only where the average effect exceeds BL_SYS_WARN.
+** Born warning stands only where the average effect exceeds BL_SYS_WARN;
+** the point-charge and suppression warnings only where their effect does.
 */
 void lbl_pushwarnings (lua_State *L, const Opts *o, const Warnings *w) {
   unsigned i;
@@ -519,6 +520,9 @@ void lbl_pushwarnings (lua_State *L, const Opts *o, const Warnings *w) {
     if (bit == BL_WARN_POINTLIKE && (w->bits & bit)
         && !pointlike_matters(o, w))
       continue;
+    if (bit == BL_WARN_SUPPRESS && 1.0 - w->minsup < BL_SYS_WARN)
+      continue;   /* the approximate suppression changed nothing that
+                  ** matters: below 1 % everywhere */
     if (w->bits & bit) {
       pushwarning(L, o, w, bit);
       lua_rawseti(L, -2, ++n);

@@ -161,10 +161,13 @@ do
   check(table.concat(w1, "\n"):find("E_LPM"), "the warning names E_LPM")
   check(info.settings.suppression == "lpm", "settings")
   local u0 = bl.dsdk{ particle = "electron", target = "Pb", T = 1e3, k = 100 }
-  local u1 = bl.dsdk{ particle = "electron", target = "Pb", T = 1e3, k = 100,
-                      suppression = "lpm+dielectric" }
+  local u1, _, wu = bl.dsdk{ particle = "electron", target = "Pb", T = 1e3,
+                             k = 100, suppression = "lpm+dielectric" }
   check(rel(u0, u1) < 1e-3, "no suppression at 1 GeV, k = 100 MeV")
-  nchecks = nchecks + 4
+  check(not table.concat(wu, "\n"):find("E_LPM"),
+        "no suppression warning where it changes nothing: %s",
+        table.concat(wu, "; "))
+  nchecks = nchecks + 5
 end
 
 -- 6. angular distribution integrated over a k window equals the sum of
