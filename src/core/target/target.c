@@ -169,6 +169,23 @@ fail:
 }
 
 
+/*
+** Take element i's status st and result r at k into the sum out: a soft
+** status is kept in *soft (the last one is returned by the caller); a hard
+** failure is returned (checkelement).
+*/
+static int take (const bl_target *t, int i, int st, bl_result *r, double k,
+                 bl_tresult *out, int *soft) {
+  out->Z = t->c[i].Z;
+  if (st != BL_SUCCESS && bl_status_soft(st))
+    *soft = st;
+  st = checkelement(t, i, st, r, k, out);
+  if (st == BL_SUCCESS)
+    addelement(t, i, r, &out->r, out);
+  return st;
+}
+
+
 int bl_target_point_e (const bl_target *t, int kind, double k, double theta_k,
                        double theta_p, double phi, bl_quad *q,
                        bl_tresult *out) {
@@ -196,13 +213,9 @@ int bl_target_point_e (const bl_target *t, int kind, double k, double theta_k,
       default:
         return BL_EDOMAIN;
     }
-    out->Z = c->Z;
-    if (st != BL_SUCCESS && bl_status_soft(st))
-      soft = st;
-    st = checkelement(t, i, st, &r, k, out);
+    st = take(t, i, st, &r, k, out, &soft);
     if (st != BL_SUCCESS)
       return st;
-    addelement(t, i, &r, &out->r, out);
   }
   if (kind == BL_TARGET_DK)
     suppress(t, k, &out->r, out);
@@ -244,13 +257,9 @@ int bl_target_born_dk_e (const bl_target *t, double k, int plain,
       st = bl_method_dk_e(&c, NULL, BL_METHOD_BORN, k, q, &r);
     else
       memset(&r, 0, sizeof r);
-    out->Z = c.Z;
-    if (st != BL_SUCCESS && bl_status_soft(st))
-      soft = st;
-    st = checkelement(t, i, st, &r, k, out);
+    st = take(t, i, st, &r, k, out, &soft);
     if (st != BL_SUCCESS)
       return st;
-    addelement(t, i, &r, &out->r, out);
   }
   suppress(t, k, &out->r, out);
   return soft;
