@@ -120,6 +120,28 @@ for _, c in ipairs{ { "electron", "W", 10, 0.05, 9, "born" },
   nchecks = nchecks + 4
 end
 
+-- 3b. a photon yield's model uncertainty is that of its cross section: the
+-- yield is the cross section times a per-unit factor, value and sys alike
+-- (it once kept sys in mb: "up to 7.3e+06 %")
+do
+  local o = { particle = "electron", target = "W", T = 20, kmin = 14,
+              kmax = 20, rtol = 1e-3 }
+  local x = bl.cross_section(o)
+  o.thickness, o.bins = 0.193, 1
+  local y = bl.photon_yield(o)
+  local function share(w)
+    for _, t in ipairs(w) do
+      local v = t:match("Sommerfeld%-Maue%): .-up to ([%d.e+-]+) %%")
+      if v then return tonumber(v) end
+    end
+  end
+  local a, b = share(x.warnings), share(y.warnings)
+  check(a ~= nil and b ~= nil and rel(a, b) < 1e-9 and a < 100,
+        "model uncertainty of the yield %s %%, of the cross section %s %%",
+        tostring(b), tostring(a))
+  nchecks = nchecks + 1
+end
+
 -- 4. settings.method says what was used, per point for "auto"
 do
   local s = bl.spectrum{ particle = "electron", target = "Cu", T = 1e4,

@@ -535,6 +535,7 @@ int bl_target_photon_yield_e (const bl_target *t, double thickness,
                                    edges[i + 1], q, &out[i], NULL);
     out[i].r.val *= perunit;
     out[i].r.err *= perunit;
+    out[i].r.sys *= perunit;
     if (st != BL_SUCCESS && !bl_status_soft(st)) {
       if (failbin != NULL)
         *failbin = i;
