@@ -270,19 +270,10 @@ static int formfactorsize (const Opts *o, const Warnings *w, double k,
 }
 
 
-/* The point-like warning stands where the form factor's effect is
-** above BL_SYS_WARN or unknown (radius not known). */
-static int pointlike_matters (const Opts *o, const Warnings *w) {
-  double rel;
-  if (!formfactorsize(o, w, sizek(o, w, 0.0), &rel))
-    return 1;
-  return fabs(rel) > BL_SYS_WARN;
-}
-
-
-/* Push the string for warning bit `bit`, with the numbers of this call. */
+/* Push the string for warning bit `bit`, with the numbers of this call;
+** ffok and ffrel: formfactorsize's answer for the point-charge warning. */
 static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
-                         unsigned bit) {
+                         unsigned bit, int ffok, double ffrel) {
   char msg[MSGSIZE];
   const char *text = bl_warn_text(bit);
   const bl_particle *p = &o->particle;
@@ -297,8 +288,8 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                w->npts, o->rtol, w->worst, w->worstat);
       break;
     case BL_WARN_POINTLIKE: {
-      double k = sizek(o, w, 0.0), rel, r = bl_particle_radius(p);
-      if (formfactorsize(o, w, k, &rel))
+      double k = sizek(o, w, 0.0), rel = ffrel, r = bl_particle_radius(p);
+      if (ffok)
         snprintf(msg, sizeof msg, "%s: with its charge form factor (a "
                  "monopole of radius %g fm) the exact-Born dsigma/dk of %s "
                  "on %s at T = %g MeV, k = %g MeV changes by %+.3g %% (the "
@@ -509,7 +500,8 @@ double lbl_coulomb_mean (const Opts *o, int Z, double kmin, double kmax) {
 */
 void lbl_pushwarnings (lua_State *L, const Opts *o, const Warnings *w) {
   unsigned i;
-  int n = 0;
+  int n = 0, ffok = 0;
+  double ffrel = 0.0;
   int zb = w->zborn > 0 ? w->zborn : o->Z;
   lua_newtable(L);
   for (i = 0; i < 8 * sizeof w->bits; i++) {
@@ -517,14 +509,18 @@ void lbl_pushwarnings (lua_State *L, const Opts *o, const Warnings *w) {
     if (bit == BL_WARN_BORN && w->kwin[1] > w->kwin[0]
         && lbl_coulomb_mean(o, zb, w->kwin[0], w->kwin[1]) <= BL_SYS_WARN)
       continue;
-    if (bit == BL_WARN_POINTLIKE && (w->bits & bit)
-        && !pointlike_matters(o, w))
-      continue;
+    if (bit == BL_WARN_POINTLIKE && (w->bits & bit)) {
+      /* stands where the form factor's effect exceeds BL_SYS_WARN or is
+      ** not known */
+      ffok = formfactorsize(o, w, sizek(o, w, 0.0), &ffrel);
+      if (ffok && fabs(ffrel) <= BL_SYS_WARN)
+        continue;
+    }
     if (bit == BL_WARN_SUPPRESS && 1.0 - w->minsup < BL_SYS_WARN)
       continue;   /* the approximate suppression changed nothing that
                   ** matters: below 1 % everywhere */
     if (w->bits & bit) {
-      pushwarning(L, o, w, bit);
+      pushwarning(L, o, w, bit, ffok, ffrel);
       lua_rawseti(L, -2, ++n);
     }
   }
