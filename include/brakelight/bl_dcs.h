@@ -73,6 +73,12 @@ typedef struct bl_case {
                               ** (elastic) part, the rest the electrons' */
   double ridge_b;             /* smallest screening pole of the elastic part */
   unsigned warn;              /* warnings that hold for every k (BL_WARN_*) */
+  int ebt;                    /* electron term: 0 the static charges as
+                              ** they are; 1 (electron) or 2 (positron):
+                              ** scaled per k to the bound electron term
+                              ** of the table (bl_case_eratio) */
+  double ekmax;               /* with ebt: the end point on a free
+                              ** electron at rest, MeV */
 } bl_case;
 
 /* Largest T/m bl_case_setup accepts.  Beyond it the angular scales
@@ -100,6 +106,21 @@ int bl_case_init (bl_case *c, const bl_particle *p, int Z,
 int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
                    const bl_model *screening, const double *params, double T,
                    const bl_opts *o);
+
+/*
+** The factor on the static-charge electron term S(q)/(Z^2 q^4) at photon
+** energy k (MeV) that makes it the bound electron term: 1 where the case
+** keeps the static charges (c->ebt == 0: electrons off, or a projectile
+** other than e-/e+); else the tabulated ratio of the tree-level cross
+** section on a free electron at rest with recoil, exchange (e-) or
+** annihilation (e+), weighted by the Hartree-Fock S(q)/Z of the struck
+** electron (src/core/ebrems/), to the static term, per atomic electron:
+** continuous in Z, T and k, exactly 0 at and above the end point
+** c->ekmax (DEVELOPERS.md, "Electron-target bremsstrahlung", "Wired in").
+** bl_case_setup sets c->ebt = 1 or 2 for an electron or a positron with
+** electrons on and a model that has an electron field.
+*/
+double bl_case_eratio (const bl_case *c, double k);
 
 /* Uniform sphere of radius R: F_N(x)^2 with x = q R, and the rational
 ** approximation the core integrates (src/core/born/nucleus.c). */

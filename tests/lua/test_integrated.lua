@@ -54,13 +54,16 @@ do
 end
 
 -- 2. Radiative stopping power of electrons in water: ICRU Report 37
--- (1984): 0.183 MeV cm^2/g at 10 MeV and 2.40 MeV cm^2/g at 100 MeV (from
+-- (1984): 0.0129 MeV cm^2/g at 1 MeV and 0.183 MeV cm^2/g at 10 MeV (from
+-- memory: 3 %; issue 13, with the bound electron term of the atomic
+-- electrons: recoil, exchange, end point), 2.40 MeV cm^2/g at 100 MeV (from
 -- memory: 5 %).
 do
-  for _, c in ipairs{ { 10, 0.183 }, { 100, 2.40 } } do
+  for _, c in ipairs{ { 1, 0.0129, 0.03 }, { 10, 0.183, 0.03 },
+                      { 100, 2.40, 0.05 } } do
     local r = bl.energy_loss{ particle = "electron", target = "H2O",
                               T = c[1], rtol = 1e-3 }
-    check(rel(r.dedx, c[2]) < 0.05, "water %g MeV: %.4g vs ICRU 37 %.4g",
+    check(rel(r.dedx, c[2]) < c[3], "water %g MeV: %.4g vs ICRU 37 %.4g",
           c[1], r.dedx, c[2])
     check(r.units.dedx == "MeV cm^2/g", "units")
     check(r.err < 1e-3 * r.dedx * 2, "error estimate %.3g", r.err)
