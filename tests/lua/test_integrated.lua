@@ -43,11 +43,16 @@ do
     local P = 4 * u / 3 - 2 * u * u / 3 + u * u * u / 3
     local Q = (u - u * u / 2) / 9
     local want = E0 / r.radiation_length * (P + (Z * Z + Z) / A * Q)
-    check(rel(r.dedx, want) < 1e-6, "Z=%d: dedx %.10g vs Tsai %.10g", Z,
-          r.dedx, want)
+    -- the bound electron term (issue 13) falls to 0 at its end point over
+    -- the last ~5 m_e/T of y (src/core/ebrems/table.c, tip()): that takes
+    -- less than its share Z L'/A times 10 such widths from Tsai's form
+    -- (measured 1.5e-6 on carbon)
+    local tip = Z * Lp / A * 10 * 5 * ME / T
+    check(rel(r.dedx, want) < 1e-6 + tip, "Z=%d: dedx %.10g vs Tsai %.10g",
+          Z, r.dedx, want)
     local limit = E0 / r.radiation_length * (1 + (Z * Z + Z) / (18 * A))
-    check(rel(r.dedx, limit) < 1e-6, "Z=%d: vs the y_max = 1 form %.3g", Z,
-          rel(r.dedx, limit))
+    check(rel(r.dedx, limit) < 1e-6 + tip,
+          "Z=%d: vs the y_max = 1 form %.3g", Z, rel(r.dedx, limit))
     check(r.settings.method == "complete", "method %s", r.settings.method)
     nchecks = nchecks + 2
   end
