@@ -38,6 +38,7 @@ extern const bl_opts bl_opts_default;
 
 #define BL_POLE_MAX 24
 #define BL_TERM_MAX 200
+#define BL_EBT_ROW 16   /* room for the electron table's u nodes */
 
 /* One term c w_i w_j of the target factor, w_i = 1/(pole_i + q^2), with
 ** pole_i <= pole_j. */
@@ -79,6 +80,9 @@ typedef struct bl_case {
                               ** of the table (bl_case_eratio) */
   double ekmax;               /* with ebt: the end point on a free
                               ** electron at rest, MeV */
+  double ebrow[2][BL_EBT_ROW]; /* with ebt: the table's rows for this Z
+                              ** and T (src/core/ebrems/table.c) */
+  double ebwz, ebwb;          /* with ebt: their Z and blend weights */
 } bl_case;
 
 /* Largest T/m bl_case_setup accepts.  Beyond it the angular scales

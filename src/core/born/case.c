@@ -202,6 +202,7 @@ int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
     double e0 = T + BL_ME_MEV, p0 = sqrt(T * (T + 2.0 * BL_ME_MEV));
     c->ebt = p->charge < 0.0 ? 1 : 2;
     c->ekmax = T / (1.0 + BL_ME_MEV / (e0 + p0));
+    bl_ebt_rows(c->ebt - 1, Z, T, c->ebrow, &c->ebwz, &c->ebwb);
   } else if (c->opts.electrons && p->mass > 2.0 * BL_ME_MEV)
     c->warn |= BL_WARN_STATIC_E;
   return targetfactor(c);
@@ -213,5 +214,5 @@ double bl_case_eratio (const bl_case *c, double k) {
     return 1.0;
   if (!(k < c->ekmax))
     return 0.0;
-  return bl_ebt_ratio(c->ebt - 1, c->Z, c->T, k / c->ekmax);
+  return bl_ebt_eval(c->ebrow, c->ebwz, c->ebwb, c->T, k / c->ekmax);
 }

@@ -19,15 +19,17 @@
 #include <pthread.h>
 
 #include "brakelight/bl_const.h"
+#include "brakelight/bl_dcs.h"
 #include "ebrems/table.h"
 
-const int bl_ebt_z[EBT_NZ] = {1, 8, 82};
-const double bl_ebt_u[EBT_NU] = {0.02, 0.08, 0.18, 0.3, 0.45, 0.6, 0.75,
-                                 0.87, 0.95, 0.985, 0.997};
+const int bl_ebt_z[EBT_NZ] = {1, 4, 8, 20, 82};
+const double bl_ebt_u[EBT_NU] = {0.005, 0.02, 0.04, 0.08, 0.18, 0.3, 0.45,
+                                 0.6, 0.75, 0.87, 0.95, 0.985, 0.997};
 
 
 /* ln R of the table and ln(1 - u) of the nodes, made once (thread-safe) */
 static double lnr[2][EBT_NZ][EBT_NT][EBT_NU], lnu[EBT_NU];
+typedef char ebt_row_fits[EBT_NU <= BL_EBT_ROW ? 1 : -1];
 static pthread_once_t once = PTHREAD_ONCE_INIT;
 
 static void make_logs (void) {
@@ -132,6 +134,85 @@ static double at_z (int kind, int iz, double lt, double u) {
     v += w * (lim - v);
   }
   return v;
+}
+
+
+/* ln R at every u node for Z node iz at ln T (held outside the table). */
+static void row_t (int kind, int iz, double lt, double *row) {
+  double x = (lt - EBT_LT0) / EBT_DLT, xs[4], wt[4];
+  int it, st, a, j;
+  if (x < 0.0)
+    x = 0.0;
+  if (x > EBT_NT - 1)
+    x = EBT_NT - 1;
+  it = (int)x;
+  if (it > EBT_NT - 2)
+    it = EBT_NT - 2;
+  st = stencil(it, EBT_NT);
+  for (a = 0; a < 4; a++)
+    xs[a] = st + a;
+  lagrange4(xs, x, wt);
+  for (j = 0; j < EBT_NU; j++) {
+    row[j] = 0.0;
+    for (a = 0; a < 4; a++)
+      row[j] += wt[a] * lnr[kind][iz][st + a][j];
+  }
+}
+
+
+void bl_ebt_rows (int kind, int Z, double T, double rows[2][BL_EBT_ROW],
+                  double *wz, double *wb) {
+  double lt = log(T), top = EBT_LT0 + EBT_DLT * (EBT_NT - 1);
+  int iz;
+  pthread_once(&once, make_logs);
+  if (kind < 0 || kind > 1)
+    kind = 0;
+  if (Z <= bl_ebt_z[0] || Z >= bl_ebt_z[EBT_NZ - 1]) {
+    iz = Z <= bl_ebt_z[0] ? 0 : EBT_NZ - 1;
+    row_t(kind, iz, lt, rows[0]);
+    row_t(kind, iz, lt, rows[1]);
+    *wz = 0.0;
+  }
+  else {
+    for (iz = 0; Z > bl_ebt_z[iz + 1]; iz++)
+      ;
+    row_t(kind, iz, lt, rows[0]);
+    row_t(kind, iz + 1, lt, rows[1]);
+    *wz = (log((double)Z) - log((double)bl_ebt_z[iz]))
+          / (log((double)bl_ebt_z[iz + 1]) - log((double)bl_ebt_z[iz]));
+  }
+  *wb = lt > top ? fmin((lt - top) / EBT_LBLEND, 1.0) : 0.0;
+}
+
+
+double bl_ebt_eval (const double rows[2][BL_EBT_ROW], double wz, double wb,
+                    double T, double u) {
+  double wu[4], v[2], lim = 1.0, r;
+  int iu, su, b, z;
+  if (!(u < 1.0))
+    return 0.0;
+  if (u > bl_ebt_u[EBT_NU - 1]) {   /* the last stretch: tip() */
+    lim = tip(T, u);
+    for (z = 0; z < 2; z++)
+      v[z] = exp(rows[z][EBT_NU - 1]) * lim;
+  }
+  else {
+    double x = log1p(-(u < bl_ebt_u[0] ? bl_ebt_u[0] : u));
+    for (iu = 0; iu < EBT_NU - 2 && u > bl_ebt_u[iu + 1]; iu++)
+      ;
+    su = stencil(iu, EBT_NU);
+    lagrange4(lnu + su, x, wu);   /* in ln(1 - u), as at_t */
+    for (z = 0; z < 2; z++) {
+      double s = 0.0;
+      for (b = 0; b < 4; b++)
+        s += wu[b] * rows[z][su + b];
+      v[z] = exp(s);
+    }
+  }
+  for (z = 0; z < 2; z++)   /* the blend above the top, as at_z */
+    v[z] += wb * (lim - v[z]);
+  r = (1.0 - wz) * v[0] + wz * v[1];
+  return fmax(r, 0.0);
 }
 
 
