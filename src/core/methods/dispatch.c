@@ -112,9 +112,10 @@ int bl_method_breaks (const bl_case *c, const bl_he *h, int method,
     k[n] = bl_coulomb_kend(c);
     jump[n++] = 0.1;
   }
-  /* the bound electron term of e-/e+ (bl_case_eratio) falls linearly to 0
-  ** between the last node of its table and the end point on a free
-  ** electron: two kinks, of at most the electron share 1/(Z + 1) */
+  /* the bound electron term of e-/e+ (bl_case_eratio) falls to 0 between
+  ** the last node of its table and the end point on a free electron
+  ** (src/core/ebrems/table.c, tip()): two kinks, of at most the electron
+  ** share 1/(Z + 1) */
   if (c->ebt != 0 && c->ekmax < c->T && n + 2 <= nmax) {
     k[n] = c->ekmax;
     jump[n++] = 1.0 / (c->Z + 1.0);
