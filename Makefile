@@ -570,7 +570,7 @@ $(ROCKSPEC): scripts/brakelight.rockspec.in $(VERSION_H)
 	sed 's|@VERSION@|$(VERSION)|g' $< > $@
 
 # ---- benchmarks and generators ---------------------------------------------
-.PHONY: bench hf-table nuc-table error-sweep error-ref dw-positron continuity \
+.PHONY: bench hf-table nuc-table eb-table error-sweep error-ref dw-positron continuity \
         continuity-full
 # The fixed earlier commit that make bench and make error-ref build in a git
 # worktree build/base/<commit> (the main before issue 14's integrator).
@@ -661,6 +661,15 @@ nuc-table: $(LIB)
 	$(CC) $(CPPFLAGS) -Isrc/core $(CFLAGS) -o $(B)/fit-nucsize \
 	  scripts/fit-nucsize.c $(LIB) $(LIBS)
 	./$(B)/fit-nucsize -j 2 -o src/core/methods/nuc_table.c
+
+# Regenerate src/core/ebrems/eb_table.c: the bound electron term of e-/e+
+# as a ratio to the static-charge term (scripts/fit-ebrems.c; about 25 min
+# on two cores).  Never part of all or check.
+eb-table: $(LIB)
+	@mkdir -p $(B)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -o $(B)/fit-ebrems scripts/fit-ebrems.c \
+	  $(LIB) $(LIBS)
+	./$(B)/fit-ebrems -j 2 -o src/core/ebrems/eb_table.c
 
 # before/after comparison
 # make compare-points [BASE=<git rev>] [COMPARE_POINTS=N] [COMPARE_SEED=S]

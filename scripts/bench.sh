@@ -15,7 +15,9 @@
 #    sampler (scripts/bench_sampler.c: setup time, efficiency, events/s
 #    against 1e5/s, two threads against one); the electron-target
 #    dsigma/dk (scripts/bench_ebrems.c: time per point at rtol 1e-3 and its
-#    ratio to the nuclear Born point of the same T and k);
+#    ratio to the nuclear Born point of the same T and k); the bound
+#    electron term as electrons = true gives it for e-/e+ (scripts/
+#    bench_ewire.c: its cost over the nuclear term's, and the first call);
 # 2. if Debian's /usr/bin/python3 has SciPy, evaluates a few of the same
 #    points with the independent SciPy integration (scripts/bench_scipy.py)
 #    and prints the time ratio and the relative difference of the values.
@@ -100,6 +102,10 @@ bench_prog bench_dw | tail -n 1
 echo
 echo "== electron target (scripts/bench_ebrems.c): rtol 1e-3, against nuclear Born in the same run"
 bench_prog bench_ebrems
+
+echo
+echo "== bound electron term of e-/e+ as the methods give it (scripts/bench_ewire.c): rtol 1e-3, against the nuclear term in the same run"
+bench_prog bench_ewire
 
 echo
 echo "== event sampler (scripts/bench_sampler.c): e- on W, 10 MeV and 10 GeV, born"

@@ -173,9 +173,10 @@ int bl_method_full_e (const bl_case *c, int method, double k, double theta_k,
                       double theta_p, double phi, bl_result *out);
 
 /*
-** Photon energies (MeV) where dsigma/dk of case c by `method` jumps: the
-** Coulomb correction switching off ("coulomb" automatic) and, for "auto",
-** the change of method.  Writes at most nmax into k and a bound on the
+** Photon energies (MeV) where dsigma/dk of case c by `method` jumps or
+** bends: the Coulomb correction switching off ("coulomb" automatic), for
+** "auto" the change of method, and for e-/e+ with electrons the two kinks
+** of the bound electron term before its end point (bl_case_eratio).  Writes at most nmax into k and a bound on the
 ** relative size of each jump into jump; returns the count.
 */
 int bl_method_breaks (const bl_case *c, const bl_he *h, int method,

@@ -43,24 +43,32 @@ do
     local P = 4 * u / 3 - 2 * u * u / 3 + u * u * u / 3
     local Q = (u - u * u / 2) / 9
     local want = E0 / r.radiation_length * (P + (Z * Z + Z) / A * Q)
-    check(rel(r.dedx, want) < 1e-6, "Z=%d: dedx %.10g vs Tsai %.10g", Z,
-          r.dedx, want)
+    -- the bound electron term (issue 13) falls to 0 at its end point over
+    -- the last ~5 m_e/T of y (src/core/ebrems/table.c, tip()): that takes
+    -- less than its share Z L'/A times 10 such widths from Tsai's form
+    -- (measured 1.5e-6 on carbon)
+    local tip = Z * Lp / A * 10 * 5 * ME / T
+    check(rel(r.dedx, want) < 1e-6 + tip, "Z=%d: dedx %.10g vs Tsai %.10g",
+          Z, r.dedx, want)
     local limit = E0 / r.radiation_length * (1 + (Z * Z + Z) / (18 * A))
-    check(rel(r.dedx, limit) < 1e-6, "Z=%d: vs the y_max = 1 form %.3g", Z,
-          rel(r.dedx, limit))
+    check(rel(r.dedx, limit) < 1e-6 + tip,
+          "Z=%d: vs the y_max = 1 form %.3g", Z, rel(r.dedx, limit))
     check(r.settings.method == "complete", "method %s", r.settings.method)
     nchecks = nchecks + 2
   end
 end
 
 -- 2. Radiative stopping power of electrons in water: ICRU Report 37
--- (1984): 0.183 MeV cm^2/g at 10 MeV and 2.40 MeV cm^2/g at 100 MeV (from
+-- (1984): 0.0129 MeV cm^2/g at 1 MeV and 0.183 MeV cm^2/g at 10 MeV (from
+-- memory: 3 %; issue 13, with the bound electron term of the atomic
+-- electrons: recoil, exchange, end point), 2.40 MeV cm^2/g at 100 MeV (from
 -- memory: 5 %).
 do
-  for _, c in ipairs{ { 10, 0.183 }, { 100, 2.40 } } do
+  for _, c in ipairs{ { 1, 0.0129, 0.03 }, { 10, 0.183, 0.03 },
+                      { 100, 2.40, 0.05 } } do
     local r = bl.energy_loss{ particle = "electron", target = "H2O",
                               T = c[1], rtol = 1e-3 }
-    check(rel(r.dedx, c[2]) < 0.05, "water %g MeV: %.4g vs ICRU 37 %.4g",
+    check(rel(r.dedx, c[2]) < c[3], "water %g MeV: %.4g vs ICRU 37 %.4g",
           c[1], r.dedx, c[2])
     check(r.units.dedx == "MeV cm^2/g", "units")
     check(r.err < 1e-3 * r.dedx * 2, "error estimate %.3g", r.err)

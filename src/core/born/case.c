@@ -12,6 +12,7 @@
 #include <math.h>
 
 #include "born/internal.h"
+#include "ebrems/table.h"
 
 
 const bl_opts bl_opts_bare = {0, BL_NUCLEUS_POINT, 0.0, BL_APPLY_OFF,
@@ -242,7 +243,18 @@ int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
   c->opts.A = A;
   c->R = o->nucleus == BL_NUCLEUS_UNIFORM ? bl_nucleus_radius(A) : 0.0;
   c->warn = (p->flags & BL_PARTICLE_COMPOSITE) ? BL_WARN_POINTLIKE : 0u;
-  if (c->opts.electrons && p->mass > 2.0 * BL_ME_MEV)
+  c->ebt = 0;
+  c->ekmax = 0.0;
+  if (c->opts.electrons && p->spin == 0.5
+      && fabs(p->mass - BL_ME_MEV) <= 1e-12 * BL_ME_MEV
+      && fabs(fabs(p->charge) - 1.0) <= 1e-12) {
+    /* e-, e+: the bound electron term (src/core/ebrems/table.c); end point
+    ** k_max = T m_e / (m_e + E0 - p0), E0 - p0 = m_e^2 / (E0 + p0) */
+    double e0 = T + BL_ME_MEV, p0 = sqrt(T * (T + 2.0 * BL_ME_MEV));
+    c->ebt = p->charge < 0.0 ? 1 : 2;
+    c->ekmax = T / (1.0 + BL_ME_MEV / (e0 + p0));
+    bl_ebt_rows(c->ebt - 1, Z, T, c->ebrow, &c->ebwz, &c->ebwb);
+  } else if (c->opts.electrons && p->mass > 2.0 * BL_ME_MEV)
     c->warn |= BL_WARN_STATIC_E;
   return targetfactor(c, 0.0);
 }
@@ -256,4 +268,13 @@ int bl_case_set_formfactor (bl_case *c, double radius) {
   if (!(r > 0.0) || !isfinite(6.0 / (r * r)))
     return BL_EDOMAIN;
   return targetfactor(c, 6.0 / (r * r));
+}
+
+
+double bl_case_eratio (const bl_case *c, double k) {
+  if (c == NULL || c->ebt == 0)
+    return 1.0;
+  if (!(k < c->ekmax))
+    return 0.0;
+  return bl_ebt_eval(c->ebrow, c->ebwz, c->ebwb, c->T, k / c->ekmax);
 }

@@ -137,7 +137,7 @@ static void clear (bl_result *out) {
 static int setup (const bl_case *c, double k, integ *it, unsigned *warn,
                   unsigned *applied) {
   bl_kin *kn = &it->kn;
-  double fe = 1.0;
+  double fe = 1.0, re;
   int t;
   if (!isfinite(k) || k <= 0.0 || k >= c->T)
     return BL_EDOMAIN;
@@ -151,13 +151,15 @@ static int setup (const bl_case *c, double k, integ *it, unsigned *warn,
     fe = bl_elwert(c, kn);
     *applied |= BL_APPLIED_ELWERT;
   }
+  /* the electron part: static charges, or scaled to the bound electron
+  ** term (bl_case_eratio: 0 above the end point, where it is dropped) */
+  re = bl_case_eratio(c, k);
   for (t = 0; t < c->npole; t++)
-    it->single[t] = fe * c->single_el[t] + c->single_e[t];
-  it->nterm = c->nterm;
-  for (t = 0; t < c->nterm; t++) {
+    it->single[t] = fe * c->single_el[t] + re * c->single_e[t];
+  it->nterm = re > 0.0 ? c->nterm : c->nelastic;
+  for (t = 0; t < it->nterm; t++) {
     it->term[t] = c->term[t];
-    if (t < c->nelastic)
-      it->term[t].c *= fe;
+    it->term[t].c *= t < c->nelastic ? fe : re;
   }
   bl_wpoles_set(&it->wp, c->npole, c->pole, it->single, it->nterm, it->term);
   return BL_SUCCESS;

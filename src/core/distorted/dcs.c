@@ -365,7 +365,10 @@ static int screened (const bl_case *c, const obs *b, bl_quad *q,
   st = worse(st, born(&cn, b, q, &bn));
   out->err = dp.err + bp.err + bn.err;
   out->warn = c->warn | ((dp.warn | bp.warn | bn.warn) & BL_WARN_TOLERANCE);
-  if (c->opts.electrons) {
+  /* the electron part B_e (Born; for e-/e+ the bound term, 0 above its
+  ** end point, where the difference would only add the noise of two
+  ** integrals of the same nuclear part) */
+  if (c->opts.electrons && bl_case_eratio(c, b->k) > 0.0) {
     o.electrons = 1;
     st = worse(st, bl_case_setup(&ca, &c->particle, c->Z, c->screening,
                                  c->params, c->T, &o));

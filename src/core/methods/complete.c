@@ -64,9 +64,10 @@ int bl_complete_dk_e (const bl_case *c, double k, bl_result *out) {
   Lp = bl_lrad_prime(c->Z) + shift;
   X = fe * (L - f);
   Y = 1.0;
-  if (c->opts.electrons) {
-    X += Lp / Z;
-    Y += 1.0 / Z;
+  if (c->opts.electrons) {   /* scaled to the bound electron term */
+    double re = bl_case_eratio(c, k);
+    X += re * Lp / Z;
+    Y += re / Z;
   }
   v = kn.E / kn.E0;
   bl_spin_weights(kn.spin, v, &w1, &w2);

@@ -157,8 +157,9 @@ int bl_he_dk_e (const bl_case *c, const bl_he *h, double k, bl_result *out) {
         * bl_coulomb_share(c);
   if (h->e != NULL) {
     phis(h->e, h->tail_e, Delta, m, &e1, &e2);
-    e1 /= c->Z;
-    e2 /= c->Z;
+    double re = bl_case_eratio(c, k) / c->Z;   /* bound electron term */
+    e1 *= re;
+    e2 *= re;
   }
   bl_spin_weights(kn.spin, v, &w1, &w2);
   kmev = kn.k * m;

@@ -131,6 +131,7 @@ static void parts (const smp_chan *ch, smp_point *pt) {
     }
   }
   pt->wel *= fe;
+  pt->we *= bl_case_eratio(c, pt->kmev);   /* e-/e+: the bound term */
 }
 
 

@@ -27,6 +27,7 @@
 
 #include "brakelight.h"
 #include "brakelight/bl_target.h"
+#include "ebrems/table.h"
 
 
 /* Share of rtol below which a breakpoint's weighted jump is dropped. */
@@ -409,11 +410,18 @@ static int breaks (const bl_target *t, double rtol, double *kb) {
   for (i = 0; i < t->n && nb < BL_KINT_MAXBREAK; i++) {
     n = bl_method_breaks(&t->c[i], &t->he[i], t->method, kb + nb,
                          jump + nb, BL_KINT_MAXBREAK - nb);
-    for (j = nb; j < nb + n; j++)   /* a break that cannot matter: none */
-      if (jump[j] * (t->T - kb[j]) / t->T < BREAK_SHARE * rtol) {
+    for (j = nb; j < nb + n; j++) {   /* a break that cannot matter, or
+                                      ** one already there (the same
+                                      ** projectile's electron end point
+                                      ** on every element): none */
+      int dup = 0, l;
+      for (l = 0; l < nb && !dup; l++)
+        dup = fabs(kb[l] - kb[j]) <= 1e-12 * t->T;
+      if (dup || jump[j] * (t->T - kb[j]) / t->T < BREAK_SHARE * rtol) {
         kb[j] = kb[nb + n - 1];
         jump[j--] = jump[nb + --n];
       }
+    }
     nb += n;
   }
   return nb;
@@ -460,6 +468,12 @@ int bl_target_kintegral_e (const bl_target *t, int kind, double theta_k,
   if (st == BL_SUCCESS) {
     if (kind == BL_TARGET_DK)
       nb = breaks(t, rtol, kb);
+    else if (t->n > 0 && t->c[0].ebt != 0 && t->c[0].ekmax < t->T) {
+      /* the kinks of the bound electron term (bl_method_breaks), the
+      ** same on every element: the projectile's */
+      kb[nb++] = t->c[0].ekmax;
+      kb[nb++] = t->c[0].ekmax * bl_ebt_u[EBT_NU - 1];
+    }
     st = r0 == NULL
          ? bl_kintegral_e(kpoint, &x, kmin, kmax, t->T, kb, nb, 1, rtol, &v1)
          : r1 == NULL

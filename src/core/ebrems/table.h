@@ -1,0 +1,42 @@
+/*
+** table.h -- the bound electron term of electrons and positrons as a ratio
+** to the static-charge electron term: grid, generated table (eb_table.c,
+** make eb-table) and its interpolation (table.c)
+** See Copyright Notice in LICENSE
+*/
+#ifndef BL_EBREMS_TABLE_H
+#define BL_EBREMS_TABLE_H
+
+#include "brakelight/bl_dcs.h"   /* BL_EBT_ROW */
+
+/* Grid: Z nodes bl_ebt_z (linear in ln Z), ln T = EBT_LT0 + EBT_DLT i
+** (T in MeV, 1 keV ... 1 GeV, three nodes a decade; held below, blended
+** to the high-energy limit above: table.c), u = y / y_max nodes
+** bl_ebt_u (the ratio is 0 at u = 1). */
+#define EBT_NZ  5
+#define EBT_NT  19
+#define EBT_NU  13
+#define EBT_LT0 (-6.907755278982137)   /* ln 1e-3 */
+#define EBT_DLT 0.7675283643313486     /* ln 10 / 3 */
+#define EBT_TIPW 5.0                   /* width of the last stretch: table.c */
+#define EBT_LBLEND 4.605170185988091   /* ln 100: the blend above the top */
+
+extern const int bl_ebt_z[EBT_NZ];
+extern const double bl_ebt_u[EBT_NU];
+extern const double bl_ebt_r[2][EBT_NZ][EBT_NT][EBT_NU];
+
+/* The ratio R (table.c) for kind 0 (electron) or 1 (positron) on element
+** Z at kinetic energy T (MeV) and u = k / k_max (k_max the end point on a
+** free electron at rest, bl_ebrems_kmax): 0 for u >= 1, never below 0. */
+double bl_ebt_ratio (int kind, int Z, double T, double u);
+
+/* The same in two steps: once per case the rows of ln R at the u nodes of
+** the two Z nodes around Z (interpolated in ln T), the Z weight and the
+** blend weight above the table (bl_ebt_rows); then per k (bl_ebt_eval,
+** the same value as bl_ebt_ratio up to rounding). */
+void bl_ebt_rows (int kind, int Z, double T, double rows[2][BL_EBT_ROW],
+                  double *wz, double *wb);
+double bl_ebt_eval (const double rows[2][BL_EBT_ROW], double wz, double wb,
+                    double T, double u);
+
+#endif
