@@ -36,7 +36,7 @@ int bl_particle_check (const bl_particle *p);
 ** kaons, proton; matched by mass, charge, spin and the composite flag,
 ** so a copy of a preset counts); 0 for a point-like or user-made
 ** particle (radius unknown).  Used to estimate the effect of the form
-** factor the computations leave out (bl_target_formfactor_effect). */
+** factor the computations leave out (bl_target_born_dk_e). */
 double bl_particle_radius (const bl_particle *p);
 
 #ifdef __cplusplus
