@@ -82,10 +82,11 @@ static int stencil (int i, int n) {
 }
 
 
-/* R at Z node iz, interpolated in ln T (held outside) and u. */
-static double at_t (int kind, int iz, double lt, double u) {
-  double x = (lt - EBT_LT0) / EBT_DLT, xs[4], wt[4], wu[4], v = 0.0;
-  int it, st, su, iu, a, b;
+/* The four-point Lagrange weights wt in ln T (held outside the table);
+** returns the first T node of the stencil. */
+static int tweights (double lt, double wt[4]) {
+  double x = (lt - EBT_LT0) / EBT_DLT, xs[4];
+  int it, st, a;
   if (x < 0.0)
     x = 0.0;
   if (x > EBT_NT - 1)
@@ -97,6 +98,14 @@ static double at_t (int kind, int iz, double lt, double u) {
   for (a = 0; a < 4; a++)
     xs[a] = st + a;
   lagrange4(xs, x, wt);
+  return st;
+}
+
+
+/* R at Z node iz, interpolated in ln T (held outside) and u. */
+static double at_t (int kind, int iz, double lt, double u) {
+  double wt[4], wu[4], v = 0.0;
+  int st = tweights(lt, wt), su, iu, a, b;
   if (u >= 1.0)
     return 0.0;
   if (u > bl_ebt_u[EBT_NU - 1]) {   /* the last stretch: tip() */
@@ -139,19 +148,8 @@ static double at_z (int kind, int iz, double lt, double u) {
 
 /* ln R at every u node for Z node iz at ln T (held outside the table). */
 static void row_t (int kind, int iz, double lt, double *row) {
-  double x = (lt - EBT_LT0) / EBT_DLT, xs[4], wt[4];
-  int it, st, a, j;
-  if (x < 0.0)
-    x = 0.0;
-  if (x > EBT_NT - 1)
-    x = EBT_NT - 1;
-  it = (int)x;
-  if (it > EBT_NT - 2)
-    it = EBT_NT - 2;
-  st = stencil(it, EBT_NT);
-  for (a = 0; a < 4; a++)
-    xs[a] = st + a;
-  lagrange4(xs, x, wt);
+  double wt[4];
+  int st = tweights(lt, wt), a, j;
   for (j = 0; j < EBT_NU; j++) {
     row[j] = 0.0;
     for (a = 0; a < 4; a++)
