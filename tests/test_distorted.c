@@ -740,3 +740,37 @@ Test(dwdk, screened_full_positive) {
               "T = %g: sys %g of %g", Ts[i], r.sys, r.val);
   }
 }
+
+
+/*
+** The error estimate of a heavy projectile on an extended nucleus: the
+** point-charge integrals (dp, bp) enter the value with the share ns ~ 0,
+** so their errors must not swamp it.  A proton (spin 1/2, point charge,
+** no electrons) on Fe at T = 50 m, rtol 1e-2: the estimate at least the
+** true error (against rtol 1e-6) and within the tolerance (it reported
+** 9.5 % at y = 0.99 before the errors were weighted by their share).
+*/
+Test(dwdk, heavy_error_estimate) {
+  const bl_particle *p = bl_particle_find("proton");
+  static const double ys[] = { 0.5, 0.99 };
+  bl_quad *q = bl_quad_alloc(200);
+  bl_opts o = bl_opts_bare;
+  bl_case c;
+  size_t i;
+  o.nucleus = BL_NUCLEUS_UNIFORM;
+  cr_assert_eq(bl_case_setup(&c, p, 26, bl_model_find("hartree-fock"), NULL,
+                             50.0 * p->mass, &o), BL_SUCCESS);
+  for (i = 0; i < 2; i++) {
+    double k = ys[i] * c.T;
+    bl_result r, ref;
+    cr_assert_eq(bl_quad_set_rtol(q, 1e-6), BL_SUCCESS);
+    cr_assert_eq(bl_dw_dk_e(&c, k, q, &ref), BL_SUCCESS);
+    cr_assert_eq(bl_quad_set_rtol(q, 1e-2), BL_SUCCESS);
+    cr_assert_eq(bl_dw_dk_e(&c, k, q, &r), BL_SUCCESS);
+    cr_expect(r.err >= fabs(r.val - ref.val) && r.err <= 1e-2 * r.val
+              && !(r.warn & BL_WARN_TOLERANCE),
+              "y = %g: %.10g +- %.3g, reference %.10g", ys[i], r.val, r.err,
+              ref.val);
+  }
+  bl_quad_free(q);
+}

@@ -363,7 +363,6 @@ static int screened (const bl_case *c, const obs *b, bl_quad *q,
     return st;
   st = worse(st, born(&cp, b, q, &bp));
   st = worse(st, born(&cn, b, q, &bn));
-  out->err = dp.err + bp.err + bn.err;
   out->warn = c->warn | ((dp.warn | bp.warn | bn.warn) & BL_WARN_TOLERANCE);
   /* the electron part B_e (Born; for e-/e+ the bound term, 0 above its
   ** end point, where the difference would only add the noise of two
@@ -405,7 +404,18 @@ static int screened (const bl_case *c, const obs *b, bl_quad *q,
   out->val = fe * bn.val * (1.0 - ns) + be
              + ns * (w * (dp.val + fe * (bn.val - bp.val))
                      + (1.0 - w) * dp.val * sn);
-  out->err += fe * bp.err;
+  /* the three integrals' errors as they enter the value (sn = bn/bp):
+  ** the point-charge parts dp and bp weigh ns, which vanishes for heavy
+  ** projectiles on an extended nucleus, where bp >> bn and their errors
+  ** alone used to exceed the value (a proton on Fe at y = 0.99: 9.5 %
+  ** reported, 4e-5 true) */
+  {
+    double r = bp.val > 0.0 ? dp.val / bp.val : 0.0;
+    out->err += ns * fabs(w + (1.0 - w) * sn) * dp.err
+                + ns * fabs(w * fe + (1.0 - w) * r * sn) * bp.err
+                + fabs(fe * (1.0 - ns) + ns * (w * fe + (1.0 - w) * r))
+                  * bn.err;
+  }
   /* the two rules' difference; the additive one is never below 0 */
   *rule = (1.0 - w) * fabs(fmax(fe * bn.val + be + delta, 0.0)
                            - (fe * bn.val + be + delta * sn));
