@@ -82,11 +82,10 @@ static int stencil (int i, int n) {
 }
 
 
-/* The four-point Lagrange weights wt in ln T (held outside the table);
-** returns the first T node of the stencil. */
-static int tweights (double lt, double wt[4]) {
-  double x = (lt - EBT_LT0) / EBT_DLT, xs[4];
-  int it, st, a;
+/* ln R at every u node for Z node iz at ln T (held outside the table). */
+static void row_t (int kind, int iz, double lt, double *row) {
+  double x = (lt - EBT_LT0) / EBT_DLT, xs[4], wt[4];
+  int it, st, a, j;
   if (x < 0.0)
     x = 0.0;
   if (x > EBT_NT - 1)
@@ -98,58 +97,6 @@ static int tweights (double lt, double wt[4]) {
   for (a = 0; a < 4; a++)
     xs[a] = st + a;
   lagrange4(xs, x, wt);
-  return st;
-}
-
-
-/* R at Z node iz, interpolated in ln T (held outside) and u. */
-static double at_t (int kind, int iz, double lt, double u) {
-  double wt[4], wu[4], v = 0.0;
-  int st = tweights(lt, wt), su, iu, a, b;
-  if (u >= 1.0)
-    return 0.0;
-  if (u > bl_ebt_u[EBT_NU - 1]) {   /* the last stretch: tip() */
-    double r = 0.0;
-    for (a = 0; a < 4; a++)
-      r += wt[a] * lnr[kind][iz][st + a][EBT_NU - 1];
-    return exp(r) * tip(exp(lt), u);
-  }
-  if (u < bl_ebt_u[0])
-    u = bl_ebt_u[0];
-  for (iu = 0; iu < EBT_NU - 2 && u > bl_ebt_u[iu + 1]; iu++)
-    ;
-  su = stencil(iu, EBT_NU);
-  /* in ln(1 - u): ln R ~ p ln(1 - u) towards the end point */
-  lagrange4(lnu + su, log1p(-u), wu);
-  for (a = 0; a < 4; a++)
-    for (b = 0; b < 4; b++)
-      v += wt[a] * wu[b] * lnr[kind][iz][st + a][su + b];
-  return exp(v);
-}
-
-
-/* R at Z node iz: above the table's top (1 GeV) blended linearly in
-** ln T into its high-energy limit, reached at EBT_LBLEND further up: 1
-** (both terms tend to Tsai's complete-screening forms; measured at 100 GeV,
-** DEVELOPERS.md), with the last stretch to the end point kept linear. */
-static double at_z (int kind, int iz, double lt, double u) {
-  double top = EBT_LT0 + EBT_DLT * (EBT_NT - 1), v = at_t(kind, iz, lt, u);
-  if (lt > top && u < 1.0) {
-    double w = (lt - top) / EBT_LBLEND, lim = 1.0;
-    if (w > 1.0)
-      w = 1.0;
-    if (u > bl_ebt_u[EBT_NU - 1])
-      lim = tip(exp(lt), u);
-    v += w * (lim - v);
-  }
-  return v;
-}
-
-
-/* ln R at every u node for Z node iz at ln T (held outside the table). */
-static void row_t (int kind, int iz, double lt, double *row) {
-  double wt[4];
-  int st = tweights(lt, wt), a, j;
   for (j = 0; j < EBT_NU; j++) {
     row[j] = 0.0;
     for (a = 0; a < 4; a++)
@@ -199,7 +146,7 @@ double bl_ebt_eval (const double rows[2][BL_EBT_ROW], double wz, double wb,
     for (iu = 0; iu < EBT_NU - 2 && u > bl_ebt_u[iu + 1]; iu++)
       ;
     su = stencil(iu, EBT_NU);
-    lagrange4(lnu + su, x, wu);   /* in ln(1 - u), as at_t */
+    lagrange4(lnu + su, x, wu);   /* in ln(1 - u): ln R ~ p ln(1 - u) */
     for (z = 0; z < 2; z++) {
       double s = 0.0;
       for (b = 0; b < 4; b++)
@@ -207,28 +154,8 @@ double bl_ebt_eval (const double rows[2][BL_EBT_ROW], double wz, double wb,
       v[z] = exp(s);
     }
   }
-  for (z = 0; z < 2; z++)   /* the blend above the top, as at_z */
+  for (z = 0; z < 2; z++)   /* the blend above the top: to 1, or tip() */
     v[z] += wb * (lim - v[z]);
   r = (1.0 - wz) * v[0] + wz * v[1];
-  return fmax(r, 0.0);
-}
-
-
-double bl_ebt_ratio (int kind, int Z, double T, double u) {
-  double lz = log((double)Z), w, r;
-  int iz;
-  if (!(u < 1.0) || !(T > 0.0) || kind < 0 || kind > 1)
-    return 0.0;
-  pthread_once(&once, make_logs);
-  if (Z <= bl_ebt_z[0])
-    return fmax(at_z(kind, 0, log(T), u), 0.0);
-  if (Z >= bl_ebt_z[EBT_NZ - 1])
-    return fmax(at_z(kind, EBT_NZ - 1, log(T), u), 0.0);
-  for (iz = 0; Z > bl_ebt_z[iz + 1]; iz++)
-    ;
-  w = (lz - log((double)bl_ebt_z[iz]))
-      / (log((double)bl_ebt_z[iz + 1]) - log((double)bl_ebt_z[iz]));
-  r = (1.0 - w) * at_z(kind, iz, log(T), u)
-      + w * at_z(kind, iz + 1, log(T), u);
   return fmax(r, 0.0);
 }

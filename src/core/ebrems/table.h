@@ -27,13 +27,10 @@ extern const double bl_ebt_r[2][EBT_NZ][EBT_NT][EBT_NU];
 
 /* The ratio R (table.c) for kind 0 (electron) or 1 (positron) on element
 ** Z at kinetic energy T (MeV) and u = k / k_max (k_max the end point on a
-** free electron at rest, bl_ebrems_kmax): 0 for u >= 1, never below 0. */
-double bl_ebt_ratio (int kind, int Z, double T, double u);
-
-/* The same in two steps: once per case the rows of ln R at the u nodes of
-** the two Z nodes around Z (interpolated in ln T), the Z weight and the
-** blend weight above the table (bl_ebt_rows); then per k (bl_ebt_eval,
-** the same value as bl_ebt_ratio up to rounding). */
+** free electron at rest, bl_ebrems_kmax), in two steps: once per case the
+** rows of ln R at the u nodes of the two Z nodes around Z (interpolated
+** in ln T), the Z weight and the blend weight above the table
+** (bl_ebt_rows); then per k (bl_ebt_eval): 0 for u >= 1, never below 0. */
 void bl_ebt_rows (int kind, int Z, double T, double rows[2][BL_EBT_ROW],
                   double *wz, double *wb);
 double bl_ebt_eval (const double rows[2][BL_EBT_ROW], double wz, double wb,
