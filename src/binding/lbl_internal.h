@@ -139,7 +139,8 @@ typedef struct Warnings {
                        ** METHOD and CLAMPED warnings are measured on it */
   double kseen;        /* largest k of a point; 0: none */
   double kbit[BL_WARN_COUNT];  /* largest k flagged by each bit; 0: none */
-  double kclamp[2];    /* smallest and largest k flagged BL_WARN_CLAMPED */
+  double kclamp;       /* smallest k flagged BL_WARN_CLAMPED (the largest
+                       ** is kbit's) */
   int nclamp;          /* points flagged BL_WARN_CLAMPED */
 } Warnings;
 

@@ -140,10 +140,8 @@ void lbl_addwarn (Warnings *w, const bl_result *r, double k,
     if ((r->warn & (1u << i)) && k > w->kbit[i])
       w->kbit[i] = k;
   if (r->warn & BL_WARN_CLAMPED) {
-    if (w->nclamp++ == 0 || k < w->kclamp[0])
-      w->kclamp[0] = k;
-    if (k > w->kclamp[1])
-      w->kclamp[1] = k;
+    if (w->nclamp++ == 0 || k < w->kclamp)
+      w->kclamp = k;
   }
   if (r->val != 0.0 && r->sys / fabs(r->val) > w->sysrel) {
     w->sysrel = r->sys / fabs(r->val);
@@ -446,19 +444,18 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
       break;
     case BL_WARN_CLAMPED: {
       char where[256];
-      double vb;
+      double vb, kmax = kbit(w, BL_WARN_CLAMPED), ks = sizek(o, w, kmax);
       if (w->kwin[1] > w->kwin[0])
         snprintf(where, sizeof where, "at photon energies inside (%g, %g) "
                  "MeV, where the integrand is then 0", w->kwin[0], w->kwin[1]);
-      else if (bornat(w, fmin(w->kclamp[1], 0.999 * o->T), 1, 0.0, &vb))
+      else if (bornat(w, ks, 1, 0.0, &vb))
         snprintf(where, sizeof where, "at %d of %d points, k = %g to %g MeV, "
                  "where the true value is positive: the exact Born value "
                  "without corrections at k = %g MeV is %.3g mb/MeV",
-                 w->nclamp, w->npts, w->kclamp[0], w->kclamp[1],
-                 fmin(w->kclamp[1], 0.999 * o->T), vb);
+                 w->nclamp, w->npts, w->kclamp, kmax, ks, vb);
       else
         snprintf(where, sizeof where, "at %d of %d points, k = %g to %g MeV",
-                 w->nclamp, w->npts, w->kclamp[0], w->kclamp[1]);
+                 w->nclamp, w->npts, w->kclamp, kmax);
       snprintf(msg, sizeof msg, "%s %s (%s on %s at T = %g MeV; coulomb = "
                "false gives the uncorrected value, method = 'born' or "
                "'auto' the exact one)", text, where, p->name,
