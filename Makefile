@@ -601,7 +601,7 @@ dw-positron: $(B)/dw-positron-ratio
 	./$(B)/dw-positron-ratio
 
 # Steps of dsigma/dk along T, method auto against distorted, and the
-# e-/e+ radiative energy loss in Pb rising with T (scripts/continuity.c;
+# e-/e+ radiative energy loss in C, Cu, W, Pb, U rising with T (scripts/continuity.c;
 # CONT_PER_DECADE points per decade up to CONT_TMAX MeV, the energy loss at
 # 4 per decade up to CONT_ETMAX MeV; several minutes at the defaults).  Not
 # in check (test_target's energy_loss_rises is its coarse form).

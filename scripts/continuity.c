@@ -20,7 +20,7 @@
 **        (i = 1..N), for several processes or a cluster.
 ** -l:    the anomaly above which a row counts as a step (default 0.05);
 **        the exit status is 1 when any "auto" row has one.
-** -e: instead, the radiative energy loss of e- and e+ in Pb by method
+** -e: instead, the radiative energy loss of e- and e+ in C, Cu, W, Pb and U by method
 ** "auto" along T (4 points per decade from 1 keV to Tmax): it must rise
 ** with T; prints each value and the number of falls.
 **
@@ -84,22 +84,24 @@ static double eloss (const char *particle, const char *target, double T,
 
 static int monotonic (double tmax, bl_quad *q) {
   static const char *const ps[] = {"electron", "positron"};
-  int ip, i, falls = 0;
-  for (ip = 0; ip < 2; ip++) {
-    double prev = 0.0;
-    for (i = 0; ; i++) {
-      double T = 1e-3 * pow(10.0, i / 4.0), v;
-      if (T > tmax * (1.0 + 1e-9))
-        break;
-      v = eloss(ps[ip], "Pb", T, q);
-      printf("  %-9s Pb T = %10.4g MeV  energy loss %.6e MeV mb%s\n", ps[ip],
-             T, v, i > 0 && !(v > prev) ? "  FALLS" : "");
-      if (i > 0 && !(v > prev))
-        falls++;
-      prev = v;
-      fflush(stdout);
+  static const char *const ts[] = {"C", "Cu", "W", "Pb", "U"};
+  int ip, it, i, falls = 0;
+  for (it = 0; it < 5; it++)
+    for (ip = 0; ip < 2; ip++) {
+      double prev = 0.0;
+      for (i = 0; ; i++) {
+        double T = 1e-3 * pow(10.0, i / 4.0), v;
+        if (T > tmax * (1.0 + 1e-9))
+          break;
+        v = eloss(ps[ip], ts[it], T, q);
+        printf("  %-9s %-2s T = %10.4g MeV  energy loss %.6e MeV mb%s\n",
+               ps[ip], ts[it], T, v, i > 0 && !(v > prev) ? "  FALLS" : "");
+        if (i > 0 && !(v > prev))
+          falls++;
+        prev = v;
+        fflush(stdout);
+      }
     }
-  }
   printf("# %d falls\n", falls);
   return falls > 0;
 }
