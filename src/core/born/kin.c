@@ -296,6 +296,123 @@ double bl_bracket_azimuth (const bl_bracket *br, const bl_wpoles *w) {
 }
 
 
+/*
+** The same at the n nodes of one inner panel (issue 14).  The nodes are
+** independent, so their sqrt and divisions overlap and the loops over
+** nodes vectorize (kin.c is built at -O3); each node's arithmetic is that
+** of bl_bracket_set and bl_bracket_azimuth, operation for operation, so
+** the values are the same to the last bit.  With FEW_POLES or more the
+** poles of one node are the lanes instead (bl_bracket_azimuth itself).
+*/
+AZ_CLONES
+void bl_bracket_set_n (const bl_kin *kn, const bl_polar *g, int n,
+                       const double *h, const double *dh, bl_brackets *br) {
+  double D0 = kn->p0 * (g->h0 + kn->hc0), pt0 = kn->p0 * g->s0;
+  double a0 = pt0 / D0, qz[BL_NODE_MAX], dt[BL_NODE_MAX], s[BL_NODE_MAX];
+  double D[BL_NODE_MAX], a[BL_NODE_MAX];
+  int i;
+  for (i = 0; i < n; i++) {
+    s[i] = sqrt(h[i] * (2.0 - h[i]));
+    D[i] = kn->p * (h[i] + kn->hc);
+    a[i] = kn->p * s[i] / D[i];
+  }
+  if (g->ridge)
+    for (i = 0; i < n; i++) {
+      qz[i] = g->qzs + kn->p * dh[i];
+      dt[i] = -kn->p * dh[i] * (2.0 - h[i] - g->hs) / (s[i] + g->ss);
+    }
+  else
+    for (i = 0; i < n; i++) {
+      qz[i] = kn->delta - kn->p0 * g->h0 + kn->p * h[i];
+      dt[i] = pt0 - kn->p * s[i];
+    }
+  for (i = 0; i < n; i++) {
+    double d0 = kn->E0 * a[i] - kn->E * a0;
+    br->b[i] = 2.0 * pt0 * (kn->p * s[i]);
+    br->Q0[i] = qz[i] * qz[i] + dt[i] * dt[i];
+    br->L0[i] = 4.0 * d0 * d0;
+    br->L1[i] = 8.0 * kn->E0 * kn->E * a[i] * a0;
+  }
+  if (kn->spin > 0.25)
+    for (i = 0; i < n; i++) {
+      double c = 2.0 * kn->k * kn->k / (D[i] * D0);
+      double du = a[i] - a0;
+      br->L0[i] += c * dt[i] * dt[i];
+      br->L1[i] += c * br->b[i];
+      br->M0[i] = du * du;
+      br->M1[i] = 2.0 * a[i] * a0;
+    }
+  else
+    for (i = 0; i < n; i++)
+      br->M0[i] = br->M1[i] = 0.0;
+}
+
+
+AZ_CLONES
+void bl_bracket_azimuth_n (const bl_brackets *br, int n, const bl_wpoles *w,
+                           double *out) {
+  double m[FEW_POLES][BL_NODE_MAX], R[FEW_POLES][BL_NODE_MAX];
+  double iR[FEW_POLES][BL_NODE_MAX], iP[FEW_POLES][BL_NODE_MAX];
+  double F[FEW_POLES][BL_NODE_MAX], G[FEW_POLES][BL_NODE_MAX];
+  double s0[BL_NODE_MAX], s1[BL_NODE_MAX];
+  const int np = w->npole;
+  int i, j, t;
+  if (np >= FEW_POLES) {
+    for (i = 0; i < n; i++) {
+      bl_bracket b1;
+      b1.L0 = br->L0[i];
+      b1.L1 = br->L1[i];
+      b1.M0 = br->M0[i];
+      b1.M1 = br->M1[i];
+      b1.Q0 = br->Q0[i];
+      b1.b = br->b[i];
+      out[i] = bl_bracket_azimuth(&b1, w);
+    }
+    return;
+  }
+  for (i = 0; i < n; i++)
+    s0[i] = s1[i] = 0.0;
+  for (j = 0; j < np; j++) {   /* pole_value, node by node */
+    double p = w->pole[j], sq = w->square[j], se = w->single[j];
+    double sc = w->second[j];
+    for (i = 0; i < n; i++) {
+      double b = br->b[i], b2 = 2.0 * b, Q0 = br->Q0[i];
+      double Qb = Q0 + b, Qb2 = Q0 + b2, QQ = Q0 * Qb2;
+      double L0 = br->L0[i], L12 = 2.0 * br->L1[i];
+      double M0 = br->M0[i], M1 = br->M1[i], M12 = 2.0 * M1;
+      double mi = p + Q0, Ri = sqrt(mi * (mi + b2));
+      double Pi = mi + b2 + Ri, S = Ri + p;
+      double inv = 1.0 / (Ri * Pi * S), iRi = Pi * S * inv;
+      double iPi = Ri * S * inv;
+      double rp = (2.0 * p * Qb + QQ) * (Ri * Pi * inv);
+      double Fi = (L0 + p * M0) * iRi, Gi = (L12 + p * M12) * iPi;
+      double sr = (mi + b) * iRi;
+      m[j][i] = mi;
+      R[j][i] = Ri;
+      iR[j][i] = iRi;
+      iP[j][i] = iPi;
+      F[j][i] = Fi;
+      G[j][i] = Gi;
+      s0[i] += (se * (L0 - M0 * rp) + sq * sr * Fi - sc * M0) * iRi
+               + (se * (L12 - M1 * (Qb2 + rp)) + sq * (1.0 + sr) * Gi
+                  - sc * M12) * iPi;
+    }
+  }
+  for (t = 0; t < w->npair; t++) {   /* pair_value, node by node */
+    int ti = w->pi[t], tj = w->pj[t];
+    double pc = w->pc[t];
+    for (i = 0; i < n; i++) {
+      double ir = 1.0 / (R[ti][i] + R[tj][i]);
+      double sr = (m[ti][i] + m[tj][i] + 2.0 * br->b[i]) * ir;
+      s1[i] += pc * (sr * F[ti][i] * iR[tj][i]
+                     + (1.0 + sr) * G[ti][i] * iP[tj][i]);
+    }
+  }
+  for (i = 0; i < n; i++)
+    out[i] = BL_PI * (s0[i] + s1[i]);
+}
+
+
 double bl_target_w (double x, int npole, const double *pole,
                     const double *single, int nterm, const bl_term *term) {
   double w[BL_POLE_MAX], W = 0.0;
