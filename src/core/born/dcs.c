@@ -238,30 +238,15 @@ static void phi_n (integ *it, int n, double *h, double *dh, double *f,
 ** loses none (h + hc >= 0.6 (h* + hc)); elsewhere h = hc expm1(sigma) keeps
 ** those of a small h (the forward peak) and h - h* is no small difference.
 ** One expm1 per node either way; the n nodes of a panel at once
-** (bl_gk_adapt_v).
+** (bl_gk_adapt_v), the map in lanes (bl_ridge_map_n).
 */
 static void inner_fv (const double *u, int n, void *params, double *f,
                       double *err) {
   integ *it = params;
   double h[BL_NODE_MAX], dh[BL_NODE_MAX], jac[BL_NODE_MAX];
-  double hc = it->kn.hc;
   int i;
-  for (i = 0; i < n; i++) {
-    double eu = exp(u[i]), sh = 0.5 * (eu - 1.0 / eu), ch = sh + 1.0 / eu;
-    double ds;
-    if (u[i] < 1e-3)
-      sh = sinh(u[i]);
-    ds = it->side * it->w * sh;
-    if (fabs(ds) < 0.5) {
-      dh[i] = (it->g.hs + hc) * expm1(ds);
-      h[i] = it->g.hs + dh[i];
-    }
-    else {
-      h[i] = hc * expm1(it->sstar + ds);
-      dh[i] = h[i] - it->g.hs;
-    }
-    jac[i] = (h[i] + hc) * it->w * ch;
-  }
+  bl_ridge_map_n(u, n, it->side * it->w, it->w, it->sstar, it->g.hs,
+                 it->kn.hc, h, dh, jac);
   phi_n(it, n, h, dh, f, err);
   for (i = 0; i < n; i++) {
     f[i] *= jac[i];
@@ -276,8 +261,9 @@ static void inner_plainv (const double *sg, int n, void *params, double *f,
   integ *it = params;
   double h[BL_NODE_MAX], dh[BL_NODE_MAX], jac[BL_NODE_MAX];
   int i;
+  bl_expm1_n(sg, n, h);
   for (i = 0; i < n; i++) {
-    h[i] = it->kn.hc * expm1(sg[i]);
+    h[i] *= it->kn.hc;
     dh[i] = 0.0;
     jac[i] = h[i] + it->kn.hc;
   }

@@ -101,6 +101,17 @@ typedef struct bl_brackets {
 void bl_bracket_set_n (const bl_kin *kn, const bl_polar *g, int n,
                        const double *h, const double *dh, bl_brackets *br);
 
+/* out[i] = exp(x[i]), expm1(x[i]) for i < n <= BL_NODE_MAX, to 1 ulp
+** (kin.c). */
+void bl_exp_n (const double *x, int n, double *out);
+void bl_expm1_n (const double *x, int n, double *out);
+
+/* The sinh map of an inner ridge side at n <= BL_NODE_MAX points (kin.c):
+** h, dh = h - h* and dh/du at u[i]. */
+void bl_ridge_map_n (const double *u, int n, double sw, double w,
+                     double sstar, double hs, double hc, double *h,
+                     double *dh, double *jac);
+
 /* bl_bracket_azimuth of n such brackets into out[i]: the same values. */
 void bl_bracket_azimuth_n (const bl_brackets *br, int n, const bl_wpoles *w,
                            double *out);

