@@ -203,8 +203,9 @@ static double phi_at (integ *it, double h, double *err) {
 static void phi_n (integ *it, int n, double *h, double *dh, double *f,
                    double *err) {
   bl_brackets br;
-  int i;
-  for (i = 0; i < n; i++) {
+  double fo[BL_NODE_MAX];
+  int i, m = (n + 3) / 4 * 4;   /* h, dh hold m values (the lanes) */
+  for (i = 0; i < m; i++) {
     if (h[i] > 2.0) {   /* rounding at the ends of the range */
       dh[i] += 2.0 - h[i];
       h[i] = 2.0;
@@ -213,7 +214,8 @@ static void phi_n (integ *it, int n, double *h, double *dh, double *f,
       dh[i] -= h[i];
       h[i] = 0.0;
     }
-    err[i] = 0.0;
+    if (i < n)
+      err[i] = 0.0;
   }
   if (it->az != NULL) {
     for (i = 0; i < n; i++) {
@@ -224,10 +226,9 @@ static void phi_n (integ *it, int n, double *h, double *dh, double *f,
   }
   it->q->calls += (unsigned long)n;
   bl_bracket_set_n(&it->kn, &it->g, n, h, dh, &br);
-  bl_bracket_azimuth_n(&br, n, &it->wp, f);
+  bl_bracket_azimuth_n(&br, n, &it->wp, fo);
   for (i = 0; i < n; i++)   /* B W >= 0: see phi_at */
-    if (f[i] < 0.0)
-      f[i] = 0.0;
+    f[i] = fo[i] < 0.0 ? 0.0 : fo[i];
 }
 
 
@@ -261,8 +262,8 @@ static void inner_plainv (const double *sg, int n, void *params, double *f,
   integ *it = params;
   double h[BL_NODE_MAX], dh[BL_NODE_MAX], jac[BL_NODE_MAX];
   int i;
-  bl_expm1_n(sg, n, h);
-  for (i = 0; i < n; i++) {
+  bl_expm1_n(sg, n, h);   /* and 0 up to the next step of 4 */
+  for (i = 0; i < (n + 3) / 4 * 4; i++) {
     h[i] *= it->kn.hc;
     dh[i] = 0.0;
     jac[i] = h[i] + it->kn.hc;

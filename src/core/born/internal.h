@@ -89,7 +89,7 @@ double bl_bracket_azimuth (const bl_bracket *br, const bl_wpoles *w);
 ** The brackets of up to BL_NODE_MAX inner nodes at one outer geometry, one
 ** array per coefficient (the nodes of one Gauss-Kronrod panel, in lanes).
 */
-#define BL_NODE_MAX 21
+#define BL_NODE_MAX 24   /* 21 nodes, whole steps of 4 lanes */
 typedef struct bl_brackets {
   double L0[BL_NODE_MAX], L1[BL_NODE_MAX], M0[BL_NODE_MAX], M1[BL_NODE_MAX];
   double Q0[BL_NODE_MAX], b[BL_NODE_MAX];
@@ -97,12 +97,14 @@ typedef struct bl_brackets {
 
 /* bl_bracket_set at n <= BL_NODE_MAX geometries that differ from g only
 ** in h[i] and dh[i] (h - h* where g->ridge; s = sqrt(h (2 - h))): the same
-** values node by node. */
+** values node by node.  The lane functions work in whole steps of 4: h,
+** dh, u hold finite values up to n rounded up to 4, and every output
+** array has BL_NODE_MAX places (the places past n are scratch). */
 void bl_bracket_set_n (const bl_kin *kn, const bl_polar *g, int n,
                        const double *h, const double *dh, bl_brackets *br);
 
 /* out[i] = exp(x[i]), expm1(x[i]) for i < n <= BL_NODE_MAX, to 1 ulp
-** (kin.c). */
+** (kin.c); out holds BL_NODE_MAX (written up to n rounded up to 4). */
 void bl_exp_n (const double *x, int n, double *out);
 void bl_expm1_n (const double *x, int n, double *out);
 
