@@ -311,7 +311,7 @@ double bl_bracket_azimuth (const bl_bracket *br, const bl_wpoles *w) {
 ** no scalar remainder, whose chain of dependent operations would come
 ** after the vector loop's. */
 #define LANES 4
-#define LANES_UP(n) (((n) + LANES - 1) / LANES * LANES)
+#define LANES_UP(n) ((int)(((unsigned)(n) + LANES - 1) & ~(unsigned)(LANES - 1)))
 
 AZ_CLONES
 void bl_bracket_set_n (const bl_kin *kn, const bl_polar *g, int n,
@@ -360,41 +360,38 @@ void bl_bracket_set_n (const bl_kin *kn, const bl_polar *g, int n,
 AZ_CLONES
 void bl_bracket_azimuth_n (const bl_brackets *br, int n, const bl_wpoles *w,
                            double *out) {
-  double m[FEW_POLES][BL_NODE_MAX], R[FEW_POLES][BL_NODE_MAX];
-  double iR[FEW_POLES][BL_NODE_MAX], iP[FEW_POLES][BL_NODE_MAX];
-  double F[FEW_POLES][BL_NODE_MAX], G[FEW_POLES][BL_NODE_MAX];
+  double m[BL_POLE_MAX][BL_NODE_MAX], R[BL_POLE_MAX][BL_NODE_MAX];
+  double iR[BL_POLE_MAX][BL_NODE_MAX], iP[BL_POLE_MAX][BL_NODE_MAX];
+  double F[BL_POLE_MAX][BL_NODE_MAX], G[BL_POLE_MAX][BL_NODE_MAX];
   double s0[BL_NODE_MAX], s1[BL_NODE_MAX];
   const int np = w->npole;
   int i, j, t, nl = LANES_UP(n);
-  if (np >= FEW_POLES) {
-    for (i = 0; i < n; i++) {
-      bl_bracket b1;
-      b1.L0 = br->L0[i];
-      b1.L1 = br->L1[i];
-      b1.M0 = br->M0[i];
-      b1.M1 = br->M1[i];
-      b1.Q0 = br->Q0[i];
-      b1.b = br->b[i];
-      out[i] = bl_bracket_azimuth(&b1, w);
-    }
-    return;
-  }
-  for (i = 0; i < nl; i++)
+  double B2[BL_NODE_MAX], QB[BL_NODE_MAX], QB2[BL_NODE_MAX], QQ[BL_NODE_MAX];
+  double L12[BL_NODE_MAX], M12[BL_NODE_MAX];
+  for (i = 0; i < nl; i++) {   /* what azc holds, per node */
+    double b = br->b[i], Q0 = br->Q0[i];
+    B2[i] = 2.0 * b;
+    QB[i] = Q0 + b;
+    QB2[i] = Q0 + B2[i];
+    QQ[i] = Q0 * QB2[i];
+    L12[i] = 2.0 * br->L1[i];
+    M12[i] = 2.0 * br->M1[i];
     s0[i] = s1[i] = 0.0;
+  }
   for (j = 0; j < np; j++) {   /* pole_value, node by node */
     double p = w->pole[j], sq = w->square[j], se = w->single[j];
     double sc = w->second[j];
     for (i = 0; i < nl; i++) {
-      double b = br->b[i], b2 = 2.0 * b, Q0 = br->Q0[i];
-      double Qb = Q0 + b, Qb2 = Q0 + b2, QQ = Q0 * Qb2;
-      double L0 = br->L0[i], L12 = 2.0 * br->L1[i];
-      double M0 = br->M0[i], M1 = br->M1[i], M12 = 2.0 * M1;
+      double b = br->b[i], b2 = B2[i], Q0 = br->Q0[i];
+      double Qb = QB[i], Qb2 = QB2[i];
+      double L0 = br->L0[i];
+      double M0 = br->M0[i], M1 = br->M1[i];
       double mi = p + Q0, Ri = sqrt(mi * (mi + b2));
       double Pi = mi + b2 + Ri, S = Ri + p;
       double inv = 1.0 / (Ri * Pi * S), iRi = Pi * S * inv;
       double iPi = Ri * S * inv;
-      double rp = (2.0 * p * Qb + QQ) * (Ri * Pi * inv);
-      double Fi = (L0 + p * M0) * iRi, Gi = (L12 + p * M12) * iPi;
+      double rp = (2.0 * p * Qb + QQ[i]) * (Ri * Pi * inv);
+      double Fi = (L0 + p * M0) * iRi, Gi = (L12[i] + p * M12[i]) * iPi;
       double sr = (mi + b) * iRi;
       m[j][i] = mi;
       R[j][i] = Ri;
@@ -403,8 +400,8 @@ void bl_bracket_azimuth_n (const bl_brackets *br, int n, const bl_wpoles *w,
       F[j][i] = Fi;
       G[j][i] = Gi;
       s0[i] += (se * (L0 - M0 * rp) + sq * sr * Fi - sc * M0) * iRi
-               + (se * (L12 - M1 * (Qb2 + rp)) + sq * (1.0 + sr) * Gi
-                  - sc * M12) * iPi;
+               + (se * (L12[i] - M1 * (Qb2 + rp)) + sq * (1.0 + sr) * Gi
+                  - sc * M12[i]) * iPi;
     }
   }
   for (t = 0; t < w->npair; t++) {   /* pair_value, node by node */
@@ -412,7 +409,7 @@ void bl_bracket_azimuth_n (const bl_brackets *br, int n, const bl_wpoles *w,
     double pc = w->pc[t];
     for (i = 0; i < nl; i++) {
       double ir = 1.0 / (R[ti][i] + R[tj][i]);
-      double sr = (m[ti][i] + m[tj][i] + 2.0 * br->b[i]) * ir;
+      double sr = (m[ti][i] + m[tj][i] + B2[i]) * ir;
       s1[i] += pc * (sr * F[ti][i] * iR[tj][i]
                      + (1.0 + sr) * G[ti][i] * iP[tj][i]);
     }
