@@ -104,7 +104,8 @@ void bl_bracket_set_n (const bl_kin *kn, const bl_polar *g, int n,
                        const double *h, const double *dh, bl_brackets *br);
 
 /* out[i] = exp(x[i]), expm1(x[i]) for i < n <= BL_NODE_MAX, to 1 ulp
-** (kin.c); out holds BL_NODE_MAX (written up to n rounded up to 4). */
+** (kin.c); out holds BL_NODE_MAX (written up to n rounded up to 4), and
+** so does the x of bl_exp_n (values up to n rounded up to 4). */
 void bl_exp_n (const double *x, int n, double *out);
 void bl_expm1_n (const double *x, int n, double *out);
 

@@ -471,14 +471,12 @@ static inline double em1_tail (double x) {   /* the same to x^13 */
 
 AZ_CLONES
 void bl_exp_n (const double *x, int n, double *out) {
-  double xp[BL_NODE_MAX];
-  int i, m = LANES_UP(n);
-  for (i = 0; i < m; i++)
-    xp[i] = i < n ? x[i] : 0.0;
+  int i, m = LANES_UP(n), far = 0;
   for (i = 0; i < m; i++) {
-    double xi = xp[i] < -708.0 ? -708.0 : xp[i];
+    double xi = x[i] < -708.0 ? -708.0 : x[i];
     double ti, k, r, sc;
     uint64_t kb;
+    far |= !(x[i] >= -708.0 && x[i] <= 709.0);
     xi = xi > 709.0 ? 709.0 : xi;
     ti = xi * INV_LN2 + EXP_SHIFT;
     k = ti - EXP_SHIFT;
@@ -488,9 +486,10 @@ void bl_exp_n (const double *x, int n, double *out) {
     memcpy(&sc, &kb, sizeof sc);
     out[i] = (1.0 + (r + (r * r) * exp_tail(r))) * sc;
   }
-  for (i = 0; i < n; i++)
-    if (!(x[i] >= -708.0 && x[i] <= 709.0))
-      out[i] = exp(x[i]);
+  if (far)
+    for (i = 0; i < n; i++)
+      if (!(x[i] >= -708.0 && x[i] <= 709.0))
+        out[i] = exp(x[i]);
 }
 
 
