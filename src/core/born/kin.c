@@ -126,6 +126,10 @@ void bl_bracket_set (const bl_kin *kn, const bl_polar *g, bl_bracket *br) {
 ** form amplifies where it cancels: up to 1e-6 relative at the largest
 ** angles, as before (against a 1e-13 numerical azimuth), far below every
 ** tolerance (make error-sweep: the same figures and calls on every point).
+** The Born integrals now call the panel form, bl_bracket_azimuth_n below
+** (the nodes in lanes, the same arithmetic per node); this one-node form
+** is its reference (tests lanes::*) and the kernel of bench_kernel's
+** earlier trees.
 */
 /* Poles are padded to whole steps of this many (SSE2: two doubles; a
 ** step of four, for AVX2, made the SSE2 loop 10 % slower and the AVX2 one
