@@ -270,6 +270,7 @@ static void inner_plainv (const double *sg, int n, void *params, double *f,
   }
   phi_n(it, n, h, dh, f, err);
   for (i = 0; i < n; i++) {
+    // cppcheck-suppress uninitvar ; jac[i], i < n, is set above
     err[i] *= jac[i];
     f[i] *= jac[i];
   }
