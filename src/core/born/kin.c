@@ -499,7 +499,7 @@ void bl_exp_n (const double *x, int n, double *out) {
 
 AZ_CLONES
 void bl_expm1_n (const double *x, int n, double *out) {
-  double e[BL_NODE_MAX], xp[BL_NODE_MAX];
+  double e[BL_NODE_MAX], xp[BL_NODE_MAX] = {0};   /* zeroed: bl_ridge_map_n */
   int i, m = LANES_UP(n);
   if (n < 1 || n > BL_NODE_MAX)
     return;
@@ -526,7 +526,9 @@ void bl_ridge_map_n (const double *u, int n, double sw, double w,
                      double sstar, double hs, double hc, double *h,
                      double *dh, double *jac) {
   double eu[BL_NODE_MAX], x[BL_NODE_MAX], ds[BL_NODE_MAX], em[BL_NODE_MAX];
-  double up[BL_NODE_MAX];
+  /* zeroed: no static analyzer sees that the lanes of bl_exp_n and
+  ** bl_expm1_n (n rounded up again) are the ones set here */
+  double up[BL_NODE_MAX] = {0};
   int i, m = LANES_UP(n);
   if (n < 1 || n > BL_NODE_MAX)
     return;
