@@ -27,7 +27,9 @@
 #    run, the ratios BASE/here of integrand calls, of time per point and of
 #    integrand calls per second on the grid and the real atoms, and the
 #    reference sweep's figures for both with the calls at equal true error
-#    (scripts/error_sweep.c, BENCH_SWEEP_POINTS points, default 2000), and
+#    (scripts/error_sweep.c, BENCH_SWEEP_POINTS points, default 2000), the
+#    medians of issue 14's two speed goals (the default point within 0.3 ms,
+#    the screened point nucleus within 0.1 ms) from those same runs, and
 #    the calls per second of the kernel bl_bracket_azimuth alone, BASE and
 #    here (scripts/bench_kernel.c, each built with its own tree's headers).
 #
@@ -147,6 +149,18 @@ if wt=$(build_base) \
         printf "  integrand calls per second (the kernel with its maps): BASE %.3g, here %.3g " \
                "(medians), ratio %.2fx\n", med(rb, nb), med(rh, nb), med(rh, nb) / med(rb, nb)
       }'
+    # issue 14's speed goals, from the summaries of the same two runs
+    awk -v mode="$mode" '
+      /^summary/ { for (i = 1; i < NF; i++) if ($i == "median") v[FILENAME] = $(i + 1) }
+      END {
+        b = v[ARGV[1]]; h = v[ARGV[2]]
+        goal = mode == "-a" ? 0.3 : 0.1
+        what = mode == "-a" ? "default point (Hartree-Fock, electrons, uniform nucleus)" \
+                            : "screened point nucleus (exponential, Pb)"
+        if (b > 0 && h > 0)
+          printf "  goal, %s: median %.3f ms here, %.3f ms BASE (%.2fx); goal %.1f ms %s\n",
+                 what, h, b, b / h, goal, h <= goal ? "met" : "MISSED"
+      }' "$B/bench-base.txt" "$B/bench-here.txt"
   done
   # the kernel alone (bl_bracket_azimuth), each build with its own headers
   if ${CC:-cc} -std=c11 -O2 -D_POSIX_C_SOURCE=200809L -I"$wt/include" \

@@ -14,7 +14,10 @@
 ** brackets on a grid of 64 x 64 polar angles (log-spaced h0, h from the
 ** forward peak to 2, both ways of the ridge), evaluated repeatedly for
 ** about 0.2 s; the checksum (sum of all values) lets the two builds'
-** values be compared (they agree to rounding).
+** values be compared (they agree to rounding).  Where the tree has the
+** panel kernel (BL_NODE_MAX, bl_bracket_azimuth_n: the one the Born
+** integrals call since issue 14's lanes) that is what is timed, on
+** panels of 21 consecutive brackets; calls/s counts brackets.
 */
 
 #include <math.h>
@@ -33,6 +36,12 @@
 static bl_bracket br[NG * NG];
 #ifdef BL_WPOLES
 static bl_wpoles wp;
+#endif
+#ifdef BL_NODE_MAX   /* the kernel as the integrator calls it: panels */
+#define PANEL 21
+#define NPANEL ((NG * NG + PANEL - 1) / PANEL)
+static bl_brackets bb[NPANEL];
+static double out[BL_NODE_MAX];
 #endif
 
 
@@ -63,14 +72,35 @@ static void run (const char *name, const char *particle, int Z, double T) {
 #ifdef BL_WPOLES   /* the target factor sorted once (set-up, not timed) */
   bl_wpoles_set(&wp, c.npole, c.pole, single, c.nterm, c.term);
 #endif
+#ifdef BL_NODE_MAX   /* 21 brackets a panel (the last one repeated) */
+  for (n = 0; n < NPANEL * BL_NODE_MAX; n++) {
+    long p = n / BL_NODE_MAX, l = n % BL_NODE_MAX, m = p * PANEL + l;
+    const bl_bracket *b1 = &br[m < NG * NG && l < PANEL ? m : NG * NG - 1];
+    bb[p].L0[l] = b1->L0;
+    bb[p].L1[l] = b1->L1;
+    bb[p].M0[l] = b1->M0;
+    bb[p].M1[l] = b1->M1;
+    bb[p].Q0[l] = b1->Q0;
+    bb[p].b[l] = b1->b;
+  }
+#endif
   t0 = now();
   do {
+#ifdef BL_NODE_MAX
+    for (n = 0; n < NPANEL; n++) {
+      int l, np = n + 1 < NPANEL ? PANEL : NG * NG - (NPANEL - 1) * PANEL;
+      bl_bracket_azimuth_n(&bb[n], np, &wp, out);
+      for (l = 0; l < np; l++)
+        sum += out[l];
+    }
+#else
     for (n = 0; n < NG * NG; n++)
 #ifdef BL_WPOLES
       sum += bl_bracket_azimuth(&br[n], &wp);
 #else
       sum += bl_bracket_azimuth(&br[n], c.npole, c.pole, single, c.nterm,
                                 c.term);
+#endif
 #endif
     reps++;
     t = now() - t0;

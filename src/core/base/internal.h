@@ -37,6 +37,13 @@ struct bl_quad {
 ** leaves *err at 0. */
 typedef double (*bl_gkfun) (double x, void *par, double *err);
 
+/* The same integrand at n nodes at once (n <= BL_GK_NODES, the nodes of
+** one panel): f[i] and err[i] at x[i], the values bl_gkfun would give one
+** by one, so that independent nodes overlap (bl_gk_adapt_v). */
+#define BL_GK_NODES 21
+typedef void (*bl_gkvfun) (const double *x, int n, void *par, double *f,
+                           double *err);
+
 /*
 ** int_a^b f by Gauss-Kronrod panels (npt = 7: 3/7 points, 15: 7/15,
 ** else 10/21), bisecting the panel with
@@ -49,6 +56,12 @@ typedef double (*bl_gkfun) (double x, void *par, double *err);
 int bl_gk_adapt (bl_gkfun f, void *par, double a, double b, double epsabs,
                  double epsrel, size_t limit, int npt, bl_gkpanel *w,
                  double *val, double *err);
+
+/* bl_gk_adapt with a vector integrand: each panel's nodes in one call,
+** the same panels, values and errors. */
+int bl_gk_adapt_v (bl_gkvfun fv, void *par, double a, double b,
+                   double epsabs, double epsrel, size_t limit, int npt,
+                   bl_gkpanel *w, double *val, double *err);
 
 /* One panel [a, b] of the npt-point rule (as bl_gk_adapt): p->val the
 ** Kronrod value, p->d = |K - G|, p->A = int |f|, p->err its error model.

@@ -195,41 +195,87 @@ static double phi_at (integ *it, double h, double *err) {
 
 
 /*
+** Phi at the n inner nodes h[i] (dh[i] = h - h*) of one panel, as phi_at
+** gives them one by one: the brackets and the closed-form azimuths of the
+** whole panel at once (bl_bracket_set_n, bl_bracket_azimuth_n), so that
+** the nodes' latencies overlap.
+*/
+static void phi_n (integ *it, int n, double *h, double *dh, double *f,
+                   double *err) {
+  bl_brackets br;
+  double fo[BL_NODE_MAX];
+  int i, m = (n + 3) / 4 * 4;   /* h, dh hold m values (the lanes) */
+  for (i = 0; i < m; i++) {
+    if (h[i] > 2.0) {   /* rounding at the ends of the range */
+      dh[i] += 2.0 - h[i];
+      h[i] = 2.0;
+    }
+    else if (h[i] < 0.0) {
+      dh[i] -= h[i];
+      h[i] = 0.0;
+    }
+    if (i < n)
+      err[i] = 0.0;
+  }
+  if (it->az != NULL) {
+    for (i = 0; i < n; i++) {
+      it->g.dh = dh[i];
+      f[i] = phi_at(it, h[i], &err[i]);
+    }
+    return;
+  }
+  it->q->calls += (unsigned long)n;
+  bl_bracket_set_n(&it->kn, &it->g, n, h, dh, &br);
+  bl_bracket_azimuth_n(&br, n, &it->wp, fo);
+  for (i = 0; i < n; i++)   /* B W >= 0: see phi_at */
+    f[i] = fo[i] < 0.0 ? 0.0 : fo[i];
+}
+
+
+/*
 ** Inner integrand in u: sigma = sstar + side w sinh(u), dh/dsigma = h + hc.
 ** Near the ridge (|sigma - sstar| < 1/2) h - h* = (h* + hc) expm1(sigma -
 ** sstar) keeps the digits of the small difference and h = h* + (h - h*)
 ** loses none (h + hc >= 0.6 (h* + hc)); elsewhere h = hc expm1(sigma) keeps
 ** those of a small h (the forward peak) and h - h* is no small difference.
-** One expm1 per call either way.
+** One expm1 per node either way; the n nodes of a panel at once
+** (bl_gk_adapt_v), the map in lanes (bl_ridge_map_n).
 */
-static double inner_f (double u, void *params, double *err) {
+static void inner_fv (const double *u, int n, void *params, double *f,
+                      double *err) {
   integ *it = params;
-  double eu = exp(u), sh = 0.5 * (eu - 1.0 / eu), ch = sh + 1.0 / eu;
-  double ds, h, hc = it->kn.hc, jac, v;
-  if (u < 1e-3)   /* sinh without cancellation near 0 */
-    sh = sinh(u);
-  ds = it->side * it->w * sh;
-  if (fabs(ds) < 0.5) {
-    it->g.dh = (it->g.hs + hc) * expm1(ds);
-    h = it->g.hs + it->g.dh;
+  double h[BL_NODE_MAX], dh[BL_NODE_MAX], jac[BL_NODE_MAX];
+  int i;
+  bl_ridge_map_n(u, n, it->side * it->w, it->w, it->sstar, it->g.hs,
+                 it->kn.hc, h, dh, jac);
+  phi_n(it, n, h, dh, f, err);
+  for (i = 0; i < n; i++) {
+    f[i] *= jac[i];
+    err[i] *= jac[i];
   }
-  else {
-    h = hc * expm1(it->sstar + ds);
-    it->g.dh = h - it->g.hs;
-  }
-  jac = (h + hc) * it->w * ch;
-  v = phi_at(it, h, err) * jac;
-  *err *= jac;
-  return v;
 }
 
 
-/* Plain inner integrand in sigma; dh/dsigma = h + hc. */
-static double inner_plain (double sg, void *params, double *err) {
+/* Plain inner integrand in sigma at n nodes; dh/dsigma = h + hc. */
+static void inner_plainv (const double *sg, int n, void *params, double *f,
+                          double *err) {
   integ *it = params;
-  double h = it->kn.hc * expm1(sg), v = phi_at(it, h, err);
-  *err *= h + it->kn.hc;
-  return v * (h + it->kn.hc);
+  /* zeroed: no static analyzer sees that m >= n sets every place read */
+  double h[BL_NODE_MAX] = {0}, dh[BL_NODE_MAX] = {0}, jac[BL_NODE_MAX] = {0};
+  int i, m = (n + 3) / 4 * 4;   /* the lanes */
+  if (n < 1 || n > BL_NODE_MAX)
+    return;   /* never: gk gives 1 to BL_GK_NODES nodes */
+  bl_expm1_n(sg, n, h);   /* and 0 up to m */
+  for (i = 0; i < m; i++) {
+    h[i] *= it->kn.hc;
+    dh[i] = 0.0;
+    jac[i] = h[i] + it->kn.hc;
+  }
+  phi_n(it, n, h, dh, f, err);
+  for (i = 0; i < n; i++) {
+    err[i] *= jac[i];
+    f[i] *= jac[i];
+  }
 }
 
 
@@ -247,11 +293,11 @@ static void note (integ *it, int st) {
 ** chasing it in rounding noise would cost the whole call budget.  The
 ** error still enters the reported one.
 */
-static double piece (integ *it, bl_gkfun f, double a, double b, double eps,
+static double piece (integ *it, bl_gkvfun f, double a, double b, double eps,
                      double negl, size_t limit, double *abserr) {
   double val;
-  int st = bl_gk_adapt(f, it, a, b, negl, eps, limit, it->npt_in,
-                       it->q->pan[1], &val, abserr);
+  int st = bl_gk_adapt_v(f, it, a, b, negl, eps, limit, it->npt_in,
+                         it->q->pan[1], &val, abserr);
   /* under an outer rule a failure is said by its error, which that rule
   ** weighs; alone (the angular distribution) it is the result's status */
   if (it->inner_alone)
@@ -292,7 +338,7 @@ static void ridge (integ *it, double hs, double r, double cs, double lo,
     if (len <= 0.0)
       continue;
     it->side = side;
-    val = piece(it, inner_f, 0.0, asinh(len / it->w), eps, tl, limit,
+    val = piece(it, inner_fv, 0.0, asinh(len / it->w), eps, tl, limit,
                 &abserr);
     *total += val;
     *abserr_total += abserr;
@@ -352,7 +398,7 @@ static double inner_integral (integ *it, double eps, double negl) {
   }
   else {
     it->g.ridge = 0;
-    total = piece(it, inner_plain, 0.0, smax, eps, negl, limit,
+    total = piece(it, inner_plainv, 0.0, smax, eps, negl, limit,
                   &abserr_total);
   }
   it->last_err = abserr_total;

@@ -85,6 +85,40 @@ void bl_wpoles_set (bl_wpoles *w, int npole, const double *pole,
 ** closed form. */
 double bl_bracket_azimuth (const bl_bracket *br, const bl_wpoles *w);
 
+/*
+** The brackets of up to BL_NODE_MAX inner nodes at one outer geometry, one
+** array per coefficient (the nodes of one Gauss-Kronrod panel, in lanes).
+*/
+#define BL_NODE_MAX 24   /* 21 nodes, whole steps of 4 lanes */
+typedef struct bl_brackets {
+  double L0[BL_NODE_MAX], L1[BL_NODE_MAX], M0[BL_NODE_MAX], M1[BL_NODE_MAX];
+  double Q0[BL_NODE_MAX], b[BL_NODE_MAX];
+} bl_brackets;
+
+/* bl_bracket_set at n <= BL_NODE_MAX geometries that differ from g only
+** in h[i] and dh[i] (h - h* where g->ridge; s = sqrt(h (2 - h))): the same
+** values node by node.  The lane functions work in whole steps of 4: h,
+** dh, u hold finite values up to n rounded up to 4, and every output
+** array has BL_NODE_MAX places (the places past n are scratch). */
+void bl_bracket_set_n (const bl_kin *kn, const bl_polar *g, int n,
+                       const double *h, const double *dh, bl_brackets *br);
+
+/* out[i] = exp(x[i]), expm1(x[i]) for i < n <= BL_NODE_MAX, to 1 ulp
+** (kin.c); out holds BL_NODE_MAX (written up to n rounded up to 4), and
+** so does the x of bl_exp_n (values up to n rounded up to 4). */
+void bl_exp_n (const double *x, int n, double *out);
+void bl_expm1_n (const double *x, int n, double *out);
+
+/* The sinh map of an inner ridge side at n <= BL_NODE_MAX points (kin.c):
+** h, dh = h - h* and dh/du at u[i]. */
+void bl_ridge_map_n (const double *u, int n, double sw, double w,
+                     double sstar, double hs, double hc, double *h,
+                     double *dh, double *jac);
+
+/* bl_bracket_azimuth of n such brackets into out[i]: the same values. */
+void bl_bracket_azimuth_n (const bl_brackets *br, int n, const bl_wpoles *w,
+                           double *out);
+
 /* The target factor W(x) of the same lists at q^2 = x. */
 double bl_target_w (double x, int npole, const double *pole,
                     const double *single, int nterm, const bl_term *term);
