@@ -65,7 +65,9 @@
 ** median calls (15 points before), 99.98 % within rtol.  At 1e-3, 3/7
 ** outer with the s map and 5/11 inner: 2,190 -> 1,771 calls, 99.94 ->
 ** 99.99 % within, est/true 8.3 -> 44; calls at equal true error against
-** a2be974 5.85x -> 6.15x at E = 1e-4, 2.63x -> 3.48x at 1e-6 (3/7 inner:
+** a2be974 5.85x -> 6.15x at E = 1e-4, 2.63x -> 3.48x at 1e-6 (on all
+** 9,672 points, the 1,240 recomputed: 2,160 -> 1,738 calls, 5.69x ->
+** 6.00x and 2.55x -> 3.39x; 3/7 inner:
 ** 1,778 calls, 3.09x at 1e-6; 7/15 inner: 1,965 calls, 3.52x; 10/21:
 ** 2,163, 3.33x).  At 1e-4, 3/7 outer with the s map took 3,690 -> 2,550
 ** calls (99.93 % within, 3.57x at E = 1e-6) but left 20 MeV electrons
