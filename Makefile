@@ -640,7 +640,10 @@ continuity-full: $(B)/continuity
 # Regenerate the reference set: ERROR_POINTS random points at rtol 1e-10,
 # computed with the integrator of BENCH_BASE (GSL's qag, whose estimates
 # are pessimistic: independent of the scheme under test), built in its
-# worktree as make bench does (about 2 min on two cores).
+# worktree as make bench does (about 2 min on two cores).  BASE computes
+# the static electron term: the points of electrons with atomic electrons
+# on were recomputed with this tree since (see the file's header), and a
+# regeneration with BASE makes them stale again.
 error-ref:
 	@set -e; wt=$$(BENCH_BASE=$(BENCH_BASE) bash scripts/bench.sh --base-only); \
 	$(CC) -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L -Iinclude \

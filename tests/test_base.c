@@ -17,6 +17,7 @@
 #include <gsl/gsl_errno.h>
 
 #include "brakelight.h"
+#include "base/internal.h"   /* bl_gk_panel: the Gauss-Kronrod rules */
 #include "testutil.h"
 
 /* ==================================================================
@@ -549,4 +550,49 @@ Test(health, null_materials_models_and_workspaces) {
   bl_quad_reset_calls(NULL);
   bl_quad_free(NULL);
   cr_expect(bl_quad_rtol(NULL) == 0.0);
+}
+
+
+/* x^k on [-1, 2] (not symmetric, so odd powers count too). */
+static double powk (double x, void *par, double *err) {
+  *err = 0.0;
+  return pow(x, *(const int *)par);
+}
+
+/*
+** Each Gauss-Kronrod rule of base/quad.c integrates x^k exactly up to its
+** degree (3n + 1 for the Kronrod extension of the n-point Gauss rule,
+** Kronrod 1965: 11, 17, 23, 31 for 7, 11, 15, 21 points) and not beyond,
+** and its Gauss part up to 2n - 1: d = |K - G| vanishes up to that
+** degree and not above.  The exact integral is (2^(k+1) - (-1)^(k+1))/(k+1)
+** on [-1, 2]; degree + 1 is even, and checked on [-1, 1].
+*/
+Test(quad, gauss_kronrod_degrees) {
+  static const int npt[4] = {7, 11, 15, 21}, deg[4] = {11, 17, 23, 31},
+                   gdeg[4] = {5, 9, 13, 19};
+  int r, k;
+  for (r = 0; r < 4; r++) {
+    for (k = 0; k <= deg[r] + 1; k++) {
+      bl_gkpanel p;
+      double exact = (pow(2.0, k + 1) - pow(-1.0, k + 1)) / (k + 1);
+      double rel;
+      bl_gk_panel(powk, &k, -1.0, 2.0, npt[r], &p);
+      rel = fabs(p.val - exact) / fabs(exact);
+      if (k <= deg[r])
+        cr_expect(rel < 1e-13, "%d points, x^%d: relative error %g",
+                  npt[r], k, rel);
+      else {   /* x^(deg+1) on [-1, 1], where it is not diluted */
+        bl_gk_panel(powk, &k, -1.0, 1.0, npt[r], &p);
+        rel = fabs(p.val - 2.0 / (k + 1)) / (2.0 / (k + 1));
+        cr_expect(rel > 1e-12, "%d points exact for x^%d: %g (degree %d?)",
+                  npt[r], k, rel, deg[r]);
+      }
+      if (k <= gdeg[r])
+        cr_expect(p.d < 1e-12 * fabs(exact), "%d points, x^%d: d = %g",
+                  npt[r], k, p.d);
+      else if (k == gdeg[r] + 1)
+        cr_expect(p.d > 1e-8 * fabs(exact), "%d points, Gauss exact for "
+                  "x^%d", npt[r], k);
+    }
+  }
 }

@@ -30,8 +30,8 @@
 ** projectiles and gets the same treatment where it is narrow.
 **
 ** Error control (issue 14).  Every piece is integrated by bl_gk_adapt
-** (base/quad.c): one Gauss-Kronrod panel (7 points at rtol >= 1e-2; else
-** 21 outer and 15 inner, below RULE15_RTOL 15 outer and 21 inner), bisected only while the panel's own error estimate says so, with a
+** (base/quad.c): one Gauss-Kronrod panel (3/7, 5/11, 7/15 or 10/21
+** points by rtol and level: RULE7_RTOL, RULE15_RTOL), bisected only while the panel's own error estimate says so, with a
 ** realistic estimate of the Kronrod value's error (not the Gauss one's)
 ** that a bisection checks against the true error of its parent.  Each
 ** inner integral reports its error; the outer rule weighs those errors
@@ -56,19 +56,34 @@
 ** outer integrand that the outer rule cannot see); 0.05 leaves 7 misses
 ** at 1e-6 and none at 1e-4 for 4-12 % more calls (make error-sweep). */
 #define INNER_SHARE 0.05
-/* The Gauss-Kronrod rules by rtol (make error-sweep, 9,672 points):
-** from RULE7_RTOL up 3/7 points, outer and inner (at 1e-2, 15 points
-** before: 1,575 median calls, then 1,169, 99.98 % of the points within
-** rtol; at 1e-3 with the s map of SMAP_SIGMA: 2,160 -> 1,827 calls,
-** 99.94 -> 99.97 % within, est/true 7.8 -> 34, but a proton on bare Fe at
-** T = 50 m, y = 0.99 (tests/lua/test_physics.lua) then ends 9 % uncertain;
-** at 1e-4 it would leave 0.23 % of the points beyond rtol); the inner rule 7/15 from RULE15_RTOL up
-** (at 1e-4: 3,759 -> 3,420 calls, 99.97 % within; at 1e-6 it would miss
-** 0.34 % of the points), else 10/21.  The outer rule below RULE15_RTOL is
-** 7/15 (at 1e-6: 8,211 -> 6,206 calls, 99.93 % within both, est/true 16
-** -> 41; at 1e-3 and 1e-4 it cost more calls than 10/21, 2,160 -> 2,948
-** and 3,420 -> 3,945: its first panel meets the tolerance less often). */
-#define RULE7_RTOL 1e-2
+/* The Gauss-Kronrod rules by rtol (make error-sweep; the figures on the
+** 8,432 reference points whose values the bound electron term of e-/e+
+** left valid): the outer rule is 3/7 from RULE7_RTOL up, with the s map
+** of SMAP_SIGMA, 10/21 down to RULE15_RTOL, 7/15 below; the inner rule
+** 3/7 from RULE7_IN_RTOL up, 5/11 down to RULE7_RTOL, 7/15 down to
+** RULE15_RTOL, 10/21 below.  At 1e-2 the 3/7 rules took 1,575 -> 1,169
+** median calls (15 points before), 99.98 % within rtol.  At 1e-3, 3/7
+** outer with the s map and 5/11 inner: 2,190 -> 1,771 calls, 99.94 ->
+** 99.99 % within, est/true 8.3 -> 44; calls at equal true error against
+** a2be974 5.85x -> 6.15x at E = 1e-4, 2.63x -> 3.48x at 1e-6 (on all
+** 9,672 points, the 1,240 recomputed: 2,160 -> 1,738 calls, 5.69x ->
+** 6.00x and 2.55x -> 3.39x; 3/7 inner:
+** 1,778 calls, 3.09x at 1e-6; 7/15 inner: 1,965 calls, 3.52x; 10/21:
+** 2,163, 3.33x).  At 1e-4, 3/7 outer with the s map took 3,690 -> 2,550
+** calls (99.93 % within, 3.57x at E = 1e-6) but left 20 MeV electrons
+** on Pb and W 1.9e-5 and 2.7e-5 off with estimates of 4e-7 and 8e-5, and
+** the distorted waves, which compose the Born estimate, then reported
+** 2.6e-4 for W at the default rtol 1e-4: 10/21 outer stays there (3/7
+** inner at 1e-4: 99.77-99.80 % within).  At 1e-6 the 3/7 outer rule
+** left 98.9 % within and 5/11 outer est/true 110; the 7/15 outer rule
+** there: 8,211 -> 6,206 calls, 99.93 % within, est/true 16 -> 41 (at
+** 1e-3 and 1e-4 before the s map 7/15 outer cost more than 10/21, its
+** first panel meets the tolerance less often); 7/15 inner at 1e-6 would
+** miss 0.26-0.34 % of the points.  (A proton on bare Fe at T = 50 m,
+** y = 0.99, once held the 3/7 rule back at 1e-3: its distorted-wave
+** estimate said 9 %, the estimate's composition, since fixed.) */
+#define RULE7_RTOL 1e-3
+#define RULE7_IN_RTOL 1e-2
 #define RULE15_RTOL 5e-5
 /* With the 3/7 rule the outer range up to sigma0 = SMAP_SIGMA (h0 ~ 54
 ** hc0) is integrated in s = exp(-sigma0) = hc0/(h0 + hc0) (see outer_s);
@@ -460,7 +475,8 @@ static void integ_init (integ *it, const bl_case *c, bl_quad *q,
   it->calls0 = q->calls;
   it->status = GSL_SUCCESS;
   it->npt = q->rtol >= RULE7_RTOL ? 7 : q->rtol >= RULE15_RTOL ? 21 : 15;
-  it->npt_in = q->rtol >= RULE7_RTOL ? 7 : q->rtol >= RULE15_RTOL ? 15 : 21;
+  it->npt_in = q->rtol >= RULE7_IN_RTOL ? 7 : q->rtol >= RULE7_RTOL ? 11
+               : q->rtol >= RULE15_RTOL ? 15 : 21;
   it->inner_alone = 0;
   it->smap = q->rtol >= RULE7_RTOL;
 }
