@@ -90,6 +90,64 @@ Test(ebamp, gauge_invariance_every_kind) {
     }
 }
 
+/* The diagnostic one-line subsets (bl_ebrems.radiate: the projectile's
+** radiation only, the struck electron's only) are gauge invariant each,
+** and their amplitudes add to the full one (muon, proton at 1 MeV and
+** 100 MeV). */
+Test(ebamp, one_line_subsets_gauge_invariant) {
+  static const double Ts[] = {1.0, 100.0};
+  static const char *const ps[] = {"muon", "proton"};
+  unsigned seed = 13;
+  int ip, it, n;
+  for (ip = 0; ip < 2; ip++)
+    for (it = 0; it < 2; it++) {
+      bl_ebrems c[3];
+      int r;
+      for (r = 0; r < 3; r++) {
+        cr_assert_eq(bl_ebrems_init(&c[r], bl_particle_find(ps[ip]), Ts[it]),
+                     BL_SUCCESS);
+        cr_expect_eq(c[r].radiate, BL_EBREMS_RAD_BOTH);
+      }
+      c[1].radiate = BL_EBREMS_RAD_PROJECTILE;
+      c[2].radiate = BL_EBREMS_RAD_ELECTRON;
+      for (n = 0; n < 10; n++) {
+        bl_ebpoint x;
+        double ek[2][4], ep[2][4], worst = 0.0, big = 0.0, sum = 0.0;
+        double full = 0.0;
+        double complex Mk[2][BL_EB_NAMP], Mp[3][2][BL_EB_NAMP];
+        int pol, s, i;
+        cr_assert_eq(random_point(&c[0], &seed, &x), 0);
+        for (i = 0; i < 4; i++)
+          ek[0][i] = ek[1][i] = x.p[4][i] / x.p[4][0];
+        bl_eb_polarisations(x.p[4], ep);
+        for (r = 0; r < 3; r++)
+          bl_eb_amplitudes(&c[r], (const double (*)[4])x.p,
+                           (const double (*)[4])ep, Mp[r]);
+        for (r = 1; r < 3; r++) {
+          bl_eb_amplitudes(&c[r], (const double (*)[4])x.p,
+                           (const double (*)[4])ek, Mk);
+          for (pol = 0; pol < 2; pol++)
+            for (s = 0; s < BL_EB_NAMP; s++) {
+              worst = fmax(worst, cabs(Mk[pol][s]));
+              big = fmax(big, cabs(Mp[r][pol][s]));
+            }
+        }
+        for (pol = 0; pol < 2; pol++)
+          for (s = 0; s < BL_EB_NAMP; s++) {
+            sum = fmax(sum, cabs(Mp[1][pol][s] + Mp[2][pol][s]
+                                 - Mp[0][pol][s]));
+            full = fmax(full, cabs(Mp[0][pol][s]));
+          }
+        sum /= full;
+        cr_expect(big > 0.0 && worst <= 1e-12 * big,
+                  "%s T=%g: |M(eps=k)| %.3e vs |M| %.3e", ps[ip], Ts[it],
+                  worst, big);
+        cr_expect(sum <= 1e-12, "%s T=%g: the subsets add up to %.2e",
+                  ps[ip], Ts[it], sum);
+      }
+    }
+}
+
 /* The transverse polarisation pair is arbitrary: a rotated pair gives the
 ** same sum (a check that the sum is over a complete transverse basis). */
 Test(ebamp, polarisation_basis_free) {
