@@ -254,7 +254,8 @@ int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
     int mu = fabs(p->mass - BL_MMU_MEV) <= 1e-12 * BL_MMU_MEV;
     double m = p->mass, e0 = T + m, p0 = sqrt(T * (T + 2.0 * m));
     c->ebt = 1 + (mu ? BL_EBT_MUON : BL_EBT_ELECTRON) + (p->charge > 0.0);
-    c->ekmax = T / (1.0 + m * m / (BL_ME_MEV * (e0 + p0)));
+    c->ekmax = mu ? T / (1.0 + m * m / (BL_ME_MEV * (e0 + p0)))
+                  : T / (1.0 + BL_ME_MEV / (e0 + p0));   /* as before */
     bl_ebt_rows(c->ebt - 1, Z, T, c->ebrow, &c->ebwz, &c->ebwb);
   } else if (c->opts.electrons && p->mass > 2.0 * BL_ME_MEV)
     c->warn |= BL_WARN_STATIC_E;

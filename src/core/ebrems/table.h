@@ -1,7 +1,8 @@
 /*
-** table.h -- the bound electron term of electrons, positrons and muons as a ratio
-** to the static-charge electron term: grid, generated table (eb_table.c,
-** make eb-table; eb_table_mu.c, make eb-table-mu) and its interpolation (table.c)
+** table.h -- the bound electron term of electrons, positrons and muons as
+** a ratio to the static-charge electron term: grid, generated tables
+** (eb_table.c, make eb-table; eb_table_mu.c, make eb-table-mu) and their
+** interpolation (table.c)
 ** See Copyright Notice in LICENSE
 */
 #ifndef BL_EBREMS_TABLE_H
