@@ -573,7 +573,7 @@ $(ROCKSPEC): scripts/brakelight.rockspec.in $(VERSION_H)
 	sed 's|@VERSION@|$(VERSION)|g' $< > $@
 
 # ---- benchmarks and generators ---------------------------------------------
-.PHONY: bench hf-table nuc-table eb-table error-sweep error-ref dw-positron continuity \
+.PHONY: bench hf-table nuc-table eb-table eb-table-mu error-sweep error-ref dw-positron continuity \
         continuity-full
 # The fixed earlier commit that make bench and make error-ref build in a git
 # worktree build/base/<commit> (the main before issue 14's integrator).
@@ -676,6 +676,14 @@ eb-table: $(LIB)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -o $(B)/fit-ebrems scripts/fit-ebrems.c \
 	  $(LIB) $(LIBS)
 	./$(B)/fit-ebrems -j 2 -o src/core/ebrems/eb_table.c
+
+# Regenerate src/core/ebrems/eb_table_mu.c: the same for mu- and mu+
+# (fit-ebrems -u; about 15 min on two cores).  Never part of all or check.
+eb-table-mu: $(LIB)
+	@mkdir -p $(B)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -o $(B)/fit-ebrems scripts/fit-ebrems.c \
+	  $(LIB) $(LIBS)
+	./$(B)/fit-ebrems -u -j 2 -o src/core/ebrems/eb_table_mu.c
 
 # before/after comparison
 # make compare-points [BASE=<git rev>] [COMPARE_POINTS=N] [COMPARE_SEED=S]

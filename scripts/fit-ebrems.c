@@ -1,18 +1,26 @@
 /*
 ** fit-ebrems.c -- tabulates the bound electron term of electrons and
-** positrons (src/core/ebrems/) as a ratio to the static-charge electron
-** term of the Born target factor; writes src/core/ebrems/eb_table.c
+** positrons, or of muons (src/core/ebrems/) as a ratio to the
+** static-charge electron term of the Born target factor; writes
+** src/core/ebrems/eb_table.c (e-, e+) or eb_table_mu.c (-u: mu-, mu+)
 ** See Copyright Notice in LICENSE
 **
-** Run through `make eb-table` (never by `make` or `make check`):
+** Run through `make eb-table` / `make eb-table-mu` (never by `make` or
+** `make check`):
 **
-**   fit-ebrems [-o FILE] [-j THREADS] [-v]   the whole grid into FILE
-**                 (-v: one line a node on stderr)
-**   fit-ebrems -p KIND Z T U             one point on stdout (a quick look)
-**   fit-ebrems -m N SEED                 the interpolation error of the
-**                 library's table (bl_case_eratio) against fresh ratios at
-**                 N random points (kind, Z = 1...92, ln T uniform on 1 keV
-**                 ... 1 GeV, u uniform on 0.02 ... 0.997): worst, median
+**   fit-ebrems [-u] [-o FILE] [-j THREADS] [-v]   the whole grid into FILE
+**                 (-u: the muon table; -v: one line a node on stderr)
+**   fit-ebrems -p KIND Z T U             one point on stdout (a quick look;
+**                 KIND electron, positron, muon, antimuon)
+**   fit-ebrems -d KIND Z T U             the same and the ratio with the
+**                 projectile's radiation only (the struck electron's own
+**                 radiation left out; muons: DEVELOPERS.md, "Muons")
+**   fit-ebrems [-u] [-j THREADS] -m N SEED   the interpolation error of
+**                 the library's table (bl_case_eratio) against fresh
+**                 ratios at N random points (kind, Z = 1...92, ln T
+**                 uniform on the table's range; e+-: u uniform on 0.02 ...
+**                 0.997; muons: ln(u / (1 - u)) uniform on 1e-4 ... 0.997):
+**                 worst, median
 **
 ** At each node (kind, Z, T, u = y / y_max, y = k / T, y_max the end point
 ** on a free electron at rest):
@@ -36,16 +44,23 @@
 #define EB_RTOL   2e-3
 #define BORN_RTOL 1e-4
 
-static double val[2][EBT_NZ][EBT_NT][EBT_NU];
-static double rerr[2][EBT_NZ][EBT_NT][EBT_NU];
+static double val[2][EBT_NZ][EBM_NT][EBM_NU];
+static double rerr[2][EBT_NZ][EBM_NT][EBM_NU];
 static int jobnext = 0, misses = 0, progress = 0;
 static pthread_mutex_t lock = PTHREAD_MUTEX_INITIALIZER;
-static const char *kinds[2] = {"electron", "positron"};
+static const char *names[2][2] = {{"electron", "positron"},
+                                  {"muon", "antimuon"}};
+/* the grid of the table made: e+- or (-u) muons */
+static int mu = 0, NT = EBT_NT, NU = EBT_NU;
+static double LT0 = EBT_LT0, DLT = EBT_DLT;
+static const double *UN = bl_ebt_u;
+#define kinds (names[mu])
 
 
-static int ratio (int kind, int Z, double T, double u, bl_quad *qe,
-                  bl_quad *qb, double *R, double *err) {
-  const bl_particle *p = bl_particle_find(kinds[kind]);
+static int ratio_of (const char *name, int Z, double T, double u,
+                     bl_quad *qe, bl_quad *qb, int radiate, double *R,
+                     double *err) {
+  const bl_particle *p = bl_particle_find(name);
   const bl_model *hf = bl_model_find("hartree-fock");
   bl_ebrems e;
   bl_case ce;
@@ -55,9 +70,12 @@ static int ratio (int kind, int Z, double T, double u, bl_quad *qe,
   int s1, s2, t;
   o.coulomb = BL_APPLY_OFF;
   o.elwert = BL_APPLY_OFF;
+  if (T > BL_EBREMS_T_MAX && T < BL_EBREMS_T_MAX * (1.0 + 1e-12))
+    T = BL_EBREMS_T_MAX;   /* the top node exp(ln 1e7) rounded up */
   if (bl_ebrems_init(&e, p, T) != BL_SUCCESS
       || bl_ebrems_set_binding(&e, Z, hf, NULL) != BL_SUCCESS)
     return 1;
+  e.radiate = radiate;
   k = u * bl_ebrems_kmax(&e);
   /* the static electron term alone: the Born target factor with its
   ** elastic part removed and the electron part as it is (ebt = 0) */
@@ -81,6 +99,11 @@ static int ratio (int kind, int Z, double T, double u, bl_quad *qe,
   return 0;
 }
 
+static int ratio (int kind, int Z, double T, double u, bl_quad *qe,
+                  bl_quad *qb, double *R, double *err) {
+  return ratio_of(kinds[kind], Z, T, u, qe, qb, BL_EBREMS_RAD_BOTH, R, err);
+}
+
 
 static int dcmp (const void *a, const void *b) {
   double x = *(const double *)a, y = *(const double *)b;
@@ -90,7 +113,7 @@ static int dcmp (const void *a, const void *b) {
 
 static void *worker (void *arg) {
   bl_quad *qe = bl_quad_alloc(200), *qb = bl_quad_alloc(200);
-  int n = 2 * EBT_NZ * EBT_NT * EBT_NU;
+  int n = 2 * EBT_NZ * NT * NU;
   (void)arg;
   if (qe == NULL || qb == NULL)
     exit(1);
@@ -104,17 +127,57 @@ static void *worker (void *arg) {
     if (j >= n)
       break;
     /* hardest (highest T) first: the threads finish together */
-    it = EBT_NT - 1 - j / (2 * EBT_NZ * EBT_NU);
-    kind = (j / (EBT_NZ * EBT_NU)) % 2;
-    iz = (j / EBT_NU) % EBT_NZ;
-    iu = j % EBT_NU;
-    if (ratio(kind, bl_ebt_z[iz], exp(EBT_LT0 + EBT_DLT * it), bl_ebt_u[iu],
+    it = NT - 1 - j / (2 * EBT_NZ * NU);
+    kind = (j / (EBT_NZ * NU)) % 2;
+    iz = (j / NU) % EBT_NZ;
+    iu = j % NU;
+    if (ratio(kind, bl_ebt_z[iz], exp(LT0 + DLT * it), UN[iu],
               qe, qb, &val[kind][iz][it][iu], &rerr[kind][iz][it][iu]))
       exit(1);
     if (progress)
-      fprintf(stderr, "%d/%d %s Z=%d T=%g u=%g R=%.6f\n", j + 1, n,
-              kinds[kind], bl_ebt_z[iz], exp(EBT_LT0 + EBT_DLT * it),
-              bl_ebt_u[iu], val[kind][iz][it][iu]);
+      fprintf(stderr, "%d/%d %s Z=%d T=%g u=%g R=%.6e\n", j + 1, n,
+              kinds[kind], bl_ebt_z[iz], exp(LT0 + DLT * it),
+              UN[iu], val[kind][iz][it][iu]);
+  }
+  bl_quad_free(qe);
+  bl_quad_free(qb);
+  return NULL;
+}
+
+
+/* -m: the random points, their fresh and table ratios */
+typedef struct mpoint {
+  int kind, Z;
+  double T, u, fresh, got, rel;
+} mpoint;
+static mpoint *mp = NULL;
+static int nmp = 0, mnext = 0;
+
+static void *mworker (void *arg) {
+  bl_quad *qe = bl_quad_alloc(200), *qb = bl_quad_alloc(200);
+  (void)arg;
+  if (qe == NULL || qb == NULL)
+    exit(1);
+  bl_quad_set_rtol(qe, 1e-3);
+  bl_quad_set_rtol(qb, 1e-5);
+  for (;;) {
+    int j;
+    double err;
+    bl_case c;
+    mpoint *x;
+    pthread_mutex_lock(&lock);
+    j = mnext++;
+    pthread_mutex_unlock(&lock);
+    if (j >= nmp)
+      break;
+    x = &mp[j];
+    if (ratio(x->kind, x->Z, x->T, x->u, qe, qb, &x->fresh, &err)
+        || bl_case_setup(&c, bl_particle_find(kinds[x->kind]), x->Z,
+                         bl_model_find("hartree-fock"), NULL, x->T,
+                         &bl_opts_default) != BL_SUCCESS)
+      exit(1);
+    x->got = bl_case_eratio(&c, x->u * c.ekmax);
+    x->rel = fabs(x->got - x->fresh) / fmax(x->fresh, 1e-300);
   }
   bl_quad_free(qe);
   bl_quad_free(qb);
@@ -123,52 +186,31 @@ static void *worker (void *arg) {
 
 
 int main (int argc, char **argv) {
-  const char *out = "src/core/ebrems/eb_table.c";
-  int nth = 1, i, kind, iz, it, iu;
+  const char *out = NULL;
+  int nth = 1, i, kind, iz, it, iu, mn = 0;
+  unsigned mseed = 0;
   pthread_t th[8];
   FILE *f;
   double worst = 0.0;
-  if (argc == 6 && strcmp(argv[1], "-p") == 0) {
+  if (argc == 6 && (strcmp(argv[1], "-p") == 0
+                    || strcmp(argv[1], "-d") == 0)) {
     bl_quad *qe = bl_quad_alloc(200), *qb = bl_quad_alloc(200);
-    double R, err;
+    double R, err, R1, err1;
     bl_quad_set_rtol(qe, EB_RTOL);
     bl_quad_set_rtol(qb, BORN_RTOL);
-    if (ratio(strcmp(argv[2], "positron") == 0, atoi(argv[3]),
-              atof(argv[4]), atof(argv[5]), qe, qb, &R, &err))
+    if (ratio_of(argv[2], atoi(argv[3]), atof(argv[4]), atof(argv[5]), qe,
+                 qb, BL_EBREMS_RAD_BOTH, &R, &err))
       return 1;
-    printf("%.6f %.2e\n", R, err);
-    return 0;
-  }
-  if (argc == 4 && strcmp(argv[1], "-m") == 0) {
-    bl_quad *qe = bl_quad_alloc(200), *qb = bl_quad_alloc(200);
-    int nm = atoi(argv[2]), j;
-    unsigned seed = (unsigned)atoi(argv[3]);
-    double *d = malloc(sizeof(double) * (size_t)(nm > 0 ? nm : 1));
-    if (qe == NULL || qb == NULL || d == NULL || nm < 1)
-      return 1;
-    bl_quad_set_rtol(qe, 1e-3);
-    bl_quad_set_rtol(qb, 1e-5);
-    for (j = 0; j < nm; j++) {
-      int kd = rand_r(&seed) % 2, Z = 1 + rand_r(&seed) % 92;
-      double T = exp(EBT_LT0 + EBT_DLT * (EBT_NT - 1)
-                     * (rand_r(&seed) / (RAND_MAX + 1.0)));
-      double u = 0.02 + 0.977 * (rand_r(&seed) / (RAND_MAX + 1.0));
-      double R, err, got;
-      bl_case c;
-      if (ratio(kd, Z, T, u, qe, qb, &R, &err)
-          || bl_case_setup(&c, bl_particle_find(kinds[kd]), Z,
-                           bl_model_find("hartree-fock"), NULL, T,
-                           &bl_opts_default) != BL_SUCCESS)
-        return 1;
-      got = bl_case_eratio(&c, u * c.ekmax);
-      d[j] = fabs(got - R) / fmax(R, 1e-300);
-      printf("%s Z=%d T=%.4g u=%.4f table %.5f fresh %.5f rel %.2e\n",
-             kinds[kd], Z, T, u, got, R, d[j]);
+    if (argv[1][1] == 'p') {
+      printf("%.6e %.2e\n", R, err);
+      return 0;
     }
-    qsort(d, (size_t)nm, sizeof d[0], dcmp);
-    printf("interpolation error over %d points: median %.2e, 90 %% %.2e, "
-           "worst %.2e\n", nm, d[nm / 2], d[(9 * nm) / 10], d[nm - 1]);
-    free(d);
+    if (ratio_of(argv[2], atoi(argv[3]), atof(argv[4]), atof(argv[5]), qe,
+                 qb, BL_EBREMS_RAD_PROJECTILE, &R1, &err1))
+      return 1;
+    printf("all diagrams %.6e (%.1e), projectile radiation only %.6e "
+           "(%.1e), struck electron's share %.4f\n", R, err, R1, err1,
+           1.0 - R1 / R);
     return 0;
   }
   for (i = 1; i < argc; i++) {
@@ -176,11 +218,69 @@ int main (int argc, char **argv) {
       out = argv[++i];
     else if (strcmp(argv[i], "-v") == 0)
       progress = 1;
+    else if (strcmp(argv[i], "-u") == 0)
+      mu = 1;
     else if (strcmp(argv[i], "-j") == 0 && i + 1 < argc)
       nth = atoi(argv[++i]);
+    else if (strcmp(argv[i], "-m") == 0 && i + 2 < argc) {
+      mn = atoi(argv[++i]);
+      mseed = (unsigned)atoi(argv[++i]);
+      if (mn < 1)
+        return 1;
+    }
+    else
+      return 1;
   }
+  if (mu) {
+    NT = EBM_NT;
+    NU = EBM_NU;
+    LT0 = EBM_LT0;
+    DLT = EBM_DLT;
+    UN = bl_ebm_u;
+  }
+  if (out == NULL)
+    out = mu ? "src/core/ebrems/eb_table_mu.c" : "src/core/ebrems/eb_table.c";
   if (nth < 1 || nth > 8)
     nth = 1;
+  if (mn > 0) {
+    double *d = malloc(sizeof(double) * (size_t)mn);
+    int j;
+    mp = malloc(sizeof(mpoint) * (size_t)mn);
+    if (d == NULL || mp == NULL)
+      return 1;
+    nmp = mn;
+    for (j = 0; j < mn; j++) {
+      double r1, r2;
+      mp[j].kind = rand_r(&mseed) % 2;
+      mp[j].Z = 1 + rand_r(&mseed) % 92;
+      r1 = rand_r(&mseed) / (RAND_MAX + 1.0);
+      r2 = rand_r(&mseed) / (RAND_MAX + 1.0);
+      mp[j].T = exp(LT0 + DLT * (NT - 1) * r1);
+      if (mu) {
+        double a = log(UN[0] / (1.0 - UN[0]));
+        double b = log(UN[NU - 1] / (1.0 - UN[NU - 1]));
+        double x = a + (b - a) * r2;
+        mp[j].u = 1.0 / (1.0 + exp(-x));
+      } else
+        mp[j].u = 0.02 + 0.977 * r2;
+    }
+    for (i = 0; i < nth; i++)
+      pthread_create(&th[i], NULL, mworker, NULL);
+    for (i = 0; i < nth; i++)
+      pthread_join(th[i], NULL);
+    for (j = 0; j < mn; j++) {
+      d[j] = mp[j].rel;
+      printf("%s Z=%d T=%.4g u=%.6f table %.6g fresh %.6g rel %.2e\n",
+             kinds[mp[j].kind], mp[j].Z, mp[j].T, mp[j].u, mp[j].got,
+             mp[j].fresh, mp[j].rel);
+    }
+    qsort(d, (size_t)mn, sizeof d[0], dcmp);
+    printf("interpolation error over %d points: median %.2e, 90 %% %.2e, "
+           "worst %.2e\n", mn, d[mn / 2], d[(9 * mn) / 10], d[mn - 1]);
+    free(d);
+    free(mp);
+    return 0;
+  }
   for (i = 0; i < nth; i++)
     pthread_create(&th[i], NULL, worker, NULL);
   for (i = 0; i < nth; i++)
@@ -188,7 +288,20 @@ int main (int argc, char **argv) {
   f = fopen(out, "w");
   if (f == NULL)
     return 1;
-  fprintf(f, "/*\n** eb_table.c -- generated by scripts/fit-ebrems.c "
+  if (mu)
+    fprintf(f, "/*\n** eb_table_mu.c -- generated by scripts/fit-ebrems.c "
+            "-u (make eb-table-mu); do not\n** edit\n** See Copyright "
+            "Notice in LICENSE\n**\n** Ratio of the bound electron term of "
+            "muons (bl_ebrems_dk_e, all diagrams,\n** Hartree-Fock S(q)) to "
+            "the static-charge electron term of the Born target\n** factor, "
+            "per atomic electron, [kind][Z node][ln T node][u node]\n** "
+            "(src/core/ebrems/table.h).\n** ebrems rtol %g, Born rtol %g; "
+            "%d integrals missed their tolerance.\n*/\n\n"
+            "#include \"ebrems/table.h\"\n\n"
+            "const double bl_ebm_r[2][EBT_NZ][EBM_NT][EBM_NU] = {\n",
+            EB_RTOL, BORN_RTOL, misses);
+  else
+    fprintf(f, "/*\n** eb_table.c -- generated by scripts/fit-ebrems.c "
           "(make eb-table); do not edit\n** See Copyright Notice in LICENSE"
           "\n**\n** Ratio of the bound electron term (bl_ebrems_dk_e, "
           "Hartree-Fock S(q)) to the\n** static-charge electron term of "
@@ -202,16 +315,16 @@ int main (int argc, char **argv) {
     fprintf(f, "  { /* %s */\n", kinds[kind]);
     for (iz = 0; iz < EBT_NZ; iz++) {
       fprintf(f, "    { /* Z = %d */\n", bl_ebt_z[iz]);
-      for (it = 0; it < EBT_NT; it++) {
+      for (it = 0; it < NT; it++) {
         fprintf(f, "      {");
-        for (iu = 0; iu < EBT_NU; iu++) {
+        for (iu = 0; iu < NU; iu++) {
           fprintf(f, "%s%.6e", iu == 0 ? "" : iu % 4 ? ", " : ",\n       ",
                   val[kind][iz][it][iu]);
-          if (rerr[kind][iz][it][iu] > worst)
-            worst = rerr[kind][iz][it][iu];
+          if (rerr[kind][iz][it][iu] / val[kind][iz][it][iu] > worst)
+            worst = rerr[kind][iz][it][iu] / val[kind][iz][it][iu];
         }
-        fprintf(f, "}%s /* T = %.4g MeV */\n", it + 1 < EBT_NT ? "," : "",
-                exp(EBT_LT0 + EBT_DLT * it));
+        fprintf(f, "}%s /* T = %.4g MeV */\n", it + 1 < NT ? "," : "",
+                exp(LT0 + DLT * it));
       }
       fprintf(f, "    }%s\n", iz + 1 < EBT_NZ ? "," : "");
     }
@@ -219,7 +332,7 @@ int main (int argc, char **argv) {
   }
   fprintf(f, "};\n");
   fclose(f);
-  fprintf(stderr, "fit-ebrems: %d misses, worst error estimate of a ratio "
-          "%.2e\n", misses, worst);
+  fprintf(stderr, "fit-ebrems: %d misses, worst relative error estimate of "
+          "a ratio %.2e\n", misses, worst);
   return 0;
 }

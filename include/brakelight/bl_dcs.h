@@ -38,7 +38,7 @@ extern const bl_opts bl_opts_default;
 
 #define BL_POLE_MAX 24
 #define BL_TERM_MAX 200
-#define BL_EBT_ROW 16   /* room for the electron table's u nodes */
+#define BL_EBT_ROW 16   /* room for the electron and muon tables' u nodes */
 
 /* One term c w_i w_j of the target factor, w_i = 1/(pole_i + q^2), with
 ** pole_i <= pole_j. */
@@ -75,9 +75,10 @@ typedef struct bl_case {
   double ridge_b;             /* smallest screening pole of the elastic part */
   unsigned warn;              /* warnings that hold for every k (BL_WARN_*) */
   int ebt;                    /* electron term: 0 the static charges as
-                              ** they are; 1 (electron) or 2 (positron):
-                              ** scaled per k to the bound electron term
-                              ** of the table (bl_case_eratio) */
+                              ** they are; 1 (electron), 2 (positron), 3
+                              ** (muon), 4 (antimuon): scaled per k to the
+                              ** bound electron term of the table
+                              ** (bl_case_eratio) */
   double ekmax;               /* with ebt: the end point on a free
                               ** electron at rest, MeV */
   double ebrow[2][BL_EBT_ROW]; /* with ebt: the table's rows for this Z
@@ -124,14 +125,16 @@ int bl_case_set_formfactor (bl_case *c, double radius);
 ** The factor on the static-charge electron term S(q)/(Z^2 q^4) at photon
 ** energy k (MeV) that makes it the bound electron term: 1 where the case
 ** keeps the static charges (c->ebt == 0: electrons off, or a projectile
-** other than e-/e+); else the tabulated ratio of the tree-level cross
-** section on a free electron at rest with recoil, exchange (e-) or
-** annihilation (e+), weighted by the Hartree-Fock S(q)/Z of the struck
-** electron (src/core/ebrems/), to the static term, per atomic electron:
-** continuous in Z, T and k, exactly 0 at and above the end point
-** c->ekmax (DEVELOPERS.md, "Electron-target bremsstrahlung", "Wired in").
-** bl_case_setup sets c->ebt = 1 or 2 for an electron or a positron with
-** electrons on and a model that has an electron field.
+** other than e-/e+/mu-/mu+); else the tabulated ratio of the tree-level
+** cross section on a free electron at rest with recoil, radiation of both
+** lines, exchange (e-) or annihilation (e+), weighted by the Hartree-Fock
+** S(q)/Z of the struck electron (src/core/ebrems/), to the static term,
+** per atomic electron: continuous in Z, T and k, exactly 0 at and above
+** the end point c->ekmax (DEVELOPERS.md, "Electron-target
+** bremsstrahlung", "Wired in", "Muons").  bl_case_setup sets c->ebt = 1,
+** 2, 3, 4 for an electron, a positron, a muon, an antimuon (spin 1/2,
+** |charge| 1 and that mass) with electrons on and a model that has an
+** electron field.
 */
 double bl_case_eratio (const bl_case *c, double k);
 

@@ -53,7 +53,19 @@ typedef struct bl_ebrems {
                     ** a free electron */
   bl_yukawa inc;    /* its S(q)/Z = sum alpha_i q^2 / (b_i^2 + q^2), b_i
                     ** in m_e (from the model's incoherent function) */
+  int radiate;      /* which lines radiate (BL_EBREMS_RAD_*): both (0, set
+                    ** by bl_ebrems_init); a diagnostic may keep one line
+                    ** only for a projectile other than e-/e+ (kind
+                    ** BL_EBREMS_OTHER: each line's radiation is a
+                    ** gauge-invariant set); ignored for e-/e+ */
 } bl_ebrems;
+
+/* Values of bl_ebrems.radiate. */
+enum {
+  BL_EBREMS_RAD_BOTH       = 0,
+  BL_EBREMS_RAD_PROJECTILE = 1,   /* the projectile's radiation only */
+  BL_EBREMS_RAD_ELECTRON   = 2    /* the struck electron's only */
+};
 
 /* The largest kinetic energy accepted (MeV): a bound on the rounding of
 ** the gauge cancellations at the smallest momentum transfers.  The

@@ -246,13 +246,16 @@ int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
   c->ebt = 0;
   c->ekmax = 0.0;
   if (c->opts.electrons && p->spin == 0.5
-      && fabs(p->mass - BL_ME_MEV) <= 1e-12 * BL_ME_MEV
-      && fabs(fabs(p->charge) - 1.0) <= 1e-12) {
-    /* e-, e+: the bound electron term (src/core/ebrems/table.c); end point
-    ** k_max = T m_e / (m_e + E0 - p0), E0 - p0 = m_e^2 / (E0 + p0) */
-    double e0 = T + BL_ME_MEV, p0 = sqrt(T * (T + 2.0 * BL_ME_MEV));
-    c->ebt = p->charge < 0.0 ? 1 : 2;
-    c->ekmax = T / (1.0 + BL_ME_MEV / (e0 + p0));
+      && fabs(fabs(p->charge) - 1.0) <= 1e-12
+      && (fabs(p->mass - BL_ME_MEV) <= 1e-12 * BL_ME_MEV
+          || fabs(p->mass - BL_MMU_MEV) <= 1e-12 * BL_MMU_MEV)) {
+    /* e-, e+, mu-, mu+: the bound electron term (src/core/ebrems/table.c);
+    ** end point k_max = T m_e / (m_e + E0 - p0), E0 - p0 = m^2 / (E0 + p0) */
+    int mu = fabs(p->mass - BL_MMU_MEV) <= 1e-12 * BL_MMU_MEV;
+    double m = p->mass, e0 = T + m, p0 = sqrt(T * (T + 2.0 * m));
+    c->ebt = 1 + (mu ? BL_EBT_MUON : BL_EBT_ELECTRON) + (p->charge > 0.0);
+    c->ekmax = mu ? T / (1.0 + m * m / (BL_ME_MEV * (e0 + p0)))
+                  : T / (1.0 + BL_ME_MEV / (e0 + p0));   /* as before */
     bl_ebt_rows(c->ebt - 1, Z, T, c->ebrow, &c->ebwz, &c->ebwb);
   } else if (c->opts.electrons && p->mass > 2.0 * BL_ME_MEV)
     c->warn |= BL_WARN_STATIC_E;
@@ -276,5 +279,6 @@ double bl_case_eratio (const bl_case *c, double k) {
     return 1.0;
   if (!(k < c->ekmax))
     return 0.0;
-  return bl_ebt_eval(c->ebrow, c->ebwz, c->ebwb, c->T, k / c->ekmax);
+  return bl_ebt_eval(c->ebt - 1, c->ebrow, c->ebwz, c->ebwb, c->T,
+                     k / c->ekmax);
 }

@@ -261,7 +261,7 @@ static double complex mdot (const double complex a[4][2][2],
 ** Y out, Y in. */
 static void add_pair (const line *X, double qx, const line *Y, double qy,
                       double tyv, const double *qvy, int axial,
-                      const int lab[4], double sign,
+                      const int lab[4], double sign, double rx, double ry,
                       const double k[4],
                       const double eps[2][4], double complex M[2][BL_EB_NAMP]) {
   static const int wt[4] = {8, 4, 2, 1};
@@ -310,8 +310,9 @@ static void add_pair (const line *X, double qx, const line *Y, double qy,
             int s = a1 * wt[lab[0]] + a2 * wt[lab[1]] + b1 * wt[lab[2]]
                     + b2 * wt[lab[3]];
             M[pol][s] += sign * qx * qy
-                         * (qx * mdot(cx.r[pol], cyj, a1, a2, b1, b2) / ty
-                            + qy * mdot(cx.j, cy.r[pol], a1, a2, b1, b2) / tx);
+                         * (rx * qx * mdot(cx.r[pol], cyj, a1, a2, b1, b2) / ty
+                            + ry * qy * mdot(cx.j, cy.r[pol], a1, a2, b1, b2)
+                              / tx);
           }
 }
 
@@ -339,26 +340,34 @@ void bl_eb_amplitudes_q (const bl_ebrems *c, const double p[5][4],
     set_end(&X, p, 0, 2, 1.0, 1, 0);
     set_end(&Y, p, 1, 3, 1.0, 0, 0);
     set_end(&Y, p, 0, 1, 1.0, 0, 0);
-    add_pair(&X, -1.0, &Y, -1.0, q24, v24, ax, lt, 1.0, p[4], eps, M);
+    add_pair(&X, -1.0, &Y, -1.0, q24, v24, ax, lt, 1.0, 1.0, 1.0, p[4], eps,
+             M);
     /* annihilation channel: vbar(p1) ... u(p2), ubar(p4) ... v(p3) */
     set_end(&X, p, 1, 0, 1.0, 1, 0);
     set_end(&X, p, 0, 1, 1.0, 0, 0);
     set_end(&Y, p, 1, 3, 1.0, 0, 0);
     set_end(&Y, p, 0, 2, 1.0, 1, 0);
-    add_pair(&X, -1.0, &Y, -1.0, 0.0, NULL, ax, ls, -1.0, p[4], eps, M);
+    add_pair(&X, -1.0, &Y, -1.0, 0.0, NULL, ax, ls, -1.0, 1.0, 1.0, p[4], eps,
+             M);
   } else {
     static const int ld[4] = {2, 0, 3, 1}, lx[4] = {3, 0, 2, 1};
     set_end(&X, p, 1, 2, c->m, 0, sc);
     set_end(&X, p, 0, 0, c->m, 0, sc);
     set_end(&Y, p, 1, 3, 1.0, 0, 0);
     set_end(&Y, p, 0, 1, 1.0, 0, 0);
-    add_pair(&X, c->z, &Y, -1.0, q24, v24, ax, ld, 1.0, p[4], eps, M);
+    add_pair(&X, c->z, &Y, -1.0, q24, v24, ax, ld, 1.0,
+             c->kind != BL_EBREMS_OTHER
+             || c->radiate != BL_EBREMS_RAD_ELECTRON ? 1.0 : 0.0,
+             c->kind != BL_EBREMS_OTHER
+             || c->radiate != BL_EBREMS_RAD_PROJECTILE ? 1.0 : 0.0,
+             p[4], eps, M);
     if (c->kind == BL_EBREMS_ELECTRON) {
       set_end(&X, p, 1, 3, 1.0, 0, 0);
       set_end(&X, p, 0, 0, 1.0, 0, 0);
       set_end(&Y, p, 1, 2, 1.0, 0, 0);
       set_end(&Y, p, 0, 1, 1.0, 0, 0);
-      add_pair(&X, -1.0, &Y, -1.0, q23, v23, ax, lx, -1.0, p[4], eps, M);
+      add_pair(&X, -1.0, &Y, -1.0, q23, v23, ax, lx, -1.0, 1.0, 1.0, p[4], eps,
+               M);
     }
   }
   for (pol = 0; pol < 2; pol++)

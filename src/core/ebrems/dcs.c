@@ -55,6 +55,7 @@ int bl_ebrems_init (bl_ebrems *c, const bl_particle *p, double T) {
   c->z = p->charge;
   c->m = p->mass / BL_ME_MEV;
   c->kind = BL_EBREMS_OTHER;
+  c->radiate = BL_EBREMS_RAD_BOTH;
   if (c->spin2 == 1 && fabs(p->mass - BL_ME_MEV) <= 1e-12 * BL_ME_MEV
       && fabs(fabs(p->charge) - 1.0) <= 1e-12)
     c->kind = p->charge < 0 ? BL_EBREMS_ELECTRON : BL_EBREMS_POSITRON;

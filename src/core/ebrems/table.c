@@ -1,6 +1,7 @@
 /*
-** table.c -- the bound electron term of electrons and positrons from the
-** generated ratio table (eb_table.c): grid nodes and interpolation
+** table.c -- the bound electron term of electrons, positrons and muons from
+** the generated ratio tables (eb_table.c: e-, e+; eb_table_mu.c: mu-, mu+):
+** grid nodes and interpolation
 ** See Copyright Notice in LICENSE
 **
 ** R(kind, Z, T, u) = [bound electron term, bl_ebrems_dk_e with the
@@ -8,11 +9,15 @@
 ** factor, S(q)/(Z^2 q^4)], per atomic electron, at u = y / y_max, y = k/T,
 ** y_max the end point on a free electron at rest.  Interpolation: linear
 ** in ln Z between the Z nodes (held outside 1..82), of ln R four-point
-** Lagrange in ln T (held below 1 keV; above 1 GeV blended linearly in ln T
-** to 1 at 100 GeV, then 1) and in ln(1 - u) (held below the first node;
-** from the last to R = 0 at u = 1 by tip()); never below 0.  Every piece is
-** continuous, so R is continuous in Z, T and k
-** (DEVELOPERS.md, "Electron-target bremsstrahlung", "Wired in").
+** Lagrange in ln T and in a variable of u.  e-/e+: held below 1 keV; above
+** 1 GeV blended linearly in ln T to 1 at 100 GeV, then 1; in ln(1 - u),
+** held below the first node, from the last to R = 0 at u = 1 by tip().
+** mu-/mu+: held below 1 MeV; above 10 TeV blended linearly in ln T to 1 at
+** 100 TeV; in ln(u / (1 - u)), held below the first node (1e-4), from the
+** last node to R = 0 at u = 1 by the power law in 1 - u of the last two
+** nodes (tip_mu()).  Never below 0.  Every piece is continuous, so R is
+** continuous in Z, T and k (DEVELOPERS.md, "Electron-target
+** bremsstrahlung", "Wired in", "Muons").
 */
 
 #include <math.h>
@@ -25,22 +30,74 @@
 const int bl_ebt_z[EBT_NZ] = {1, 4, 8, 20, 82};
 const double bl_ebt_u[EBT_NU] = {0.005, 0.02, 0.04, 0.08, 0.18, 0.3, 0.45,
                                  0.6, 0.75, 0.87, 0.95, 0.985, 0.997};
+/* muons: about uniform in ln(u / (1 - u)), steps 1-1.6 (DEVELOPERS.md,
+** "Muons": R falls by 10^4-10^8 from the first node to the last) */
+const double bl_ebm_u[EBM_NU] = {1e-4, 4e-4, 1.5e-3, 5e-3, 0.015, 0.04, 0.1,
+                                 0.2, 0.35, 0.5, 0.65, 0.78, 0.88, 0.95,
+                                 0.985, 0.997};
 
 
-/* ln R of the table and ln(1 - u) of the nodes, made once (thread-safe) */
+/* ln R of the tables and the interpolation variable of the u nodes, made
+** once (thread-safe) */
 static double lnr[2][EBT_NZ][EBT_NT][EBT_NU], lnu[EBT_NU];
+static double lnm[2][EBT_NZ][EBM_NT][EBM_NU], lgm[EBM_NU];
 typedef char ebt_row_fits[EBT_NU <= BL_EBT_ROW ? 1 : -1];
+typedef char ebm_row_fits[EBM_NU <= BL_EBT_ROW ? 1 : -1];
 static pthread_once_t once = PTHREAD_ONCE_INIT;
 
 static void make_logs (void) {
   int k, z, t, u;
   for (k = 0; k < 2; k++)
-    for (z = 0; z < EBT_NZ; z++)
+    for (z = 0; z < EBT_NZ; z++) {
       for (t = 0; t < EBT_NT; t++)
         for (u = 0; u < EBT_NU; u++)
           lnr[k][z][t][u] = log(bl_ebt_r[k][z][t][u]);
+      for (t = 0; t < EBM_NT; t++)
+        for (u = 0; u < EBM_NU; u++)
+          lnm[k][z][t][u] = log(bl_ebm_r[k][z][t][u]);
+    }
   for (u = 0; u < EBT_NU; u++)
     lnu[u] = log1p(-bl_ebt_u[u]);
+  for (u = 0; u < EBM_NU; u++)
+    lgm[u] = log(bl_ebm_u[u]) - log1p(-bl_ebm_u[u]);
+}
+
+
+/* One table: its T grid, u nodes and ln R [Z][T][u]. */
+typedef struct grid {
+  int nt, nu;
+  double lt0, dlt, lblend;
+  const double *u, *x;   /* the u nodes and their interpolation variable */
+  const double *lr;      /* ln R of the kind, [EBT_NZ][nt][nu] */
+} grid;
+
+static void get_grid (int kind, grid *g) {
+  if (kind == BL_EBT_MUON || kind == BL_EBT_ANTIMUON) {
+    g->nt = EBM_NT;
+    g->nu = EBM_NU;
+    g->lt0 = EBM_LT0;
+    g->dlt = EBM_DLT;
+    g->lblend = EBM_LBLEND;
+    g->u = bl_ebm_u;
+    g->x = lgm;
+    g->lr = &lnm[kind - BL_EBT_MUON][0][0][0];
+  }
+  else {
+    kind = kind == BL_EBT_POSITRON;
+    g->nt = EBT_NT;
+    g->nu = EBT_NU;
+    g->lt0 = EBT_LT0;
+    g->dlt = EBT_DLT;
+    g->lblend = EBT_LBLEND;
+    g->u = bl_ebt_u;
+    g->x = lnu;
+    g->lr = &lnr[kind][0][0][0];
+  }
+}
+
+double bl_ebt_ulast (int kind) {
+  return kind == BL_EBT_MUON || kind == BL_EBT_ANTIMUON
+         ? bl_ebm_u[EBM_NU - 1] : bl_ebt_u[EBT_NU - 1];
 }
 
 
@@ -83,63 +140,109 @@ static int stencil (int i, int n) {
 
 
 /* ln R at every u node for Z node iz at ln T (held outside the table). */
-static void row_t (int kind, int iz, double lt, double *row) {
-  double x = (lt - EBT_LT0) / EBT_DLT, xs[4], wt[4];
+static void row_t (const grid *g, int iz, double lt, double *row) {
+  double x = (lt - g->lt0) / g->dlt, xs[4], wt[4];
   int it, st, a, j;
   if (x < 0.0)
     x = 0.0;
-  if (x > EBT_NT - 1)
-    x = EBT_NT - 1;
+  if (x > g->nt - 1)
+    x = g->nt - 1;
   it = (int)x;
-  if (it > EBT_NT - 2)
-    it = EBT_NT - 2;
-  st = stencil(it, EBT_NT);
+  if (it > g->nt - 2)
+    it = g->nt - 2;
+  st = stencil(it, g->nt);
   for (a = 0; a < 4; a++)
     xs[a] = st + a;
   lagrange4(xs, x, wt);
-  for (j = 0; j < EBT_NU; j++) {
+  for (j = 0; j < g->nu; j++) {
     row[j] = 0.0;
     for (a = 0; a < 4; a++)
-      row[j] += wt[a] * lnr[kind][iz][st + a][j];
+      row[j] += wt[a] * g->lr[((size_t)iz * g->nt + st + a) * g->nu + j];
   }
 }
 
 
 void bl_ebt_rows (int kind, int Z, double T, double rows[2][BL_EBT_ROW],
                   double *wz, double *wb) {
-  double lt = log(T), top = EBT_LT0 + EBT_DLT * (EBT_NT - 1);
+  double lt = log(T), top;
+  grid g;
   int iz;
   pthread_once(&once, make_logs);
-  if (kind < 0 || kind > 1)
-    kind = 0;
+  if (kind < 0 || kind >= BL_EBT_NKIND)
+    kind = BL_EBT_ELECTRON;
+  get_grid(kind, &g);
+  top = g.lt0 + g.dlt * (g.nt - 1);
   if (Z <= bl_ebt_z[0] || Z >= bl_ebt_z[EBT_NZ - 1]) {
     iz = Z <= bl_ebt_z[0] ? 0 : EBT_NZ - 1;
-    row_t(kind, iz, lt, rows[0]);
-    row_t(kind, iz, lt, rows[1]);
+    row_t(&g, iz, lt, rows[0]);
+    row_t(&g, iz, lt, rows[1]);
     *wz = 0.0;
   }
   else {
     for (iz = 0; Z > bl_ebt_z[iz + 1]; iz++)
       ;
-    row_t(kind, iz, lt, rows[0]);
-    row_t(kind, iz + 1, lt, rows[1]);
+    row_t(&g, iz, lt, rows[0]);
+    row_t(&g, iz + 1, lt, rows[1]);
     *wz = (log((double)Z) - log((double)bl_ebt_z[iz]))
           / (log((double)bl_ebt_z[iz + 1]) - log((double)bl_ebt_z[iz]));
   }
-  *wb = lt > top ? fmin((lt - top) / EBT_LBLEND, 1.0) : 0.0;
+  *wb = lt > top ? fmin((lt - top) / g.lblend, 1.0) : 0.0;
 }
 
 
-double bl_ebt_eval (const double rows[2][BL_EBT_ROW], double wz, double wb,
-                    double T, double u) {
-  double wu[4], v[2], lim = 1.0, r;
+/*
+** Muons, beyond the last node u_l: R(u_l) ((1 - u)/(1 - u_l))^p, p the
+** slope of ln R against ln(1 - u) between the last two nodes (at least
+** EBM_PMIN).  Measured against fresh integrals (DEVELOPERS.md, "Muons"):
+** within 36 % at u = 0.999 and a factor 2.3 at 0.9997 (1 MeV ... 1 TeV),
+** where R is 1e-7 ... 1e-2 of its value at small u.
+*/
+#define EBM_PMIN 0.25
+static double tip_mu (const double *row, double u) {
+  double p = (row[EBM_NU - 1] - row[EBM_NU - 2])
+             / (log1p(-bl_ebm_u[EBM_NU - 1]) - log1p(-bl_ebm_u[EBM_NU - 2]));
+  if (!(p > EBM_PMIN))
+    p = EBM_PMIN;
+  return pow((1.0 - u) / (1.0 - bl_ebm_u[EBM_NU - 1]), p);
+}
+
+
+double bl_ebt_eval (int kind, const double rows[2][BL_EBT_ROW], double wz,
+                    double wb, double T, double u) {
+  double wu[4], v[2], lim[2] = {1.0, 1.0}, r;
   int iu, su, b, z;
   if (!(u < 1.0))
     return 0.0;
+  if (kind == BL_EBT_MUON || kind == BL_EBT_ANTIMUON) {
+    if (u > bl_ebm_u[EBM_NU - 1]) {   /* the last stretch: tip_mu() */
+      for (z = 0; z < 2; z++) {
+        lim[z] = tip_mu(rows[z], u);
+        v[z] = exp(rows[z][EBM_NU - 1]) * lim[z];
+      }
+    }
+    else {
+      double x, uu = u < bl_ebm_u[0] ? bl_ebm_u[0] : u;
+      x = log(uu) - log1p(-uu);
+      for (iu = 0; iu < EBM_NU - 2 && u > bl_ebm_u[iu + 1]; iu++)
+        ;
+      su = stencil(iu, EBM_NU);
+      lagrange4(lgm + su, x, wu);   /* in ln(u / (1 - u)) */
+      for (z = 0; z < 2; z++) {
+        double s = 0.0;
+        for (b = 0; b < 4; b++)
+          s += wu[b] * rows[z][su + b];
+        v[z] = exp(s);
+      }
+    }
+    for (z = 0; z < 2; z++)   /* the blend above the top: to 1, or the tip */
+      v[z] += wb * (lim[z] - v[z]);
+    r = (1.0 - wz) * v[0] + wz * v[1];
+    return fmax(r, 0.0);
+  }
   if (u > bl_ebt_u[EBT_NU - 1]) {   /* the last stretch: tip() */
-    lim = tip(T, u);
+    lim[0] = lim[1] = tip(T, u);
     for (z = 0; z < 2; z++)
-      v[z] = exp(rows[z][EBT_NU - 1]) * lim;
+      v[z] = exp(rows[z][EBT_NU - 1]) * lim[z];
   }
   else {
     double x = log1p(-(u < bl_ebt_u[0] ? bl_ebt_u[0] : u));
@@ -155,7 +258,7 @@ double bl_ebt_eval (const double rows[2][BL_EBT_ROW], double wz, double wb,
     }
   }
   for (z = 0; z < 2; z++)   /* the blend above the top: to 1, or tip() */
-    v[z] += wb * (lim - v[z]);
+    v[z] += wb * (lim[z] - v[z]);
   r = (1.0 - wz) * v[0] + wz * v[1];
   return fmax(r, 0.0);
 }

@@ -1,7 +1,8 @@
 /*
-** table.h -- the bound electron term of electrons and positrons as a ratio
-** to the static-charge electron term: grid, generated table (eb_table.c,
-** make eb-table) and its interpolation (table.c)
+** table.h -- the bound electron term of electrons, positrons and muons as
+** a ratio to the static-charge electron term: grid, generated tables
+** (eb_table.c, make eb-table; eb_table_mu.c, make eb-table-mu) and their
+** interpolation (table.c)
 ** See Copyright Notice in LICENSE
 */
 #ifndef BL_EBREMS_TABLE_H
@@ -25,7 +26,26 @@ extern const int bl_ebt_z[EBT_NZ];
 extern const double bl_ebt_u[EBT_NU];
 extern const double bl_ebt_r[2][EBT_NZ][EBT_NT][EBT_NU];
 
-/* The ratio R (table.c) for kind 0 (electron) or 1 (positron) on element
+/* The muon table (eb_table_mu.c, make eb-table-mu): mu- and mu+ on the same
+** Z nodes, ln T = EBM_LT0 + EBM_DLT i (1 MeV ... 10 TeV, three nodes a
+** decade; held below; above, blended linearly in ln T to 1 over
+** EBM_LBLEND), u nodes bl_ebm_u, interpolated in ln(u / (1 - u)) (the
+** struck electron's radiation makes ln R steep at small u); beyond the last
+** node the power law of the last two nodes (table.c). */
+#define EBM_NT  22
+#define EBM_NU  16
+#define EBM_LT0 0.0                    /* ln 1 (MeV) */
+#define EBM_DLT 0.7675283643313486     /* ln 10 / 3 */
+#define EBM_LBLEND 2.302585092994046   /* ln 10: the blend above the top */
+
+extern const double bl_ebm_u[EBM_NU];
+extern const double bl_ebm_r[2][EBT_NZ][EBM_NT][EBM_NU];
+
+/* Table kinds (bl_ebt_rows): electron, positron, muon, antimuon. */
+enum { BL_EBT_ELECTRON = 0, BL_EBT_POSITRON, BL_EBT_MUON, BL_EBT_ANTIMUON,
+       BL_EBT_NKIND };
+
+/* The ratio R (table.c) for kind BL_EBT_* (e-, e+, mu-, mu+) on element
 ** Z at kinetic energy T (MeV) and u = k / k_max (k_max the end point on a
 ** free electron at rest, bl_ebrems_kmax), in two steps: once per case the
 ** rows of ln R at the u nodes of the two Z nodes around Z (interpolated
@@ -33,7 +53,11 @@ extern const double bl_ebt_r[2][EBT_NZ][EBT_NT][EBT_NU];
 ** (bl_ebt_rows); then per k (bl_ebt_eval): 0 for u >= 1, never below 0. */
 void bl_ebt_rows (int kind, int Z, double T, double rows[2][BL_EBT_ROW],
                   double *wz, double *wb);
-double bl_ebt_eval (const double rows[2][BL_EBT_ROW], double wz, double wb,
-                    double T, double u);
+double bl_ebt_eval (int kind, const double rows[2][BL_EBT_ROW], double wz,
+                    double wb, double T, double u);
+
+/* The last u node of kind's table: the kink where the last stretch begins
+** (a breakpoint for the k integrals, with the end point). */
+double bl_ebt_ulast (int kind);
 
 #endif

@@ -112,14 +112,14 @@ int bl_method_breaks (const bl_case *c, const bl_he *h, int method,
     k[n] = bl_coulomb_kend(c);
     jump[n++] = 0.1;
   }
-  /* the bound electron term of e-/e+ (bl_case_eratio) falls to 0 between
-  ** the last node of its table and the end point on a free electron
-  ** (src/core/ebrems/table.c, tip()): two kinks, of at most the electron
-  ** share 1/(Z + 1) */
+  /* the bound electron term of e-/e+/mu-/mu+ (bl_case_eratio) falls to 0
+  ** between the last node of its table and the end point on a free
+  ** electron (src/core/ebrems/table.c, tip(), tip_mu()): two kinks, of at
+  ** most the electron share 1/(Z + 1) there */
   if (c->ebt != 0 && c->ekmax < c->T && n + 2 <= nmax) {
     k[n] = c->ekmax;
     jump[n++] = 1.0 / (c->Z + 1.0);
-    k[n] = c->ekmax * bl_ebt_u[EBT_NU - 1];
+    k[n] = c->ekmax * bl_ebt_ulast(c->ebt - 1);
     jump[n++] = 1.0 / (c->Z + 1.0);
   }
   /* "auto" changes method at the final gamma bl_he_gamma_min (within 1e-3) */

@@ -472,7 +472,7 @@ int bl_target_kintegral_e (const bl_target *t, int kind, double theta_k,
       /* the kinks of the bound electron term (bl_method_breaks), the
       ** same on every element: the projectile's */
       kb[nb++] = t->c[0].ekmax;
-      kb[nb++] = t->c[0].ekmax * bl_ebt_u[EBT_NU - 1];
+      kb[nb++] = t->c[0].ekmax * bl_ebt_ulast(t->c[0].ebt - 1);
     }
     st = r0 == NULL
          ? bl_kintegral_e(kpoint, &x, kmin, kmax, t->T, kb, nb, 1, rtol, &v1)
