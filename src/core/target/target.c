@@ -28,10 +28,14 @@
 #include "brakelight.h"
 #include "brakelight/bl_target.h"
 #include "ebrems/table.h"
+#include "target/kint.h"
 
 
 /* Share of rtol below which a breakpoint's weighted jump is dropped. */
 #define BREAK_SHARE 0.1
+
+/* Most distinct breakpoints gathered over the elements. */
+#define BREAK_CAND (4 * BL_KINT_MAXBREAK)
 
 
 static void clear (bl_tresult *out) {
@@ -402,28 +406,49 @@ static int kpoint (void *ud, double k, bl_result *out) {
 }
 
 
-/* The breakpoints of the method over the elements, without those whose
-** weighted jump cannot matter at rtol. */
+/* The integrator's choice of the points' tolerance: the workspace's. */
+static void ktol (void *ud, double rtol) {
+  kctx *x = ud;
+  bl_quad_set_rtol(x->q, fmin(BL_QUAD_RTOL_MAX, fmax(rtol, BL_QUAD_RTOL_MIN)));
+}
+
+
+/*
+** The breakpoints of the method over the elements, without those whose
+** jump in the material cannot matter at rtol.  bl_method_breaks gives a
+** jump relative to the element's own dsigma/dk; in the material it is
+** weighted by the element's share, estimated as atoms Z (Z + 1) over the
+** sum (complete screening; the Coulomb correction and the screening
+** logarithms move the shares by about 10 %, well inside BREAK_SHARE), and
+** the jumps of the elements at one k (the projectile's electron end point
+** is the same on every element) are added.
+*/
 static int breaks (const bl_target *t, double rtol, double *kb) {
-  double jump[BL_KINT_MAXBREAK];
-  int nb = 0, i, j, n;
-  for (i = 0; i < t->n && nb < BL_KINT_MAXBREAK; i++) {
-    n = bl_method_breaks(&t->c[i], &t->he[i], t->method, kb + nb,
-                         jump + nb, BL_KINT_MAXBREAK - nb);
-    for (j = nb; j < nb + n; j++) {   /* a break that cannot matter, or
-                                      ** one already there (the same
-                                      ** projectile's electron end point
-                                      ** on every element): none */
-      int dup = 0, l;
-      for (l = 0; l < nb && !dup; l++)
-        dup = fabs(kb[l] - kb[j]) <= 1e-12 * t->T;
-      if (dup || jump[j] * (t->T - kb[j]) / t->T < BREAK_SHARE * rtol) {
-        kb[j] = kb[nb + n - 1];
-        jump[j--] = jump[nb + --n];
+  double ck[BREAK_CAND], cj[BREAK_CAND], wsum = 0.0;
+  int nc = 0, nb = 0, i, j, l;
+  for (i = 0; i < t->n; i++)
+    wsum += t->atoms[i] * t->c[i].Z * (t->c[i].Z + 1.0);
+  for (i = 0; i < t->n; i++) {
+    double k[BL_KINT_MAXBREAK], jump[BL_KINT_MAXBREAK];
+    double w = wsum > 0.0 ? t->atoms[i] * t->c[i].Z * (t->c[i].Z + 1.0)
+                            / wsum : 1.0;
+    int n = bl_method_breaks(&t->c[i], &t->he[i], t->method, k, jump,
+                             BL_KINT_MAXBREAK);
+    for (j = 0; j < n; j++) {
+      for (l = 0; l < nc && !(fabs(ck[l] - k[j]) <= 1e-12 * t->T); l++)
+        ;
+      if (l == nc) {
+        if (nc == BREAK_CAND)
+          continue;   /* not cut there: the rule still integrates it */
+        ck[nc] = k[j];
+        cj[nc++] = 0.0;
       }
+      cj[l] += w * jump[j];
     }
-    nb += n;
   }
+  for (j = 0; j < nc && nb < BL_KINT_MAXBREAK; j++)
+    if (cj[j] * (t->T - ck[j]) / t->T >= BREAK_SHARE * rtol)
+      kb[nb++] = ck[j];
   return nb;
 }
 
@@ -475,11 +500,10 @@ int bl_target_kintegral_e (const bl_target *t, int kind, double theta_k,
       kb[nb++] = t->c[0].ekmax * bl_ebt_u[EBT_NU - 1];
     }
     st = r0 == NULL
-         ? bl_kintegral_e(kpoint, &x, kmin, kmax, t->T, kb, nb, 1, rtol, &v1)
-         : r1 == NULL
-         ? bl_kintegral_e(kpoint, &x, kmin, kmax, t->T, kb, nb, 0, rtol, &v0)
-         : bl_kintegral2_e(kpoint, &x, kmin, kmax, t->T, kb, nb, rtol, &v0,
-                           &v1);
+         ? bl_kintegral_tol_e(kpoint, ktol, &x, kmin, kmax, t->T, kb, nb, 1,
+                              rtol, &v1, NULL)
+         : bl_kintegral_tol_e(kpoint, ktol, &x, kmin, kmax, t->T, kb, nb, 0,
+                              rtol, &v0, r1 == NULL ? NULL : &v1);
   }
   bl_quad_set_rtol(q, rtol);
   kresult(&x, st, &v0, r0);
