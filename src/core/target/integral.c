@@ -70,6 +70,9 @@ typedef struct kint {
   void *ud;
   double base;        /* the points' usual tolerance (weighted: rtol/2) */
   double ptol, cur;   /* tolerance of the next points; the one set last */
+  double pa, pb, pG;  /* the panel being computed, int of its prior shape */
+  double ppv, pst;    /* its budget/value (0: no point loosened), its tol */
+  int pn;             /* its points */
   double T, a;        /* the map: k = a sin^2(pi u/2) (MAP_SINE) */
   int map, moment;
   int hard;           /* first hard failure, or BL_SUCCESS */
@@ -191,6 +194,39 @@ static const bl_result *evaluate (kint *ki, double k) {
 }
 
 
+/* k at x of the current map. */
+static double kofx (const kint *ki, double x) {
+  double sn;
+  switch (ki->map) {
+    case MAP_LOG:
+      return exp(x);
+    case MAP_SINE:
+      sn = sin(0.5 * BL_PI * x);
+      return ki->a * sn * sn;
+    default:
+      return ki->T - x * x;
+  }
+}
+
+
+/*
+** The tolerance of the point x (k, dk/dx jac) of the panel being computed:
+** its share of the panel from its weight, about (pi/n) sqrt(1 - xi^2) of
+** the half-width for the n-point Kronrod rule (within 20 %), and the prior
+** shape of a flat k dsigma/dk, so that each of the n points carries at
+** most 1/n of the segment's PT_SHARE of the budget; never tighter than
+** the segment's tolerance, never looser than PT_CAP.
+*/
+static double pointtol (const kint *ki, double x, double k, double jac) {
+  double hw = 0.5 * (ki->pb - ki->pa), xi = (x - ki->pa) / hw - 1.0;
+  double w = BL_PI / ki->pn * sqrt(fmax(0.0, 1.0 - xi * xi)) * fabs(hw);
+  double share = w * fabs(jac) / (ki->moment ? 1.0 : k) / ki->pG;
+  double t = share > 0.0 && isfinite(share)
+             ? PT_SHARE * ki->ppv / (ki->pn * share) : PT_CAP;
+  return fmin(PT_CAP, fmax(ki->pst, t));
+}
+
+
 /* The mapped integrand: k^moment f(k) dk/dx, and in *err the point's
 ** error mapped alike. */
 static double integrand (double x, void *params, double *err) {
@@ -218,6 +254,8 @@ static double integrand (double x, void *params, double *err) {
   }
   if (!(k > 0.0) || !(k < ki->T))
     return 0.0;   /* only at a rounded end: measure zero */
+  if (ki->ppv > 0.0)
+    ki->ptol = pointtol(ki, x, k, jac);
   r = evaluate(ki, k);
   if (r == NULL)
     return 0.0;   /* a hard failure: the integral stops with it */
@@ -231,7 +269,9 @@ static double integrand (double x, void *params, double *err) {
 ** points were asked at and the points of its rule. */
 typedef struct seg {
   double a, b, val, err, perr, tol;
+  double pv;   /* the budget over the value its tolerances were chosen by */
   int npt;
+  int pw;      /* 1: points loosened by their weight (pointtol) */
 } seg;
 
 
@@ -244,9 +284,17 @@ typedef struct seg {
 */
 static void panel (kint *ki, seg *g) {
   bl_gkpanel p;
-  if (ki->settol != NULL)
-    ki->ptol = g->tol;
+  if (ki->settol != NULL) {
+    double ka = kofx(ki, g->a), kb = kofx(ki, g->b);
+    ki->ptol = ki->pst = g->tol;
+    ki->pa = g->a;
+    ki->pb = g->b;
+    ki->pn = g->npt;
+    ki->pG = fabs(ki->moment ? kb - ka : log(kb / ka));
+    ki->ppv = g->pw && ki->pG > 0.0 && isfinite(ki->pG) ? g->pv : 0.0;
+  }
   bl_gk_panel(integrand, ki, g->a, g->b, g->npt, &p);
+  ki->ppv = 0.0;
   g->val = p.val;
   g->err = p.d;
   g->perr = p.ierr;
@@ -254,28 +302,18 @@ static void panel (kint *ki, seg *g) {
 
 
 /*
-** The tolerance for the points of a segment of value about v, the points'
-** budget of the piece being P (absolute): the loosest at which they carry
-** at most PT_SHARE of P, between the usual ki->base and PT_CAP.
+** The tolerance for the points of a segment whose value is about 1/pv of
+** the points' budget of its piece: the loosest at which they carry at
+** most PT_SHARE of it, between the usual ki->base and PT_CAP.
 */
-static double segtol (const kint *ki, double v, double P) {
-  double t = v != 0.0 ? PT_SHARE * P / fabs(v) : PT_CAP;
-  return fmin(PT_CAP, fmax(ki->base, t));
+static double segtol (const kint *ki, double pv) {
+  return fmin(PT_CAP, fmax(ki->base, PT_SHARE * pv));
 }
 
 
-/* k at x of the current map. */
-static double kofx (const kint *ki, double x) {
-  double sn;
-  switch (ki->map) {
-    case MAP_LOG:
-      return exp(x);
-    case MAP_SINE:
-      sn = sin(0.5 * BL_PI * x);
-      return ki->a * sn * sn;
-    default:
-      return ki->T - x * x;
-  }
+/* The budget P over the value v (HUGE_VAL for v = 0). */
+static double ratio (double P, double v) {
+  return v != 0.0 ? P / fabs(v) : HUGE_VAL;
 }
 
 
@@ -336,9 +374,11 @@ static int piece (kint *ki, int map, double x0, double x1, const double *bx,
     }
   }
   for (i = 0; i < n; i++) {
-    sg[i].tol = !hook ? 0.0 : n == 1 ? ki->base
-              : segtol(ki, prior(ki, sg[i].a, sg[i].b, x0, x1), rtol);
+    sg[i].pv = n == 1 ? rtol
+             : ratio(rtol, prior(ki, sg[i].a, sg[i].b, x0, x1));
+    sg[i].tol = !hook ? 0.0 : segtol(ki, sg[i].pv);
     sg[i].npt = !hook ? 15 : segnpt(ki, sg[i].tol);
+    sg[i].pw = hook;
     panel(ki, &sg[i]);
   }
   for (;;) {
@@ -357,25 +397,30 @@ static int piece (kint *ki, int map, double x0, double x1, const double *bx,
     tol = fmax(epsabs, rtol * fabs(v));
     if (ki->hard != BL_SUCCESS)
       return GSL_SUCCESS;
-    if (hook)   /* a segment asked looser than its share allows */
+    if (hook)   /* a segment asked looser than its value allows */
       for (i = 0; i < n && redo < 0; i++)
-        if (sg[i].tol > 2.0 * segtol(ki, sg[i].val, tol))
+        if (sg[i].pv > 2.0 * ratio(tol, sg[i].val)
+            && (sg[i].pw || sg[i].tol > segtol(ki, ratio(tol, sg[i].val))))
           redo = i;
-    if (redo < 0 && e <= tol) {
+    if (redo >= 0) {
+      sg[redo].pv = ratio(tol, sg[redo].val);
+      sg[redo].tol = fmin(sg[redo].tol, segtol(ki, sg[redo].pv));
+    }
+    else if (e <= tol) {
       if (!hook || pe <= tol)
         return GSL_SUCCESS;
       for (i = 0; i < n; i++)   /* the points over their bound */
-        if (sg[i].tol > ki->base
+        if ((sg[i].pw || sg[i].tol > ki->base)
             && (redo < 0 || sg[i].perr > sg[redo].perr))
           redo = i;
       if (redo < 0)
         return GSL_SUCCESS;   /* at ki->base already: run() judges */
-      sg[redo].tol = fmax(ki->base, 0.1 * sg[redo].tol);
+      if (sg[redo].pw)
+        sg[redo].pw = 0;      /* first: each point at the segment's */
+      else
+        sg[redo].tol = fmax(ki->base, 0.1 * sg[redo].tol);
     }
     if (redo >= 0) {
-      double t = segtol(ki, sg[redo].val, tol);
-      if (sg[redo].tol > t)
-        sg[redo].tol = t;
       panel(ki, &sg[redo]);
       continue;
     }
@@ -386,11 +431,14 @@ static int piece (kint *ki, int map, double x0, double x1, const double *bx,
     sg[n].b = sg[worst].b;
     sg[worst].b = sg[n].a;
     if (hook) {   /* each half: about half the parent's value */
-      sg[worst].tol = segtol(ki, 0.5 * sg[worst].val, tol);
+      sg[worst].pv = ratio(tol, 0.5 * sg[worst].val);
+      sg[worst].tol = segtol(ki, sg[worst].pv);
       sg[worst].npt = segnpt(ki, sg[worst].tol);
     }
+    sg[n].pv = sg[worst].pv;
     sg[n].tol = sg[worst].tol;
     sg[n].npt = sg[worst].npt;
+    sg[n].pw = sg[worst].pw;
     panel(ki, &sg[worst]);
     panel(ki, &sg[n++]);
   }
