@@ -276,11 +276,14 @@ typedef struct seg {
 
 
 /*
-** The 15-point Kronrod value of [a, b] (bl_gk_panel of base/quad.c, the
-** one Gauss-Kronrod rule of the core) with |K15 - G7| as its error: the
-** error of the 7-point rule, so a generous bound for the 15-point one on
-** a smooth integrand (a sharper model would bisect integrands whose
-** points carry their own small quadrature noise).
+** The Kronrod value of segment g (15 points, or 7 where its points are
+** loosened; bl_gk_panel of base/quad.c, the one Gauss-Kronrod rule of the
+** core) with |K - G| as its error: the error of the Gauss rule, so a
+** generous bound for the Kronrod one on a smooth integrand (a sharper
+** model would bisect integrands whose points carry their own small
+** quadrature noise), and the points' errors summed with the weights.
+** With a hook, the points are asked at g's tolerance or, g->pw, each by
+** its own share (pointtol).
 */
 static void panel (kint *ki, seg *g) {
   bl_gkpanel p;
@@ -349,11 +352,13 @@ static int segnpt (const kint *ki, double tol) {
 ** GSL_EMAXITER when LIMIT segments do not suffice (best estimate kept).
 ** With a tolerance hook (ki->settol) the points' errors are summed with
 ** the rules' weights over the segments (*perr) and must meet the same
-** bound: the widest initial segment is asked at ki->base with 15 points,
-** the others first at PT_CAP with PT_NPT points; a segment whose measured
-** value calls for a tighter tolerance (segtol) is computed again at it,
-** and while the points' sum is over its bound the segment that carries
-** the most of it is asked ten times tighter, down to ki->base.
+** bound.  Each initial segment's points are first asked by its prior share
+** (segtol, pointtol), a half by half its parent's value; a segment whose
+** measured value allows less than half the budget/value ratio it was asked
+** by is computed again by its measured one; while the points' sum is over
+** its bound the segment that carries the most of it is asked at its
+** segment tolerance for every point, then ten times tighter, down to
+** ki->base (none left: run() judges the total).
 */
 static int piece (kint *ki, int map, double x0, double x1, const double *bx,
                   int nb, double epsabs, double rtol, seg *sg, double *val,
@@ -374,7 +379,7 @@ static int piece (kint *ki, int map, double x0, double x1, const double *bx,
     }
   }
   for (i = 0; i < n; i++) {
-    sg[i].pv = n == 1 ? rtol
+    sg[i].pv = !hook || n == 1 ? rtol
              : ratio(rtol, prior(ki, sg[i].a, sg[i].b, x0, x1));
     sg[i].tol = !hook ? 0.0 : segtol(ki, sg[i].pv);
     sg[i].npt = !hook ? 15 : segnpt(ki, sg[i].tol);

@@ -15,10 +15,13 @@
 ** atom: it multiplies the material's dsigma/dk (target/suppress.c).
 **
 ** Tolerance of the integrals over k: the quadrature aims at rtol/2 and
-** the points are computed at rtol/2, so that the points' own errors leave
-** room for the quadrature's (bl_kintegral_e adds both).  A breakpoint of
-** bl_method_breaks is dropped when its jump, weighted by the share of the
-** spectrum above it, is below a tenth of rtol: it cannot matter.
+** the points' errors, summed with the rule's weights, at the other half;
+** the integrator sets each point's tolerance (bl_kintegral_tol_e of
+** target/kint.h, through ktol on the workspace): rtol/2 where the point
+** carries a large share, up to 1e-2 where it carries little.  Breakpoints
+** of bl_method_breaks are dropped, smallest first, while the bounds of the
+** error a straddled jump may leave add up to at most a tenth of rtol; those
+** bounds are added to the integral's error (breaks()).
 */
 
 #include <math.h>
