@@ -34,8 +34,8 @@
 #include "target/kint.h"
 
 
-/* Share of rtol below which a breakpoint's weighted jump is dropped. */
-#define BREAK_SHARE 0.1
+/* Share of rtol the bounds of the dropped breakpoints may add up to. */
+#define BREAK_SHARE 0.25
 
 /* Most distinct breakpoints gathered over the elements. */
 #define BREAK_CAND (4 * BL_KINT_MAXBREAK)
@@ -418,8 +418,9 @@ static void ktol (void *ud, double rtol) {
 
 /*
 ** The share of (kb, kmax) in (kmin, kmax) for moment m, that of a flat
-** k dsigma/dk (Bethe-Heitler's falls by 3/4 towards the tip; the Elwert
-** factor at low T raises it: hence the factor 2 where it is used).
+** k dsigma/dk (Bethe-Heitler's falls to 3/4 of its k -> 0 value at the
+** tip, so this overestimates the share of a tip; measured on the grid of
+** DEVELOPERS.md, the true straddling errors stay 10-100 times below).
 */
 static double above (double kb, double kmin, double kmax, int m) {
   return m ? (kmax - kb) / (kmax - kmin) : log(kmax / kb) / log(kmax / kmin);
@@ -438,9 +439,9 @@ static double above (double kb, double kmin, double kmax, int m) {
 ** electron end point is the same on every element) are added.  A rule
 ** that straddles a jump J at kb errs by at most about J times the part of
 ** the integral above kb (the step's own integral; a Gauss rule's error on
-** a step is below it), taken here as 2 J above(): a break is dropped
-** while these bounds add up to at most BREAK_SHARE rtol, the smallest
-** first, and the integral's error includes them.
+** a step is below it), taken here as J above(): a break is dropped while
+** these bounds add up to at most BREAK_SHARE rtol, the smallest first, and
+** the integral's error includes them.
 */
 static int breaks (const bl_target *t, double rtol, double kmin,
                    double kmax, double *kb, double *drop0, double *drop1) {
@@ -471,8 +472,8 @@ static int breaks (const bl_target *t, double rtol, double kmin,
     }
   }
   for (j = 0; j < nc; j++) {   /* the bound of each: moment 0 and 1 */
-    b1[j] = 2.0 * cj[j] * above(ck[j], kmin, kmax, 1);
-    b0[j] = kmin > 0.0 ? 2.0 * cj[j] * above(ck[j], kmin, kmax, 0) : 0.0;
+    b1[j] = cj[j] * above(ck[j], kmin, kmax, 1);
+    b0[j] = kmin > 0.0 ? cj[j] * above(ck[j], kmin, kmax, 0) : 0.0;
     cj[j] = fmax(b0[j], b1[j]);
     keep[j] = 1;
   }
