@@ -20,7 +20,7 @@
 ** target/kint.h, through ktol on the workspace): rtol/2 where the point
 ** carries a large share, up to 1e-2 where it carries little.  Breakpoints
 ** of bl_method_breaks are dropped, smallest first, while the bounds of the
-** error a straddled jump may leave add up to at most a tenth of rtol; those
+** error a straddled jump may leave add up to at most a quarter of rtol; those
 ** bounds are added to the integral's error (breaks()).
 */
 
