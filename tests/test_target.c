@@ -16,6 +16,7 @@
 
 #include "brakelight.h"
 #include "testutil.h"
+#include "target/kint.h"
 
 /* ==================================================================
 ** bl_spectrum_dk_e: threads change nothing
@@ -237,6 +238,156 @@ Test(target, k_integrals_exact) {
                BL_EDOMAIN, "moment 0 from k = 0 diverges: refused");
   cr_expect_eq(bl_kintegral_e(polyf, &T, 1.0, 8.0, T, NULL, 0, 0, 1e-6, &r0),
                BL_EDOMAIN);
+}
+
+
+/*
+** The integrator's own tolerance for the points (bl_kintegral_tol_e, the
+** variant the target's integrals use): a model integrand whose every
+** point is wrong by exactly the tolerance it was asked at, all in one
+** direction, and says so (err = tol |val|): the worst honest points.
+** f = s(y)/k, y = k/T, s = 4/3 - 4y/3 + y^2 (the shape of Bethe-Heitler's
+** complete-screening spectrum), times 1.5 below y = 0.99 (a step, like the
+** bound electron term's end); breaks at y = 0.9 and 0.99.
+*/
+typedef struct tolf {
+  double T, tol;
+  int loose, calls;   /* points asked looser than rtol/2; all points */
+  double half;        /* rtol/2 */
+} tolf;
+
+static double shape (double y) {
+  return (4.0 / 3.0 - 4.0 * y / 3.0 + y * y) * (y < 0.99 ? 1.5 : 1.0);
+}
+
+static int tolfun (void *ud, double k, bl_result *out) {
+  tolf *z = ud;
+  double v = shape(k / z->T) / k;
+  memset(out, 0, sizeof *out);
+  out->val = v * (1.0 + z->tol);
+  out->err = z->tol * v;
+  out->method = BL_METHOD_COMPLETE;
+  z->calls++;
+  z->loose += z->tol > 1.01 * z->half;
+  return BL_SUCCESS;
+}
+
+static void tolset (void *ud, double rtol) {
+  ((tolf *)ud)->tol = rtol;
+}
+
+/* Source: elementary integrals of s: int s dy = P, int s/y dy = Q. */
+static double prim1 (double y) {
+  return 4.0 * y / 3.0 - 2.0 * y * y / 3.0 + y * y * y / 3.0;
+}
+
+static double prim0 (double y) {
+  return 4.0 * log(y) / 3.0 - 4.0 * y / 3.0 + y * y / 2.0;
+}
+
+static double exact (double (*P) (double), double T, double y0, double y1,
+                     double scale) {
+  double yb = 0.99, lo = fmin(y1, yb), v = 0.0;
+  if (y0 < lo)
+    v += 1.5 * (P(lo) - P(y0));
+  if (y1 > yb)
+    v += P(y1) - P(fmax(y0, yb));
+  return v * scale * (P == prim1 ? T : 1.0);
+}
+
+Test(target, k_integral_point_tolerance) {
+  static const double rt[] = {1e-2, 1e-3, 1e-4};
+  double T = 5.0, kb[2];
+  int i, j, loose = 0;
+  kb[0] = 0.9 * T;
+  kb[1] = 0.99 * T;
+  for (i = 0; i < 3; i++)
+    for (j = 0; j < 3; j++) {
+      /* energy loss from 0; sigma from T/100 and from T/2 */
+      double y0 = j == 0 ? 0.0 : j == 1 ? 0.01 : 0.5, ref0, ref1;
+      tolf z = {T, 0.0, 0, 0, 0.5 * rt[i]};
+      bl_result r0, r1;
+      int st = j == 0
+               ? bl_kintegral_tol_e(tolfun, tolset, &z, 0.0, T, T, kb, 2, 1,
+                                    rt[i], &r1, NULL)
+               : bl_kintegral_tol_e(tolfun, tolset, &z, y0 * T, T, T, kb, 2,
+                                    0, rt[i], &r0, &r1);
+      cr_expect_eq(st, BL_SUCCESS, "rtol %g, y0 %g: status %d", rt[i], y0,
+                   st);
+      ref1 = exact(prim1, T, y0, 1.0, 1.0);
+      cr_expect(fabs(r1.val - ref1) <= rt[i] * ref1, "rtol %g, y0 %g: int "
+                "k f %.10g, exact %.10g", rt[i], y0, r1.val, ref1);
+      cr_expect(r1.err >= fabs(r1.val - ref1), "rtol %g, y0 %g: error "
+                "%.3g below the true %.3g", rt[i], y0, r1.err,
+                fabs(r1.val - ref1));
+      if (j > 0) {
+        ref0 = exact(prim0, T, y0, 1.0, 1.0);
+        cr_expect(fabs(r0.val - ref0) <= rt[i] * ref0, "rtol %g, y0 %g: "
+                  "int f %.10g, exact %.10g", rt[i], y0, r0.val, ref0);
+        cr_expect(r0.err >= fabs(r0.val - ref0), "rtol %g, y0 %g: error "
+                  "%.3g below the true %.3g", rt[i], y0, r0.err,
+                  fabs(r0.val - ref0));
+      }
+      loose += z.loose;
+    }
+  cr_expect(loose > 0, "no point was asked looser than rtol/2");
+  {
+    tolf z = {T, 0.0, 0, 0, 0.0};
+    bl_result r;
+    cr_expect_eq(bl_kintegral_tol_e(tolfun, NULL, &z, 0.0, T, T, kb, 2, 1,
+                                    1e-3, &r, NULL), BL_EDOMAIN);
+  }
+}
+
+
+/*
+** The same through the target: e- on water at 10 GeV by "auto" (the
+** distorted waves in the last 255 MeV, some asked loose) and by "born" at
+** 10 MeV (the bound electron term's kinks), against references computed
+** here at a tolerance 100 times tighter.  Internal consistency: the true
+** error within rtol and the reported error not below it.
+*/
+static void water_integrals (double T, int method, double rtol,
+                             bl_tresult *out) {
+  bl_target t;
+  bl_material m;
+  bl_quad *q = bl_quad_alloc(200);
+  int failZ, j;
+  memset(&t, 0, sizeof t);
+  cr_assert_eq(bl_material_lookup(&m, "H2O", NULL), BL_SUCCESS);
+  cr_assert_eq(bl_target_setup(&t, bl_particle_find("electron"), &m,
+                               bl_model_find("hartree-fock"), NULL, T,
+                               &bl_opts_default, method, NULL, &failZ),
+               BL_SUCCESS);
+  cr_assert_eq(bl_quad_set_rtol(q, rtol), BL_SUCCESS);
+  cr_assert_eq(bl_target_prepare(&t, q, &failZ), BL_SUCCESS);
+  cr_expect_eq(bl_target_energy_loss_e(&t, q, &out[0]), BL_SUCCESS);
+  for (j = 1; j < 3; j++)
+    cr_expect_eq(bl_target_cross_section_e(&t, j == 1 ? T / 100 : T / 2, T,
+                                           q, &out[j], NULL), BL_SUCCESS);
+  bl_target_release(&t);
+  bl_quad_free(q);
+}
+
+Test(target, k_integral_error_honest, .timeout = 300) {
+  static const struct { double T, rtol; int method; } cs[] = {
+    {1e4, 1e-2, BL_METHOD_AUTO}, {1e4, 1e-3, BL_METHOD_AUTO},
+    {10.0, 1e-3, BL_METHOD_BORN}};
+  int i, j;
+  for (i = 0; i < 3; i++) {
+    bl_tresult r[3], ref[3];
+    water_integrals(cs[i].T, cs[i].method, cs[i].rtol, r);
+    water_integrals(cs[i].T, cs[i].method, 0.01 * cs[i].rtol, ref);
+    for (j = 0; j < 3; j++) {
+      double d = fabs(r[j].r.val - ref[j].r.val);
+      cr_expect(d <= cs[i].rtol * ref[j].r.val, "T %g, rtol %g, integral "
+                "%d: %.10g against %.10g", cs[i].T, cs[i].rtol, j,
+                r[j].r.val, ref[j].r.val);
+      cr_expect(r[j].r.err + ref[j].r.err >= d, "T %g, rtol %g, integral "
+                "%d: error %.3g below the true %.3g", cs[i].T, cs[i].rtol, j,
+                r[j].r.err, d);
+    }
+  }
 }
 
 

@@ -44,6 +44,7 @@
 #include "brakelight/bl_integral.h"
 
 #include "base/internal.h"
+#include "target/kint.h"
 
 
 #define LIMIT     200     /* subintervals per piece */
@@ -51,18 +52,27 @@
 #define MEMO_MAX  32768   /* most slots (powers of 2); half may be used */
 #define TIP_GAP   1e-12   /* relative gap left below T */
 #define TAIL_SHARE 0.25   /* second piece: absolute share of the first */
+#define PT_SHARE  0.1     /* most of the points' budget one segment asks */
+#define PT_CAP    1e-2    /* loosest tolerance a point is asked at */
+#define PT_NPT    7       /* rule of a segment whose points are loosened */
 
 enum { MAP_LOG, MAP_TIP, MAP_SINE };
 
 typedef struct memo {
-  double k;
+  double k, tol;      /* tol: the tolerance the point was asked at */
   bl_result r;
   int st, used;
 } memo;
 
 typedef struct kint {
   bl_kfunc f;
+  bl_ktolfunc settol; /* the points' tolerance, or NULL (public calls) */
   void *ud;
+  double base;        /* the points' usual tolerance (weighted: rtol/2) */
+  double ptol, cur;   /* tolerance of the next points; the one set last */
+  double pa, pb, pG;  /* the panel being computed, int of its prior shape */
+  double ppv, pst;    /* its budget/value (0: no point loosened), its tol */
+  int pn;             /* its points */
   double T, a;        /* the map: k = a sin^2(pi u/2) (MAP_SINE) */
   int map, moment;
   int hard;           /* first hard failure, or BL_SUCCESS */
@@ -145,23 +155,32 @@ static int room (kint *ki) {
 /* f at k through the memo: NULL result pointer on a hard failure. */
 static const bl_result *evaluate (kint *ki, double k) {
   memo *e = slot(ki->memo, ki->cap, k);
-  int st;
-  if (e != NULL && e->used) {   /* remembered: counted again for this moment */
+  int st, fresh = 0;
+  if (e != NULL && e->used && e->tol <= ki->ptol) {
+    /* remembered at this tolerance or a tighter one: counted again */
     if (e->st != BL_SUCCESS && !softstatus(e->st))
       return NULL;
     account(ki, e);
     return &e->r;
   }
-  e = room(ki) ? slot(ki->memo, ki->cap, k) : NULL;   /* may have moved */
-  if (e == NULL)
-    e = &ki->spare;   /* full: computed, not remembered */
+  if (e == NULL || !e->used) {   /* new (else: asked tighter, in place) */
+    e = room(ki) ? slot(ki->memo, ki->cap, k) : NULL;   /* may have moved */
+    if (e == NULL)
+      e = &ki->spare;   /* full: computed, not remembered */
+    fresh = e != &ki->spare;
+  }
+  if (ki->settol != NULL && ki->ptol != ki->cur) {
+    ki->settol(ki->ud, ki->ptol);
+    ki->cur = ki->ptol;
+  }
   st = ki->f(ki->ud, k, &e->r);
   if (st == BL_SUCCESS || softstatus(st))
     if (!isfinite(e->r.val) || !isfinite(e->r.err))
       st = GSL_ERANGE;   /* a non-finite point is a failure, never a 0 */
   e->k = k;
   e->st = st;
-  if (e != &ki->spare) {
+  e->tol = ki->ptol;
+  if (fresh) {
     e->used = 1;
     ki->count++;
   }
@@ -175,11 +194,46 @@ static const bl_result *evaluate (kint *ki, double k) {
 }
 
 
-/* The mapped integrand: k^moment f(k) dk/dx. */
-static double integrand (double x, void *params) {
+/* k at x of the current map. */
+static double kofx (const kint *ki, double x) {
+  double sn;
+  switch (ki->map) {
+    case MAP_LOG:
+      return exp(x);
+    case MAP_SINE:
+      sn = sin(0.5 * BL_PI * x);
+      return ki->a * sn * sn;
+    default:
+      return ki->T - x * x;
+  }
+}
+
+
+/*
+** The tolerance of the point x (k, dk/dx jac) of the panel being computed:
+** its share of the panel from its weight, about (pi/n) sqrt(1 - xi^2) of
+** the half-width for the n-point Kronrod rule (within 20 %), and the prior
+** shape of a flat k dsigma/dk, so that each of the n points carries at
+** most 1/n of the segment's PT_SHARE of the budget; never tighter than
+** the segment's tolerance, never looser than PT_CAP.
+*/
+static double pointtol (const kint *ki, double x, double k, double jac) {
+  double hw = 0.5 * (ki->pb - ki->pa), xi = (x - ki->pa) / hw - 1.0;
+  double w = BL_PI / ki->pn * sqrt(fmax(0.0, 1.0 - xi * xi)) * fabs(hw);
+  double share = w * fabs(jac) / (ki->moment ? 1.0 : k) / ki->pG;
+  double t = share > 0.0 && isfinite(share)
+             ? PT_SHARE * ki->ppv / (ki->pn * share) : PT_CAP;
+  return fmin(PT_CAP, fmax(ki->pst, t));
+}
+
+
+/* The mapped integrand: k^moment f(k) dk/dx, and in *err the point's
+** error mapped alike. */
+static double integrand (double x, void *params, double *err) {
   kint *ki = params;
   const bl_result *r;
   double k, jac;
+  *err = 0.0;
   if (ki->hard != BL_SUCCESS)
     return 0.0;
   switch (ki->map) {
@@ -200,39 +254,94 @@ static double integrand (double x, void *params) {
   }
   if (!(k > 0.0) || !(k < ki->T))
     return 0.0;   /* only at a rounded end: measure zero */
+  if (ki->ppv > 0.0)
+    ki->ptol = pointtol(ki, x, k, jac);
   r = evaluate(ki, k);
   if (r == NULL)
     return 0.0;   /* a hard failure: the integral stops with it */
+  *err = (ki->moment ? k : 1.0) * r->err * fabs(jac);
   return (ki->moment ? k : 1.0) * r->val * jac;
 }
 
 
+/* A segment: its panel's value, error |K - G| and the error its points
+** carry (their errors summed with the rule's weights), the tolerance its
+** points were asked at and the points of its rule. */
 typedef struct seg {
-  double a, b, val, err;
+  double a, b, val, err, perr, tol;
+  double pv;   /* the budget over the value its tolerances were chosen by */
+  int npt;
+  int pw;      /* 1: points loosened by their weight (pointtol) */
 } seg;
 
 
-/* The integrand in the form of the core's Gauss-Kronrod panels (its
-** points carry no error of their own here: their errors are accounted
-** apart, ki->relerr). */
-static double integrand_gk (double x, void *params, double *err) {
-  *err = 0.0;
-  return integrand(x, params);
+/*
+** The Kronrod value of segment g (15 points, or 7 where its points are
+** loosened; bl_gk_panel of base/quad.c, the one Gauss-Kronrod rule of the
+** core) with |K - G| as its error: the error of the Gauss rule, so a
+** generous bound for the Kronrod one on a smooth integrand (a sharper
+** model would bisect integrands whose points carry their own small
+** quadrature noise), and the points' errors summed with the weights.
+** With a hook, the points are asked at g's tolerance or, g->pw, each by
+** its own share (pointtol).
+*/
+static void panel (kint *ki, seg *g) {
+  bl_gkpanel p;
+  if (ki->settol != NULL) {
+    double ka = kofx(ki, g->a), kb = kofx(ki, g->b);
+    ki->ptol = ki->pst = g->tol;
+    ki->pa = g->a;
+    ki->pb = g->b;
+    ki->pn = g->npt;
+    ki->pG = fabs(ki->moment ? kb - ka : log(kb / ka));
+    ki->ppv = g->pw && ki->pG > 0.0 && isfinite(ki->pG) ? g->pv : 0.0;
+  }
+  bl_gk_panel(integrand, ki, g->a, g->b, g->npt, &p);
+  ki->ppv = 0.0;
+  g->val = p.val;
+  g->err = p.d;
+  g->perr = p.ierr;
 }
 
 
 /*
-** The 15-point Kronrod value of [a, b] (bl_gk_panel of base/quad.c, the
-** one Gauss-Kronrod rule of the core) with |K15 - G7| as its error: the
-** error of the 7-point rule, so a generous bound for the 15-point one on
-** a smooth integrand (a sharper model would bisect integrands whose
-** points carry their own small quadrature noise).
+** The tolerance for the points of a segment whose value is about 1/pv of
+** the points' budget of its piece: the loosest at which they carry at
+** most PT_SHARE of it, between the usual ki->base and PT_CAP.
 */
-static void gk15 (kint *ki, seg *g) {
-  bl_gkpanel p;
-  bl_gk_panel(integrand_gk, ki, g->a, g->b, 15, &p);
-  g->val = p.val;
-  g->err = p.d;
+static double segtol (const kint *ki, double pv) {
+  return fmin(PT_CAP, fmax(ki->base, PT_SHARE * pv));
+}
+
+
+/* The budget P over the value v (HUGE_VAL for v = 0). */
+static double ratio (double P, double v) {
+  return v != 0.0 ? P / fabs(v) : HUGE_VAL;
+}
+
+
+/*
+** The share of [a, b] in the piece [x0, x1] before anything is known: that
+** of a flat k dsigma/dk (Bethe-Heitler's varies by 4/3 over the spectrum),
+** the share of k (moment 1) or of ln k (moment 0).  Only the first
+** tolerance of an initial segment rests on it: its measured value decides
+** after (piece).
+*/
+static double prior (const kint *ki, double a, double b, double x0,
+                     double x1) {
+  double ka = kofx(ki, a), kb = kofx(ki, b), k0 = kofx(ki, x0);
+  double k1 = kofx(ki, x1), s;
+  if (ki->moment)
+    s = (kb - ka) / (k1 - k0);
+  else
+    s = log(kb / ka) / log(k1 / k0);
+  return isfinite(s) ? fabs(s) : 1.0;
+}
+
+
+/* A segment's rule: PT_NPT points when its points are loosened, else 15. */
+static int segnpt (const kint *ki, double tol) {
+  return tol > ki->base ? PT_NPT : 15;
 }
 
 
@@ -241,14 +350,23 @@ static void gk15 (kint *ki, seg *g) {
 ** (increasing), bisecting the segment of largest error until the total
 ** error is at most max(epsabs, rtol |total|).  GSL_SUCCESS, or
 ** GSL_EMAXITER when LIMIT segments do not suffice (best estimate kept).
+** With a tolerance hook (ki->settol) the points' errors are summed with
+** the rules' weights over the segments (*perr) and must meet the same
+** bound.  Each initial segment's points are first asked by its prior share
+** (segtol, pointtol), a half by half its parent's value; a segment whose
+** measured value allows less than half the budget/value ratio it was asked
+** by is computed again by its measured one; while the points' sum is over
+** its bound the segment that carries the most of it is asked at its
+** segment tolerance for every point, then ten times tighter, down to
+** ki->base (none left: run() judges the total).
 */
 static int piece (kint *ki, int map, double x0, double x1, const double *bx,
                   int nb, double epsabs, double rtol, seg *sg, double *val,
-                  double *err) {
-  int n = 0, i;
+                  double *err, double *perr) {
+  int n = 0, i, hook = ki->settol != NULL;
   double lo = x0;
   ki->map = map;
-  *val = *err = 0.0;
+  *val = *err = *perr = 0.0;
   if (!(x1 > x0))
     return GSL_SUCCESS;
   for (i = 0; i <= nb; i++) {   /* initial segments at the breakpoints */
@@ -256,31 +374,78 @@ static int piece (kint *ki, int map, double x0, double x1, const double *bx,
     if (hi > lo && hi <= x1) {
       sg[n].a = lo;
       sg[n].b = hi;
-      gk15(ki, &sg[n++]);
+      n++;
       lo = hi;
     }
   }
+  for (i = 0; i < n; i++) {
+    sg[i].pv = !hook || n == 1 ? rtol
+             : ratio(rtol, prior(ki, sg[i].a, sg[i].b, x0, x1));
+    sg[i].tol = !hook ? 0.0 : segtol(ki, sg[i].pv);
+    sg[i].npt = !hook ? 15 : segnpt(ki, sg[i].tol);
+    sg[i].pw = hook;
+    panel(ki, &sg[i]);
+  }
   for (;;) {
-    int worst = 0;
-    double v = 0.0, e = 0.0;
+    int worst = 0, redo = -1;
+    double v = 0.0, e = 0.0, pe = 0.0, tol;
     for (i = 0; i < n; i++) {
       v += sg[i].val;
       e += sg[i].err;
+      pe += sg[i].perr;
       if (sg[i].err > sg[worst].err)
         worst = i;
     }
     *val = v;
     *err = e;
-    if (e <= fmax(epsabs, rtol * fabs(v)) || ki->hard != BL_SUCCESS)
+    *perr = pe;
+    tol = fmax(epsabs, rtol * fabs(v));
+    if (ki->hard != BL_SUCCESS)
       return GSL_SUCCESS;
+    if (hook)   /* a segment asked looser than its value allows */
+      for (i = 0; i < n && redo < 0; i++)
+        if (sg[i].pv > 2.0 * ratio(tol, sg[i].val)
+            && (sg[i].pw || sg[i].tol > segtol(ki, ratio(tol, sg[i].val))))
+          redo = i;
+    if (redo >= 0) {
+      sg[redo].pv = ratio(tol, sg[redo].val);
+      sg[redo].tol = fmin(sg[redo].tol, segtol(ki, sg[redo].pv));
+    }
+    else if (e <= tol) {
+      if (!hook || pe <= tol)
+        return GSL_SUCCESS;
+      for (i = 0; i < n; i++)   /* the points over their bound */
+        if ((sg[i].pw || sg[i].tol > ki->base)
+            && (redo < 0 || sg[i].perr > sg[redo].perr))
+          redo = i;
+      if (redo < 0)
+        return GSL_SUCCESS;   /* at ki->base already: run() judges */
+      if (sg[redo].pw)
+        sg[redo].pw = 0;      /* first: each point at the segment's */
+      else
+        sg[redo].tol = fmax(ki->base, 0.1 * sg[redo].tol);
+    }
+    if (redo >= 0) {
+      panel(ki, &sg[redo]);
+      continue;
+    }
     if (n == LIMIT
         || sg[worst].b - sg[worst].a <= 1e-13 * fabs(x1 - x0))
       return GSL_EMAXITER;
     sg[n].a = 0.5 * (sg[worst].a + sg[worst].b);
     sg[n].b = sg[worst].b;
     sg[worst].b = sg[n].a;
-    gk15(ki, &sg[worst]);
-    gk15(ki, &sg[n++]);
+    if (hook) {   /* each half: about half the parent's value */
+      sg[worst].pv = ratio(tol, 0.5 * sg[worst].val);
+      sg[worst].tol = segtol(ki, sg[worst].pv);
+      sg[worst].npt = segnpt(ki, sg[worst].tol);
+    }
+    sg[n].pv = sg[worst].pv;
+    sg[n].tol = sg[worst].tol;
+    sg[n].npt = sg[worst].npt;
+    sg[n].pw = sg[worst].pw;
+    panel(ki, &sg[worst]);
+    panel(ki, &sg[n++]);
   }
 }
 
@@ -307,19 +472,20 @@ static int mapbreaks (const kint *ki, int map, const double *kb, int nkb,
 static int run (kint *ki, double kmin, double kmax, double rtol,
                 const double *kb, int nkb, seg *sg, bl_result *out) {
   double half = 0.5 * ki->T, v1 = 0.0, e1 = 0.0, v2 = 0.0, e2 = 0.0;
+  double p1 = 0.0, p2 = 0.0;
   double bx[BL_KINT_MAXBREAK];
   int st1 = GSL_SUCCESS, st2 = GSL_SUCCESS, nb;
   if (kmin == 0.0) {   /* one piece: both ends mapped at once */
     ki->a = kmax;
     nb = mapbreaks(ki, MAP_SINE, kb, nkb, kmin, kmax, bx);
     st1 = piece(ki, MAP_SINE, 0.0, 1.0, bx, nb, 0.0, 0.5 * rtol, sg, &v1,
-                &e1);
+                &e1, &p1);
   }
   else if (kmin < half) {   /* the lower piece */
     double top = fmin(kmax, half);
     nb = mapbreaks(ki, MAP_LOG, kb, nkb, kmin, top, bx);
     st1 = piece(ki, MAP_LOG, log(kmin), log(top), bx, nb, 0.0, 0.5 * rtol,
-                sg, &v1, &e1);
+                sg, &v1, &e1, &p1);
   }
   if (kmin > 0.0 && kmax > half && ki->hard == BL_SUCCESS) {   /* upper */
     double lo = fmax(kmin, half), gap = TIP_GAP * ki->T;
@@ -330,10 +496,13 @@ static int run (kint *ki, double kmin, double kmax, double rtol,
     for (i = 0; i < nb; i++)   /* s falls as k rises: reverse */
       bx[i] = rev[i];
     st2 = piece(ki, MAP_TIP, s0, s1, bx, nb, TAIL_SHARE * rtol * fabs(v1),
-                0.5 * rtol, sg, &v2, &e2);
+                0.5 * rtol, sg, &v2, &e2, &p2);
   }
   out->val = v1 + v2;
-  out->err = e1 + e2 + ki->relerr * fabs(out->val);
+  /* the points' errors: summed with the rules' weights (hook), else the
+  ** worst relative error of a point times the value */
+  out->err = e1 + e2 + (ki->settol != NULL ? p1 + p2
+                                           : ki->relerr * fabs(out->val));
   /* a bound: no point is more uncertain than the most uncertain one */
   out->sys = ki->relsys * fabs(out->val);
   out->warn = ki->warn;
@@ -359,11 +528,15 @@ static int checkargs (bl_kfunc f, double kmin, double kmax, double T,
 }
 
 
-static void kint_init (kint *ki, bl_kfunc f, void *ud, double T,
-                       memo *m, size_t cap) {
+static void kint_init (kint *ki, bl_kfunc f, bl_ktolfunc settol, void *ud,
+                       double T, double rtol, memo *m, size_t cap) {
   memset(ki, 0, sizeof *ki);
   ki->f = f;
+  ki->settol = settol;
   ki->ud = ud;
+  ki->base = settol != NULL ? 0.5 * rtol : 0.0;
+  ki->ptol = ki->base;
+  ki->cur = -1.0;   /* none set yet */
   ki->T = T;
   ki->hard = BL_SUCCESS;
   ki->method = -2;
@@ -377,9 +550,9 @@ static void kint_init (kint *ki, bl_kfunc f, void *ud, double T,
 ** out1 on the remembered points.  The quadrature aims at rtol/2: the
 ** points' own errors (asked at rtol/2 by the callers) take the rest.
 */
-static int integrate (bl_kfunc f, void *ud, double kmin, double kmax,
-                      double T, double rtol, const double *kb, int nkb,
-                      int m0, bl_result *out0, bl_result *out1) {
+static int integrate (bl_kfunc f, bl_ktolfunc settol, void *ud, double kmin,
+                      double kmax, double T, double rtol, const double *kb,
+                      int nkb, int m0, bl_result *out0, bl_result *out1) {
   seg *sg;
   memo m[MEMO_MIN];   /* the first memo; grows on the heap if needed */
   kint ki;
@@ -397,7 +570,7 @@ static int integrate (bl_kfunc f, void *ud, double kmin, double kmax,
   if (sg == NULL)
     return BL_ENOMEM;
   memset(m, 0, sizeof m);
-  kint_init(&ki, f, ud, T, m, MEMO_MIN);
+  kint_init(&ki, f, settol, ud, T, rtol, m, MEMO_MIN);
   ki.moment = m0;
   st0 = run(&ki, kmin, kmax, rtol, kb, nkb, sg, out0);
   if (out1 != NULL && ki.hard == BL_SUCCESS) {
@@ -418,7 +591,8 @@ static int integrate (bl_kfunc f, void *ud, double kmin, double kmax,
 int bl_kintegral2_e (bl_kfunc f, void *ud, double kmin, double kmax, double T,
                      const double *kbreak, int nbreak, double rtol,
                      bl_result *out0, bl_result *out1) {
-  return integrate(f, ud, kmin, kmax, T, rtol, kbreak, nbreak, 0, out0, out1);
+  return integrate(f, NULL, ud, kmin, kmax, T, rtol, kbreak, nbreak, 0, out0,
+                   out1);
 }
 
 
@@ -430,6 +604,23 @@ int bl_kintegral_e (bl_kfunc f, void *ud, double kmin, double kmax, double T,
       memset(out, 0, sizeof *out);
     return BL_EDOMAIN;
   }
-  return integrate(f, ud, kmin, kmax, T, rtol, kbreak, nbreak, moment, out,
-                   NULL);
+  return integrate(f, NULL, ud, kmin, kmax, T, rtol, kbreak, nbreak, moment,
+                   out, NULL);
+}
+
+
+int bl_kintegral_tol_e (bl_kfunc f, bl_ktolfunc settol, void *ud, double kmin,
+                        double kmax, double T, const double *kbreak,
+                        int nbreak, int moment, double rtol, bl_result *out0,
+                        bl_result *out1) {
+  if (settol == NULL || (moment != 0 && moment != 1)
+      || (out1 != NULL && moment != 0)) {
+    if (out0 != NULL)
+      memset(out0, 0, sizeof *out0);
+    if (out1 != NULL)
+      memset(out1, 0, sizeof *out1);
+    return BL_EDOMAIN;
+  }
+  return integrate(f, settol, ud, kmin, kmax, T, rtol, kbreak, nbreak, moment,
+                   out0, out1);
 }

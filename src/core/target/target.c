@@ -15,10 +15,13 @@
 ** atom: it multiplies the material's dsigma/dk (target/suppress.c).
 **
 ** Tolerance of the integrals over k: the quadrature aims at rtol/2 and
-** the points are computed at rtol/2, so that the points' own errors leave
-** room for the quadrature's (bl_kintegral_e adds both).  A breakpoint of
-** bl_method_breaks is dropped when its jump, weighted by the share of the
-** spectrum above it, is below a tenth of rtol: it cannot matter.
+** the points' errors, summed with the rule's weights, at the other half;
+** the integrator sets each point's tolerance (bl_kintegral_tol_e of
+** target/kint.h, through ktol on the workspace): rtol/2 where the point
+** carries a large share, up to 1e-2 where it carries little.  Breakpoints
+** of bl_method_breaks are dropped, smallest first, while the bounds of the
+** error a straddled jump may leave add up to at most a quarter of rtol; those
+** bounds are added to the integral's error (breaks()).
 */
 
 #include <math.h>
@@ -28,10 +31,14 @@
 #include "brakelight.h"
 #include "brakelight/bl_target.h"
 #include "ebrems/table.h"
+#include "target/kint.h"
 
 
-/* Share of rtol below which a breakpoint's weighted jump is dropped. */
-#define BREAK_SHARE 0.1
+/* Share of rtol the bounds of the dropped breakpoints may add up to. */
+#define BREAK_SHARE 0.25
+
+/* Most distinct breakpoints gathered over the elements. */
+#define BREAK_CAND (4 * BL_KINT_MAXBREAK)
 
 
 static void clear (bl_tresult *out) {
@@ -402,28 +409,91 @@ static int kpoint (void *ud, double k, bl_result *out) {
 }
 
 
-/* The breakpoints of the method over the elements, without those whose
-** weighted jump cannot matter at rtol. */
-static int breaks (const bl_target *t, double rtol, double *kb) {
-  double jump[BL_KINT_MAXBREAK];
-  int nb = 0, i, j, n;
-  for (i = 0; i < t->n && nb < BL_KINT_MAXBREAK; i++) {
-    n = bl_method_breaks(&t->c[i], &t->he[i], t->method, kb + nb,
-                         jump + nb, BL_KINT_MAXBREAK - nb);
-    for (j = nb; j < nb + n; j++) {   /* a break that cannot matter, or
-                                      ** one already there (the same
-                                      ** projectile's electron end point
-                                      ** on every element): none */
-      int dup = 0, l;
-      for (l = 0; l < nb && !dup; l++)
-        dup = fabs(kb[l] - kb[j]) <= 1e-12 * t->T;
-      if (dup || jump[j] * (t->T - kb[j]) / t->T < BREAK_SHARE * rtol) {
-        kb[j] = kb[nb + n - 1];
-        jump[j--] = jump[nb + --n];
+/* The integrator's choice of the points' tolerance: the workspace's. */
+static void ktol (void *ud, double rtol) {
+  kctx *x = ud;
+  bl_quad_set_rtol(x->q, fmin(BL_QUAD_RTOL_MAX, fmax(rtol, BL_QUAD_RTOL_MIN)));
+}
+
+
+/*
+** The share of (kb, kmax) in (kmin, kmax) for moment m, that of a flat
+** k dsigma/dk (Bethe-Heitler's falls to 3/4 of its k -> 0 value at the
+** tip, so this overestimates the share of a tip; measured on the grid of
+** DEVELOPERS.md, the true straddling errors stay 10-100 times below).
+*/
+static double above (double kb, double kmin, double kmax, int m) {
+  return m ? (kmax - kb) / (kmax - kmin) : log(kmax / kb) / log(kmax / kmin);
+}
+
+
+/*
+** The breakpoints of the method over the elements inside (kmin, kmax),
+** without those whose jump in the material cannot matter at rtol; *drop0
+** and *drop1 get the relative error the dropped ones may leave in moment 0
+** and 1.  bl_method_breaks gives a jump relative to the element's own
+** dsigma/dk; in the material it is weighted by the element's share,
+** estimated as atoms Z (Z + 1) over the sum (complete screening; the
+** Coulomb correction and the screening logarithms move the shares by
+** about 10 %), and the jumps of the elements at one k (the projectile's
+** electron end point is the same on every element) are added.  A rule
+** that straddles a jump J at kb errs by at most about J times the part of
+** the integral above kb (the step's own integral; a Gauss rule's error on
+** a step is below it), taken here as J above(): a break is dropped while
+** these bounds add up to at most BREAK_SHARE rtol, the smallest first, and
+** the integral's error includes them.
+*/
+static int breaks (const bl_target *t, double rtol, double kmin,
+                   double kmax, double *kb, double *drop0, double *drop1) {
+  double ck[BREAK_CAND], cj[BREAK_CAND], b0[BREAK_CAND], b1[BREAK_CAND];
+  double wsum = 0.0, used = 0.0;
+  int nc = 0, nb = 0, i, j, l, keep[BREAK_CAND];
+  *drop0 = *drop1 = 0.0;
+  for (i = 0; i < t->n; i++)
+    wsum += t->atoms[i] * t->c[i].Z * (t->c[i].Z + 1.0);
+  for (i = 0; i < t->n; i++) {
+    double k[BL_KINT_MAXBREAK], jump[BL_KINT_MAXBREAK];
+    double w = wsum > 0.0 ? t->atoms[i] * t->c[i].Z * (t->c[i].Z + 1.0)
+                            / wsum : 1.0;
+    int n = bl_method_breaks(&t->c[i], &t->he[i], t->method, k, jump,
+                             BL_KINT_MAXBREAK);
+    for (j = 0; j < n; j++) {
+      if (!(k[j] > kmin && k[j] < kmax))
+        continue;   /* not in the range: never straddled */
+      for (l = 0; l < nc && !(fabs(ck[l] - k[j]) <= 1e-12 * t->T); l++)
+        ;
+      if (l == nc) {
+        if (nc == BREAK_CAND)
+          continue;   /* not cut there: the rule still integrates it */
+        ck[nc] = k[j];
+        cj[nc++] = 0.0;
       }
+      cj[l] += w * jump[j];
     }
-    nb += n;
   }
+  for (j = 0; j < nc; j++) {   /* the bound of each: moment 0 and 1 */
+    b1[j] = cj[j] * above(ck[j], kmin, kmax, 1);
+    b0[j] = kmin > 0.0 ? cj[j] * above(ck[j], kmin, kmax, 0) : 0.0;
+    cj[j] = fmax(b0[j], b1[j]);
+    keep[j] = 1;
+  }
+  for (;;) {   /* drop the smallest bound while the sum allows */
+    int s = -1;
+    for (j = 0; j < nc; j++)
+      if (keep[j] && (s < 0 || cj[j] < cj[s]))
+        s = j;
+    if (s < 0 || used + cj[s] > BREAK_SHARE * rtol)
+      break;
+    keep[s] = 0;
+    used += cj[s];
+  }
+  for (j = 0; j < nc; j++)
+    if (keep[j] && nb < BL_KINT_MAXBREAK)
+      kb[nb++] = ck[j];
+    else {   /* dropped (or no room left): straddled, its bound counted */
+      *drop0 += b0[j];
+      *drop1 += b1[j];
+    }
   return nb;
 }
 
@@ -445,7 +515,7 @@ int bl_target_kintegral_e (const bl_target *t, int kind, double theta_k,
                            bl_tresult *r0, bl_tresult *r1) {
   kctx x;
   bl_result v0, v1;
-  double kb[BL_KINT_MAXBREAK], rtol;
+  double kb[BL_KINT_MAXBREAK], rtol, drop0 = 0.0, drop1 = 0.0;
   int st, nb = 0;
   if (r0 != NULL)
     clear(r0);
@@ -467,7 +537,7 @@ int bl_target_kintegral_e (const bl_target *t, int kind, double theta_k,
   st = bl_quad_set_rtol(q, fmax(rtol / 2.0, BL_QUAD_RTOL_MIN));
   if (st == BL_SUCCESS) {
     if (kind == BL_TARGET_DK)
-      nb = breaks(t, rtol, kb);
+      nb = breaks(t, rtol, kmin, kmax, kb, &drop0, &drop1);
     else if (t->n > 0 && t->c[0].ebt != 0 && t->c[0].ekmax < t->T) {
       /* the kinks of the bound electron term (bl_method_breaks), the
       ** same on every element: the projectile's */
@@ -475,11 +545,18 @@ int bl_target_kintegral_e (const bl_target *t, int kind, double theta_k,
       kb[nb++] = t->c[0].ekmax * bl_ebt_ulast(t->c[0].ebt - 1);
     }
     st = r0 == NULL
-         ? bl_kintegral_e(kpoint, &x, kmin, kmax, t->T, kb, nb, 1, rtol, &v1)
-         : r1 == NULL
-         ? bl_kintegral_e(kpoint, &x, kmin, kmax, t->T, kb, nb, 0, rtol, &v0)
-         : bl_kintegral2_e(kpoint, &x, kmin, kmax, t->T, kb, nb, rtol, &v0,
-                           &v1);
+         ? bl_kintegral_tol_e(kpoint, ktol, &x, kmin, kmax, t->T, kb, nb, 1,
+                              rtol, &v1, NULL)
+         : bl_kintegral_tol_e(kpoint, ktol, &x, kmin, kmax, t->T, kb, nb, 0,
+                              rtol, &v0, r1 == NULL ? NULL : &v1);
+    if (st == BL_SUCCESS || bl_status_soft(st)) {   /* the dropped breaks */
+      v0.err += drop0 * fabs(v0.val);
+      v1.err += drop1 * fabs(v1.val);
+      if (st == BL_SUCCESS && (v0.err > rtol * fabs(v0.val)
+                               || v1.err > rtol * fabs(v1.val))) {
+        st = BL_ENOTCONV;   /* kresult adds the tolerance warning */
+      }
+    }
   }
   bl_quad_set_rtol(q, rtol);
   kresult(&x, st, &v0, r0);
