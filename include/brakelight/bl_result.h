@@ -29,10 +29,13 @@ enum {
                                 ** treatment, see its warning */
   BL_WARN_DISTORTED = 1u << 10, /* distorted waves: estimated model uncertainty
                                 ** (sys) above BL_SYS_WARN of the value */
-  BL_WARN_SOFT      = 1u << 11  /* distorted waves below k = BL_DW_SOFT_Y T:
+  BL_WARN_SOFT      = 1u << 11, /* distorted waves below k = BL_DW_SOFT_Y T:
                                 ** Born times the ratio at that k */
+  BL_WARN_EHELD     = 1u << 12  /* bound electron term of a muon below its
+                                ** table's first node (bl_case_eheld): held
+                                ** there, too low */
 };
-#define BL_WARN_COUNT 12
+#define BL_WARN_COUNT 13
 
 /* The share of the value above which a model uncertainty (sys) is
 ** warned about. */

@@ -110,7 +110,10 @@ int l_energy_loss (lua_State *L) {
                    "projectile and are not computed (for muons pair "
                    "production exceeds bremsstrahlung at high energy: "
                    "Review of Particle Physics, passage of particles "
-                   "through matter, from memory)"
+                   "through matter, from memory); for muons it includes the "
+                   "radiation of the atomic electrons they strike, which "
+                   "muon energy-loss tables count in the ionization loss "
+                   "(README, What is computed)"
                  : "bremsstrahlung: the radiative stopping power");
   lua_setfield(L, 3, "note");
   lbl_setresult(L, 3, 4, none, units, &o, &w);

@@ -383,4 +383,41 @@ do
   check(n == 2, "forced corrections: %d warnings with a size", n)
 end
 
+-- 13. a muon's electron term below 1e-4 of its end point is held at the
+-- table's first node (DEVELOPERS.md, "Muons"): from 1 GeV those points,
+-- and integrals that reach there, say so with the threshold; above it,
+-- and at 100 MeV (where the hold is right), no such warning.
+do
+  local m, me = bl.particle("muon").mass, bl.particle("electron").mass
+  local function kmax(T)
+    local e0, p0 = T + m, math.sqrt(T * (T + 2 * m))
+    return T * me / (me + e0 - p0)
+  end
+  local function held(w)
+    for _, x in ipairs(w) do
+      local k = x:match("electron term of the muon below its table.-below "
+                        .. "k = ([%d.e+-]+) MeV")
+      if k then return tonumber(k) end
+    end
+  end
+  local T = 1e4
+  local _, _, w = bl.dsdk{ particle = "muon", target = "C", T = T,
+                           k = 1e-5 * kmax(T), rtol = 1e-3 }
+  local kh = held(w)
+  check(kh ~= nil, "muon 10 GeV, k = 1e-5 k_max: no hold warning")
+  check(math.abs(kh / (1e-4 * kmax(T)) - 1) < 1e-4,
+        "hold threshold %s MeV against %g", tostring(kh), 1e-4 * kmax(T))
+  _, _, w = bl.dsdk{ particle = "muon", target = "C", T = T,
+                     k = 3e-4 * kmax(T), rtol = 1e-3 }
+  check(held(w) == nil, "muon 10 GeV above the hold: warned")
+  local e = bl.energy_loss{ particle = "muon", target = "C", T = T,
+                            rtol = 1e-3 }
+  check(held(e.warnings) ~= nil, "muon energy loss: no hold warning")
+  check(e.note:find("radiation of the atomic electrons", 1, true) ~= nil,
+        "muon energy loss note: %s", e.note)
+  _, _, w = bl.dsdk{ particle = "muon", target = "C", T = 100,
+                     k = 1e-5 * kmax(100), rtol = 1e-3 }
+  check(held(w) == nil, "muon 100 MeV: hold warned where it is right")
+end
+
 print("test_physics: ok")

@@ -54,6 +54,9 @@ const char *bl_warn_text (unsigned bit) {
     case BL_WARN_DISTORTED:
       return "distorted waves (Sommerfeld-Maue): the estimated model "
              "uncertainty exceeds 1 % of the value";
+    case BL_WARN_EHELD:
+      return "the bound electron term of the muon below its table's first "
+             "node is held at its value there: too low";
     case BL_WARN_SOFT:
       return "distorted waves at photon energies below 1e-9 T: the Born value "
              "times the distorted/Born ratio at k = 1e-9 T";

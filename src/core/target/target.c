@@ -154,7 +154,8 @@ static void suppress (const bl_target *t, double k, bl_result *sum,
 /*
 ** Check element i's status st and result r at k: a soft status becomes
 ** the tolerance warning; a hard failure or a non-finite value is noted in
-** out and returned.
+** out and returned; a muon's electron term held below its table
+** (bl_case_eheld) is flagged.
 */
 static int checkelement (const bl_target *t, int i, int st, bl_result *r,
                          double k, bl_tresult *out) {
@@ -168,6 +169,8 @@ static int checkelement (const bl_target *t, int i, int st, bl_result *r,
     st = BL_ENONFINITE;
     goto fail;
   }
+  if (bl_case_eheld(&t->c[i], k))
+    r->warn |= BL_WARN_EHELD;   /* a muon's electron term below its table */
   return BL_SUCCESS;
 fail:
   out->Z = t->c[i].Z;
@@ -559,6 +562,15 @@ int bl_target_kintegral_e (const bl_target *t, int kind, double theta_k,
     }
   }
   bl_quad_set_rtol(q, rtol);
+  {   /* a window reaching below a muon's held electron term is flagged
+      ** even where no point of the rule fell there */
+    int i;
+    for (i = 0; i < t->n; i++)
+      if (kmin < bl_case_eheld_k(&t->c[i])) {
+        v0.warn |= BL_WARN_EHELD;
+        v1.warn |= BL_WARN_EHELD;
+      }
+  }
   kresult(&x, st, &v0, r0);
   kresult(&x, st, &v1, r1);
   return st;
