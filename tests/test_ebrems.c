@@ -829,8 +829,27 @@ static double table_ratio (const char *name, int Z, double T, double u) {
 ** (what the generator wrote, within the integrals' tolerance) and points
 ** between nodes in every direction (T, u, Z), e- and e+ (the
 ** interpolation error; DEVELOPERS.md states the measured worst). */
+/* A table point against a fresh integral at rtol 1e-3, within tol. */
+typedef struct { const char *name; int Z; double T, u, tol; } ebpoint;
+
+static void spot_check (const ebpoint *pts, size_t n) {
+  bl_quad *q = bl_quad_alloc(200);
+  size_t i;
+  cr_assert_not_null(q);
+  cr_assert_eq(bl_quad_set_rtol(q, 1e-3), 0);
+  for (i = 0; i < n; i++) {
+    double want = fresh_ratio(pts[i].name, pts[i].Z, pts[i].T, pts[i].u, q);
+    double got = table_ratio(pts[i].name, pts[i].Z, pts[i].T, pts[i].u);
+    cr_expect(fabs(got - want) <= pts[i].tol * fabs(want),
+              "%s Z=%d T=%g u=%g: table %.6g, fresh %.6g (%.2e)",
+              pts[i].name, pts[i].Z, pts[i].T, pts[i].u, got, want,
+              fabs(got - want) / fabs(want));
+  }
+  bl_quad_free(q);
+}
+
 Test(ebwire, table_against_fresh_integrals, .timeout = 120) {
-  static const struct { const char *name; int Z; double T, u, tol; } pts[] = {
+  static const ebpoint pts[] = {
     {"electron", 8, 1.0, 0.45, 4e-3},      /* a node */
     {"electron", 8, 0.5, 0.4, EBW_TOL},
     {"positron", 29, 2.0, 0.7, EBW_TOL},
@@ -838,19 +857,7 @@ Test(ebwire, table_against_fresh_integrals, .timeout = 120) {
     {"electron", 82, 5.0, 0.92, EBW_TOL},
     {"electron", 6, 30.0, 0.1, EBW_TOL},
     {"positron", 8, 0.005, 0.55, EBW_TOL}};
-  bl_quad *q = bl_quad_alloc(200);
-  size_t i;
-  cr_assert_not_null(q);
-  cr_assert_eq(bl_quad_set_rtol(q, 1e-3), 0);
-  for (i = 0; i < sizeof pts / sizeof pts[0]; i++) {
-    double want = fresh_ratio(pts[i].name, pts[i].Z, pts[i].T, pts[i].u, q);
-    double got = table_ratio(pts[i].name, pts[i].Z, pts[i].T, pts[i].u);
-    cr_expect(fabs(got - want) <= pts[i].tol * fabs(want),
-              "%s Z=%d T=%g u=%g: table %.5f, fresh %.5f (%.2e)",
-              pts[i].name, pts[i].Z, pts[i].T, pts[i].u, got, want,
-              fabs(got - want) / fabs(want));
-  }
-  bl_quad_free(q);
+  spot_check(pts, sizeof pts / sizeof pts[0]);
 }
 
 /* Continuity: no step at any node or edge of the table (Z nodes, T nodes,
@@ -996,7 +1003,7 @@ Test(ebwire, every_method_and_the_warning) {
 #define EBM_TOL 5e-2
 
 Test(ebwire, muon_table_against_fresh_integrals, .timeout = 240) {
-  static const struct { const char *name; int Z; double T, u, tol; } pts[] = {
+  static const ebpoint pts[] = {
     {"muon", 8, 100.0, 0.35, 5e-3},           /* a node */
     {"antimuon", 20, 1e4, 0.015, 5e-3},       /* a node */
     {"muon", 29, 30.0, 0.27, EBM_TOL},
@@ -1006,19 +1013,7 @@ Test(ebwire, muon_table_against_fresh_integrals, .timeout = 240) {
     {"muon", 50, 1.5e5, 0.45, EBM_TOL},
     {"muon", 13, 2e4, 0.003, EBM_TOL},
     {"antimuon", 3, 700.0, 0.97, EBM_TOL}};
-  bl_quad *q = bl_quad_alloc(200);
-  size_t i;
-  cr_assert_not_null(q);
-  cr_assert_eq(bl_quad_set_rtol(q, 1e-3), 0);
-  for (i = 0; i < sizeof pts / sizeof pts[0]; i++) {
-    double want = fresh_ratio(pts[i].name, pts[i].Z, pts[i].T, pts[i].u, q);
-    double got = table_ratio(pts[i].name, pts[i].Z, pts[i].T, pts[i].u);
-    cr_expect(fabs(got - want) <= pts[i].tol * fabs(want),
-              "%s Z=%d T=%g u=%g: table %.6g, fresh %.6g (%.2e)",
-              pts[i].name, pts[i].Z, pts[i].T, pts[i].u, got, want,
-              fabs(got - want) / fabs(want));
-  }
-  bl_quad_free(q);
+  spot_check(pts, sizeof pts / sizeof pts[0]);
 }
 
 /* Continuity of the muon table: both sides of every kind of node and edge
