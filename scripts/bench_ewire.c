@@ -1,6 +1,6 @@
 /*
-** bench_ewire.c -- cost of the bound electron term of e-/e+ as the
-** methods give it with electrons = true (bl_case_eratio, the table of
+** bench_ewire.c -- cost of the bound electron term of e-/e+ and muons as
+** the methods give it with electrons = true (bl_case_eratio, the table of
 ** src/core/ebrems/table.c) against the nuclear term alone
 ** (electrons = false), per dsigma/dk point at rtol 1e-3, measured side by
 ** side in this run (`make bench`; issue 13 item 6: the electron term may
@@ -28,7 +28,12 @@ int main (void) {
            {"positron", 6, 1.0, BL_METHOD_BORN},
            {"electron", 1, 0.1, BL_METHOD_DISTORTED},
            {"electron", 6, 1e4, BL_METHOD_HIGH_ENERGY},
-           {"electron", 29, 1e5, BL_METHOD_AUTO}};
+           {"electron", 29, 1e5, BL_METHOD_AUTO},
+           /* muons: their own table; at y above y_max (0.48 at 10 GeV)
+           ** the electron part is 0 and costs nothing */
+           {"muon", 6, 1e4, BL_METHOD_BORN},
+           {"antimuon", 26, 1e5, BL_METHOD_AUTO},
+           {"muon", 82, 1e6, BL_METHOD_HIGH_ENERGY}};
   static const double ys[] = {0.1, 0.5, 0.8};
   const bl_model *hf = bl_model_find("hartree-fock");
   double ratio[64], first, t0;
