@@ -698,7 +698,6 @@ function scan.run(spec)
       error(format("%s: cannot write output '%s': %s", fname, path,
                    tostring(msg)), 2)
     end
-    lock = takelock(path, fname, script)
   end
   local loaded = false   -- saving is allowed once the output is read
   local function load()
@@ -832,6 +831,11 @@ function scan.run(spec)
   end
   local checkedcols = false
   local function body()
+    -- the lock is taken in here, with interrupts held until `lock` holds
+    -- it, so that the handler below releases it whatever moment a signal
+    -- comes (taken before this function, a signal in between left the
+    -- lock file behind)
+    if path then hold(function() lock = takelock(path, fname, script) end) end
     load()
     for _, o in ipairs(order) do if done[o.key] then nreused = nreused + 1 end end
     loaded = true
