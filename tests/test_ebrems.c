@@ -863,28 +863,42 @@ Test(ebwire, table_against_fresh_integrals, .timeout = 120) {
 /* Continuity: no step at any node or edge of the table (Z nodes, T nodes,
 ** the top of the table and the end of the blend, the u nodes, the end
 ** point): the ratio on both sides of each, 1e-9 apart, within 1e-6. */
+/* The ratio of `kind` either side of each (T, u) of Ts x us and each Z of
+** Zs, a relative eps apart: within tol, absolute (rel = 0) or relative to
+** the value, which must then be positive (rel = 1); and Z against Z + 1
+** for Z = 1 ... 99 at (tz, uz) within 2 % (linear in ln Z between nodes). */
+static void continuity (const char *kind, const double *Ts, size_t nt,
+                        const double *us, size_t nu, double eps, double tol,
+                        int rel, double tz, double uz) {
+  static const int Zs[] = {1, 7, 8, 9, 81, 82, 83};
+  size_t i, j, l;
+  for (i = 0; i < nt; i++)
+    for (j = 0; j < nu; j++)
+      for (l = 0; l < sizeof Zs / sizeof Zs[0]; l++) {
+        double a = table_ratio(kind, Zs[l], Ts[i] * (1 - eps),
+                               us[j] * (1 - eps));
+        double b = table_ratio(kind, Zs[l], Ts[i] * (1 + eps),
+                               us[j] * (1 + eps));
+        cr_expect((!rel || a > 0.0)
+                  && fabs(a - b) <= tol * (rel ? fabs(a) : 1.0),
+                  "%s Z=%d T=%g u=%g: %.9g vs %.9g", kind, Zs[l], Ts[i],
+                  us[j], a, b);
+      }
+  for (l = 1; l < 100; l++) {
+    double a = table_ratio(kind, (int)l, tz, uz);
+    double b = table_ratio(kind, (int)l + 1, tz, uz);
+    cr_expect(fabs(a - b) <= 0.02 * a, "%s Z=%zu..%zu: %g vs %g", kind, l,
+              l + 1, a, b);
+  }
+}
+
 Test(ebwire, continuous_everywhere) {
   static const double Ts[] = {1e-3, 0.1, 1.0, 1e3, 1e5, 3e3};
   static const double us[] = {0.02, 0.3, 0.87, 0.997, 0.999};
-  static const int Zs[] = {1, 7, 8, 9, 81, 82, 83};
-  size_t i, j, l;
-  for (i = 0; i < sizeof Ts / sizeof Ts[0]; i++)
-    for (j = 0; j < sizeof us / sizeof us[0]; j++)
-      for (l = 0; l < sizeof Zs / sizeof Zs[0]; l++) {
-        double a = table_ratio("electron", Zs[l], Ts[i] * (1 - 1e-9),
-                               us[j] * (1 - 1e-9));
-        double b = table_ratio("electron", Zs[l], Ts[i] * (1 + 1e-9),
-                               us[j] * (1 + 1e-9));
-        cr_expect(fabs(a - b) <= 1e-6, "Z=%d T=%g u=%g: %.9f vs %.9f",
-                  Zs[l], Ts[i], us[j], a, b);
-      }
-  /* in Z: neighbours close (linear in ln Z between nodes) */
-  for (l = 1; l < 100; l++) {
-    double a = table_ratio("positron", (int)l, 3.0, 0.5);
-    double b = table_ratio("positron", (int)l + 1, 3.0, 0.5);
-    cr_expect(fabs(a - b) <= 0.02 * a, "Z=%zu..%zu: %g vs %g", l, l + 1, a,
-              b);
-  }
+  continuity("electron", Ts, sizeof Ts / sizeof Ts[0], us,
+             sizeof us / sizeof us[0], 1e-9, 1e-6, 0, 3.0, 0.5);
+  continuity("positron", Ts, sizeof Ts / sizeof Ts[0], us,
+             sizeof us / sizeof us[0], 1e-9, 1e-6, 0, 3.0, 0.5);
   /* the end point: 0 at and above k_max, positive just below */
   cr_expect(table_ratio("electron", 8, 1.0, 1.0) == 0.0);
   cr_expect(table_ratio("electron", 8, 1.0, 1.5) == 0.0);
@@ -1023,28 +1037,10 @@ Test(ebwire, muon_table_against_fresh_integrals, .timeout = 240) {
 Test(ebwire, muon_continuous_everywhere) {
   static const double Ts[] = {1.0, 10.0, 1e3, 3e4, 1e5, 1e7, 1e8};
   static const double us[] = {1e-4, 0.005, 0.35, 0.88, 0.997, 0.999};
-  static const int Zs[] = {1, 7, 8, 9, 81, 82, 83};
-  static const char *const ks[] = {"muon", "antimuon"};
-  size_t i, j, l, m;
-  for (m = 0; m < 2; m++)
-    for (i = 0; i < sizeof Ts / sizeof Ts[0]; i++)
-      for (j = 0; j < sizeof us / sizeof us[0]; j++)
-        for (l = 0; l < sizeof Zs / sizeof Zs[0]; l++) {
-          double a = table_ratio(ks[m], Zs[l], Ts[i] * (1 - 1e-10),
-                                 us[j] * (1 - 1e-10));
-          double b = table_ratio(ks[m], Zs[l], Ts[i] * (1 + 1e-10),
-                                 us[j] * (1 + 1e-10));
-          cr_expect(a > 0.0 && fabs(a - b) <= 1e-6 * fabs(a),
-                    "%s Z=%d T=%g u=%g: %.9g vs %.9g", ks[m], Zs[l], Ts[i],
-                    us[j], a, b);
-        }
-  /* in Z: neighbours close (linear in ln Z between nodes) */
-  for (l = 1; l < 100; l++) {
-    double a = table_ratio("muon", (int)l, 300.0, 0.5);
-    double b = table_ratio("muon", (int)l + 1, 300.0, 0.5);
-    cr_expect(fabs(a - b) <= 0.02 * a, "Z=%zu..%zu: %g vs %g", l, l + 1, a,
-              b);
-  }
+  continuity("muon", Ts, sizeof Ts / sizeof Ts[0], us,
+             sizeof us / sizeof us[0], 1e-10, 1e-6, 1, 300.0, 0.5);
+  continuity("antimuon", Ts, sizeof Ts / sizeof Ts[0], us,
+             sizeof us / sizeof us[0], 1e-10, 1e-6, 1, 300.0, 0.5);
   /* the end point: 0 at and above k_max, positive just below */
   cr_expect(table_ratio("muon", 8, 1e3, 1.0) == 0.0);
   cr_expect(table_ratio("antimuon", 8, 1e3, 1.5) == 0.0);
