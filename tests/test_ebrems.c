@@ -905,45 +905,50 @@ Test(ebwire, continuous_everywhere) {
   cr_expect(table_ratio("electron", 8, 10.0, 0.9999) > 0.0);
 }
 
-/* The end point in the methods: hydrogen at 10 keV, 100 keV, 1 MeV, e-:
-** above y_max = m_e / (m_e + E0 - p0) the electron part is exactly 0 and
-** dsigma/dk with electrons equals the nuclear part (electrons = false) to
-** the integration tolerance; below it the electrons add. */
+/* The end point in the methods for `name` on hydrogen at T (MeV):
+** y_max = m_e / (m_e + E0 - p0), E0 - p0 = m^2 / (E0 + p0); above it the
+** electron part is exactly 0 and dsigma/dk with electrons equals the
+** nuclear part (electrons = false) to the integration tolerance, below it
+** the electrons add; no static-charge warning. */
+static void end_point_hydrogen (const char *name, double T, bl_quad *q) {
+  static const double over[] = {0.1, 0.5, 0.9};
+  const bl_particle *p = bl_particle_find(name);
+  const bl_model *hf = bl_model_find("hartree-fock");
+  bl_case on, off;
+  bl_opts o0 = bl_opts_default;
+  bl_result ron, roff;
+  double M = p->mass, e0 = T + M, p0 = sqrt(T * (T + 2 * M));
+  double ymax = BL_ME_MEV / (BL_ME_MEV + M * M / (e0 + p0));
+  int j;
+  o0.electrons = 0;
+  cr_assert_eq(bl_case_setup(&on, p, 1, hf, NULL, T, &bl_opts_default), 0);
+  cr_assert_eq(bl_case_setup(&off, p, 1, hf, NULL, T, &o0), 0);
+  EXPECT_REL(on.ekmax / T, ymax, 1e-12, "%s T=%g: y_max", name, T);
+  cr_expect(!(on.warn & BL_WARN_STATIC_E), "%s T=%g: no static warning",
+            name, T);
+  for (j = 0; j < 3; j++) {
+    double k = (ymax + over[j] * (1.0 - ymax)) * T;
+    cr_expect_eq(bl_case_eratio(&on, k), 0.0);
+    cr_expect_eq(bl_dcs_dk_e(&on, k, q, &ron), BL_SUCCESS);
+    cr_expect_eq(bl_dcs_dk_e(&off, k, q, &roff), BL_SUCCESS);
+    EXPECT_REL(ron.val, roff.val, 1e-7, "%s T=%g y=%g above y_max", name, T,
+               k / T);
+  }
+  cr_expect_eq(bl_dcs_dk_e(&on, 0.5 * ymax * T, q, &ron), 0);
+  cr_expect_eq(bl_dcs_dk_e(&off, 0.5 * ymax * T, q, &roff), 0);
+  cr_expect(ron.val > roff.val * 1.01, "%s T=%g below y_max: %g vs %g",
+            name, T, ron.val, roff.val);
+}
+
+/* e- at 10 keV, 100 keV, 1 MeV (y_max 0.55, 0.65, 0.85). */
 Test(ebwire, end_point_hydrogen_nuclear_unchanged) {
   static const double Ts[] = {0.01, 0.1, 1.0};
-  static const double over[] = {0.1, 0.5, 0.9};
-  const bl_particle *e = bl_particle_find("electron");
-  const bl_model *hf = bl_model_find("hartree-fock");
   bl_quad *q = bl_quad_alloc(400);
-  int i, j;
+  int i;
   cr_assert_not_null(q);
   cr_assert_eq(bl_quad_set_rtol(q, 1e-8), 0);
-  for (i = 0; i < 3; i++) {
-    bl_case on, off;
-    bl_opts o0 = bl_opts_default;
-    bl_result ron, roff;
-    double e0 = Ts[i] + BL_ME_MEV, p0 = sqrt(Ts[i] * (Ts[i] + 2 * BL_ME_MEV));
-    double ymax = BL_ME_MEV / (BL_ME_MEV + e0 - p0);
-    o0.electrons = 0;
-    cr_assert_eq(bl_case_setup(&on, e, 1, hf, NULL, Ts[i], &bl_opts_default),
-                 0);
-    cr_assert_eq(bl_case_setup(&off, e, 1, hf, NULL, Ts[i], &o0), 0);
-    EXPECT_REL(on.ekmax / Ts[i], ymax, 1e-12, "T=%g: y_max", Ts[i]);
-    cr_expect(!(on.warn & BL_WARN_STATIC_E), "T=%g: no static warning",
-              Ts[i]);
-    for (j = 0; j < 3; j++) {
-      double k = (ymax + over[j] * (1.0 - ymax)) * Ts[i];
-      cr_expect_eq(bl_case_eratio(&on, k), 0.0);
-      cr_expect_eq(bl_dcs_dk_e(&on, k, q, &ron), BL_SUCCESS);
-      cr_expect_eq(bl_dcs_dk_e(&off, k, q, &roff), BL_SUCCESS);
-      EXPECT_REL(ron.val, roff.val, 1e-7, "T=%g y=%g above y_max", Ts[i],
-                 k / Ts[i]);
-    }
-    cr_expect_eq(bl_dcs_dk_e(&on, 0.5 * ymax * Ts[i], q, &ron), 0);
-    cr_expect_eq(bl_dcs_dk_e(&off, 0.5 * ymax * Ts[i], q, &roff), 0);
-    cr_expect(ron.val > roff.val * 1.01, "T=%g below y_max: %g vs %g",
-              Ts[i], ron.val, roff.val);
-  }
+  for (i = 0; i < 3; i++)
+    end_point_hydrogen("electron", Ts[i], q);
   bl_quad_free(q);
 }
 
@@ -1048,48 +1053,17 @@ Test(ebwire, muon_continuous_everywhere) {
   cr_expect(table_ratio("antimuon", 8, 1e9, 0.9999) > 0.0);
 }
 
-/* The end point in the methods for muons on hydrogen at 100 MeV, 1 GeV,
-** 10 GeV: y_max = m_e / (m_e + E0 - p0) (0.017, 0.087, 0.48); above it
-** the electron part is exactly 0 and dsigma/dk with electrons equals the
-** nuclear part (electrons = false) to the integration tolerance, below it
-** the electrons add; no static-charge warning. */
+/* mu- and mu+ at 100 MeV, 1 GeV, 10 GeV (y_max 0.017, 0.087, 0.48). */
 Test(ebwire, muon_end_point_hydrogen_nuclear_unchanged, .timeout = 120) {
   static const double Ts[] = {100.0, 1e3, 1e4};
-  static const double over[] = {0.1, 0.5, 0.9};
-  const bl_model *hf = bl_model_find("hartree-fock");
   bl_quad *q = bl_quad_alloc(400);
-  int i, j, m;
+  int i;
   cr_assert_not_null(q);
   cr_assert_eq(bl_quad_set_rtol(q, 1e-8), 0);
-  for (m = 0; m < 2; m++)
-    for (i = 0; i < 3; i++) {
-      const bl_particle *mu = bl_particle_find(m ? "antimuon" : "muon");
-      bl_case on, off;
-      bl_opts o0 = bl_opts_default;
-      bl_result ron, roff;
-      double M = BL_MMU_MEV, e0 = Ts[i] + M;
-      double p0 = sqrt(Ts[i] * (Ts[i] + 2 * M));
-      double ymax = BL_ME_MEV / (BL_ME_MEV + M * M / (e0 + p0));
-      o0.electrons = 0;
-      cr_assert_eq(bl_case_setup(&on, mu, 1, hf, NULL, Ts[i],
-                                 &bl_opts_default), 0);
-      cr_assert_eq(bl_case_setup(&off, mu, 1, hf, NULL, Ts[i], &o0), 0);
-      EXPECT_REL(on.ekmax / Ts[i], ymax, 1e-12, "T=%g: y_max", Ts[i]);
-      cr_expect(!(on.warn & BL_WARN_STATIC_E), "T=%g: no static warning",
-                Ts[i]);
-      for (j = 0; j < 3; j++) {
-        double k = (ymax + over[j] * (1.0 - ymax)) * Ts[i];
-        cr_expect_eq(bl_case_eratio(&on, k), 0.0);
-        cr_expect_eq(bl_dcs_dk_e(&on, k, q, &ron), BL_SUCCESS);
-        cr_expect_eq(bl_dcs_dk_e(&off, k, q, &roff), BL_SUCCESS);
-        EXPECT_REL(ron.val, roff.val, 1e-7, "%s T=%g y=%g above y_max",
-                   mu->name, Ts[i], k / Ts[i]);
-      }
-      cr_expect_eq(bl_dcs_dk_e(&on, 0.5 * ymax * Ts[i], q, &ron), 0);
-      cr_expect_eq(bl_dcs_dk_e(&off, 0.5 * ymax * Ts[i], q, &roff), 0);
-      cr_expect(ron.val > roff.val * 1.01, "%s T=%g below y_max: %g vs %g",
-                mu->name, Ts[i], ron.val, roff.val);
-    }
+  for (i = 0; i < 3; i++) {
+    end_point_hydrogen("muon", Ts[i], q);
+    end_point_hydrogen("antimuon", Ts[i], q);
+  }
   bl_quad_free(q);
 }
 
