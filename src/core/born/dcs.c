@@ -219,7 +219,7 @@ static void phi_n (integ *it, int n, double *h, double *dh, double *f,
                    double *err) {
   bl_brackets br;
   double fo[BL_NODE_MAX];
-  int i, m = (n + 3) / 4 * 4;   /* h, dh hold m values (the lanes) */
+  int i, m = BL_LANES_UP(n);   /* h, dh hold m values (the lanes) */
   for (i = 0; i < m; i++) {
     if (h[i] > 2.0) {   /* rounding at the ends of the range */
       dh[i] += 2.0 - h[i];
@@ -277,7 +277,7 @@ static void inner_plainv (const double *sg, int n, void *params, double *f,
   integ *it = params;
   /* zeroed: no static analyzer sees that m >= n sets every place read */
   double h[BL_NODE_MAX] = {0}, dh[BL_NODE_MAX] = {0}, jac[BL_NODE_MAX] = {0};
-  int i, m = (n + 3) / 4 * 4;   /* the lanes */
+  int i, m = BL_LANES_UP(n);   /* the lanes */
   if (n < 1 || n > BL_NODE_MAX)
     return;   /* never: gk gives 1 to BL_GK_NODES nodes */
   bl_expm1_n(sg, n, h);   /* and 0 up to m */

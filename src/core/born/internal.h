@@ -90,6 +90,11 @@ double bl_bracket_azimuth (const bl_bracket *br, const bl_wpoles *w);
 ** array per coefficient (the nodes of one Gauss-Kronrod panel, in lanes).
 */
 #define BL_NODE_MAX 24   /* 21 nodes, whole steps of 4 lanes */
+/* The lanes: n nodes rounded up to whole steps of BL_LANES (arrays of
+** BL_NODE_MAX, a multiple of it, with finite values past n). */
+#define BL_LANES 4
+#define BL_LANES_UP(n) \
+  ((int)(((unsigned)(n) + BL_LANES - 1) & ~(unsigned)(BL_LANES - 1)))
 typedef struct bl_brackets {
   double L0[BL_NODE_MAX], L1[BL_NODE_MAX], M0[BL_NODE_MAX], M1[BL_NODE_MAX];
   double Q0[BL_NODE_MAX], b[BL_NODE_MAX];

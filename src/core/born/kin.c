@@ -310,12 +310,10 @@ double bl_bracket_azimuth (const bl_bracket *br, const bl_wpoles *w) {
 ** the values are the same to the last bit.  With FEW_POLES or more the
 ** poles of one node are the lanes instead (bl_bracket_azimuth itself).
 */
-/* The lane functions run over whole steps of LANES points (n rounded up;
-** arrays of BL_NODE_MAX, a multiple of LANES, with finite values past n):
-** no scalar remainder, whose chain of dependent operations would come
-** after the vector loop's. */
-#define LANES 4
-#define LANES_UP(n) ((int)(((unsigned)(n) + LANES - 1) & ~(unsigned)(LANES - 1)))
+/* The lane functions run over whole steps of BL_LANES points (n rounded
+** up by BL_LANES_UP, born/internal.h): no scalar remainder, whose chain of
+** dependent operations would come after the vector loop's. */
+#define LANES_UP(n) BL_LANES_UP(n)
 
 AZ_CLONES
 void bl_bracket_set_n (const bl_kin *kn, const bl_polar *g, int n,
