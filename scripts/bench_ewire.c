@@ -20,6 +20,65 @@
 
 #define REP 5
 
+/*
+** The angular distribution's electron part, the exact bound term at each
+** angle (bl_method_angular_e where bl_method_eexact), against the nuclear
+** part alone, per d2sigma/(dk dOmega_k) point at the default rtol 1e-4,
+** method auto, alternated as above.
+*/
+static int angular (void) {
+  static const struct { const char *name; int Z; double T, k; } pts[] = {
+    {"electron", 1, 1.0, 0.3}, {"electron", 74, 20.0, 5.0},
+    {"positron", 6, 10.0, 1.0}, {"muon", 6, 1e3, 1.0}};
+  static const double th[] = {1e-3, 0.1, 0.5};
+  const bl_model *hf = bl_model_find("hartree-fock");
+  double ratio[16];
+  bl_quad *q = bl_quad_alloc(400);
+  size_t ip, it;
+  int n = 0;
+  if (q == NULL || bl_quad_set_rtol(q, 1e-4) != BL_SUCCESS)
+    return 1;
+  printf("angular distribution, electron part exact at each angle, rtol "
+         "1e-4, method auto:\n%-9s %3s %8s %6s %6s %10s %10s %8s\n",
+         "particle", "Z", "T/MeV", "k/MeV", "theta", "nuc ms", "nuc+e ms",
+         "e/nuc");
+  for (ip = 0; ip < sizeof pts / sizeof pts[0]; ip++)
+    for (it = 0; it < sizeof th / sizeof th[0]; it++) {
+      const bl_particle *p = bl_particle_find(pts[ip].name);
+      bl_case ce, cn;
+      bl_opts o = bl_opts_default;
+      bl_result r;
+      double tn = 0.0, te = 0.0, t1;
+      int j;
+      o.electrons = 0;
+      if (bl_case_setup(&ce, p, pts[ip].Z, hf, NULL, pts[ip].T,
+                        &bl_opts_default) != BL_SUCCESS
+          || bl_case_setup(&cn, p, pts[ip].Z, hf, NULL, pts[ip].T, &o)
+             != BL_SUCCESS)
+        return 1;
+      for (j = 0; j < 3 || tn < 0.02; j++) {
+        t1 = now();
+        bl_method_angular_e(&cn, BL_METHOD_AUTO, pts[ip].k, th[it], q, &r);
+        tn += now() - t1;
+        t1 = now();
+        bl_method_angular_e(&ce, BL_METHOD_AUTO, pts[ip].k, th[it], q, &r);
+        te += now() - t1;
+      }
+      ratio[n] = (te - tn) / tn;
+      printf("%-9s %3d %8g %6g %6g %10.3f %10.3f %8.2f\n", pts[ip].name,
+             pts[ip].Z, pts[ip].T, pts[ip].k, th[it], 1e3 * tn / j,
+             1e3 * te / j, ratio[n]);
+      n++;
+    }
+  qsort(ratio, (size_t)n, sizeof ratio[0], cmp);
+  printf("angular electron part / nuclear part, time per point: median "
+         "%.2f, range %.2f ... %.2f\n", ratio[n / 2], ratio[0],
+         ratio[n - 1]);
+  bl_quad_free(q);
+  return 0;
+}
+
+
 int main (void) {
   static const struct { const char *name; int Z; double T; int method; }
   pts[] = {{"electron", 8, 1.0, BL_METHOD_BORN},
@@ -97,5 +156,5 @@ int main (void) {
          ratio[n / 2], ratio[0], ratio[n - 1],
          ratio[n - 1] <= 1.0 ? "met" : "missed");
   bl_quad_free(q);
-  return 0;
+  return angular();
 }

@@ -165,12 +165,39 @@ int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
 ** `method`: the distorted-wave method's own (BL_METHOD_DISTORTED), the
 ** Born integrals for every other method (the closed forms have no
 ** angles).  Arguments, units and exceptions as bl_dcs_angular_e and
-** bl_dcs_full_e.
+** bl_dcs_full_e.  Where bl_method_eexact(c), the angular distribution's
+** electron part is the exact bound electron term's own distribution
+** (bl_ebrems_angular_e times Z) added to the method's nuclear part; the
+** fully differential value keeps the static term's shape scaled by R(k)
+** (BL_WARN_ESHAPE).
 */
 int bl_method_angular_e (const bl_case *c, int method, double k,
                          double theta_k, bl_quad *q, bl_result *out);
 int bl_method_full_e (const bl_case *c, int method, double k, double theta_k,
                       double theta_p, double phi, bl_result *out);
+
+/* 1 if the angular distribution of case c takes its electron part from
+** the exact bound electron term: a projectile with the table's bound
+** term (c->ebt) and electrons on, T within bl_ebrems_init's range (1 TeV
+** for e-/e+, 10 TeV for muons); 0 otherwise (then R(k) times the static
+** term's shape, as for dsigma/dk). */
+int bl_method_eexact (const bl_case *c);
+
+/* The case c set up again without its atomic electrons (the nuclear part
+** alone, screened as before) into cn.  Exceptions of bl_case_setup. */
+int bl_method_nuclear (const bl_case *c, bl_case *cn);
+
+/* How far R(k) may stray from 1 before a value with the static term's
+** angular shape is flagged (BL_WARN_ESHAPE): where R = 1 the recoil is
+** negligible and the static shape is the bound term's. */
+#define BL_ESHAPE_R 0.01
+
+/* 1 if a value at k that keeps the static term's angular shape for the
+** bound electron term (the fully differential value always, the angular
+** distribution where not bl_method_eexact) misplaces it: the case has
+** the bound term (c->ebt), electrons on, and 0 < R(k) with |R(k) - 1| >
+** BL_ESHAPE_R (from the end point on the electron part is 0). */
+int bl_method_eshape (const bl_case *c, double k);
 
 /*
 ** Photon energies (MeV) where dsigma/dk of case c by `method` jumps or

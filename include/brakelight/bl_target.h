@@ -79,6 +79,8 @@ typedef struct bl_tresult {
   int Z;
   double k;
   bl_result fail;
+  double eshare;   /* with BL_WARN_ESHAPE: the share of r.val that the
+                   ** flagged electron parts carry; 0 otherwise */
 } bl_tresult;
 
 /*

@@ -139,6 +139,9 @@ typedef struct Warnings {
                        ** METHOD and CLAMPED warnings are measured on it */
   double kseen;        /* largest k of a point; 0: none */
   double kbit[BL_WARN_COUNT];  /* largest k flagged by each bit; 0: none */
+  double eshare;       /* largest share of a point's value carried by an
+                       ** electron part flagged BL_WARN_ESHAPE; 0: none
+                       ** measured */
   double kclamp;       /* smallest k flagged BL_WARN_CLAMPED (the largest
                        ** is kbit's) */
   int nclamp;          /* points flagged BL_WARN_CLAMPED */

@@ -160,6 +160,8 @@ void lbl_addtarget (Opts *o, Warnings *w, const bl_tresult *tr) {
     w->zborn = tr->zborn;
   if (tr->supp < w->minsup)
     w->minsup = tr->supp;
+  if (tr->eshare > w->eshare)
+    w->eshare = tr->eshare;
   o->used |= tr->used;
   o->Z = tr->Z;
 }
@@ -384,6 +386,23 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                "leaves the nucleus only "
                "(README, What is computed)", text,
                100.0 * share, ze, ymax, p->name, p->mass, o->T);
+      break;
+    }
+    case BL_WARN_ESHAPE: {
+      char size[128] = "its share of the values was not measured (an "
+                       "integral over k)";
+      if (w->eshare > 0.0)
+        snprintf(size, sizeof size, "it carries up to %.3g %% of the "
+                 "values flagged", 100.0 * w->eshare);
+      snprintf(msg, sizeof msg, "%s, up to k = %g MeV (%s, T = %g MeV): "
+               "%s; the electron part's own distribution (the struck "
+               "electron's recoil and radiation) can differ from it by "
+               "several times, most for muons' soft photons; the angular "
+               "distribution has it exactly up to T = %g MeV for e-/e+ "
+               "and %g MeV for muons, dsigma/dk has its integral; "
+               "electrons = false leaves the nucleus only (README, What "
+               "is computed)", text, kbit(w, BL_WARN_ESHAPE), p->name,
+               o->T, size, BL_EBREMS_T_MAX_E, BL_EBREMS_T_MAX);
       break;
     }
     case BL_WARN_METHOD: {

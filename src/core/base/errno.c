@@ -57,6 +57,10 @@ const char *bl_warn_text (unsigned bit) {
     case BL_WARN_EHELD:
       return "the bound electron term of the muon below its table's first "
              "node is held at its value there: too low";
+    case BL_WARN_ESHAPE:
+      return "the atomic-electron part of this angular or fully "
+             "differential value has the static term's angular shape, "
+             "scaled to the bound electron term's dsigma/dk";
     case BL_WARN_SOFT:
       return "distorted waves at photon energies below 1e-9 T: the Born value "
              "times the distorted/Born ratio at k = 1e-9 T";

@@ -77,14 +77,131 @@ int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
 }
 
 
-/* The angular and fully differential values exist for the Born and the
-** distorted-wave methods: "auto" is the distorted waves there, every
-** other method gives Born's. */
-int bl_method_angular_e (const bl_case *c, int method, double k,
-                         double theta_k, bl_quad *q, bl_result *out) {
+int bl_method_eexact (const bl_case *c) {
+  double tmax;
+  if (c == NULL || c->ebt == 0 || !c->opts.electrons)
+    return 0;
+  tmax = c->ebt - 1 < BL_EBT_MUON ? BL_EBREMS_T_MAX_E : BL_EBREMS_T_MAX;
+  return c->T <= tmax;
+}
+
+
+int bl_method_nuclear (const bl_case *c, bl_case *cn) {
+  bl_opts o;
+  if (c == NULL || cn == NULL)
+    return BL_EDOMAIN;
+  o = c->opts;
+  o.electrons = 0;
+  return bl_case_setup(cn, &c->particle, c->Z, c->screening, c->params, c->T,
+                       &o);
+}
+
+
+int bl_method_eshape (const bl_case *c, double k) {
+  double r;
+  if (c == NULL || c->ebt == 0 || !c->opts.electrons)
+    return 0;
+  r = bl_case_eratio(c, k);
+  return r > 0.0 && fabs(r - 1.0) > BL_ESHAPE_R;
+}
+
+
+/* The angular distribution by the method alone: "auto" is the distorted
+** waves there, every other method gives Born's. */
+static int angular (const bl_case *c, int method, double k, double theta_k,
+                    bl_quad *q, bl_result *out) {
   if (method == BL_METHOD_DISTORTED || method == BL_METHOD_AUTO)
     return bl_dw_angular_e(c, k, theta_k, q, out);
   return bl_dcs_angular_e(c, k, theta_k, q, out);
+}
+
+
+/* The more serious of two statuses: a hard failure before a soft one
+** before success. */
+static int worse (int a, int b) {
+  if (a != BL_SUCCESS && !bl_status_soft(a))
+    return a;
+  if (b != BL_SUCCESS && !bl_status_soft(b))
+    return b;
+  return a != BL_SUCCESS ? a : b;
+}
+
+
+/* Z times the exact bound electron term's angular distribution of case c
+** at the relative tolerance rtol into re (q's own tolerance restored). */
+static int eangular (const bl_case *c, double k, double theta_k, double rtol,
+                     bl_quad *q, bl_result *re) {
+  bl_ebrems e;
+  double rq = bl_quad_rtol(q);
+  int st;
+  if (bl_ebrems_init(&e, &c->particle, c->T) != BL_SUCCESS
+      || bl_ebrems_set_binding(&e, c->Z, c->screening, c->params)
+         != BL_SUCCESS)
+    return BL_EDOMAIN;   /* bl_method_eexact and the case's model vouch */
+  st = bl_quad_set_rtol(q, rtol);
+  if (st == BL_SUCCESS)
+    st = bl_ebrems_angular_e(&e, k, theta_k, q, re);
+  bl_quad_set_rtol(q, rq);
+  re->val *= c->Z;
+  re->err *= c->Z;
+  return st;
+}
+
+
+/* The loosest tolerance asked of the electron part (its share of the
+** value sets it below that). */
+#define ERTOL_MAX 1e-2
+
+/*
+** Where the bound electron term is wired (bl_method_eexact): the nuclear
+** part by the method (the case set up again without the electrons), the
+** electron part exact, Z times d2sigma/(dk dOmega_k) of the projectile on
+** one bound electron of Z (bl_ebrems_angular_e, all diagrams, binding by
+** the case's own S(q)/Z): its angular shape is the process's own, not the
+** static term's scaled by R(k) (which, for a muon's soft photons, put 8 to
+** 67 times too much of it along the beam).  Its integral over the photon
+** direction is bl_ebrems_dk_e, which the table of R reproduces to its
+** interpolation error (DEVELOPERS.md, "Wired in").  0 from the end point
+** k_max on.  The electron part is asked for rtol only relative to the
+** whole value: its share, first estimated from the static shape (the
+** case's own value, R(k) times the static term), sets its tolerance (at
+** most ERTOL_MAX); where the errors then exceed rtol of the sum, it is
+** computed again at the tolerance its measured share needs.
+*/
+int bl_method_angular_e (const bl_case *c, int method, double k,
+                         double theta_k, bl_quad *q, bl_result *out) {
+  bl_case cn;
+  bl_result rs, re;
+  double rtol, share, et, room;
+  int st, ss, se;
+  if (!bl_method_eexact(c) || q == NULL)
+    return angular(c, method, k, theta_k, q, out);
+  st = bl_method_nuclear(c, &cn);
+  if (st != BL_SUCCESS)
+    return st;
+  st = angular(&cn, method, k, theta_k, q, out);
+  if ((st != BL_SUCCESS && !bl_status_soft(st)) || !(k < c->ekmax))
+    return st;
+  rtol = bl_quad_rtol(q);
+  ss = angular(c, method, k, theta_k, q, &rs);   /* the static shape */
+  share = (ss == BL_SUCCESS || bl_status_soft(ss)) && rs.val > 0.0
+          ? fmax(1.0 - out->val / rs.val, 0.0) : 1.0;
+  et = share > rtol / ERTOL_MAX ? fmax(rtol, rtol / share) : ERTOL_MAX;
+  se = eangular(c, k, theta_k, et, q, &re);
+  /* the error left for the electron part: rtol of the sum less the
+  ** nuclear part's; where its first estimate takes more (the static
+  ** shape put less of it here), once more at what its share needs */
+  room = rtol * fabs(out->val + re.val) - out->err;
+  if ((se == BL_SUCCESS || bl_status_soft(se)) && et > rtol && re.val > 0.0
+      && re.err > room)
+    se = eangular(c, k, theta_k, fmax(rtol, 0.8 * room / re.val), q, &re);
+  st = worse(st, se);
+  if (st != BL_SUCCESS && !bl_status_soft(st))
+    return st;
+  out->val += re.val;
+  out->err += re.err;
+  out->warn |= re.warn & BL_WARN_TOLERANCE;
+  return st;
 }
 
 

@@ -155,10 +155,11 @@ static void suppress (const bl_target *t, double k, bl_result *sum,
 ** Check element i's status st and result r at k: a soft status becomes
 ** the tolerance warning; a hard failure or a non-finite value is noted in
 ** out and returned; a muon's electron term held below its table
-** (bl_case_eheld) is flagged.
+** (bl_case_eheld) is flagged, except in an angular distribution (kind)
+** whose electron part is the exact one (bl_method_eexact).
 */
 static int checkelement (const bl_target *t, int i, int st, bl_result *r,
-                         double k, bl_tresult *out) {
+                         double k, int kind, bl_tresult *out) {
   if (st != BL_SUCCESS) {
     if (bl_status_soft(st))
       r->warn |= BL_WARN_TOLERANCE;
@@ -169,7 +170,8 @@ static int checkelement (const bl_target *t, int i, int st, bl_result *r,
     st = BL_ENONFINITE;
     goto fail;
   }
-  if (bl_case_eheld(&t->c[i], k))
+  if (bl_case_eheld(&t->c[i], k)
+      && !(kind == BL_TARGET_ANGULAR && bl_method_eexact(&t->c[i])))
     r->warn |= BL_WARN_EHELD;   /* a muon's electron term below its table */
   return BL_SUCCESS;
 fail:
@@ -186,14 +188,66 @@ fail:
 ** failure is returned (checkelement).
 */
 static int take (const bl_target *t, int i, int st, bl_result *r, double k,
-                 bl_tresult *out, int *soft) {
+                 int kind, bl_tresult *out, int *soft) {
   out->Z = t->c[i].Z;
   if (st != BL_SUCCESS && bl_status_soft(st))
     *soft = st;
-  st = checkelement(t, i, st, r, k, out);
+  st = checkelement(t, i, st, r, k, kind, out);
   if (st == BL_SUCCESS)
     addelement(t, i, r, &out->r, out);
   return st;
+}
+
+
+/*
+** Element i's value of kind (BL_TARGET_*) at one point into r, computed
+** with case cn when not NULL (the nuclear part alone, bl_method_nuclear)
+** instead of the element's own.
+*/
+static int pointof (const bl_target *t, int i, const bl_case *cn, int kind,
+                    double k, double theta_k, double theta_p, double phi,
+                    bl_quad *q, bl_result *r) {
+  const bl_case *c = cn != NULL ? cn : &t->c[i];
+  switch (kind) {
+    case BL_TARGET_DK:
+      return bl_method_dk_e(c, &t->he[i], t->method, k, q, r);
+    case BL_TARGET_ANGULAR:
+      return bl_method_angular_e(c, t->method, k, theta_k, q, r);
+    case BL_TARGET_FULL:
+      return bl_method_full_e(c, t->method, k, theta_k, theta_p, phi, r);
+    default:
+      return BL_EDOMAIN;
+  }
+}
+
+
+/*
+** An angular or fully differential value of element i that keeps the
+** static term's angular shape for its bound electron part
+** (bl_method_eshape; the angular distribution only where its electron
+** part is not the exact one): flag r and put the nuclear part alone in
+** *nuc (the value of the case without its electrons); otherwise *nuc =
+** r->val.  Where that second value fails, the whole value counts as the
+** electrons'.
+*/
+static void eshape (const bl_target *t, int i, int kind, double k,
+                    double theta_k, double theta_p, double phi, bl_quad *q,
+                    bl_result *r, double *nuc) {
+  const bl_case *c = &t->c[i];
+  bl_case cn;
+  bl_result rn;
+  int st;
+  *nuc = r->val;
+  if (kind == BL_TARGET_DK || !bl_method_eshape(c, k)
+      || (kind == BL_TARGET_ANGULAR && bl_method_eexact(c)))
+    return;
+  r->warn |= BL_WARN_ESHAPE;
+  *nuc = 0.0;
+  if (bl_method_nuclear(c, &cn) != BL_SUCCESS)
+    return;
+  st = pointof(t, i, &cn, kind, k, theta_k, theta_p, phi, q, &rn);
+  if ((st == BL_SUCCESS || bl_status_soft(st)) && isfinite(rn.val))
+    *nuc = rn.val;
 }
 
 
@@ -201,33 +255,28 @@ int bl_target_point_e (const bl_target *t, int kind, double k, double theta_k,
                        double theta_p, double phi, bl_quad *q,
                        bl_tresult *out) {
   int i, soft = BL_SUCCESS;
+  double nucsum = 0.0;
   if (out == NULL)
     return BL_EDOMAIN;
   clear(out);
-  if (t == NULL || t->n < 1 || (q == NULL && kind != BL_TARGET_FULL))
+  if (t == NULL || t->n < 1 || (q == NULL && kind != BL_TARGET_FULL)
+      || kind < BL_TARGET_DK || kind > BL_TARGET_FULL)
     return BL_EDOMAIN;
   out->k = k;
   for (i = 0; i < t->n; i++) {
-    const bl_case *c = &t->c[i];
     bl_result r;
-    int st;
-    switch (kind) {
-      case BL_TARGET_DK:
-        st = bl_method_dk_e(c, &t->he[i], t->method, k, q, &r);
-        break;
-      case BL_TARGET_ANGULAR:
-        st = bl_method_angular_e(c, t->method, k, theta_k, q, &r);
-        break;
-      case BL_TARGET_FULL:
-        st = bl_method_full_e(c, t->method, k, theta_k, theta_p, phi, &r);
-        break;
-      default:
-        return BL_EDOMAIN;
+    double nuc;
+    int st = pointof(t, i, NULL, kind, k, theta_k, theta_p, phi, q, &r);
+    if (st == BL_SUCCESS || bl_status_soft(st)) {
+      eshape(t, i, kind, k, theta_k, theta_p, phi, q, &r, &nuc);
+      nucsum += t->atoms[i] * nuc;
     }
-    st = take(t, i, st, &r, k, out, &soft);
+    st = take(t, i, st, &r, k, kind, out, &soft);
     if (st != BL_SUCCESS)
       return st;
   }
+  if ((out->r.warn & BL_WARN_ESHAPE) && out->r.val > 0.0)
+    out->eshare = fmin(fmax(1.0 - nucsum / out->r.val, 0.0), 1.0);
   if (kind == BL_TARGET_DK)
     suppress(t, k, &out->r, out);
   return soft;
@@ -268,7 +317,7 @@ int bl_target_born_dk_e (const bl_target *t, double k, int plain,
       st = bl_method_dk_e(&c, NULL, BL_METHOD_BORN, k, q, &r);
     else
       memset(&r, 0, sizeof r);
-    st = take(t, i, st, &r, k, out, &soft);
+    st = take(t, i, st, &r, k, BL_TARGET_DK, out, &soft);
     if (st != BL_SUCCESS)
       return st;
   }
@@ -292,7 +341,7 @@ static int interrupted (const bl_target *t, int j, size_t n, const double *k,
     int s = st[i];
     if (j == t->n - 1 && s != BL_EINTR) {
       out[i].Z = t->c[j].Z;
-      s = checkelement(t, j, s, &r[i], k[i], &out[i]);
+      s = checkelement(t, j, s, &r[i], k[i], BL_TARGET_DK, &out[i]);
       if (s == BL_SUCCESS) {
         if (status != NULL && st[i] != BL_SUCCESS)
           status[i] = st[i];    /* a soft failure: a best estimate */
@@ -345,7 +394,7 @@ int bl_target_spectrum_e (const bl_target *t, size_t n, const double *k,
       out[i].Z = t->c[j].Z;
       if (s != BL_SUCCESS && bl_status_soft(s) && status != NULL)
         status[i] = s;
-      s = checkelement(t, j, s, &r[i], k[i], &out[i]);
+      s = checkelement(t, j, s, &r[i], k[i], BL_TARGET_DK, &out[i]);
       if (s != BL_SUCCESS) {
         if (status != NULL)
           status[i] = s;
@@ -404,6 +453,9 @@ static int kpoint (void *ud, double k, bl_result *out) {
       return st;
     }
     soft |= st != BL_SUCCESS;
+    if (x->kind == BL_TARGET_ANGULAR && !bl_method_eexact(c)
+        && bl_method_eshape(c, k))
+      r.warn |= BL_WARN_ESHAPE;   /* its share is not measured here */
     addelement(t, i, &r, out, &x->acc);
   }
   if (x->kind == BL_TARGET_DK)
@@ -542,10 +594,12 @@ int bl_target_kintegral_e (const bl_target *t, int kind, double theta_k,
     if (kind == BL_TARGET_DK)
       nb = breaks(t, rtol, kmin, kmax, kb, &drop0, &drop1);
     else if (t->n > 0 && t->c[0].ebt != 0 && t->c[0].ekmax < t->T) {
-      /* the kinks of the bound electron term (bl_method_breaks), the
-      ** same on every element: the projectile's */
+      /* the end point of the bound electron term, the same on every
+      ** element: the projectile's; and the kink of its table
+      ** (bl_method_breaks) where the angular distribution takes it */
       kb[nb++] = t->c[0].ekmax;
-      kb[nb++] = t->c[0].ekmax * bl_ebt_ulast(t->c[0].ebt - 1);
+      if (!bl_method_eexact(&t->c[0]))
+        kb[nb++] = t->c[0].ekmax * bl_ebt_ulast(t->c[0].ebt - 1);
     }
     st = r0 == NULL
          ? bl_kintegral_tol_e(kpoint, ktol, &x, kmin, kmax, t->T, kb, nb, 1,
@@ -563,10 +617,12 @@ int bl_target_kintegral_e (const bl_target *t, int kind, double theta_k,
   }
   bl_quad_set_rtol(q, rtol);
   {   /* a window reaching below a muon's held electron term is flagged
-      ** even where no point of the rule fell there */
+      ** even where no point of the rule fell there (not in an angular
+      ** distribution whose electron part is the exact one) */
     int i;
     for (i = 0; i < t->n; i++)
-      if (kmin < bl_case_eheld_k(&t->c[i])) {
+      if (kmin < bl_case_eheld_k(&t->c[i])
+          && !(kind == BL_TARGET_ANGULAR && bl_method_eexact(&t->c[i]))) {
         v0.warn |= BL_WARN_EHELD;
         v1.warn |= BL_WARN_EHELD;
       }
