@@ -134,6 +134,7 @@ static int eangular (const bl_case *c, double k, double theta_k, double rtol,
   bl_ebrems e;
   double rq = bl_quad_rtol(q);
   int st;
+  memset(re, 0, sizeof *re);
   if (bl_ebrems_init(&e, &c->particle, c->T) != BL_SUCCESS
       || bl_ebrems_set_binding(&e, c->Z, c->screening, c->params)
          != BL_SUCCESS)
@@ -188,12 +189,13 @@ int bl_method_angular_e (const bl_case *c, int method, double k,
           ? fmax(1.0 - out->val / rs.val, 0.0) : 1.0;
   et = share > rtol / ERTOL_MAX ? fmax(rtol, rtol / share) : ERTOL_MAX;
   se = eangular(c, k, theta_k, et, q, &re);
+  if (se != BL_SUCCESS && !bl_status_soft(se))
+    return se;
   /* the error left for the electron part: rtol of the sum less the
   ** nuclear part's; where its first estimate takes more (the static
   ** shape put less of it here), once more at what its share needs */
   room = rtol * fabs(out->val + re.val) - out->err;
-  if ((se == BL_SUCCESS || bl_status_soft(se)) && et > rtol && re.val > 0.0
-      && re.err > room)
+  if (et > rtol && re.val > 0.0 && re.err > room)
     se = eangular(c, k, theta_k, fmax(rtol, 0.8 * room / re.val), q, &re);
   st = worse(st, se);
   if (st != BL_SUCCESS && !bl_status_soft(st))
