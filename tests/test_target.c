@@ -823,9 +823,25 @@ Test(eshape, warned_where_the_shape_is_static, .timeout = 120) {
   EXPECT_REL(r.eshare, 1.0 - rn.r.val / r.r.val, 1e-9, "share %g",
              r.eshare);
   cr_expect(!(rn.r.warn & BL_WARN_ESHAPE) && rn.eshare == 0.0);
-  /* the angular distribution here is exact: no flag */
-  eshape_angular(&t, 5.0, 0.02, 0, q, &r);
-  cr_expect(!(r.r.warn & BL_WARN_ESHAPE) && r.eshare == 0.0);
+  /* the angular distribution here is exact: no flag; with the static
+  ** shape kept (estatic, the sampler's), flagged with the same share
+  ** rule, and the value is the scaled one */
+  {
+    double ve, vs, vn;
+    bl_result rs;
+    ve = eshape_angular(&t, 5.0, 0.02, 0, q, &r);
+    cr_expect(!(r.r.warn & BL_WARN_ESHAPE) && r.eshare == 0.0);
+    t.estatic = 1;
+    vs = eshape_angular(&t, 5.0, 0.02, 0, q, &r);
+    vn = eshape_angular(&tn, 5.0, 0.02, 0, q, &rn);
+    cr_expect((r.r.warn & BL_WARN_ESHAPE) && r.eshare > 0.0);
+    EXPECT_REL(r.eshare, 1.0 - vn / vs, 1e-9, "share %g", r.eshare);
+    cr_assert_eq(bl_method_angular_scaled_e(&t.c[0], BL_METHOD_AUTO, 5.0,
+                                            0.02, q, &rs), 0);
+    EXPECT_REL(vs, rs.val, 1e-12, "scaled %g", vs);
+    cr_expect(ve != vs);
+    t.estatic = 0;
+  }
   bl_target_release(&t);
   bl_target_release(&tn);
   /* beyond bl_ebrems' range (e- above 1 TeV) the angular distribution

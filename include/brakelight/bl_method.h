@@ -183,6 +183,13 @@ int bl_method_full_e (const bl_case *c, int method, double k, double theta_k,
 ** term's shape, as for dsigma/dk). */
 int bl_method_eexact (const bl_case *c);
 
+/* The angular distribution by `method` with the electron part the static
+** term's shape scaled by R(k) (what bl_method_angular_e gives where not
+** bl_method_eexact): cheaper, and the shape of the event sampler's
+** events on atomic electrons. */
+int bl_method_angular_scaled_e (const bl_case *c, int method, double k,
+                                double theta_k, bl_quad *q, bl_result *out);
+
 /* The case c set up again without its atomic electrons (the nuclear part
 ** alone, screened as before) into cn.  Exceptions of bl_case_setup. */
 int bl_method_nuclear (const bl_case *c, bl_case *cn);

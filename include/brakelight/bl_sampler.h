@@ -26,7 +26,11 @@
 ** approximation: its angular shape is not known here).  Static field: the atom takes the momentum q = p0 -
 ** p - k and no energy (its recoil energy q^2/2M is neglected), so E0 = E +
 ** k; the atomic-electron part of the target factor is attributed to "an
-** atomic electron", but its kinematics are those of the static atom too.
+** atomic electron", but its kinematics are those of the static atom too:
+** no electron recoil, and the photon angles of those events follow the
+** static term's shape scaled to the bound term's dsigma/dk, not the exact
+** distribution the target's angular values have (bl_method_angular_e;
+** bl_target.estatic gives the events' own).
 **
 ** Reproducibility: events are made in blocks of BL_SAMPLER_BLOCK; block b
 ** of a run uses its own random stream (seed, b), so event i is the same

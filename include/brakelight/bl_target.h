@@ -58,6 +58,12 @@ typedef struct bl_target {
   bl_case c[BL_MATERIAL_MAXCOMP];
   bl_he he[BL_MATERIAL_MAXCOMP];       /* high-energy tables (prepare) */
   unsigned warn;                       /* warnings of every case */
+  int estatic;                         /* 1: angular values keep the static
+                                       ** term's shape for the bound
+                                       ** electron part, scaled by R(k) (the
+                                       ** event sampler's; flagged
+                                       ** BL_WARN_ESHAPE); 0 (set up): the
+                                       ** exact one (bl_method_angular_e) */
 } bl_target;
 
 /*

@@ -201,6 +201,18 @@ static void pushnotes (lua_State *L, const bl_target *t, bl_quad *q,
            2.0 * p0 * p0 / mmin);
   lua_pushstring(L, buf);
   lua_rawseti(L, -2, ++n);
+  for (e = 0; e < t->n && !bl_method_eshape(&t->c[e], 0.5 * t->c[e].ekmax);
+       e++)
+    ;
+  if (e < t->n) {
+    lua_pushstring(L, "events on atomic electrons: the same static "
+                   "kinematics (no electron recoil), with the bound "
+                   "electron term's dsigma/dk but the static term's photon "
+                   "angles; angular{} gives their exact angular "
+                   "distribution, which for muons' soft photons is several "
+                   "times broader (README, What is computed)");
+    lua_rawseti(L, -2, ++n);
+  }
   if (want) {
     bl_target *off = (bl_target *)malloc(sizeof *off);
     if (off != NULL) {

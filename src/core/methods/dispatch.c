@@ -106,10 +106,11 @@ int bl_method_eshape (const bl_case *c, double k) {
 }
 
 
-/* The angular distribution by the method alone: "auto" is the distorted
-** waves there, every other method gives Born's. */
-static int angular (const bl_case *c, int method, double k, double theta_k,
-                    bl_quad *q, bl_result *out) {
+/* The angular distribution by the method alone, the electron part as the
+** case has it: "auto" is the distorted waves there, every other method
+** gives Born's. */
+int bl_method_angular_scaled_e (const bl_case *c, int method, double k,
+                                double theta_k, bl_quad *q, bl_result *out) {
   if (method == BL_METHOD_DISTORTED || method == BL_METHOD_AUTO)
     return bl_dw_angular_e(c, k, theta_k, q, out);
   return bl_dcs_angular_e(c, k, theta_k, q, out);
@@ -176,15 +177,16 @@ int bl_method_angular_e (const bl_case *c, int method, double k,
   double rtol, share, et, room;
   int st, ss, se;
   if (!bl_method_eexact(c) || q == NULL)
-    return angular(c, method, k, theta_k, q, out);
+    return bl_method_angular_scaled_e(c, method, k, theta_k, q, out);
   st = bl_method_nuclear(c, &cn);
   if (st != BL_SUCCESS)
     return st;
-  st = angular(&cn, method, k, theta_k, q, out);
+  st = bl_method_angular_scaled_e(&cn, method, k, theta_k, q, out);
   if ((st != BL_SUCCESS && !bl_status_soft(st)) || !(k < c->ekmax))
     return st;
   rtol = bl_quad_rtol(q);
-  ss = angular(c, method, k, theta_k, q, &rs);   /* the static shape */
+  /* the static shape: the share's first estimate */
+  ss = bl_method_angular_scaled_e(c, method, k, theta_k, q, &rs);
   share = (ss == BL_SUCCESS || bl_status_soft(ss)) && rs.val > 0.0
           ? fmax(1.0 - out->val / rs.val, 0.0) : 1.0;
   et = share > rtol / ERTOL_MAX ? fmax(rtol, rtol / share) : ERTOL_MAX;

@@ -47,6 +47,23 @@ static void clear (bl_tresult *out) {
 }
 
 
+/* 1 if element i's angular values take the exact electron part
+** (bl_method_eexact, unless the target keeps the static shape). */
+static int eexact (const bl_target *t, int i) {
+  return !t->estatic && bl_method_eexact(&t->c[i]);
+}
+
+
+/* Element i's angular distribution (case c: the element's own, or its
+** nucleus alone) with the electron part exact or scaled, as t says. */
+static int angularof (const bl_target *t, int i, const bl_case *c, double k,
+                      double theta_k, bl_quad *q, bl_result *r) {
+  return eexact(t, i)
+         ? bl_method_angular_e(c, t->method, k, theta_k, q, r)
+         : bl_method_angular_scaled_e(c, t->method, k, theta_k, q, r);
+}
+
+
 int bl_target_setup (bl_target *t, const bl_particle *p,
                      const bl_material *m, const bl_model *screening,
                      const double *params, double T, const bl_opts *o,
@@ -171,7 +188,7 @@ static int checkelement (const bl_target *t, int i, int st, bl_result *r,
     goto fail;
   }
   if (bl_case_eheld(&t->c[i], k)
-      && !(kind == BL_TARGET_ANGULAR && bl_method_eexact(&t->c[i])))
+      && !(kind == BL_TARGET_ANGULAR && eexact(t, i)))
     r->warn |= BL_WARN_EHELD;   /* a muon's electron term below its table */
   return BL_SUCCESS;
 fail:
@@ -212,7 +229,7 @@ static int pointof (const bl_target *t, int i, const bl_case *cn, int kind,
     case BL_TARGET_DK:
       return bl_method_dk_e(c, &t->he[i], t->method, k, q, r);
     case BL_TARGET_ANGULAR:
-      return bl_method_angular_e(c, t->method, k, theta_k, q, r);
+      return angularof(t, i, c, k, theta_k, q, r);
     case BL_TARGET_FULL:
       return bl_method_full_e(c, t->method, k, theta_k, theta_p, phi, r);
     default:
@@ -239,7 +256,7 @@ static void eshape (const bl_target *t, int i, int kind, double k,
   int st;
   *nuc = r->val;
   if (kind == BL_TARGET_DK || !bl_method_eshape(c, k)
-      || (kind == BL_TARGET_ANGULAR && bl_method_eexact(c)))
+      || (kind == BL_TARGET_ANGULAR && eexact(t, i)))
     return;
   r->warn |= BL_WARN_ESHAPE;
   *nuc = 0.0;
@@ -445,7 +462,7 @@ static int kpoint (void *ud, double k, bl_result *out) {
     bl_result r;
     int st = x->kind == BL_TARGET_DK
              ? bl_method_dk_e(c, &t->he[i], t->method, k, x->q, &r)
-             : bl_method_angular_e(c, t->method, k, x->theta, x->q, &r);
+             : angularof(t, i, c, k, x->theta, x->q, &r);
     if (st != BL_SUCCESS && !bl_status_soft(st)) {
       x->acc.Z = c->Z;
       x->acc.k = k;
@@ -453,7 +470,7 @@ static int kpoint (void *ud, double k, bl_result *out) {
       return st;
     }
     soft |= st != BL_SUCCESS;
-    if (x->kind == BL_TARGET_ANGULAR && !bl_method_eexact(c)
+    if (x->kind == BL_TARGET_ANGULAR && !eexact(t, i)
         && bl_method_eshape(c, k))
       r.warn |= BL_WARN_ESHAPE;   /* its share is not measured here */
     addelement(t, i, &r, out, &x->acc);
@@ -598,7 +615,7 @@ int bl_target_kintegral_e (const bl_target *t, int kind, double theta_k,
       ** element: the projectile's; and the kink of its table
       ** (bl_method_breaks) where the angular distribution takes it */
       kb[nb++] = t->c[0].ekmax;
-      if (!bl_method_eexact(&t->c[0]))
+      if (!eexact(t, 0))
         kb[nb++] = t->c[0].ekmax * bl_ebt_ulast(t->c[0].ebt - 1);
     }
     st = r0 == NULL
@@ -622,7 +639,7 @@ int bl_target_kintegral_e (const bl_target *t, int kind, double theta_k,
     int i;
     for (i = 0; i < t->n; i++)
       if (kmin < bl_case_eheld_k(&t->c[i])
-          && !(kind == BL_TARGET_ANGULAR && bl_method_eexact(&t->c[i]))) {
+          && !(kind == BL_TARGET_ANGULAR && eexact(t, i))) {
         v0.warn |= BL_WARN_EHELD;
         v1.warn |= BL_WARN_EHELD;
       }
