@@ -20,7 +20,11 @@
 **   error_sweep compare BASE.out HERE.out
 **       calls at equal true error: for a target error E, the cost of a point
 **       is the calls of the loosest rtol whose true error is <= E; prints
-**       the median over points of cost(BASE)/cost(HERE) per E.
+**       the median over points of cost(BASE)/cost(HERE) per E, and below
+**       it the ceiling at each rtol R of HERE's ladder: the median of
+**       cost(BASE)/calls(HERE at R) over the same points, the ratio if
+**       every point met E already at R (no tuning of the loosest rtol that
+**       meets E does better than the ceiling of the rtol it stops at).
 **
 ** The draw: projectile electron, muon, pion or a user mass (log-uniform
 ** 0.1 MeV .. 1 TeV), spin 0 or 1/2 at random; Z 1..100; every registered
@@ -475,6 +479,33 @@ static void costs (const rec *v, long n, double E, double *cost,
 }
 
 
+/* The ceiling line of compare: per rtol R of HERE (cost rows vh), the
+** median over the points that met E in both (cb, ch > 0) of cb over
+** HERE's calls at R; work holds nidx values. */
+static void ceiling (const rec *vh, long nh, const double *cb,
+                     const double *ch, long nidx, double *work) {
+  double r[MAXRTOL];
+  int nr = 0, j;
+  long i, m;
+  for (i = 0; i < nh; i++) {
+    for (j = 0; j < nr && r[j] != vh[i].rtol; j++)
+      ;
+    if (j == nr && nr < MAXRTOL)
+      r[nr++] = vh[i].rtol;
+  }
+  printf("%8s ceiling, every point at rtol R's calls:", "");
+  for (j = 0; j < nr; j++) {
+    for (i = m = 0; i < nh; i++) {
+      long k = vh[i].idx;
+      if (vh[i].rtol == r[j] && k >= 0 && k < nidx && cb[k] > 0
+          && ch[k] > 0 && vh[i].calls > 0)
+        work[m++] = cb[k] / (double)vh[i].calls;
+    }
+    if (m > 0)
+      printf("%s %.2fx (%.0e)", j > 0 ? "," : "", median(work, m), r[j]);
+  }
+  printf("\n");
+}
 static int compare (const char *fb, const char *fh) {
   static const double E[] = {1e-2, 1e-3, 1e-4, 1e-6, 1e-8};
   rec *vb, *vh;
@@ -510,10 +541,12 @@ static int compare (const char *fb, const char *fh) {
         xh[m++] = ch[i];
       }
     }
-    if (m > 0)
+    if (m > 0) {
       printf("%8.0e %8ld %12.0f %12.0f %9.2fx   (%ld of %ld points met E "
              "in both)\n", E[e], m, median(xb, m), median(xh, m),
              median(ratio, m), m, nboth);
+      ceiling(vh, nh, cb, ch, nidx, ratio);
+    }
   }
   free(cb);
   free(ch);
