@@ -1087,6 +1087,21 @@ Test(ebwire, other_table_against_fresh_integrals, .timeout = 240) {
   bl_quad_free(q);
 }
 
+/* The end point of other projectiles on hydrogen: above k_max the
+** electron part is exactly 0 and the value the nuclear part's (as
+** muon_end_point_hydrogen_nuclear_unchanged). */
+Test(ebwire, other_end_point_hydrogen_nuclear_unchanged, .timeout = 120) {
+  static const double Ts[] = {1e3, 1e4};
+  bl_quad *q = bl_quad_alloc(400);
+  int i;
+  bl_quad_set_rtol(q, 1e-8);
+  for (i = 0; i < 2; i++) {
+    end_point_hydrogen("proton", Ts[i], q);
+    end_point_hydrogen("pion-", Ts[i], q);
+  }
+  bl_quad_free(q);
+}
+
 Test(ebwire, muon_continuous_everywhere) {
   static const double Ts[] = {1.0, 10.0, 1e3, 3e4, 1e5, 1e7, 1e8};
   static const double us[] = {1e-4, 0.005, 0.35, 0.88, 0.997, 0.999};
