@@ -573,7 +573,7 @@ $(ROCKSPEC): scripts/brakelight.rockspec.in $(VERSION_H)
 	sed 's|@VERSION@|$(VERSION)|g' $< > $@
 
 # ---- benchmarks and generators ---------------------------------------------
-.PHONY: bench hf-table nuc-table eb-table eb-table-mu error-sweep error-ref dw-positron continuity \
+.PHONY: bench hf-table nuc-table eb-table eb-table-mu eb-table-h error-sweep error-ref dw-positron continuity \
         continuity-full
 # The fixed earlier commit that make bench and make error-ref build in a git
 # worktree build/base/<commit> (the main before issue 14's integrator).
@@ -684,6 +684,15 @@ eb-table-mu: $(LIB)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -o $(B)/fit-ebrems scripts/fit-ebrems.c \
 	  $(LIB) $(LIBS)
 	./$(B)/fit-ebrems -u -j 2 -o src/core/ebrems/eb_table_mu.c
+
+# Regenerate src/core/ebrems/eb_table_h.c: the three charge parts of the
+# bound electron term of every other projectile (fit-ebrems -H; about 60 min
+# of one core's time: run it with -j 1 or 2).  Never part of all or check.
+eb-table-h: $(LIB)
+	@mkdir -p $(B)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -o $(B)/fit-ebrems scripts/fit-ebrems.c \
+	  $(LIB) $(LIBS)
+	./$(B)/fit-ebrems -H -j 2 -o src/core/ebrems/eb_table_h.c
 
 # before/after comparison
 # make compare-points [BASE=<git rev>] [COMPARE_POINTS=N] [COMPARE_SEED=S]

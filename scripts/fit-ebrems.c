@@ -2,7 +2,8 @@
 ** fit-ebrems.c -- tabulates the bound electron term of electrons and
 ** positrons, or of muons (src/core/ebrems/) as a ratio to the
 ** static-charge electron term of the Born target factor; writes
-** src/core/ebrems/eb_table.c (e-, e+) or eb_table_mu.c (-u: mu-, mu+)
+** src/core/ebrems/eb_table.c (e-, e+), eb_table_mu.c (-u: mu-, mu+) or
+** eb_table_h.c (-H: the three charge parts of every other projectile)
 ** See Copyright Notice in LICENSE
 **
 ** Run through `make eb-table` / `make eb-table-mu` (never by `make` or
@@ -10,6 +11,15 @@
 **
 **   fit-ebrems [-u] [-o FILE] [-j THREADS] [-v]   the whole grid into FILE
 **                 (-u: the muon table; -v: one line a node on stderr)
+**   fit-ebrems -H [-o FILE] [-j THREADS] [-v]   the table of other
+**                 projectiles (any mass from 100 MeV, charge, spin 0 or
+**                 1/2): at each node R_P, R_I, R_E at charge +1
+**   fit-ebrems -H [-j THREADS] -m N SEED   its interpolation error against
+**                 fresh ratios of particles of random spin, mass (ln M
+**                 uniform on the mass nodes), charge (-2, -1, 1, 2), Z,
+**                 tau = T/M and u
+**   fit-ebrems -q SPIN MASS Z T U   the three parts of one particle of
+**                 charge +1 (a quick look)
 **   fit-ebrems -p KIND Z T U             one point on stdout (a quick look;
 **                 KIND electron, positron, muon, antimuon)
 **   fit-ebrems -d KIND Z T U             the same and the ratio with the
@@ -57,10 +67,9 @@ static const double *UN = bl_ebt_u;
 #define kinds (names[mu])
 
 
-static int ratio_of (const char *name, int Z, double T, double u,
-                     bl_quad *qe, bl_quad *qb, int radiate, double *R,
-                     double *err) {
-  const bl_particle *p = bl_particle_find(name);
+static int ratio_p (const bl_particle *p, int Z, double T, double u,
+                    bl_quad *qe, bl_quad *qb, int radiate, double *R,
+                    double *err) {
   const bl_model *hf = bl_model_find("hartree-fock");
   bl_ebrems e;
   bl_case ce;
@@ -96,6 +105,29 @@ static int ratio_of (const char *name, int Z, double T, double u,
   st = rs.val / Z;
   *R = re.val / st;
   *err = fabs(*R) * (re.err / fabs(re.val) + rs.err / fabs(rs.val));
+  return 0;
+}
+
+static int ratio_of (const char *name, int Z, double T, double u,
+                     bl_quad *qe, bl_quad *qb, int radiate, double *R,
+                     double *err) {
+  return ratio_p(bl_particle_find(name), Z, T, u, qe, qb, radiate, R, err);
+}
+
+/* The three charge parts of R at charge +1 (DEVELOPERS.md, "Other
+** projectiles"): R_P the projectile's radiation, R_E the struck
+** electron's, R_I the rest (the interference), one static term for all. */
+static int parts (const bl_particle *p, int Z, double T, double u,
+                  bl_quad *qe, bl_quad *qb, double R[3], double *err) {
+  double a[3], e[3];
+  int r;
+  for (r = 0; r < 3; r++)   /* BL_EBREMS_RAD_BOTH, _PROJECTILE, _ELECTRON */
+    if (ratio_p(p, Z, T, u, qe, qb, r, &a[r], &e[r]))
+      return 1;
+  R[0] = a[1];
+  R[1] = a[0] - a[1] - a[2];
+  R[2] = a[2];
+  *err = (e[0] + e[1] + e[2]) / a[0];
   return 0;
 }
 
@@ -145,6 +177,142 @@ static void *worker (void *arg) {
 }
 
 
+/* -H: the table of other projectiles */
+typedef struct hjob {
+  int s, m, z, t, u;
+  double T;
+} hjob;
+static double hval[EBH_NS][EBH_NM][EBH_NZ][EBH_NT][EBH_NU][3];
+static double herr[EBH_NS][EBH_NM][EBH_NZ][EBH_NT][EBH_NU];
+static hjob *hj = NULL;
+static int nhj = 0;
+
+/* T of a node: M tau, at most BL_EBREMS_T_MAX; -1 for a node above the
+** first one that reaches it (a copy of that one) */
+static double hnode_T (int m, int t) {
+  double M = exp(EBH_LM0 + EBH_DLM * m);
+  double T = M * exp(EBH_LT0 + EBH_DLT * t);
+  if (t > 0 && M * exp(EBH_LT0 + EBH_DLT * (t - 1)) >= BL_EBREMS_T_MAX)
+    return -1.0;
+  return T < BL_EBREMS_T_MAX ? T : BL_EBREMS_T_MAX;
+}
+
+static int hcmp (const void *a, const void *b) {
+  const hjob *x = a, *y = b;
+  return (x->T < y->T) - (x->T > y->T);   /* hardest (highest T) first */
+}
+
+static void *hworker (void *arg) {
+  bl_quad *qe = bl_quad_alloc(200), *qb = bl_quad_alloc(200);
+  (void)arg;
+  if (qe == NULL || qb == NULL)
+    exit(1);
+  bl_quad_set_rtol(qe, EB_RTOL);
+  bl_quad_set_rtol(qb, BORN_RTOL);
+  for (;;) {
+    bl_particle p = {"node", 0.0, 1.0, 0.0, 0};
+    hjob *x;
+    int j;
+    pthread_mutex_lock(&lock);
+    j = jobnext++;
+    pthread_mutex_unlock(&lock);
+    if (j >= nhj)
+      break;
+    x = &hj[j];
+    p.spin = 0.5 * x->s;
+    p.mass = exp(EBH_LM0 + EBH_DLM * x->m);
+    if (parts(&p, bl_ebh_z[x->z], x->T, bl_ebh_u[x->u], qe, qb,
+              hval[x->s][x->m][x->z][x->t][x->u],
+              &herr[x->s][x->m][x->z][x->t][x->u]))
+      exit(1);
+    if (progress)
+      fprintf(stderr, "%d/%d s=%d M=%g Z=%d T=%g u=%g P %.4e I %.4e "
+              "E %.4e\n", j + 1, nhj, x->s, p.mass, bl_ebh_z[x->z], x->T,
+              bl_ebh_u[x->u], hval[x->s][x->m][x->z][x->t][x->u][0],
+              hval[x->s][x->m][x->z][x->t][x->u][1],
+              hval[x->s][x->m][x->z][x->t][x->u][2]);
+  }
+  bl_quad_free(qe);
+  bl_quad_free(qb);
+  return NULL;
+}
+
+static int htable (const char *out, int nth) {
+  int s, m, z, t, u, i, n = 0;
+  double worst = 0.0;
+  pthread_t th[8];
+  FILE *f;
+  hj = malloc(sizeof(hjob) * EBH_NS * EBH_NM * EBH_NZ * EBH_NT * EBH_NU);
+  if (hj == NULL)
+    return 1;
+  for (s = 0; s < EBH_NS; s++)
+    for (m = 0; m < EBH_NM; m++)
+      for (z = 0; z < EBH_NZ; z++)
+        for (t = 0; t < EBH_NT; t++)
+          for (u = 0; u < EBH_NU; u++)
+            if (hnode_T(m, t) > 0.0) {
+              hjob x = {s, m, z, t, u, hnode_T(m, t)};
+              hj[n++] = x;
+            }
+  nhj = n;
+  qsort(hj, (size_t)n, sizeof hj[0], hcmp);
+  for (i = 0; i < nth; i++)
+    pthread_create(&th[i], NULL, hworker, NULL);
+  for (i = 0; i < nth; i++)
+    pthread_join(th[i], NULL);
+  f = fopen(out, "w");
+  if (f == NULL)
+    return 1;
+  fprintf(f, "/*\n** eb_table_h.c -- generated by scripts/fit-ebrems.c -H "
+          "(make eb-table-h); do not\n** edit\n** See Copyright Notice in "
+          "LICENSE\n**\n** The bound electron term of projectiles other "
+          "than e+- and mu+-: the parts\n** R_P, R_I, R_E of its ratio to "
+          "the static-charge electron term at charge\n** +1 (bl_ebrems_dk_e "
+          "with radiate = projectile, the rest, electron;\n** Hartree-Fock "
+          "S(q)), per atomic electron, [spin][M node][Z node][tau\n** node]"
+          "[u node][part] (src/core/ebrems/table.h).\n** ebrems rtol %g, "
+          "Born rtol %g; %d integrals missed their tolerance.\n*/\n\n"
+          "#include \"ebrems/table.h\"\n\nconst double bl_ebh_r[EBH_NS]"
+          "[EBH_NM][EBH_NZ][EBH_NT][EBH_NU][3] = {\n", EB_RTOL, BORN_RTOL,
+          misses);
+  for (s = 0; s < EBH_NS; s++) {
+    fprintf(f, " { /* spin %s */\n", s ? "1/2" : "0");
+    for (m = 0; m < EBH_NM; m++) {
+      fprintf(f, "  { /* M = %.5g MeV */\n", exp(EBH_LM0 + EBH_DLM * m));
+      for (z = 0; z < EBH_NZ; z++) {
+        fprintf(f, "   { /* Z = %d */\n", bl_ebh_z[z]);
+        for (t = 0; t < EBH_NT; t++) {
+          int tc = t;
+          while (hnode_T(m, tc) < 0.0)   /* above T_MAX: that node's copy */
+            tc--;
+          fprintf(f, "    { /* tau = %.4g%s */\n",
+                  exp(EBH_LT0 + EBH_DLT * t), tc < t ? ", held" : "");
+          for (u = 0; u < EBH_NU; u++) {
+            const double *v = hval[s][m][z][tc][u];
+            fprintf(f, "%s{%.6e, %.6e, %.6e}%s", u % 2 ? " " : "     ",
+                    v[0], v[1], v[2], u + 1 < EBH_NU ? "," : "");
+            if (u % 2 || u + 1 == EBH_NU)
+              fprintf(f, "\n");
+            if (herr[s][m][z][tc][u] > worst)
+              worst = herr[s][m][z][tc][u];
+          }
+          fprintf(f, "    }%s\n", t + 1 < EBH_NT ? "," : "");
+        }
+        fprintf(f, "   }%s\n", z + 1 < EBH_NZ ? "," : "");
+      }
+      fprintf(f, "  }%s\n", m + 1 < EBH_NM ? "," : "");
+    }
+    fprintf(f, " }%s\n", s + 1 < EBH_NS ? "," : "");
+  }
+  fprintf(f, "};\n");
+  fclose(f);
+  fprintf(stderr, "fit-ebrems -H: %d nodes, %d misses, worst relative error "
+          "estimate of a ratio %.2e\n", n, misses, worst);
+  free(hj);
+  return 0;
+}
+
+
 /* -m: the random points, their fresh and table ratios */
 typedef struct mpoint {
   int kind, Z;
@@ -187,7 +355,7 @@ static void *mworker (void *arg) {
 
 int main (int argc, char **argv) {
   const char *out = NULL;
-  int nth = 1, i, kind, iz, it, iu, mn = 0;
+  int nth = 1, i, kind, iz, it, iu, mn = 0, had = 0;
   unsigned mseed = 0;
   pthread_t th[8];
   FILE *f;
@@ -213,6 +381,29 @@ int main (int argc, char **argv) {
            1.0 - R1 / R);
     return 0;
   }
+  if (argc == 7 && strcmp(argv[1], "-q") == 0) {
+    bl_quad *qe = bl_quad_alloc(200), *qb = bl_quad_alloc(200);
+    bl_particle p = {"x", 0.0, 1.0, 0.0, 0};
+    double R[3], err[3];
+    int r;
+    clock_t t0;
+    p.spin = atof(argv[2]);
+    p.mass = atof(argv[3]);
+    bl_quad_set_rtol(qe, EB_RTOL);
+    bl_quad_set_rtol(qb, BORN_RTOL);
+    for (r = 0; r < 3; r++) {
+      t0 = clock();
+      if (ratio_p(&p, atoi(argv[4]), atof(argv[5]), atof(argv[6]), qe, qb, r,
+                  &R[r], &err[r]))
+        return 1;
+      fprintf(stderr, "part %d: %.2f s\n", r,
+              (double)(clock() - t0) / CLOCKS_PER_SEC);
+    }
+    printf("all %.6e (%.1e) P %.6e (%.1e) E %.6e (%.1e) I %.6e cI %.4f\n",
+           R[0], err[0], R[1], err[1], R[2], err[2], R[0] - R[1] - R[2],
+           (R[0] - R[1] - R[2]) / (2.0 * sqrt(R[1] * R[2])));
+    return 0;
+  }
   for (i = 1; i < argc; i++) {
     if (strcmp(argv[i], "-o") == 0 && i + 1 < argc)
       out = argv[++i];
@@ -220,6 +411,8 @@ int main (int argc, char **argv) {
       progress = 1;
     else if (strcmp(argv[i], "-u") == 0)
       mu = 1;
+    else if (strcmp(argv[i], "-H") == 0)
+      had = 1;
     else if (strcmp(argv[i], "-j") == 0 && i + 1 < argc)
       nth = atoi(argv[++i]);
     else if (strcmp(argv[i], "-m") == 0 && i + 2 < argc) {
@@ -238,6 +431,10 @@ int main (int argc, char **argv) {
     DLT = EBM_DLT;
     UN = bl_ebm_u;
   }
+  if (nth < 1 || nth > 8)
+    nth = 1;
+  if (had && mn == 0)
+    return htable(out != NULL ? out : "src/core/ebrems/eb_table_h.c", nth);
   if (out == NULL)
     out = mu ? "src/core/ebrems/eb_table_mu.c" : "src/core/ebrems/eb_table.c";
   if (nth < 1 || nth > 8)

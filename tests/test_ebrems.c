@@ -793,9 +793,8 @@ TestSuite(ebwire, .init = setup);
 /* The ratio as the generator defines it, computed afresh: the bound
 ** electron term (Hartree-Fock S(q)/Z, per atomic electron) over the Born
 ** static electron term alone (elastic part removed), per atomic electron. */
-static double fresh_ratio (const char *name, int Z, double T, double u,
-                           bl_quad *q) {
-  const bl_particle *p = bl_particle_find(name);
+static double fresh_ratio_p (const bl_particle *p, int Z, double T,
+                             double u, bl_quad *q) {
   const bl_model *hf = bl_model_find("hartree-fock");
   bl_ebrems e;
   bl_case ce;
@@ -814,6 +813,11 @@ static double fresh_ratio (const char *name, int Z, double T, double u,
   cr_assert_eq(bl_ebrems_dk_e(&e, u * bl_ebrems_kmax(&e), q, &re), 0);
   cr_assert_eq(bl_dcs_dk_e(&ce, u * bl_ebrems_kmax(&e), q, &rs), 0);
   return re.val / (rs.val / Z);
+}
+
+static double fresh_ratio (const char *name, int Z, double T, double u,
+                           bl_quad *q) {
+  return fresh_ratio_p(bl_particle_find(name), Z, T, u, q);
 }
 
 static double table_ratio (const char *name, int Z, double T, double u) {
@@ -992,15 +996,29 @@ Test(ebwire, every_method_and_the_warning) {
     bl_he_release(&hon);
     bl_he_release(&hoff);
   }
-  /* hadrons keep the static term with its warning; muons have their
-  ** table (test muon_* below) */
+  /* hadrons have the table of other projectiles since (ebt 5; before:
+  ** the static term with BL_WARN_STATIC_E, which is now kept for masses
+  ** below its first node, 100 MeV, only): 0 above their end point, which
+  ** for a 10 GeV proton is 125 MeV; muons have their table (test muon_*
+  ** below) */
   cr_assert_eq(bl_case_setup(&c, bl_particle_find("proton"), 6, hf, NULL,
                              1e4, &bl_opts_default), 0);
-  cr_expect(c.ebt == 0 && (c.warn & BL_WARN_STATIC_E), "proton: static");
-  cr_expect_eq(bl_case_eratio(&c, 5e3), 1.0);
+  cr_expect(c.ebt == 5 && !(c.warn & BL_WARN_STATIC_E), "proton: table");
+  cr_expect_eq(bl_case_eratio(&c, 5e3), 0.0);
+  cr_expect(bl_case_eratio(&c, 0.5 * c.ekmax) > 0.0);
   cr_assert_eq(bl_case_setup(&c, bl_particle_find("pion-"), 6, hf, NULL,
                              1e4, &bl_opts_default), 0);
-  cr_expect(c.ebt == 0 && (c.warn & BL_WARN_STATIC_E), "pion-: static");
+  cr_expect(c.ebt == 5 && !(c.warn & BL_WARN_STATIC_E), "pion-: table");
+  {
+    bl_particle light = {"x", 50.0, 1.0, 0.0, 0}, heavy = {"y", 2e4, 1.0,
+                                                           0.0, 0};
+    cr_assert_eq(bl_case_setup(&c, &light, 6, hf, NULL, 1e3,
+                               &bl_opts_default), 0);
+    cr_expect(c.ebt == 0 && (c.warn & BL_WARN_STATIC_E), "50 MeV: static");
+    cr_assert_eq(bl_case_setup(&c, &heavy, 6, hf, NULL, 1e4,
+                               &bl_opts_default), 0);
+    cr_expect(c.ebt == 5 && (c.warn & BL_WARN_ERANGE), "20 GeV: held");
+  }
   cr_assert_eq(bl_case_setup(&c, bl_particle_find("muon"), 6, hf, NULL, 1e4,
                              &bl_opts_default), 0);
   cr_expect(c.ebt == 3 && !(c.warn & BL_WARN_STATIC_E), "muon: the table");
@@ -1039,6 +1057,51 @@ Test(ebwire, muon_table_against_fresh_integrals, .timeout = 240) {
 ** (the bottom 1 MeV, T nodes, the top 10 TeV and the end of the blend at
 ** 100 TeV, the first and last u nodes and the power-law stretch beyond,
 ** Z nodes), 1e-10 apart, within 1e-6 relative (R spans 1e-6 ... 3e4). */
+/* Other projectiles (ebt 5): the table's three charge parts at charge +1,
+** R = R_P + R_I/z + R_E/z^2, against fresh integrals of the particle
+** itself (its own charge, all diagrams): presets between the mass nodes,
+** an antiproton (z = -1) and a charge-2 spin-0 particle between nodes in
+** mass, tau and Z (internal consistency with bl_ebrems; tolerance 5 %,
+** as for muons: DEVELOPERS.md, "Other projectiles"). */
+Test(ebwire, other_table_against_fresh_integrals, .timeout = 240) {
+  bl_particle pbar = {"antiproton", 938.272, -1.0, 0.5, 0};
+  bl_particle two = {"two", 2000.0, 2.0, 0.0, 0};
+  struct { const bl_particle *p; int Z; double T, u; } pts[] = {
+    {NULL, 6, 938.272, 0.1}, {NULL, 1, 13817.4, 0.5}, {NULL, 8, 500.0, 0.3},
+    {&pbar, 6, 2000.0, 0.2}, {&two, 6, 3000.0, 0.3}, {&two, 30, 700.0, 0.6}};
+  const char *names[3] = {"proton", "pion+", "kaon-"};
+  bl_quad *q = bl_quad_alloc(200);
+  size_t i;
+  bl_quad_set_rtol(q, 1e-3);
+  for (i = 0; i < sizeof pts / sizeof pts[0]; i++) {
+    const bl_particle *p = i < 3 ? bl_particle_find(names[i]) : pts[i].p;
+    bl_case c;
+    double fresh = fresh_ratio_p(p, pts[i].Z, pts[i].T, pts[i].u, q), got;
+    cr_assert_eq(bl_case_setup(&c, p, pts[i].Z, bl_model_find("hartree-fock"),
+                               NULL, pts[i].T, &bl_opts_default), 0);
+    cr_assert_eq(c.ebt, 5);
+    got = bl_case_eratio(&c, pts[i].u * c.ekmax);
+    cr_expect(fabs(got / fresh - 1.0) < 0.05, "%s Z=%d T=%g u=%g: table %g "
+              "fresh %g", p->name, pts[i].Z, pts[i].T, pts[i].u, got, fresh);
+  }
+  bl_quad_free(q);
+}
+
+/* The end point of other projectiles on hydrogen: above k_max the
+** electron part is exactly 0 and the value the nuclear part's (as
+** muon_end_point_hydrogen_nuclear_unchanged). */
+Test(ebwire, other_end_point_hydrogen_nuclear_unchanged, .timeout = 120) {
+  static const double Ts[] = {1e3, 1e4};
+  bl_quad *q = bl_quad_alloc(400);
+  int i;
+  bl_quad_set_rtol(q, 1e-8);
+  for (i = 0; i < 2; i++) {
+    end_point_hydrogen("proton", Ts[i], q);
+    end_point_hydrogen("pion-", Ts[i], q);
+  }
+  bl_quad_free(q);
+}
+
 Test(ebwire, muon_continuous_everywhere) {
   static const double Ts[] = {1.0, 10.0, 1e3, 3e4, 1e5, 1e7, 1e8};
   static const double us[] = {1e-4, 0.005, 0.35, 0.88, 0.997, 0.999};

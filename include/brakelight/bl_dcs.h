@@ -76,13 +76,15 @@ typedef struct bl_case {
   unsigned warn;              /* warnings that hold for every k (BL_WARN_*) */
   int ebt;                    /* electron term: 0 the static charges as
                               ** they are; 1 (electron), 2 (positron), 3
-                              ** (muon), 4 (antimuon): scaled per k to the
-                              ** bound electron term of the table
+                              ** (muon), 4 (antimuon), 5 (any other
+                              ** projectile from 100 MeV): scaled per k to
+                              ** the bound electron term of the table
                               ** (bl_case_eratio) */
   double ekmax;               /* with ebt: the end point on a free
                               ** electron at rest, MeV */
-  double ebrow[2][BL_EBT_ROW]; /* with ebt: the table's rows for this Z
-                              ** and T (src/core/ebrems/table.c) */
+  double ebrow[3][BL_EBT_ROW]; /* with ebt: the table's rows for this Z
+                              ** and T (and mass, spin: ebt 5, three
+                              ** parts) (src/core/ebrems/table.c) */
   double ebwz, ebwb;          /* with ebt: their Z and blend weights */
 } bl_case;
 
@@ -125,22 +127,30 @@ int bl_case_set_formfactor (bl_case *c, double radius);
 ** The factor on the static-charge electron term S(q)/(Z^2 q^4) at photon
 ** energy k (MeV) that makes it the bound electron term: 1 where the case
 ** keeps the static charges (c->ebt == 0: electrons off, or a projectile
-** other than e-/e+/mu-/mu+); else the tabulated ratio of the tree-level
+** lighter than BL_EBH_M_MIN other than e-/e+); else the tabulated ratio of the tree-level
 ** cross section on a free electron at rest with recoil, radiation of both
 ** lines, exchange (e-) or annihilation (e+), weighted by the Hartree-Fock
 ** S(q)/Z of the struck electron (src/core/ebrems/), to the static term,
 ** per atomic electron: continuous in Z, T and k, exactly 0 at and above
 ** the end point c->ekmax (DEVELOPERS.md, "Electron-target
-** bremsstrahlung", "Wired in", "Muons").  bl_case_setup sets c->ebt = 1,
-** 2, 3, 4 for an electron, a positron, a muon, an antimuon (spin 1/2,
-** |charge| 1 and that mass) with electrons on and a model that has an
-** electron field.
+** bremsstrahlung", "Wired in", "Muons", "Other projectiles").
+** bl_case_setup sets c->ebt = 1, 2, 3, 4 for an electron, a positron, a
+** muon, an antimuon (spin 1/2, |charge| 1 and that mass), 5 for any other
+** projectile of mass at least BL_EBH_M_MIN (any charge z, spin 0 or 1/2:
+** the table's three charge parts, R = R_P + R_I / z + R_E / z^2), with
+** electrons on and a model that has an electron field.  Where the ratio
+** of ebt 5 is held outside its table (mass above BL_EBH_M_MAX, T/m below
+** BL_EBH_TAU_MIN, T above 10 TeV) the case carries BL_WARN_ERANGE.
 */
+#define BL_EBH_M_MIN 100.0     /* MeV: the lowest mass node */
+#define BL_EBH_M_MAX 1e4       /* MeV: the highest mass node */
+#define BL_EBH_TAU_MIN 0.01    /* T/m of the lowest energy node */
 double bl_case_eratio (const bl_case *c, double k);
 
 /* 1 where bl_case_eratio is held below the first u node of its table and
 ** that is known to be too low: muons (c->ebt 3, 4) from T = 1 GeV at k
-** below bl_ebm_u[0] k_max, where the struck electron's radiation keeps
+** below bl_ebm_u[0] k_max (other projectiles, c->ebt 5: below 1e-3 k_max
+** where that is above 10 keV), where the struck electron's radiation keeps
 ** rising (measured: the true ratio is 3.1 times the held one at 1e-5 k_max
 ** for 10 GeV, 9.7 times for 1 TeV, 1.00 at 100 MeV; DEVELOPERS.md,
 ** "Muons"); else 0.  The

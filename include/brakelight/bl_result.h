@@ -31,15 +31,18 @@ enum {
                                 ** (sys) above BL_SYS_WARN of the value */
   BL_WARN_SOFT      = 1u << 11, /* distorted waves below k = BL_DW_SOFT_Y T:
                                 ** Born times the ratio at that k */
-  BL_WARN_EHELD     = 1u << 12, /* bound electron term of a muon below its
-                                ** table's first node (bl_case_eheld): held
-                                ** there, too low */
-  BL_WARN_ESHAPE    = 1u << 13  /* an angular or fully differential value
+  BL_WARN_EHELD     = 1u << 12, /* bound electron term of a muon (or another
+                                ** projectile) below its table's first node
+                                ** (bl_case_eheld): held there, too low */
+  BL_WARN_ERANGE    = 1u << 13, /* bound electron term of a projectile other
+                                ** than e+- and mu+- outside its table's
+                                ** mass or energy range: held at the edge */
+  BL_WARN_ESHAPE    = 1u << 14  /* an angular or fully differential value
                                 ** whose bound electron part keeps the
                                 ** static term's angular shape
                                 ** (bl_method_eshape) */
 };
-#define BL_WARN_COUNT 14
+#define BL_WARN_COUNT 15
 
 /* The share of the value above which a model uncertainty (sys) is
 ** warned about. */

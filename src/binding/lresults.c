@@ -501,6 +501,17 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                o->target.name, o->T);
       break;
     }
+    case BL_WARN_ERANGE:
+      snprintf(msg, sizeof msg, "%s: %s (mass %g MeV, T = %g MeV, T/m = "
+               "%.3g) is outside the table of the bound electron term (mass "
+               "%g ... %g MeV, T/m from %g, T up to 10 TeV); it is held at "
+               "the nearest edge in that variable (not measured beyond it: "
+               "at gamma = 1000 the projectile's part falls by a factor 1.7 "
+               "from 1 to 10 GeV and the struck electron's, over M^2, by "
+               "3.5) (README, What is computed)", text, p->name, p->mass,
+               o->T, o->T / p->mass, BL_EBH_M_MIN, BL_EBH_M_MAX,
+               BL_EBH_TAU_MIN);
+      break;
     default:
       snprintf(msg, sizeof msg, "%s (warning bit 0x%x)", text, bit);
       break;

@@ -57,6 +57,9 @@ const char *bl_warn_text (unsigned bit) {
     case BL_WARN_EHELD:
       return "the bound electron term of the muon below its table's first "
              "node is held at its value there: too low";
+    case BL_WARN_ERANGE:
+      return "the bound electron term is held at the edge of its table "
+             "(projectile mass or energy outside it)";
     case BL_WARN_ESHAPE:
       return "the atomic-electron part of this angular or fully "
              "differential value has the static term's angular shape, "

@@ -257,6 +257,16 @@ int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
     c->ekmax = mu ? T / (1.0 + m * m / (BL_ME_MEV * (e0 + p0)))
                   : T / (1.0 + BL_ME_MEV / (e0 + p0));   /* as before */
     bl_ebt_rows(c->ebt - 1, Z, T, c->ebrow, &c->ebwz, &c->ebwb);
+  } else if (c->opts.electrons && p->mass >= BL_EBH_M_MIN) {
+    /* any other projectile: the three charge parts (table.c); held, and
+    ** warned, outside the table's mass and energy ranges */
+    double m = p->mass, e0 = T + m, p0 = sqrt(T * (T + 2.0 * m));
+    c->ebt = 1 + BL_EBT_OTHER;
+    c->ekmax = T / (1.0 + m * m / (BL_ME_MEV * (e0 + p0)));
+    bl_ebh_rows(p->spin == 0.5, m, Z, T, c->ebrow);
+    if (m > BL_EBH_M_MAX * (1.0 + 1e-12) || T < BL_EBH_TAU_MIN * m
+        || T > BL_EBREMS_T_MAX)
+      c->warn |= BL_WARN_ERANGE;
   } else if (c->opts.electrons && p->mass > 2.0 * BL_ME_MEV)
     c->warn |= BL_WARN_STATIC_E;
   return targetfactor(c, 0.0);
@@ -279,8 +289,15 @@ int bl_case_set_formfactor (bl_case *c, double radius) {
 ** rise there), 3.1 at 10 GeV, 9.7 at 1 TeV; flagged from 1 GeV, where
 ** 1e-4 k_max reaches 10 keV. */
 #define EHELD_T_MIN 1e3
+/* Other projectiles: flagged where 1e-3 k_max, their first node, is above
+** 10 keV (the muons' 1e-4 k_max at 1 GeV is 9 keV); DEVELOPERS.md, "Other
+** projectiles". */
+#define EHELD_K_MIN 0.01
 
 double bl_case_eheld_k (const bl_case *c) {
+  if (c != NULL && c->ebt - 1 == BL_EBT_OTHER)
+    return bl_ebh_u[0] * c->ekmax >= EHELD_K_MIN ? bl_ebh_u[0] * c->ekmax
+                                                 : 0.0;
   return c != NULL && c->ebt - 1 >= BL_EBT_MUON && c->T >= EHELD_T_MIN
          ? bl_ebm_u[0] * c->ekmax : 0.0;
 }
@@ -296,6 +313,8 @@ double bl_case_eratio (const bl_case *c, double k) {
     return 1.0;
   if (!(k < c->ekmax))
     return 0.0;
+  if (c->ebt - 1 == BL_EBT_OTHER)
+    return bl_ebh_eval(c->ebrow, c->particle.charge, k / c->ekmax);
   return bl_ebt_eval(c->ebt - 1, c->ebrow, c->ebwz, c->ebwb, c->T,
                      k / c->ekmax);
 }

@@ -36,11 +36,19 @@ const double bl_ebm_u[EBM_NU] = {1e-4, 4e-4, 1.5e-3, 5e-3, 0.015, 0.04, 0.1,
                                  0.2, 0.35, 0.5, 0.65, 0.78, 0.88, 0.95,
                                  0.985, 0.997};
 
+/* other projectiles: the muons' nodes from 1e-3 (DEVELOPERS.md, "Other
+** projectiles") */
+const int bl_ebh_z[EBH_NZ] = {1, 8, 82};
+const double bl_ebh_u[EBH_NU] = {1e-3, 4e-3, 0.015, 0.04, 0.1, 0.2, 0.35,
+                                 0.5, 0.65, 0.78, 0.88, 0.95, 0.985, 0.997};
 
 /* ln R of the tables and the interpolation variable of the u nodes, made
 ** once (thread-safe) */
 static double lnr[2][EBT_NZ][EBT_NT][EBT_NU], lnu[EBT_NU];
 static double lnm[2][EBT_NZ][EBM_NT][EBM_NU], lgm[EBM_NU];
+/* other projectiles: ln R_P, ln R_E - 2 ln(M / EBH_M0), c_I = R_I / (2
+** sqrt(R_P R_E)) (in [-1, 1] by Cauchy-Schwarz) at the nodes */
+static double lnh[EBH_NS][EBH_NM][EBH_NZ][EBH_NT][EBH_NU][3], lgh[EBH_NU];
 typedef char ebt_row_fits[EBT_NU <= BL_EBT_ROW ? 1 : -1];
 typedef char ebm_row_fits[EBM_NU <= BL_EBT_ROW ? 1 : -1];
 static pthread_once_t once = PTHREAD_ONCE_INIT;
@@ -60,6 +68,24 @@ static void make_logs (void) {
     lnu[u] = log1p(-bl_ebt_u[u]);
   for (u = 0; u < EBM_NU; u++)
     lgm[u] = log(bl_ebm_u[u]) - log1p(-bl_ebm_u[u]);
+  for (u = 0; u < EBH_NU; u++)
+    lgh[u] = log(bl_ebh_u[u]) - log1p(-bl_ebh_u[u]);
+  for (k = 0; k < EBH_NS; k++) {
+    int m;
+    for (m = 0; m < EBH_NM; m++) {
+      double sc = 2.0 * (EBH_LM0 + EBH_DLM * m - log(EBH_M0));
+      for (z = 0; z < EBH_NZ; z++)
+        for (t = 0; t < EBH_NT; t++)
+          for (u = 0; u < EBH_NU; u++) {
+            const double *r = bl_ebh_r[k][m][z][t][u];
+            double P = fmax(r[0], 1e-300), E = fmax(r[2], 1e-300);
+            double *o = lnh[k][m][z][t][u];
+            o[0] = log(P);
+            o[1] = log(E) - sc;
+            o[2] = fmax(-1.0, fmin(1.0, r[1] / (2.0 * sqrt(P * E))));
+          }
+    }
+  }
 }
 
 
@@ -96,7 +122,8 @@ static void get_grid (int kind, grid *g) {
 }
 
 double bl_ebt_ulast (int kind) {
-  return kind == BL_EBT_MUON || kind == BL_EBT_ANTIMUON
+  return kind == BL_EBT_OTHER ? bl_ebh_u[EBH_NU - 1]
+         : kind == BL_EBT_MUON || kind == BL_EBT_ANTIMUON
          ? bl_ebm_u[EBM_NU - 1] : bl_ebt_u[EBT_NU - 1];
 }
 
@@ -261,4 +288,105 @@ double bl_ebt_eval (int kind, const double rows[2][BL_EBT_ROW], double wz,
     v[z] += wb * (lim[z] - v[z]);
   r = (1.0 - wz) * v[0] + wz * v[1];
   return fmax(r, 0.0);
+}
+
+
+/*
+** Other projectiles (DEVELOPERS.md, "Other projectiles").  Per case: the
+** three parts at every u node, four-point Lagrange in ln M (held outside
+** the mass nodes) and in ln tau (held below the first node; T held at
+** BL_EBREMS_T_MAX above it), linear in ln Z (held outside 1..82): rows[0]
+** ln R_P, rows[1] ln R_E (the mass scaling (M / EBH_M0)^2 put back),
+** rows[2] c_I.
+*/
+void bl_ebh_rows (int spin2, double M, int Z, double T,
+                  double rows[3][BL_EBT_ROW]) {
+  double xm = (log(M) - EBH_LM0) / EBH_DLM, xt, xs[4], wm[4], wt[4], wz;
+  int im, sm, it, st, iz, a, b, j, q, zz;
+  typedef char ebh_row_fits[EBH_NU <= BL_EBT_ROW ? 1 : -1];
+  (void)sizeof(ebh_row_fits);
+  pthread_once(&once, make_logs);
+  spin2 = spin2 != 0;
+  if (T > BL_EBREMS_T_MAX)
+    T = BL_EBREMS_T_MAX;
+  xt = (log(T / M) - EBH_LT0) / EBH_DLT;
+  xm = fmax(0.0, fmin(xm, EBH_NM - 1.0));
+  xt = fmax(0.0, fmin(xt, EBH_NT - 1.0));
+  im = (int)xm < EBH_NM - 2 ? (int)xm : EBH_NM - 2;
+  it = (int)xt < EBH_NT - 2 ? (int)xt : EBH_NT - 2;
+  sm = stencil(im, EBH_NM);
+  st = stencil(it, EBH_NT);
+  for (a = 0; a < 4; a++)
+    xs[a] = sm + a;
+  lagrange4(xs, xm, wm);
+  for (a = 0; a < 4; a++)
+    xs[a] = st + a;
+  lagrange4(xs, xt, wt);
+  if (Z <= bl_ebh_z[0] || Z >= bl_ebh_z[EBH_NZ - 1]) {
+    iz = Z <= bl_ebh_z[0] ? 0 : EBH_NZ - 2;
+    wz = Z <= bl_ebh_z[0] ? 0.0 : 1.0;
+  }
+  else {
+    for (iz = 0; Z > bl_ebh_z[iz + 1]; iz++)
+      ;
+    wz = (log((double)Z) - log((double)bl_ebh_z[iz]))
+         / (log((double)bl_ebh_z[iz + 1]) - log((double)bl_ebh_z[iz]));
+  }
+  for (j = 0; j < EBH_NU; j++)
+    for (q = 0; q < 3; q++) {
+      double v[2];
+      for (zz = 0; zz < 2; zz++) {
+        v[zz] = 0.0;
+        for (a = 0; a < 4; a++)
+          for (b = 0; b < 4; b++)
+            v[zz] += wm[a] * wt[b]
+                     * lnh[spin2][sm + a][iz + zz][st + b][j][q];
+      }
+      rows[q][j] = (1.0 - wz) * v[0] + wz * v[1];
+    }
+  for (j = 0; j < EBH_NU; j++) {
+    rows[1][j] += 2.0 * log(M / EBH_M0);
+    rows[2][j] = fmax(-1.0, fmin(1.0, rows[2][j]));
+  }
+}
+
+
+/* R of charge z from the three parts' interpolated values a = ln R_P,
+** b = ln R_E, c = c_I: |sqrt(R_P) + sqrt(R_E)/z|^2 with the cosine c,
+** never below 0 for |c| <= 1. */
+static double combine (double a, double b, double c, double z) {
+  double p = exp(a), e = exp(b);
+  return fmax(p + 2.0 * fmax(-1.0, fmin(1.0, c)) * sqrt(p * e) / z
+              + e / (z * z), 0.0);
+}
+
+
+double bl_ebh_eval (const double rows[3][BL_EBT_ROW], double z, double u) {
+  double wu[4], x, uu, s[3];
+  int iu, su, b, q;
+  if (!(u < 1.0))
+    return 0.0;
+  if (u > bl_ebh_u[EBH_NU - 1]) {   /* the last stretch: the power law */
+    double rl = combine(rows[0][EBH_NU - 1], rows[1][EBH_NU - 1],
+                        rows[2][EBH_NU - 1], z);
+    double rp = combine(rows[0][EBH_NU - 2], rows[1][EBH_NU - 2],
+                        rows[2][EBH_NU - 2], z);
+    double p = (log(rl) - log(rp)) / (log1p(-bl_ebh_u[EBH_NU - 1])
+                                      - log1p(-bl_ebh_u[EBH_NU - 2]));
+    if (!(p > EBM_PMIN))
+      p = EBM_PMIN;
+    return rl * pow((1.0 - u) / (1.0 - bl_ebh_u[EBH_NU - 1]), p);
+  }
+  uu = u < bl_ebh_u[0] ? bl_ebh_u[0] : u;
+  x = log(uu) - log1p(-uu);
+  for (iu = 0; iu < EBH_NU - 2 && u > bl_ebh_u[iu + 1]; iu++)
+    ;
+  su = stencil(iu, EBH_NU);
+  lagrange4(lgh + su, x, wu);   /* in ln(u / (1 - u)), as for muons */
+  for (q = 0; q < 3; q++) {
+    s[q] = 0.0;
+    for (b = 0; b < 4; b++)
+      s[q] += wu[b] * rows[q][su + b];
+  }
+  return combine(s[0], s[1], s[2], z);
 }
