@@ -179,8 +179,8 @@ int bl_method_full_e (const bl_case *c, int method, double k, double theta_k,
 /* 1 if the angular distribution of case c takes its electron part from
 ** the exact bound electron term: a projectile with the table's bound
 ** term (c->ebt) and electrons on, T within bl_ebrems_init's range (1 TeV
-** for e-/e+, 10 TeV for muons); 0 otherwise (then R(k) times the static
-** term's shape, as for dsigma/dk). */
+** for e-/e+, 10 TeV for the others); 0 otherwise (then R(k) times the
+** static term's shape, as for dsigma/dk). */
 int bl_method_eexact (const bl_case *c);
 
 /* The angular distribution by `method` with the electron part the static
