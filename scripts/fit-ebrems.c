@@ -197,6 +197,16 @@ static double hnode_T (int m, int t) {
   return T < BL_EBREMS_T_MAX ? T : BL_EBREMS_T_MAX;
 }
 
+/* Run fn on nth threads (at most 8) and wait for them all. */
+static void run_threads (void *(*fn) (void *), int nth) {
+  pthread_t th[8];
+  int i;
+  for (i = 0; i < nth; i++)
+    pthread_create(&th[i], NULL, fn, NULL);
+  for (i = 0; i < nth; i++)
+    pthread_join(th[i], NULL);
+}
+
 static int hcmp (const void *a, const void *b) {
   const hjob *x = a, *y = b;
   return (x->T < y->T) - (x->T > y->T);   /* hardest (highest T) first */
@@ -238,9 +248,8 @@ static void *hworker (void *arg) {
 }
 
 static int htable (const char *out, int nth) {
-  int s, m, z, t, u, i, n = 0;
+  int s, m, z, t, u, n = 0;
   double worst = 0.0;
-  pthread_t th[8];
   FILE *f;
   hj = malloc(sizeof(hjob) * EBH_NS * EBH_NM * EBH_NZ * EBH_NT * EBH_NU);
   if (hj == NULL)
@@ -256,10 +265,7 @@ static int htable (const char *out, int nth) {
             }
   nhj = n;
   qsort(hj, (size_t)n, sizeof hj[0], hcmp);
-  for (i = 0; i < nth; i++)
-    pthread_create(&th[i], NULL, hworker, NULL);
-  for (i = 0; i < nth; i++)
-    pthread_join(th[i], NULL);
+  run_threads(hworker, nth);
   f = fopen(out, "w");
   if (f == NULL)
     return 1;
@@ -357,7 +363,6 @@ int main (int argc, char **argv) {
   const char *out = NULL;
   int nth = 1, i, kind, iz, it, iu, mn = 0, had = 0;
   unsigned mseed = 0;
-  pthread_t th[8];
   FILE *f;
   double worst = 0.0;
   if (argc == 6 && (strcmp(argv[1], "-p") == 0
@@ -461,10 +466,7 @@ int main (int argc, char **argv) {
       } else
         mp[j].u = 0.02 + 0.977 * r2;
     }
-    for (i = 0; i < nth; i++)
-      pthread_create(&th[i], NULL, mworker, NULL);
-    for (i = 0; i < nth; i++)
-      pthread_join(th[i], NULL);
+    run_threads(mworker, nth);
     for (j = 0; j < mn; j++) {
       d[j] = mp[j].rel;
       printf("%s Z=%d T=%.4g u=%.6f table %.6g fresh %.6g rel %.2e\n",
@@ -478,10 +480,7 @@ int main (int argc, char **argv) {
     free(mp);
     return 0;
   }
-  for (i = 0; i < nth; i++)
-    pthread_create(&th[i], NULL, worker, NULL);
-  for (i = 0; i < nth; i++)
-    pthread_join(th[i], NULL);
+  run_threads(worker, nth);
   f = fopen(out, "w");
   if (f == NULL)
     return 1;
