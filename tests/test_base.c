@@ -342,7 +342,8 @@ static bl_quad *mkquad (double rtol) {
 ** nucleus without electrons, where the poles cancel to rounding; the sum
 ** of the noise came out as -4.4e-60 +- 2.2e-59 mb/MeV. */
 Test(health, never_negative_near_the_tip) {
-  bl_opts o = {0, BL_NUCLEUS_UNIFORM, 0.0, BL_APPLY_OFF, BL_APPLY_ON};
+  bl_opts o = {0, BL_NUCLEUS_UNIFORM, 0.0, BL_APPLY_OFF, BL_APPLY_ON,
+               BL_ERAD_ALL};
   bl_case c;
   bl_result r;
   bl_quad *q = mkquad(1e-3);
@@ -357,7 +358,8 @@ Test(health, never_negative_near_the_tip) {
 /* Sweep point 600: every integral converged, yet the error (inner errors
 ** included) was 1.02 rtol |value| without a warning. */
 Test(health, error_above_rtol_is_flagged) {
-  bl_opts o = {1, BL_NUCLEUS_POINT, 0.0, BL_APPLY_OFF, BL_APPLY_AUTO};
+  bl_opts o = {1, BL_NUCLEUS_POINT, 0.0, BL_APPLY_OFF, BL_APPLY_AUTO,
+               BL_ERAD_ALL};
   bl_case c;
   bl_result r;
   bl_quad *q = mkquad(1e-4);

@@ -617,17 +617,18 @@ Test(target, spectrum_interrupted) {
 ** MeV), rtol 1e-3.  The finer scan is make continuity (4 per decade to
 ** 1 PeV, -e).
 */
-static double eloss_pb (const char *particle, double T, bl_quad *q) {
+/* The radiative energy loss by the default method in MeV cm^2/g. */
+static double eloss (const char *particle, const char *material, double T,
+                     const bl_opts *o, bl_quad *q) {
   bl_target t;
   bl_material m;
   bl_tresult r;
   int failZ, st;
   memset(&t, 0, sizeof t);
-  cr_assert_eq(bl_material_lookup(&m, "Pb", NULL), BL_SUCCESS);
+  cr_assert_eq(bl_material_lookup(&m, material, NULL), BL_SUCCESS);
   cr_assert_eq(bl_target_setup(&t, bl_particle_find(particle), &m,
-                               bl_model_find("hartree-fock"), NULL, T,
-                               &bl_opts_default, BL_METHOD_AUTO, NULL,
-                               &failZ), BL_SUCCESS);
+                               bl_model_find("hartree-fock"), NULL, T, o,
+                               BL_METHOD_AUTO, NULL, &failZ), BL_SUCCESS);
   cr_assert_eq(bl_target_prepare(&t, q, &failZ), BL_SUCCESS);
   st = bl_target_energy_loss_e(&t, q, &r);
   bl_target_release(&t);
@@ -635,7 +636,11 @@ static double eloss_pb (const char *particle, double T, bl_quad *q) {
             particle, T, st);
   cr_assert(isfinite(r.r.val) && r.r.val > 0, "%s T = %g: %g", particle, T,
             r.r.val);
-  return r.r.val;
+  return r.r.val * bl_material_per_gram(&m);
+}
+
+static double eloss_pb (const char *particle, double T, bl_quad *q) {
+  return eloss(particle, "Pb", T, &bl_opts_default, q);
 }
 
 Test(target, energy_loss_rises, .timeout = 600) {
@@ -666,6 +671,46 @@ Test(target, energy_loss_rises, .timeout = 600) {
       prev = v;
     }
   }
+  bl_quad_free(q);
+}
+
+
+/*
+** Issue 13: b_brems of muons in iron and standard rock (Z = 11, A = 22,
+** common practice), b = (-dE/dx)_brems / E, against Kelner, Kokoulin &
+** Petrukhin (nucleus + electron terms; tests/ref/kkp.c, formula FROM
+** MEMORY, sources there), with the electron term as muon physics counts
+** it: the muon's own radiation (electrons = "projectile"; the knocked-on
+** electron's radiation belongs to the ionization loss there).  Measured
+** (DEVELOPERS.md, "Muons: the projectile's radiation alone"), ours/KKP at
+** 10 GeV, 100 GeV, 1 TeV, 10 TeV: Fe 0.981, 0.997, 1.001, 0.999; rock
+** 0.968, 0.987, 0.993, 0.987.  Within 2 % but rock at 10 GeV, where the
+** nuclear part alone is 2.5 % below (our exact Born with Hartree-Fock
+** screening and a uniform nucleus is 3-5 % below the analytic form at v
+** >= 0.3 there): 4 % for it.  With every diagram (the default) b is 1.52
+** (Fe) and 2.13 (rock) times KKP's at 10 GeV.
+*/
+#include "kkp.h"
+
+Test(target, muon_b_brems_against_kkp, .timeout = 300) {
+  static const struct { const char *mat; double Z, A; } mats[] = {
+    {"Fe", 26.0, 55.845}, {"standard_rock", 11.0, 22.0}};
+  static const double Ts[] = {1e4, 1e5, 1e6, 1e7};
+  bl_opts o = bl_opts_default;
+  bl_quad *q = bl_quad_alloc(200);
+  int i, j;
+  o.eradiation = BL_ERAD_PROJECTILE;
+  cr_assert_eq(bl_quad_set_rtol(q, 1e-3), BL_SUCCESS);
+  for (i = 0; i < 2; i++)
+    for (j = 0; j < 4; j++) {
+      double E = Ts[j] + BL_MMU_MEV;
+      double b = eloss("muon", mats[i].mat, Ts[j], &o, q) / E;
+      double ref = kkp_b(mats[i].Z, mats[i].A, E, KKP_BOTH);
+      double tol = i == 1 && j == 0 ? 0.04 : 0.02;
+      cr_expect(fabs(b / ref - 1.0) <= tol, "muon in %s at T = %g MeV: b = "
+                "%.5g, KKP %.5g (ratio %.4f)", mats[i].mat, Ts[j], b, ref,
+                b / ref);
+    }
   bl_quad_free(q);
 }
 

@@ -26,7 +26,22 @@ typedef struct bl_opts {
                    ** atomic weight rounded */
   int coulomb;     /* BL_APPLY_*: Davies-Bethe-Maximon correction */
   int elwert;      /* BL_APPLY_*: Elwert factor */
+  int eradiation;  /* BL_ERAD_*: which radiation the bound electron term
+                   ** counts (with electrons on) */
 } bl_opts;
+
+/* Values of bl_opts.eradiation.  BL_ERAD_ALL: every diagram of the
+** projectile's collision with the struck electron, the electron's own
+** radiation included.  BL_ERAD_PROJECTILE: the projectile's radiation only
+** (a gauge-invariant subset for any projectile but e-/e+): the convention
+** of muon physics, which books the radiation of the knocked-on electron in
+** the ionization loss (as a radiative correction to knock-on production).
+** Not defined for e-/e+, where exchange (e-) and annihilation (e+) mix the
+** two lines: bl_case_setup refuses it there (BL_EDOMAIN).  For particles
+** between 2 m_e and BL_EBH_M_MIN, which keep the static-charge term (the
+** projectile's radiation in the atomic electrons' static field), both give
+** that term. */
+enum { BL_ERAD_ALL = 0, BL_ERAD_PROJECTILE = 1 };
 
 /* The plain Born cross section in the screened field of the model: point
 ** nucleus, no electrons, no corrections (what bl_case_init uses). */
@@ -107,7 +122,8 @@ int bl_case_init (bl_case *c, const bl_particle *p, int Z,
                   const bl_model *screening, const double *params, double T);
 
 /* The same with the target options o (NULL: bl_opts_bare).  Also
-** BL_EDOMAIN for A outside [0, 300] or unknown switch values.  With a
+** BL_EDOMAIN for A outside [0, 300], unknown switch values, or
+** o->eradiation = BL_ERAD_PROJECTILE for e-/e+ with electrons on.  With a
 ** model that has no electron field ("none"), electrons are turned off in
 ** the case (c->opts.electrons = 0), not refused. */
 int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
@@ -138,7 +154,9 @@ int bl_case_set_formfactor (bl_case *c, double radius);
 ** muon, an antimuon (spin 1/2, |charge| 1 and that mass), 5 for any other
 ** projectile of mass at least BL_EBH_M_MIN (any charge z, spin 0 or 1/2:
 ** the table's three charge parts, R = R_P + R_I / z + R_E / z^2), with
-** electrons on and a model that has an electron field.  Where the ratio
+** electrons on and a model that has an electron field.  With
+** opts.eradiation = BL_ERAD_PROJECTILE, muons too take ebt 5 and both
+** keep R_P only (the limit z -> infinity of R(z)).  Where the ratio
 ** of ebt 5 is held outside its table (mass above BL_EBH_M_MAX, T/m below
 ** BL_EBH_TAU_MIN, T above 10 TeV) the case carries BL_WARN_ERANGE.
 */
@@ -153,7 +171,8 @@ double bl_case_eratio (const bl_case *c, double k);
 ** where that is above 10 keV), where the struck electron's radiation keeps
 ** rising (measured: the true ratio is 3.1 times the held one at 1e-5 k_max
 ** for 10 GeV, 9.7 times for 1 TeV, 1.00 at 100 MeV; DEVELOPERS.md,
-** "Muons"); else 0.  The
+** "Muons"); else 0, and 0 for the projectile's radiation alone
+** (BL_ERAD_PROJECTILE: R_P is flat there, held within 2.3 %).  The
 ** target room flags such points BL_WARN_EHELD.  bl_case_eheld_k: that
 ** photon energy (MeV), 0 where nothing is held so. */
 int bl_case_eheld (const bl_case *c, double k);

@@ -110,11 +110,22 @@ int l_energy_loss (lua_State *L) {
                    "projectile and are not computed (for muons pair "
                    "production exceeds bremsstrahlung at high energy: "
                    "Review of Particle Physics, passage of particles "
-                   "through matter, from memory); for muons it includes the "
-                   "radiation of the atomic electrons they strike, which "
-                   "muon energy-loss tables count in the ionization loss "
-                   "(README, What is computed)"
+                   "through matter, from memory)"
                  : "bremsstrahlung: the radiative stopping power");
+  if (!o.bo.electrons || !(o.particle.mass >= BL_EBH_M_MIN
+                            || fabs(o.particle.mass - BL_MMU_MEV)
+                               <= 1e-12 * BL_MMU_MEV))
+    lua_pushliteral(L, "");   /* no bound electron term: nothing to say */
+  else if (o.bo.eradiation == BL_ERAD_PROJECTILE)
+    lua_pushliteral(L, "; the electron term counts the projectile's own "
+                    "radiation only (electrons = 'projectile'), as muon "
+                    "energy-loss tables do");
+  else
+    lua_pushliteral(L, "; it includes the radiation of the atomic electrons "
+                    "the projectile strikes, which muon energy-loss tables "
+                    "count in the ionization loss (electrons = 'projectile' "
+                    "leaves it out; README, What is computed)");
+  lua_concat(L, 2);
   lua_setfield(L, 3, "note");
   lbl_setresult(L, 3, 4, none, units, &o, &w);
   return 1;

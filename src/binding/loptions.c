@@ -207,11 +207,25 @@ void lbl_readopts (lua_State *L, const char *fname,
     case LUA_TBOOLEAN:
       o->bo.electrons = lua_toboolean(L, -1);
       break;
+    case LUA_TSTRING:
+      if (strcmp(lua_tostring(L, -1), "projectile") == 0) {
+        o->bo.eradiation = BL_ERAD_PROJECTILE;
+        break;
+      }
+      /* fall through */
     default:
-      lbl_argfail(L, fname, "field 'electrons' must be a boolean (true: "
-              "default, false), got %s", lbl_showval(L, -1, v, sizeof v));
+      lbl_argfail(L, fname, "field 'electrons' must be true (default), "
+              "false or 'projectile', got %s",
+              lbl_showval(L, -1, v, sizeof v));
   }
   lua_pop(L, 1);
+  if (o->bo.eradiation == BL_ERAD_PROJECTILE && o->particle.spin == 0.5
+      && fabs(o->particle.mass - BL_ME_MEV) <= 1e-12 * BL_ME_MEV
+      && fabs(fabs(o->particle.charge) - 1.0) <= 1e-12)
+    lbl_argfail(L, fname, "field 'electrons' = 'projectile' (the "
+            "projectile's radiation alone) is not defined for %s: exchange "
+            "(e-) and annihilation (e+) mix the radiation of the two "
+            "electrons; allowed for e-/e+: true, false", o->particle.name);
   o->bo.coulomb = optswitch(L, fname, "coulomb");
   o->bo.elwert = optswitch(L, fname, "elwert");
   optmethod(L, o);

@@ -594,6 +594,17 @@ double lbl_pergram (const Opts *o) {
 }
 
 
+/* The settings' 'electrons': false where the model has no electron field,
+** 'projectile' for the projectile's radiation alone, else true. */
+void lbl_pushelectrons (lua_State *L, const Opts *o) {
+  if (o->bo.electrons && o->screening->incoherent != NULL
+      && o->bo.eradiation == BL_ERAD_PROJECTILE)
+    lua_pushliteral(L, "projectile");
+  else
+    lua_pushboolean(L, o->bo.electrons && o->screening->incoherent != NULL);
+}
+
+
 /* Push a correction switch as the user writes it: true, false, "auto". */
 static void pushswitch (lua_State *L, int sw) {
   if (sw == BL_APPLY_AUTO)
@@ -658,7 +669,7 @@ static void pushsettings (lua_State *L, const Opts *o) {
   }
   lua_pushstring(L, o->bo.nucleus == BL_NUCLEUS_UNIFORM ? "uniform" : "point");
   lua_setfield(L, -2, "nucleus");
-  lua_pushboolean(L, o->bo.electrons && o->screening->incoherent != NULL);
+  lbl_pushelectrons(L, o);
   lua_setfield(L, -2, "electrons");
   pushswitch(L, o->bo.coulomb);
   lua_setfield(L, -2, "coulomb");

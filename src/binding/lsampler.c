@@ -373,7 +373,7 @@ int l_sampler (lua_State *L) {
   lua_setfield(L, -2, "screening");
   lua_pushboolean(L, conf.coulomb);
   lua_setfield(L, -2, "coulomb_factor");
-  lua_pushboolean(L, o.bo.electrons);
+  lbl_pushelectrons(L, &o);
   lua_setfield(L, -2, "electrons");
   lua_pushstring(L, o.bo.nucleus == BL_NUCLEUS_UNIFORM ? "uniform" : "point");
   lua_setfield(L, -2, "nucleus");

@@ -157,7 +157,31 @@ expect_error("angular", bl.angular,
              { particle = "electron", target = "C", T = 10, k = 5,
                theta = { 0.1 }, coulomb = true },
              { "'coulomb'", "dsigma/dk only", "false or 'auto'" })
-dsdk_err({ electrons = "no" }, { "'electrons'", "boolean", "got 'no'" })
+dsdk_err({ electrons = "no" },
+         { "'electrons'", "true (default), false or 'projectile'",
+           "got 'no'" })
+dsdk_err({ electrons = "projectile" },   -- the base particle is e-
+         { "'electrons' = 'projectile'", "not defined for electron",
+           "exchange", "allowed for e-/e+: true, false" })
+dsdk_err({ particle = "positron", electrons = "projectile" },
+         { "'electrons' = 'projectile'", "not defined for positron" })
+do  -- the projectile's radiation alone: accepted for muons, said in the
+    -- settings, and far below every diagram at a soft photon (the struck
+    -- electron's radiation; DEVELOPERS.md, "Muons")
+  local o = { particle = "muon", target = "C", T = 1e4, k = 10, rtol = 1e-3 }
+  local all = bl.dsdk(o)
+  o.electrons = "projectile"
+  local v = bl.dsdk(o)
+  o.electrons = false
+  local nuc = bl.dsdk(o)
+  assert(nuc < v and v < all, ("muon: %g %g %g"):format(nuc, v, all))
+  o.electrons = "projectile"
+  o.k = { 10, 100 }
+  local s = bl.spectrum(o)
+  assert(s.settings.electrons == "projectile",
+         "settings.electrons = " .. tostring(s.settings.electrons))
+  nchecks = nchecks + 1
+end
 do  -- the accepted values really are accepted
   for _, t in ipairs{ { nucleus = "point", electrons = false },
                       { nucleus = "uniform", electrons = true },

@@ -140,6 +140,8 @@ static int eangular (const bl_case *c, double k, double theta_k, double rtol,
       || bl_ebrems_set_binding(&e, c->Z, c->screening, c->params)
          != BL_SUCCESS)
     return BL_EDOMAIN;   /* bl_method_eexact and the case's model vouch */
+  if (c->opts.eradiation == BL_ERAD_PROJECTILE)
+    e.radiate = BL_EBREMS_RAD_PROJECTILE;   /* set up refuses it for e+- */
   st = bl_quad_set_rtol(q, rtol);
   if (st == BL_SUCCESS)
     st = bl_ebrems_angular_e(&e, k, theta_k, q, re);
