@@ -162,7 +162,8 @@ Test(sampler, refuses_bad_input) {
 
 
 /*
-** The value drawn from equals bl_method_full_e (Born) at the same
+** The value drawn from equals bl_method_full_scaled_e (Born; the static
+** kinematics of the events on atomic electrons) at the same
 ** geometry, the beam-frame angles made here from plain vectors: checks
 ** the sampler's own evaluation of the Born formula (photon frame, both
 ** parts of W) and the frame change.  Internal consistency, 1e-8: the two
@@ -194,8 +195,8 @@ Test(sampler, value_is_the_full_value) {
       pb = fabs(atan2(p[1], p[0]));
       cr_assert(bl_sampler_value(tc.s, 0, k, 1.0 - cos(tk), 1.0 - cos(th), phi,
                                  &got) == BL_SUCCESS);
-      cr_assert(bl_method_full_e(&tc.t.c[0], BL_METHOD_BORN, k, tk, tp, pb,
-                                 &want) == BL_SUCCESS);
+      cr_assert(bl_method_full_scaled_e(&tc.t.c[0], BL_METHOD_BORN, k, tk,
+                                        tp, pb, &want) == BL_SUCCESS);
       /* the muon above its electron end point (k_max = 0.5 MeV at 50 MeV)
       ** is the nuclear part alone: measured 1.1e-7 at one backward point
       ** of 200 (theta_k = 2.95 rad, a backward photon), where before the static
@@ -581,7 +582,7 @@ Test(sampler_dist, electron_water_10MeV) {
 
 
 /*
-** The distorted-wave method through bl_method_full_e: the sampler's sigma
+** The distorted-wave method through bl_method_full_scaled_e: the sampler's sigma
 ** (setup and weighted events) against the method's own cross_section over
 ** the window (rtol 1e-3), within 4 standard errors plus that 1e-3; a
 ** lighter setup (its fully differential value costs ~40 us).

@@ -136,6 +136,19 @@ int bl_ebrems_msq (const bl_ebrems *c, const double p3[4], const double p4[4],
 int bl_ebrems_point (const bl_ebrems *c, double k, double theta_k,
                      double theta_s, double phi_s, double *val);
 
+/* Fully differential cross section in the lab's variables,
+** d5sigma/(dk dOmega_k dOmega_p) (mb/(MeV sr^2)): photon energy k (MeV),
+** photon polar angle theta_k (azimuth 0), the projectile's final
+** direction (theta_p, phi) (rad, from the beam axis; for e- the faster of
+** the two final electrons), the struck electron's momentum and the
+** projectile's energy fixed by conservation (one or two projectile
+** momenta; both counted).  Binding as set.  0 beyond the end point of
+** this photon direction and where no projectile momentum fits.  Its
+** integral over Omega_p is bl_ebrems_angular_e.  BL_EDOMAIN (*val = 0)
+** unless 0 < k, 0 <= theta_k, theta_p <= pi, phi finite. */
+int bl_ebrems_full (const bl_ebrems *c, double k, double theta_k,
+                    double theta_p, double phi, double *val);
+
 /* Photon angular distribution d2sigma/(dk dOmega_k) (mb/(MeV sr)) at k
 ** (MeV) and theta_k (rad), integrated over Omega_s at the tolerance of q.
 ** BL_EDOMAIN unless 0 < k and 0 <= theta_k <= pi; BL_ENOTCONV when the

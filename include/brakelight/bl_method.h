@@ -167,14 +167,23 @@ int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
 ** angles).  Arguments, units and exceptions as bl_dcs_angular_e and
 ** bl_dcs_full_e.  Where bl_method_eexact(c), the angular distribution's
 ** electron part is the exact bound electron term's own distribution
-** (bl_ebrems_angular_e times Z) added to the method's nuclear part; the
-** fully differential value keeps the static term's shape scaled by R(k)
-** (BL_WARN_ESHAPE).
+** (bl_ebrems_angular_e times Z) added to the method's nuclear part, and
+** so is the fully differential value's (bl_ebrems_full times Z: the
+** projectile's energy and the struck electron's momentum from
+** conservation, so the electron part's projectile is not at E0 - k).
 */
 int bl_method_angular_e (const bl_case *c, int method, double k,
                          double theta_k, bl_quad *q, bl_result *out);
 int bl_method_full_e (const bl_case *c, int method, double k, double theta_k,
                       double theta_p, double phi, bl_result *out);
+
+/* The fully differential value by `method` with the electron part the
+** static term's (projectile at E0 - k) scaled by R(k): what
+** bl_method_full_e gives where not bl_method_eexact, and the kinematics of
+** the event sampler's events on atomic electrons. */
+int bl_method_full_scaled_e (const bl_case *c, int method, double k,
+                             double theta_k, double theta_p, double phi,
+                             bl_result *out);
 
 /* 1 if the angular distribution of case c takes its electron part from
 ** the exact bound electron term: a projectile with the table's bound
@@ -200,8 +209,8 @@ int bl_method_nuclear (const bl_case *c, bl_case *cn);
 #define BL_ESHAPE_R 0.01
 
 /* 1 if a value at k that keeps the static term's angular shape for the
-** bound electron term (the fully differential value always, the angular
-** distribution where not bl_method_eexact) misplaces it: the case has
+** bound electron term (the angular distribution and the fully
+** differential value where not bl_method_eexact) misplaces it: the case has
 ** the bound term (c->ebt), electrons on, and 0 < R(k) with |R(k) - 1| >
 ** BL_ESHAPE_R (from the end point on the electron part is 0). */
 int bl_method_eshape (const bl_case *c, double k);

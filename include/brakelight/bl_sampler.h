@@ -6,9 +6,10 @@
 ** A bl_sampler draws events (photon, outgoing projectile, momentum given to
 ** the atom) of a projectile on a target (bl_target: an element or a
 ** material) with photon energies kmin < k < kmax, from the fully
-** differential value of the target's method (bl_method_full_e: the
+** differential value of the target's method (bl_method_full_scaled_e: the
 ** distorted waves for BL_METHOD_DISTORTED, the Born cross section for
-** every other method).  Setup builds an adaptive proposal per element over
+** every other method; the atomic electrons' part with the static
+** kinematics).  Setup builds an adaptive proposal per element over
 ** the mapped variables of the Born integrator (src/core/sampler/); then
 ** events come unweighted (accept-reject) or weighted.
 **
@@ -223,7 +224,7 @@ void bl_sample_stats_add (bl_sample_stats *a, const bl_sample_stats *b);
 ** i: d3sigma/(dk dOmega_k dOmega_p) in mb/(MeV sr^2) (atoms per formula
 ** unit not included) at photon energy k (MeV), h0 = 1 - cos(theta_k), h =
 ** 1 - cos(angle of p to k), phi (azimuth around k between the (k, p0) and
-** (k, p) planes); for tests against bl_method_full_e.
+** (k, p) planes); for tests against bl_method_full_scaled_e.
 ** exceptions: BL_EDOMAIN
 */
 int bl_sampler_value (const bl_sampler *s, int i, double k, double h0,

@@ -397,9 +397,10 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
       snprintf(msg, sizeof msg, "%s, up to k = %g MeV (%s, T = %g MeV): "
                "%s; the electron part's own distribution (the struck "
                "electron's recoil and radiation) can differ from it by "
-               "several times, most for muons' soft photons; the angular "
-               "distribution has it exactly up to T = %g MeV for e-/e+ "
-               "and %g MeV for other projectiles, dsigma/dk has its integral; "
+               "several times, most for muons' soft photons; angular and "
+               "fully differential values have it exactly up to T = %g MeV "
+               "for e-/e+ and %g MeV for other projectiles, dsigma/dk has "
+               "its integral; "
                "electrons = false leaves the nucleus only (README, What "
                "is computed)", text, kbit(w, BL_WARN_ESHAPE), p->name,
                o->T, size, BL_EBREMS_T_MAX_E, BL_EBREMS_T_MAX);

@@ -150,6 +150,91 @@ int bl_ebrems_point (const bl_ebrems *c, double k, double theta_k,
   return isfinite(*val) ? BL_SUCCESS : BL_ENONFINITE;
 }
 
+/*
+** The lab direction n of the projectile (for e- the faster final
+** electron) fixes its pair-frame direction up to the two branches of the
+** boost.  With t the tangent of n's angle to the pair's axis ez, u = g^2
+** t^2, zeta = gb E3* / (g p*) (the pair's speed over the projectile's
+** there) and r = sqrt(1 + u (1 - zeta^2)):
+**   cos theta* = (-u zeta + s r) / (1 + u),  s = +1, -1,
+** without cancellation h = 1 - cos = u (1 + zeta)^2 / (1 + u (1 + zeta) + r)
+** (s = +1) and 2 - h = u (1 - zeta)^2 / (1 + u (1 - zeta) + r) (s = -1).
+** A branch counts where the projectile's lab momentum along ez, g p*
+** (zeta + cos) ~ zeta + s r, has the sign of n's: one branch for zeta < 1,
+** both forward (and none backward) for zeta > 1.  Its weight is
+** dOmega_s / dOmega = p3^3 / (p*^3 g |1 + zeta cos|), 1 + zeta cos = r (r +
+** s zeta) / (1 + u): infinite at the largest lab angle of zeta > 1 (r = 0).
+*/
+int bl_ebrems_full (const bl_ebrems *c, double k, double theta_k,
+                    double theta_p, double phi, double *val) {
+  bl_ebframe f;
+  double km = k / BL_ME_MEV, n[3], a[3], nz, nx, ny, nt, u, zeta, r2, r;
+  int b;
+  *val = 0.0;
+  if (!(k > 0.0 && isfinite(k) && theta_k >= 0.0 && theta_k <= BL_PI
+        && theta_p >= 0.0 && theta_p <= BL_PI && isfinite(phi)))
+    return BL_EDOMAIN;
+  if (bl_eb_frame_set(c, km, 2.0 * pow(sin(0.5 * theta_k), 2), sin(theta_k),
+                      &f) != 0)
+    return BL_SUCCESS;   /* beyond the end point of this photon direction */
+  n[0] = sin(theta_p) * cos(phi);
+  n[1] = sin(theta_p) * sin(phi);
+  n[2] = cos(theta_p);
+  nz = n[0] * f.ez[0] + n[1] * f.ez[1] + n[2] * f.ez[2];
+  nx = n[0] * f.ex[0] + n[1] * f.ex[1] + n[2] * f.ex[2];
+  ny = n[0] * f.ey[0] + n[1] * f.ey[1] + n[2] * f.ey[2];
+  a[0] = n[1] * f.ez[2] - n[2] * f.ez[1];   /* |n x ez|: no cancellation */
+  a[1] = n[2] * f.ez[0] - n[0] * f.ez[2];   /* near the axis */
+  a[2] = n[0] * f.ez[1] - n[1] * f.ez[0];
+  nt = sqrt(a[0] * a[0] + a[1] * a[1] + a[2] * a[2]);
+  zeta = f.gb * f.e3s / (f.g * f.ps);
+  for (b = 0; b < 2; b++) {
+    double sgn = b == 0 ? 1.0 : -1.0, hs, hs2, d, st, p3;
+    bl_ebpoint x;
+    if (nz == 0.0) {             /* n perpendicular to ez: cos* = -zeta */
+      if (b == 1 || !(zeta < 1.0))
+        continue;
+      hs = 1.0 + zeta;
+      hs2 = 1.0 - zeta;
+      d = (1.0 - zeta) * (1.0 + zeta);
+    }
+    else {
+      u = f.g * f.g * nt * nt / (nz * nz);
+      r2 = 1.0 + u * (1.0 - zeta) * (1.0 + zeta);
+      if (!(r2 > 0.0) || !isfinite(u))
+        break;                   /* beyond the largest lab angle; at it
+                                 ** the density is singular (integrably,
+                                 ** ~ 1/sqrt of the distance): 0 there */
+      r = sqrt(r2);
+      if ((zeta + sgn * r) * nz <= 0.0)
+        continue;                /* this branch points the other way */
+      if (b == 0) {
+        hs = u * (1.0 + zeta) * (1.0 + zeta) / (1.0 + u * (1.0 + zeta) + r);
+        hs2 = (1.0 + u * (1.0 - zeta) + r) / (1.0 + u);
+      }
+      else {
+        hs2 = u * (1.0 - zeta) * (1.0 - zeta) / (1.0 + u * (1.0 - zeta) + r);
+        hs = 2.0 - hs2;
+      }
+      d = r * fabs(r + sgn * zeta) / (1.0 + u);
+    }
+
+    st = sqrt(fmax(hs * hs2, 0.0));
+    bl_eb_point_at(c, &f, hs, hs2, nt > 0.0 ? st * nx / nt : 0.0,
+                   nt > 0.0 ? st * ny / nt : 0.0, &x);
+    if (c->kind == BL_EBREMS_ELECTRON && x.p[2][0] < x.p[3][0])
+      continue;                  /* e-: the faster electron is the one at n */
+    p3 = sqrt(x.p[2][1] * x.p[2][1] + x.p[2][2] * x.p[2][2]
+              + x.p[2][3] * x.p[2][3]);
+    /* bl_eb_d5 halves e- e- for the two electrons' phase space; here only
+    ** the faster is at n */
+    *val += bl_eb_d5(c, &x) * (c->kind == BL_EBREMS_ELECTRON ? 2.0 : 1.0)
+            * p3 * p3 * p3 / (f.ps * f.ps * f.ps * f.g * d);
+  }
+  *val *= bl_eb_unit();
+  return isfinite(*val) ? BL_SUCCESS : BL_ENONFINITE;
+}
+
 /* ---- the integrals -------------------------------------------------- */
 
 typedef struct integ {

@@ -130,18 +130,28 @@ static int worse (int a, int b) {
 
 /* Z times the exact bound electron term's angular distribution of case c
 ** at the relative tolerance rtol into re (q's own tolerance restored). */
+/* The exact bound electron term of case c: its projectile on one bound
+** electron of c's element, binding by the case's S(q), the radiation the
+** case counts. */
+static int ecase (const bl_case *c, bl_ebrems *e) {
+  if (bl_ebrems_init(e, &c->particle, c->T) != BL_SUCCESS
+      || bl_ebrems_set_binding(e, c->Z, c->screening, c->params)
+         != BL_SUCCESS)
+    return BL_EDOMAIN;   /* bl_method_eexact and the case's model vouch */
+  if (c->opts.eradiation == BL_ERAD_PROJECTILE)
+    e->radiate = BL_EBREMS_RAD_PROJECTILE;   /* set up refuses it for e+- */
+  return BL_SUCCESS;
+}
+
+
 static int eangular (const bl_case *c, double k, double theta_k, double rtol,
                      bl_quad *q, bl_result *re) {
   bl_ebrems e;
   double rq = bl_quad_rtol(q);
   int st;
   memset(re, 0, sizeof *re);
-  if (bl_ebrems_init(&e, &c->particle, c->T) != BL_SUCCESS
-      || bl_ebrems_set_binding(&e, c->Z, c->screening, c->params)
-         != BL_SUCCESS)
-    return BL_EDOMAIN;   /* bl_method_eexact and the case's model vouch */
-  if (c->opts.eradiation == BL_ERAD_PROJECTILE)
-    e.radiate = BL_EBREMS_RAD_PROJECTILE;   /* set up refuses it for e+- */
+  if (ecase(c, &e) != BL_SUCCESS)
+    return BL_EDOMAIN;
   st = bl_quad_set_rtol(q, rtol);
   if (st == BL_SUCCESS)
     st = bl_ebrems_angular_e(&e, k, theta_k, q, re);
@@ -211,11 +221,49 @@ int bl_method_angular_e (const bl_case *c, int method, double k,
 }
 
 
-int bl_method_full_e (const bl_case *c, int method, double k, double theta_k,
-                      double theta_p, double phi, bl_result *out) {
+int bl_method_full_scaled_e (const bl_case *c, int method, double k,
+                             double theta_k, double theta_p, double phi,
+                             bl_result *out) {
   if (method == BL_METHOD_DISTORTED || method == BL_METHOD_AUTO)
     return bl_dw_full_e(c, k, theta_k, theta_p, phi, out);
   return bl_dcs_full_e(c, k, theta_k, theta_p, phi, out);
+}
+
+
+/*
+** Where the bound electron term is wired (bl_method_eexact): the nuclear
+** part by the method (the case without its electrons) plus Z times the
+** exact term's own fully differential value at the same photon and the
+** same projectile direction (bl_ebrems_full: the projectile's energy and
+** the struck electron's momentum from conservation; for e- the faster
+** electron at theta_p), 0 from the end point k_max on.  Its integral over
+** the projectile's direction is the exact angular distribution.
+*/
+int bl_method_full_e (const bl_case *c, int method, double k, double theta_k,
+                      double theta_p, double phi, bl_result *out) {
+  bl_case cn;
+  bl_ebrems e;
+  double v;
+  int st, se;
+  if (c == NULL || !bl_method_eexact(c))
+    return bl_method_full_scaled_e(c, method, k, theta_k, theta_p, phi, out);
+  st = bl_method_nuclear(c, &cn);
+  if (st != BL_SUCCESS) {
+    bl_method_clear(out, method);
+    return st;
+  }
+  st = bl_method_full_scaled_e(&cn, method, k, theta_k, theta_p, phi, out);
+  if (st != BL_SUCCESS && !bl_status_soft(st))
+    return st;
+  if (!(k < c->ekmax))
+    return st;
+  se = ecase(c, &e);
+  if (se == BL_SUCCESS)
+    se = bl_ebrems_full(&e, k, theta_k, theta_p, phi, &v);
+  if (se != BL_SUCCESS)
+    return se;
+  out->val += c->Z * v;
+  return st;
 }
 
 

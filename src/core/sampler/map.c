@@ -136,7 +136,8 @@ static void parts (const smp_chan *ch, smp_point *pt) {
 
 
 /*
-** Beam-frame angles of the photon-frame geometry (for bl_method_full_e):
+** Beam-frame angles of the photon-frame geometry (for
+** bl_method_full_scaled_e: the events on electrons keep static kinematics):
 ** theta_k = theta0; 1 - cos(theta_p) = 2 sin^2((theta - theta0)/2) + s s0 v
 ** (the angle between p and the beam, without cancellation); the azimuth
 ** between k and p around the beam from p's transverse components in the
@@ -168,7 +169,7 @@ double bl_smp_value (const bl_sampler *s, const smp_chan *ch, smp_point *pt) {
     bl_result r;
     double tk, tp, phib;
     beam_angles(pt, &tk, &tp, &phib);
-    if (bl_method_full_e(c, s->method, pt->kmev, tk, tp, phib, &r)
+    if (bl_method_full_scaled_e(c, s->method, pt->kmev, tk, tp, phib, &r)
         != BL_SUCCESS)
       return NAN;
     return r.val > 0.0 ? r.val : 0.0;

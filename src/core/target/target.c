@@ -231,7 +231,10 @@ static int pointof (const bl_target *t, int i, const bl_case *cn, int kind,
     case BL_TARGET_ANGULAR:
       return angularof(t, i, c, k, theta_k, q, r);
     case BL_TARGET_FULL:
-      return bl_method_full_e(c, t->method, k, theta_k, theta_p, phi, r);
+      return eexact(t, i)
+             ? bl_method_full_e(c, t->method, k, theta_k, theta_p, phi, r)
+             : bl_method_full_scaled_e(c, t->method, k, theta_k, theta_p,
+                                       phi, r);
     default:
       return BL_EDOMAIN;
   }
@@ -241,8 +244,7 @@ static int pointof (const bl_target *t, int i, const bl_case *cn, int kind,
 /*
 ** An angular or fully differential value of element i that keeps the
 ** static term's angular shape for its bound electron part
-** (bl_method_eshape; the angular distribution only where its electron
-** part is not the exact one): flag r and put the nuclear part alone in
+** (bl_method_eshape, where its electron part is not the exact one): flag r and put the nuclear part alone in
 ** *nuc (the value of the case without its electrons); otherwise *nuc =
 ** r->val.  Where that second value fails, the whole value counts as the
 ** electrons'.
@@ -255,8 +257,7 @@ static void eshape (const bl_target *t, int i, int kind, double k,
   bl_result rn;
   int st;
   *nuc = r->val;
-  if (kind == BL_TARGET_DK || !bl_method_eshape(c, k)
-      || (kind == BL_TARGET_ANGULAR && eexact(t, i)))
+  if (kind == BL_TARGET_DK || !bl_method_eshape(c, k) || eexact(t, i))
     return;
   r->warn |= BL_WARN_ESHAPE;
   *nuc = 0.0;
