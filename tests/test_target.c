@@ -773,6 +773,19 @@ static double eshape_angular (const bl_target *t, double k, double theta_k,
 }
 
 
+/* The target with and without its electrons, and the exact term of one
+** bound electron of element Z (Hartree-Fock binding). */
+static void eshape_pair (bl_target *on, bl_target *off, bl_ebrems *e,
+                         const char *p, const char *mat, int Z, double T,
+                         bl_quad *q) {
+  eshape_target(on, p, mat, T, 1, q);
+  eshape_target(off, p, mat, T, 0, q);
+  cr_assert_eq(bl_ebrems_init(e, bl_particle_find(p), T), 0);
+  cr_assert_eq(bl_ebrems_set_binding(e, Z, bl_model_find("hartree-fock"),
+                                     NULL), 0);
+}
+
+
 Test(eshape, electron_part_is_the_exact_one, .timeout = 120) {
   static const struct { const char *p, *mat; int Z; double T, k; } cs[] = {
     {"electron", "H", 1, 1.0, 0.3}, {"muon", "C", 6, 1e3, 1.0},
@@ -785,12 +798,7 @@ Test(eshape, electron_part_is_the_exact_one, .timeout = 120) {
   for (i = 0; i < sizeof cs / sizeof cs[0]; i++) {
     bl_target on, off;
     bl_ebrems e;
-    eshape_target(&on, cs[i].p, cs[i].mat, cs[i].T, 1, q);
-    eshape_target(&off, cs[i].p, cs[i].mat, cs[i].T, 0, q);
-    cr_assert_eq(bl_ebrems_init(&e, bl_particle_find(cs[i].p), cs[i].T), 0);
-    cr_assert_eq(bl_ebrems_set_binding(&e, cs[i].Z,
-                                       bl_model_find("hartree-fock"), NULL),
-                 0);
+    eshape_pair(&on, &off, &e, cs[i].p, cs[i].mat, cs[i].Z, cs[i].T, q);
     for (j = 0; j < sizeof th / sizeof th[0]; j++) {
       bl_tresult r;
       bl_result re;
@@ -832,12 +840,7 @@ Test(eshape, full_electron_part_is_the_exact_one) {
     bl_tresult r, rn;
     bl_result rs;
     double v;
-    eshape_target(&on, cs[i].p, cs[i].mat, cs[i].T, 1, q);
-    eshape_target(&off, cs[i].p, cs[i].mat, cs[i].T, 0, q);
-    cr_assert_eq(bl_ebrems_init(&e, bl_particle_find(cs[i].p), cs[i].T), 0);
-    cr_assert_eq(bl_ebrems_set_binding(&e, cs[i].Z,
-                                       bl_model_find("hartree-fock"), NULL),
-                 0);
+    eshape_pair(&on, &off, &e, cs[i].p, cs[i].mat, cs[i].Z, cs[i].T, q);
     cr_assert_eq(bl_ebrems_full(&e, cs[i].k, cs[i].tk, cs[i].tp, cs[i].ph,
                                 &v), 0);
     cr_assert(v > 0.0, "%s: no electron part at this point", cs[i].p);
