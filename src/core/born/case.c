@@ -298,15 +298,15 @@ int bl_case_set_formfactor (bl_case *c, double radius) {
 ** 10 keV (the muons' 1e-4 k_max at 1 GeV is 9 keV); DEVELOPERS.md, "Other
 ** projectiles". */
 #define EHELD_K_MIN 0.01
-/* EHELD_PROJ: the projectile's radiation alone (BL_ERAD_PROJECTILE) keeps
-** no such rise: R_P at u = 1e-4 against its value held from the first node
-** u = 1e-3, fresh integrals, muon on Z = 1, 11, 26 from 3 MeV to 10 TeV:
-** at most 2.3 % above it (300 MeV, Z = 26; 0.1-1.5 % elsewhere); not
-** flagged (DEVELOPERS.md, "Muons: the projectile's radiation alone"). */
 
+/* The projectile's radiation alone (BL_ERAD_PROJECTILE) keeps no such
+** rise: R_P at u = 1e-4 against its value held from the first node u =
+** 1e-3, fresh integrals, muon on Z = 1, 11, 26 from 3 MeV to 10 TeV: at
+** most 2.3 % off (300 MeV, Z = 26; 0.1-1.5 % elsewhere); not flagged
+** (DEVELOPERS.md, "Muons: the projectile's radiation alone"). */
 double bl_case_eheld_k (const bl_case *c) {
   if (c != NULL && c->opts.eradiation == BL_ERAD_PROJECTILE)
-    return 0.0;   /* R_P is flat there: held within 2.3 % (EHELD_PROJ) */
+    return 0.0;
   if (c != NULL && c->ebt - 1 == BL_EBT_OTHER)
     return bl_ebh_u[0] * c->ekmax >= EHELD_K_MIN ? bl_ebh_u[0] * c->ekmax
                                                  : 0.0;
