@@ -208,9 +208,11 @@ static void pushnotes (lua_State *L, const bl_target *t, bl_quad *q,
     lua_pushstring(L, "events on atomic electrons: the same static "
                    "kinematics (no electron recoil), with the bound "
                    "electron term's dsigma/dk but the static term's photon "
-                   "angles; angular{} gives their exact angular "
-                   "distribution, which for muons' soft photons is several "
-                   "times broader (README, What is computed)");
+                   "angles; angular{} and differential{} give their exact "
+                   "distributions (the photon angles for muons' soft "
+                   "photons several times broader; a heavy projectile "
+                   "deflected by less than m_e/M) (README, What is "
+                   "computed)");
     lua_rawseti(L, -2, ++n);
   }
   if (want) {
