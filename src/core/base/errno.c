@@ -59,7 +59,8 @@ const char *bl_warn_text (unsigned bit) {
              "node is held at its value there: too low";
     case BL_WARN_ERANGE:
       return "the bound electron term is held at the edge of its table "
-             "(projectile mass or energy outside it)";
+             "(above T = 10 TeV; in the event sampler, projectile mass or "
+             "energy outside it)";
     case BL_WARN_ESHAPE:
       return "the atomic-electron part of this angular or fully "
              "differential value has the static term's angular shape, "

@@ -245,6 +245,7 @@ int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
   c->R = o->nucleus == BL_NUCLEUS_UNIFORM ? bl_nucleus_radius(A) : 0.0;
   c->warn = (p->flags & BL_PARTICLE_COMPOSITE) ? BL_WARN_POINTLIKE : 0u;
   c->ebt = 0;
+  c->ebexact = 0;
   c->ekmax = 0.0;
   lepton = p->spin == 0.5 && fabs(fabs(p->charge) - 1.0) <= 1e-12;
   mu = lepton && fabs(p->mass - BL_MMU_MEV) <= 1e-12 * BL_MMU_MEV;
@@ -269,9 +270,10 @@ int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
     c->ebt = 1 + BL_EBT_OTHER;
     c->ekmax = T / (1.0 + m * m / (BL_ME_MEV * (e0 + p0)));
     bl_ebh_rows(p->spin == 0.5, m, Z, T, c->ebrow);
-    if (m > BL_EBH_M_MAX * (1.0 + 1e-12) || T < BL_EBH_TAU_MIN * m
-        || T > BL_EBREMS_T_MAX)
+    if (T > BL_EBREMS_T_MAX)
       c->warn |= BL_WARN_ERANGE;
+    else if (m > BL_EBH_M_MAX * (1.0 + 1e-12) || T < BL_EBH_TAU_MIN * m)
+      c->ebexact = 1;
   } else if (c->opts.electrons && p->mass > 2.0 * BL_ME_MEV)
     c->warn |= BL_WARN_STATIC_E;
   return targetfactor(c, 0.0);

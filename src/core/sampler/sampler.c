@@ -406,6 +406,9 @@ int bl_sampler_new (const bl_target *t, double kmin, double kmax,
     }
   }
   s->warn = t->warn | warn;
+  for (e = 0; e < t->n; e++)   /* its events on electrons keep the held */
+    if (t->c[e].ebexact)       /* ratio that dsigma/dk replaces there */
+      s->warn |= BL_WARN_ERANGE;
   *out = s;
   return BL_SUCCESS;
 }
