@@ -14,14 +14,22 @@
 extern "C" {
 #endif
 
-/* Nucleus models and the three-way switch of the corrections. */
-enum { BL_NUCLEUS_POINT = 0, BL_NUCLEUS_UNIFORM = 1 };
+/* Nucleus models and the three-way switch of the corrections.
+** BL_NUCLEUS_UNIFORM: the uniform sphere's elastic (coherent) field,
+** Z^2 F_N^2.  BL_NUCLEUS_INCOHERENT: that plus the nucleus's incoherent
+** part, the closure sum Z (1 - F_N^2) of Z uncorrelated point protons
+** (no Pauli blocking, no excitation energy, no proton size: an upper
+** bound, flagged BL_WARN_NINCOH where it counts, m R > 0.1 hbar c), the
+** convention of muon bremsstrahlung on nuclei (Kelner, Kokoulin &
+** Petrukhin's D_n^(1 - 1/Z)).  */
+enum { BL_NUCLEUS_POINT = 0, BL_NUCLEUS_UNIFORM = 1,
+       BL_NUCLEUS_INCOHERENT = 2 };
 enum { BL_APPLY_OFF = 0, BL_APPLY_ON = 1, BL_APPLY_AUTO = 2 };
 
 /* What the target factor and the corrections include. */
 typedef struct bl_opts {
   int electrons;   /* 1: add the field of the atomic electrons, S(q) */
-  int nucleus;     /* BL_NUCLEUS_POINT or BL_NUCLEUS_UNIFORM */
+  int nucleus;     /* BL_NUCLEUS_POINT, _UNIFORM or _INCOHERENT */
   double A;        /* mass number for R = 1.2 A^1/3 fm; 0: the standard
                    ** atomic weight rounded */
   int coulomb;     /* BL_APPLY_*: Davies-Bethe-Maximon correction */

@@ -37,12 +37,16 @@ enum {
   BL_WARN_ERANGE    = 1u << 13, /* bound electron term of a projectile other
                                 ** than e+- and mu+- outside its table's
                                 ** mass or energy range: held at the edge */
-  BL_WARN_ESHAPE    = 1u << 14  /* an angular or fully differential value
+  BL_WARN_ESHAPE    = 1u << 14, /* an angular or fully differential value
                                 ** whose bound electron part keeps the
                                 ** static term's angular shape
                                 ** (bl_method_eshape) */
+  BL_WARN_NINCOH    = 1u << 15  /* the nucleus's incoherent part
+                                ** (BL_NUCLEUS_INCOHERENT) counts: the
+                                ** closure sum of point protons, an upper
+                                ** bound (no Pauli blocking) */
 };
-#define BL_WARN_COUNT 15
+#define BL_WARN_COUNT 16
 
 /* The share of the value above which a model uncertainty (sys) is
 ** warned about. */

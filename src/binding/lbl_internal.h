@@ -213,6 +213,7 @@ bl_target *lbl_kstart (lua_State *L, Opts *o, bl_quad **q, Warnings *w);
 void lbl_pushwarnings (lua_State *L, const Opts *o, const Warnings *w);
 double lbl_pergram (const Opts *o);
 void lbl_pushelectrons (lua_State *L, const Opts *o);
+void lbl_pushnucleus (lua_State *L, const Opts *o);
 void lbl_setresult (lua_State *L, int t, int first,
                     const char *const names[], const char *const units[],
                     const Opts *o, const Warnings *w);

@@ -199,9 +199,11 @@ void lbl_readopts (lua_State *L, const char *fname,
     o->bo.nucleus = BL_NUCLEUS_UNIFORM;
   else if (strcmp(s, "point") == 0)
     o->bo.nucleus = BL_NUCLEUS_POINT;
+  else if (strcmp(s, "uniform+incoherent") == 0)
+    o->bo.nucleus = BL_NUCLEUS_INCOHERENT;
   else
     lbl_argfail(L, fname, "unknown nucleus model '%.60s' in field 'nucleus'; "
-            "allowed: 'uniform' (default), 'point'", s);
+            "allowed: 'uniform' (default), 'point', 'uniform+incoherent'", s);
   switch (lua_getfield(L, 1, "electrons")) {
     case LUA_TNIL: break;
     case LUA_TBOOLEAN:

@@ -270,6 +270,34 @@ static int formfactorsize (const Opts *o, const Warnings *w, double k,
 }
 
 
+/*
+** The relative change of the exact-Born dsigma/dk at k that the nucleus's
+** incoherent part makes: the call's target against the same with the
+** uniform nucleus alone; 0 when an evaluation failed or memory is short.
+*/
+static int incoherentsize (const Opts *o, const Warnings *w, double k,
+                           double *rel) {
+  bl_target *u = malloc(sizeof *u);
+  bl_opts bo = o->bo;
+  double v0, v1;
+  int ok = 0, st;
+  if (u == NULL)
+    return 0;
+  bo.nucleus = BL_NUCLEUS_UNIFORM;
+  st = bl_target_setup(u, &o->particle, &o->target, o->screening, NULL, o->T,
+                       &bo, BL_METHOD_BORN, &o->sup, NULL);
+  if (st == BL_SUCCESS && bornat(w, k, 1, 0.0, &v1)) {
+    Warnings wu = *w;
+    wu.t = u;
+    ok = bornat(&wu, k, 1, 0.0, &v0);
+    if (ok)
+      *rel = v1 / v0 - 1.0;
+  }
+  free(u);
+  return ok;
+}
+
+
 /* Push the string for warning bit `bit`, with the numbers of this call;
 ** ffok and ffrel: formfactorsize's answer for the point-charge warning. */
 static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
@@ -386,6 +414,23 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                "leaves the nucleus only "
                "(README, What is computed)", text,
                100.0 * share, ze, ymax, p->name, p->mass, o->T);
+      break;
+    }
+    case BL_WARN_NINCOH: {
+      double k = sizek(o, w, 0.0), rel = 0.0;
+      char size[160] = "its size here was not estimated (an evaluation "
+                       "failed)";
+      if (incoherentsize(o, w, k, &rel))
+        snprintf(size, sizeof size, "here it changes the exact-Born "
+                 "dsigma/dk at k = %g MeV by %+.3g %%", k, 100.0 * rel);
+      snprintf(msg, sizeof msg, "%s: %s (nucleus = 'uniform+incoherent', "
+               "%s on %s at T = %g MeV); Pauli blocking would cut it at "
+               "transfers below 2 k_F ~ 500 MeV, by up to about a half at "
+               "the 40-100 MeV that count for muons (a Fermi-gas estimate), "
+               "and for projectiles heavier than the muon the transfers "
+               "beyond hbar c/r_p ~ 235 MeV, which the proton's own size "
+               "would cut, count too (README, What is computed)", text,
+               size, p->name, o->target.name, o->T);
       break;
     }
     case BL_WARN_ESHAPE: {
@@ -608,6 +653,14 @@ void lbl_pushelectrons (lua_State *L, const Opts *o) {
 }
 
 
+/* The settings' 'nucleus', as the user writes it. */
+void lbl_pushnucleus (lua_State *L, const Opts *o) {
+  lua_pushstring(L, o->bo.nucleus == BL_NUCLEUS_POINT ? "point"
+                    : o->bo.nucleus == BL_NUCLEUS_INCOHERENT
+                    ? "uniform+incoherent" : "uniform");
+}
+
+
 /* Push a correction switch as the user writes it: true, false, "auto". */
 static void pushswitch (lua_State *L, int sw) {
   if (sw == BL_APPLY_AUTO)
@@ -670,7 +723,7 @@ static void pushsettings (lua_State *L, const Opts *o) {
     lua_pushnumber(L, o->rtol);
     lua_setfield(L, -2, "rtol");
   }
-  lua_pushstring(L, o->bo.nucleus == BL_NUCLEUS_UNIFORM ? "uniform" : "point");
+  lbl_pushnucleus(L, o);
   lua_setfield(L, -2, "nucleus");
   lbl_pushelectrons(L, o);
   lua_setfield(L, -2, "electrons");

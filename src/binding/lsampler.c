@@ -377,7 +377,7 @@ int l_sampler (lua_State *L) {
   lua_setfield(L, -2, "coulomb_factor");
   lbl_pushelectrons(L, &o);
   lua_setfield(L, -2, "electrons");
-  lua_pushstring(L, o.bo.nucleus == BL_NUCLEUS_UNIFORM ? "uniform" : "point");
+  lbl_pushnucleus(L, &o);
   lua_setfield(L, -2, "nucleus");
   lua_pushinteger(L, (lua_Integer)info.evaluations);
   lua_setfield(L, -2, "setup_evaluations");

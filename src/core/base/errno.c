@@ -65,6 +65,10 @@ const char *bl_warn_text (unsigned bit) {
       return "the atomic-electron part of this angular or fully "
              "differential value has the static term's angular shape, "
              "scaled to the bound electron term's dsigma/dk";
+    case BL_WARN_NINCOH:
+      return "the nucleus's incoherent part is the closure sum of its "
+             "protons as free point charges (no Pauli blocking, no "
+             "excitation energy, no proton size): an upper bound";
     case BL_WARN_SOFT:
       return "distorted waves at photon energies below 1e-9 T: the Born value "
              "times the distorted/Born ratio at k = 1e-9 T";

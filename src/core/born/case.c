@@ -123,6 +123,46 @@ static int electronff (bl_case *c, double x, double coef, double lam) {
 
 
 /*
+** The nucleus's incoherent part (BL_NUCLEUS_INCOHERENT), the closure sum
+** over its excited states for Z uncorrelated point protons, Z (1 - F_N^2),
+** in the nuclear part of W (DEVELOPERS.md, "The nucleus's incoherent
+** part"):
+**   Z (1 - F_N^2) / (Z^2 q^4) = (1/Z) U (2 w_0 - U),
+**   U = (1 - F_N)/q^2 = sum_j c_j u_j (the uniform-sphere fit),
+** unscreened (the electrons stay in their ground state while the nucleus
+** is excited: no interference), times F_p^2 with the projectile's form
+** factor (lam > 0), applied to each factor as in formfactor().  The
+** protons' own size is left out, so that the high-energy method's
+** (1 - 1/Z) uniform + (1/Z) point (nucsize.c) is the same quantity.
+*/
+static int incoherent (bl_case *c, double lam) {
+  double up[BL_NUCLEUS_NPOLE + 1], ua[BL_NUCLEUS_NPOLE + 1];
+  double wp[BL_NUCLEUS_NPOLE + 2], wa[BL_NUCLEUS_NPOLE + 2];
+  double Rm = c->R * c->particle.mass / BL_HBARC_MEVFM;   /* units of 1/m */
+  int nu = 0, nw = 0, i, j, st;
+  wp[nw] = 0.0;
+  wa[nw++] = 2.0;
+  for (j = 0; j < BL_NUCLEUS_NPOLE; j++) {
+    up[nu] = wp[nw] = bl_nucleus_pole[j] / (Rm * Rm);
+    ua[nu++] = bl_nucleus_coef[j];
+    wa[nw++] = -bl_nucleus_coef[j];
+  }
+  if (lam > 0.0) {
+    double l2 = lam;
+    nu = formfactor(up, ua, nu, &lam);
+    nw = formfactor(wp, wa, nw, &l2);
+  }
+  for (i = 0; i < nu; i++)
+    for (j = 0; j < nw; j++) {
+      st = addterm(c, 1, up[i], wp[j], ua[i] * wa[j] / c->Z);
+      if (st != BL_SUCCESS)
+        return st;
+    }
+  return BL_SUCCESS;
+}
+
+
+/*
 ** The target factor W = G / (Z^2 q^4) as terms c w_i w_j (units m = 1):
 **   elastic:   ((Z F_N - F) / (Z q^2))^2 = (sum_i a_i w_i - sum_j c_j u_j)^2,
 **     1 - F/Z = sum_i a_i q^2 w_i from the model (Yukawa form), and
@@ -169,6 +209,11 @@ static int targetfactor (bl_case *c, double lam) {
       if (st != BL_SUCCESS)
         return st;
     }
+  if (c->R > 0.0 && c->opts.nucleus == BL_NUCLEUS_INCOHERENT) {
+    st = incoherent(c, lam);
+    if (st != BL_SUCCESS)
+      return st;
+  }
   c->nelastic = c->nterm;   /* electron pair terms follow */
   if (c->opts.electrons) {
     st = c->screening->incoherent(c->Z, c->params, &y);
@@ -201,6 +246,11 @@ int bl_case_init (bl_case *c, const bl_particle *p, int Z,
 }
 
 
+/* Below m R = 0.1 hbar c the incoherent part is below 1e-3 / Z of the
+** value (1 - F_N^2 ~ q^2 R^2 / 5 at the transfers q < m that count):
+** not flagged (electrons on any nucleus: m R < 0.02 hbar c). */
+#define NINCOH_MR_MIN 0.1
+
 int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
                    const bl_model *screening, const double *params, double T,
                    const bl_opts *o) {
@@ -215,7 +265,7 @@ int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
   if (o == NULL)
     o = &bl_opts_bare;
   if (!(o->A >= 0.0 && o->A <= 300.0)
-      || (o->nucleus != BL_NUCLEUS_POINT && o->nucleus != BL_NUCLEUS_UNIFORM)
+      || o->nucleus < BL_NUCLEUS_POINT || o->nucleus > BL_NUCLEUS_INCOHERENT
       || o->coulomb < BL_APPLY_OFF || o->coulomb > BL_APPLY_AUTO
       || o->elwert < BL_APPLY_OFF || o->elwert > BL_APPLY_AUTO
       || (o->eradiation != BL_ERAD_ALL && o->eradiation != BL_ERAD_PROJECTILE))
@@ -242,8 +292,11 @@ int bl_case_setup (bl_case *c, const bl_particle *p, int Z,
     c->opts.electrons = 0;   /* the model has no electron field (none) */
   A = o->A > 0.0 ? o->A : floor(bl_element_mass(Z) + 0.5);
   c->opts.A = A;
-  c->R = o->nucleus == BL_NUCLEUS_UNIFORM ? bl_nucleus_radius(A) : 0.0;
+  c->R = o->nucleus != BL_NUCLEUS_POINT ? bl_nucleus_radius(A) : 0.0;
   c->warn = (p->flags & BL_PARTICLE_COMPOSITE) ? BL_WARN_POINTLIKE : 0u;
+  if (o->nucleus == BL_NUCLEUS_INCOHERENT
+      && c->R * p->mass / BL_HBARC_MEVFM > NINCOH_MR_MIN)
+    c->warn |= BL_WARN_NINCOH;
   c->ebt = 0;
   c->ebexact = 0;
   c->ekmax = 0.0;

@@ -48,11 +48,13 @@ int bl_elwert_valid (const bl_kin *kn) {
 ** 0.9989, muons 5e-7; the rule "lambda >= BL_COULOMB_RADII R" is share
 ** >= 1/2.  The same share weighs the distortion of the distorted-wave
 ** method (distorted/dcs.c), so the two join without a step.  A point
-** nucleus keeps 1.
+** nucleus keeps 1; the incoherent part of BL_NUCLEUS_INCOHERENT counts as
+** the uniform nucleus (its share of the value is 1/Z of the difference
+** point - uniform, where the correction is small anyway).
 */
 double bl_coulomb_share (const bl_case *c) {
   double x;
-  if (c->opts.nucleus != BL_NUCLEUS_UNIFORM)
+  if (c->opts.nucleus == BL_NUCLEUS_POINT)
     return 1.0;
   x = BL_HBARC_MEVFM / c->particle.mass
       / (BL_COULOMB_RADII * bl_nucleus_radius(c->opts.A));

@@ -28,6 +28,11 @@
 ** Below m R = 1e-3 hbar c (electrons on hydrogen are at 3e-3) the effect
 ** is below 1e-5 and left out; beyond the grid (m R > 1.3e6 hbar c) the
 ** last cubic is extrapolated and bl_he_valid refuses the method.
+** With the nucleus's incoherent part (BL_NUCLEUS_INCOHERENT) the Born
+** target factor is (1 - 1/Z) times the uniform one plus 1/Z times the
+** point one (up to the screening of the incoherent part, O(F/Z) where
+** 1 - F_N is O(q^2 R^2): nothing at these transfers), so N is scaled by
+** 1 - 1/Z: Kelner, Kokoulin & Petrukhin's D_n^(1 - 1/Z).
 */
 
 #include <math.h>
@@ -65,6 +70,10 @@ void bl_nucsize_get (const bl_case *c, bl_he *h) {
     err += fabs(h->nucw[i]) * h->nuc[i]->err;
   }
   h->nnuc = 4;
+  if (c->opts.nucleus == BL_NUCLEUS_INCOHERENT)
+    for (i = 0; i < 4; i++)   /* (1 - 1/Z) uniform + (1/Z) point */
+      h->nucw[i] *= 1.0 - 1.0 / c->Z;
+  err *= c->opts.nucleus == BL_NUCLEUS_INCOHERENT ? 1.0 - 1.0 / c->Z : 1.0;
   /* maxerr is that of H, which enters phi four times */
   h->maxerr = fmax(h->maxerr, 0.25 * err);
 }
