@@ -213,4 +213,24 @@ do
   assert(byname.none and byname.exponential, "missing screening models")
 end
 
+-- nucleus = "uniform+incoherent": echoed, adds to the value, warned with
+-- its size where it counts (a muon on rock), not for electrons
+do
+  local vu = bl.dsdk{particle = "muon", target = "rock", T = 1e4, y = 0.5}
+  local v, e, w, info = bl.dsdk{particle = "muon", target = "rock", T = 1e4,
+                                y = 0.5, nucleus = "uniform+incoherent"}
+  assert(info.settings.nucleus == "uniform+incoherent", info.settings.nucleus)
+  assert(v > vu * 1.01 and v < vu * 1.06, v / vu)
+  local found
+  for _, x in ipairs(w) do
+    if x:find("incoherent part", 1, true) then found = x end
+  end
+  assert(found and found:find("by %+3%.%d+ %%"), found)
+  local _, _, we = bl.dsdk{particle = "electron", target = "Pb", T = 10,
+                           y = 0.5, nucleus = "uniform+incoherent"}
+  for _, x in ipairs(we) do
+    assert(not x:find("incoherent part", 1, true), x)
+  end
+end
+
 print("test_module: ok")
