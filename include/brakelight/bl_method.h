@@ -8,6 +8,7 @@
 #define BL_METHOD_H
 
 #include "bl_dcs.h"
+#include "bl_ebrems.h"
 
 #ifdef __cplusplus
 extern "C" {
@@ -198,6 +199,13 @@ int bl_method_eexact (const bl_case *c);
 ** events on atomic electrons. */
 int bl_method_angular_scaled_e (const bl_case *c, int method, double k,
                                 double theta_k, bl_quad *q, bl_result *out);
+
+/* The exact bound electron term of case c into e: its projectile on one
+** bound electron of c's element (bl_ebrems_init at c's T), binding by the
+** case's S(q) (bl_ebrems_set_binding), the radiation the case counts
+** (c->opts.eradiation).  BL_EDOMAIN where bl_ebrems refuses the case
+** (not where bl_method_eexact). */
+int bl_method_eterm (const bl_case *c, bl_ebrems *e);
 
 /* The case c set up again without its atomic electrons (the nuclear part
 ** alone, screened as before) into cn.  Exceptions of bl_case_setup. */

@@ -120,7 +120,8 @@ void bl_sampler_conf_default (bl_sampler_conf *conf);
 ** One event, lab frame, beam along +z, MeV: four-momenta (E, px, py, pz)
 ** of the beam particle p0, the photon k and the outgoing projectile p, the
 ** momentum q given to the atom (p0 = k + p + q, E0 = k_E + p_E: static
-** field), the element struck (index into the material and Z), whether the
+** field; for an event with recoil, below, the struck electron's momentum),
+** the element struck (index into the material and Z), whether the
 ** nucleus or an atomic electron took q (BL_HIT_*), the photon-frame
 ** variables drawn (k, h0 = 1 - cos(theta_k), h = 1 - cos of the angle
 ** between p and k, phi in [0, 2 pi)), the weight (mb; see
@@ -132,6 +133,9 @@ typedef struct bl_event {
   double kk, h0, h, phi;
   double weight;
   uint64_t id;
+  int recoil;      /* 1: an atomic electron took q with its recoil (the
+                   ** exact bound electron term): q is its momentum and
+                   ** E0 + m_e = k_E + p_E + (q^2 + m_e^2)^1/2; 0: static */
 } bl_event;
 
 /*
@@ -155,7 +159,10 @@ typedef struct bl_sampler bl_sampler;   /* opaque */
 ** is freed is not required: the sampler copies what it needs) and photon
 ** energies kmin < k < kmax (MeV, 0 < kmin < kmax <= T), with the settings
 ** conf (NULL: defaults) and the setup's random streams of `seed`.  Costs
-** about 2e5 evaluations of the fully differential value per element.
+** about 2e5 evaluations of the fully differential value per channel: one
+** per element, two where its bound electron part is the exact term
+** (bl_method_eexact, unless t->estatic): the nucleus alone, and the
+** electrons with their recoil.
 ** exceptions: BL_EDOMAIN (NULL arguments, a bad window or setting),
 ** BL_ENOMEM, BL_ENONFINITE (no finite non-zero value found, or a cross
 ** section that is not finite); *out is NULL on failure

@@ -29,13 +29,19 @@
     LHE and CSV trailers); attributes brakelight_hit (nucleus or
     electron) and brakelight_Z.  Static field: the outgoing atom carries q
     and the energy of the atom at rest (its recoil energy q^2/2M is
-    neglected), so its mass in the record is sqrt(M^2 - q^2).  Read back
+    neglected), so its mass in the record is sqrt(M^2 - q^2).  An event
+    whose atomic electron recoils (e.recoil: the exact bound electron term)
+    has six particles instead: the struck electron (PDG 11, momentum q,
+    status 1) and the ion at rest (the nuclear code, energy M - m_e; the
+    binding energy neglected) in place of the outgoing atom.  Read back
     by HepMC3 3.1.2 itself in make test-hepmc3 (tests/hepmc3/).
   - lhe: the Les Houches Event file format (version 3.0), GeV and pb:
     IDWTUP 3 (unweighted: XWGTUP = r XSECUP, r > 1 only for an overweight)
     or 4 (weighted: the mean of XWGTUP estimates sigma); beam and atom
-    (status -1), photon, projectile and atom (status 1).
-  - csv: one line per event, MeV (see the header line).
+    (status -1), photon, projectile and atom (status 1); with recoil,
+    photon, projectile, electron and ion at rest (as in hepmc3).
+  - csv: one line per event, MeV (see the header line); q is the struck
+    electron's momentum where it recoils (p_E is then below E0 - k_E).
   The header records the process, sigma and its error (setup), the
   settings, the seed, the shard and the event range; the trailer the
   run's own sigma estimate, efficiency and overweights.
@@ -48,6 +54,7 @@ local events = {}
 local format, concat = string.format, table.concat
 
 local PB_PER_MB = 1e9
+local ME = bl.particle("electron").mass   -- MeV
 
 local PDG = {
   electron = 11, positron = -11, muon = 13, antimuon = -13,
@@ -91,7 +98,8 @@ local function settings_lines(info, prefix)
   add("event_range", format("%s..%s", compat.inttext(info.first),
       compat.inttext(info.last - 1)))
   add("expected_efficiency", fnum(info.efficiency))
-  add("static_field", "the atom takes q and no energy")
+  add("static_field", "the atom takes q and no energy; an atomic "
+      .. "electron that recoils takes q with its energy (recoil)")
   for i, el in ipairs(info.elements) do
     add(format("element_%d", i), format("%s Z=%d A=%d share=%.6g", el.symbol,
         el.Z, el.A, el.share))
@@ -136,14 +144,22 @@ W.hepmc3 = {
     local pdg = PDG[info.particle] or 0
     local xs = info.sigma * PB_PER_MB
     buf[#buf + 1] = format(
-      "E %s 1 5\nU MEV MM\nW %.17g\nA 0 GenCrossSection %.9g %.9g -1 -1\nA 0 brakelight_hit %s\nA 0 brakelight_Z %d\n" ..
+      "E %s 1 %d\nU MEV MM\nW %.17g\nA 0 GenCrossSection %.9g %.9g -1 -1\nA 0 brakelight_hit %s\nA 0 brakelight_Z %d\n" ..
       "P 1 0 %d 0 0 %.17g %.17g %.17g 4\nP 2 0 %d 0 0 0 %.17g %.17g 4\nV -1 0 [1,2]\n" ..
-      "P 3 -1 22 %.17g %.17g %.17g %.17g 0 1\nP 4 -1 %d %.17g %.17g %.17g %.17g %.17g 1\n" ..
-      "P 5 -1 %d %.17g %.17g %.17g %.17g %.17g 1\n",
-      compat.inttext(e.id), e.weight * PB_PER_MB, xs, info.err * PB_PER_MB, e.hit, e.Z,
+      "P 3 -1 22 %.17g %.17g %.17g %.17g 0 1\nP 4 -1 %d %.17g %.17g %.17g %.17g %.17g 1\n",
+      compat.inttext(e.id), e.recoil and 6 or 5, e.weight * PB_PER_MB, xs,
+      info.err * PB_PER_MB, e.hit, e.Z,
       pdg, info.p0, info.E0, m, nucleus_code(el), M, M,
-      k[2], k[3], k[4], k[1], pdg, p[2], p[3], p[4], p[1], m,
-      nucleus_code(el), q[1], q[2], q[3], M, math.sqrt(M * M - qq))
+      k[2], k[3], k[4], k[1], pdg, p[2], p[3], p[4], p[1], m)
+    if e.recoil then   -- the struck electron, and the ion at rest
+      buf[#buf + 1] = format(
+        "P 5 -1 11 %.17g %.17g %.17g %.17g %.17g 1\nP 6 -1 %d 0 0 0 %.17g %.17g 1\n",
+        q[1], q[2], q[3], math.sqrt(qq + ME * ME), ME, nucleus_code(el),
+        M - ME, M - ME)
+    else
+      buf[#buf + 1] = format("P 5 -1 %d %.17g %.17g %.17g %.17g %.17g 1\n",
+        nucleus_code(el), q[1], q[2], q[3], M, math.sqrt(M * M - qq))
+    end
   end,
   trailer = function()
     return "HepMC::Asciiv3-END_EVENT_LISTING\n"
@@ -175,19 +191,28 @@ W.lhe = {
     local pdg, nuc = PDG[info.particle] or 0, nucleus_code(el)
     -- unweighted: r XSECUP; weighted: f/g (the mean estimates sigma)
     local wgt = e.weight * info.events * PB_PER_MB
-    buf[#buf + 1] = format("<event>\n5 1 %.10e -1 %.10e -1\n" ..
+    local last
+    if e.recoil then   -- the struck electron, and the ion at rest
+      local me = ME * G
+      last = format("11 1 1 2 0 0 %.10e %.10e %.10e %.10e %.10e 0 9\n" ..
+        "%d 1 1 2 0 0 0 0 0 %.10e %.10e 0 9\n",
+        q[1] * G, q[2] * G, q[3] * G, math.sqrt(qq + me * me), me,
+        nuc, M - me, M - me)
+    else
+      last = format("%d 1 1 2 0 0 %.10e %.10e %.10e %.10e %.10e 0 9\n",
+        nuc, q[1] * G, q[2] * G, q[3] * G, M, math.sqrt(M * M - qq))
+    end
+    buf[#buf + 1] = format("<event>\n%d 1 %.10e -1 %.10e -1\n" ..
       "%d -1 0 0 0 0 0 0 %.10e %.10e %.10e 0 9\n" ..
       "%d -1 0 0 0 0 0 0 0 %.10e %.10e 0 9\n" ..
       "22 1 1 2 0 0 %.10e %.10e %.10e %.10e 0 0 9\n" ..
       "%d 1 1 2 0 0 %.10e %.10e %.10e %.10e %.10e 0 9\n" ..
-      "%d 1 1 2 0 0 %.10e %.10e %.10e %.10e %.10e 0 9\n" ..
-      "#brakelight id=%s hit=%s Z=%d\n</event>\n",
-      wgt, 1 / 137.035999084,
+      "%s#brakelight id=%s hit=%s Z=%d\n</event>\n",
+      e.recoil and 6 or 5, wgt, 1 / 137.035999084,
       pdg, info.p0 * G, info.E0 * G, m, nuc, M, M,
       k[2] * G, k[3] * G, k[4] * G, k[1] * G,
       pdg, p[2] * G, p[3] * G, p[4] * G, p[1] * G, m,
-      nuc, q[1] * G, q[2] * G, q[3] * G, M, math.sqrt(M * M - qq),
-      compat.inttext(e.id), e.hit, e.Z)
+      last, compat.inttext(e.id), e.hit, e.Z)
   end,
   trailer = function(_, st)
     return format("<!-- run sigma %.9g +- %.3g pb, efficiency %.6g, overweights %s, excess %.6g -->\n</LesHouchesEvents>\n",

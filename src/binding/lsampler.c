@@ -201,18 +201,30 @@ static void pushnotes (lua_State *L, const bl_target *t, bl_quad *q,
            2.0 * p0 * p0 / mmin);
   lua_pushstring(L, buf);
   lua_rawseti(L, -2, ++n);
-  for (e = 0; e < t->n && !bl_method_eshape(&t->c[e], 0.5 * t->c[e].ekmax);
+  for (e = 0; e < t->n && (bl_method_eexact(&t->c[e])
+                            || !bl_method_eshape(&t->c[e],
+                                                 0.5 * t->c[e].ekmax));
        e++)
     ;
   if (e < t->n) {
-    lua_pushstring(L, "events on atomic electrons: the same static "
-                   "kinematics (no electron recoil), with the bound "
-                   "electron term's dsigma/dk but the static term's photon "
-                   "angles; angular{} and differential{} give their exact "
-                   "distributions (the photon angles for muons' soft "
-                   "photons several times broader; a heavy projectile "
-                   "deflected by less than m_e/M) (README, What is "
+    lua_pushstring(L, "events on atomic electrons beyond the exact term's "
+                   "range (bl_method_eexact: e-/e+ above 1 TeV, others "
+                   "above 10 TeV): the same static kinematics (no electron "
+                   "recoil), with the bound electron term's dsigma/dk but "
+                   "the static term's photon angles (README, What is "
                    "computed)");
+    lua_rawseti(L, -2, ++n);
+  }
+  for (e = 0; e < t->n && !bl_method_eexact(&t->c[e]); e++)
+    ;
+  if (e < t->n) {
+    lua_pushstring(L, "events on atomic electrons (recoil = true): the "
+                   "exact process on a free electron at rest, its recoil "
+                   "in the event (q its momentum, E0 + m_e = k + E + E_e); "
+                   "the binding weighs the rate (S(q)) but not the "
+                   "kinematics: the electron's binding energy and motion "
+                   "(up to about 100 keV, inner shells of heavy atoms) are "
+                   "neglected (README, Events)");
     lua_rawseti(L, -2, ++n);
   }
   if (want) {
@@ -420,9 +432,9 @@ static void pushvec (lua_State *L, const double *v, int n) {
 }
 
 
-/* One event as a table {id, weight, Z, element, hit, k, p, q}. */
+/* One event as a table {id, weight, Z, element, hit, recoil, k, p, q}. */
 static void pushevent (lua_State *L, const bl_event *e) {
-  lua_createtable(L, 0, 8);
+  lua_createtable(L, 0, 9);
   lua_pushinteger(L, (lua_Integer)e->id);
   lua_setfield(L, -2, "id");
   lua_pushnumber(L, e->weight);
@@ -433,6 +445,8 @@ static void pushevent (lua_State *L, const bl_event *e) {
   lua_setfield(L, -2, "element");
   lua_pushstring(L, e->hit == BL_HIT_ELECTRON ? "electron" : "nucleus");
   lua_setfield(L, -2, "hit");
+  lua_pushboolean(L, e->recoil);
+  lua_setfield(L, -2, "recoil");
   pushvec(L, e->k, 4);
   lua_setfield(L, -2, "k");
   pushvec(L, e->p, 4);

@@ -1,7 +1,8 @@
 // read_hepmc3.cc -- read a HepMC3 ASCII file of brakelight events back with
 // the HepMC3 library itself (Debian libhepmc3-dev) and check it: the number
 // of events, one vertex and five particles per event (beam and atom with
-// status 4, photon, projectile and atom with status 1), PDG codes, the
+// status 4, photon, projectile and atom with status 1; six where an atomic
+// electron recoils: photon, projectile, electron and ion), PDG codes, the
 // units, momentum balance at the vertex to rounding (the atom takes q; the
 // energy balance holds with the atom's energy at rest, static field), and
 // the cross-section record against the expected value.
@@ -47,11 +48,13 @@ int main(int argc, char **argv) {
       break;
     check(ev.momentum_unit() == HepMC3::Units::MEV, "unit MEV", n);
     check(ev.vertices().size() == 1, "one vertex", n);
-    check(ev.particles().size() == 5, "five particles", n);
-    if (ev.particles().size() == 5) {
+    const size_t np = ev.particles().size();
+    check(np == 5 || np == 6, "five particles (six with the struck "
+          "electron's recoil)", n);
+    if (np == 5 || np == 6) {
       const auto &p = ev.particles();
       double bal[4] = {0, 0, 0, 0}, scale = p[0]->momentum().e();
-      for (int i = 0; i < 5; i++) {
+      for (size_t i = 0; i < np; i++) {
         int st = p[i]->status(), sign = i < 2 ? 1 : -1;
         check(st == (i < 2 ? 4 : 1), "status", n);
         bal[0] += sign * p[i]->momentum().px();
@@ -61,8 +64,15 @@ int main(int argc, char **argv) {
       }
       check(p[0]->pid() == pdg && p[3]->pid() == pdg, "projectile PDG", n);
       check(p[2]->pid() == 22, "photon PDG 22", n);
-      check(p[1]->pid() == p[4]->pid() && p[1]->pid() > 1000000000,
+      check(p[1]->pid() == p[np - 1]->pid() && p[1]->pid() > 1000000000,
             "nucleus PDG", n);
+      if (np == 6) {
+        double q2 = p[4]->momentum().p3mod2(), e = p[4]->momentum().e();
+        check(p[4]->pid() == 11, "struck electron PDG 11", n);
+        check(std::fabs(e * e - q2 - 0.51099895 * 0.51099895)
+              <= 1e-9 * e * e, "struck electron on its mass shell", n);
+        check(p[5]->momentum().p3mod2() == 0.0, "ion at rest", n);
+      }
       check(p[2]->momentum().e() > 0.0, "photon energy", n);
       for (int j = 0; j < 4; j++)
         check(std::fabs(bal[j]) <= 1e-12 * scale, "four-momentum balance", n);

@@ -91,7 +91,9 @@ refuses(spec{ coulomb_factor = 1 }, "field 'coulomb_factor' must be true or fals
 -- setup settings: lighter setups take fewer evaluations; bad ones refused
 local light = bl.sampler(spec{ setup = { iterations = 2, points = 1000,
   cells = { 4, 4, 4, 2 }, cellpoints = 8, safety = 1.5 } }):info()
-assert(light.setup_evaluations == 2 * 1000 + 128 * 8, light.setup_evaluations)
+-- two channels for W: the nucleus and the atomic electrons' exact part
+assert(light.setup_evaluations == 2 * (2 * 1000 + 128 * 8),
+       light.setup_evaluations)
 refuses(spec{ setup = { cells = { 1, 2 } } }, "field 'setup.cells' must be 4 integers")
 refuses(spec{ setup = { pts = 1 } }, "unknown setup 'pts'")
 refuses(spec{ setup = { safety = 0.5 } }, "setup.safety")
@@ -125,7 +127,7 @@ local function read_lhe(path)
     for l in body:gmatch("[^\n]+") do lines[#lines + 1] = l end
     local h = {}
     for x in lines[1]:gmatch("%S+") do h[#h + 1] = tonumber(x) end
-    assert(#h == 6 and h[1] == 5, "event header")
+    assert(#h == 6 and (h[1] == 5 or h[1] == 6), "event header")
     local sum = { 0, 0, 0, 0 }
     for i = 2, 1 + h[1] do
       local p = {}
@@ -142,7 +144,7 @@ end
 
 -- HepMC3 structure
 local function read_hepmc3(path)
-  local nev, np, cur = 0, 0, nil
+  local nev, np, cur, want = 0, 0, nil, 5
   local f = assert(io.open(path))
   local first = f:read("*l")
   assert(first:find("^HepMC::Version 3"), "version line")
@@ -152,10 +154,11 @@ local function read_hepmc3(path)
     last = l
     local tag = l:sub(1, 2)
     if tag == "E " then
-      if cur then assert(cur == 5, "particles " .. cur) end
+      if cur then assert(cur == want, "particles " .. cur) end
       nev, cur = nev + 1, 0
       local id, nv, npart = l:match("^E (%d+) (%d+) (%d+)$")
-      assert(id and nv == "1" and npart == "5", l)
+      assert(id and nv == "1" and (npart == "5" or npart == "6"), l)
+      want = tonumber(npart)
     elseif tag == "P " then
       cur = cur + 1
       local f_ = {}
@@ -206,7 +209,8 @@ local function evlines(path)
   return t
 end
 local whole, merged = evlines(tmp .. ".hepmc"), evlines(tmp .. ".merged.hepmc")
-assert(#whole == 3000 and #merged == 3000)
+-- five particle lines an event, six where an atomic electron recoils
+assert(#whole >= 3000 and #whole <= 3600 and #merged == #whole)
 for i = 1, #whole do assert(whole[i] == merged[i], "event line " .. i) end
 
 -- a failing run: no OUTPUT, the .part keeps whole events only
@@ -336,4 +340,32 @@ for _, x in ipairs{ ".lhe", ".hepmc", ".csv", ".merged.hepmc", ".x.lhe.part" } d
   os.remove(tmp .. x)
 end
 for _, x in ipairs(files) do os.remove(x) end
+-- events on atomic electrons carry the struck electron's recoil: q is its
+-- momentum and E0 + m_e = k_E + p_E + E_e (internal consistency)
+do
+  local s = bl.sampler(spec{ particle = "muon", target = "water", T = 1e4,
+                             kmin = 10, events = 3000 })
+  local me, nrec = bl.particle("electron").mass, 0
+  for _, e in ipairs(s:events(3000)) do
+    assert(type(e.recoil) == "boolean")
+    if e.recoil then
+      nrec = nrec + 1
+      assert(e.hit == "electron")
+      local q = e.q
+      local ee = math.sqrt(q[1] ^ 2 + q[2] ^ 2 + q[3] ^ 2 + me * me)
+      local e0 = 1e4 + bl.particle("muon").mass
+      assert(math.abs(e0 + me - e.k[1] - e.p[1] - ee) < 1e-9 * e0,
+             "energy with recoil")
+    else
+      assert(e.hit == "nucleus")
+    end
+  end
+  assert(nrec > 0, "no event with recoil")
+  local found
+  for _, w in ipairs(s:info().warnings) do
+    if w:find("recoil = true", 1, true) then found = true end
+  end
+  assert(found, "recoil note")
+end
+
 print("test_sampler: ok")

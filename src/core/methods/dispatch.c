@@ -134,10 +134,7 @@ static int worse (int a, int b) {
 }
 
 
-/* The exact bound electron term of case c: its projectile on one bound
-** electron of c's element, binding by the case's S(q), the radiation the
-** case counts. */
-static int ecase (const bl_case *c, bl_ebrems *e) {
+int bl_method_eterm (const bl_case *c, bl_ebrems *e) {
   if (bl_ebrems_init(e, &c->particle, c->T) != BL_SUCCESS
       || bl_ebrems_set_binding(e, c->Z, c->screening, c->params)
          != BL_SUCCESS)
@@ -158,7 +155,7 @@ static int eterm (const bl_case *c, double k, const double *theta_k,
   double rq = bl_quad_rtol(q);
   int st;
   memset(re, 0, sizeof *re);
-  if (ecase(c, &e) != BL_SUCCESS)
+  if (bl_method_eterm(c, &e) != BL_SUCCESS)
     return BL_EDOMAIN;
   st = bl_quad_set_rtol(q, rtol);
   if (st == BL_SUCCESS)
@@ -306,7 +303,7 @@ int bl_method_full_e (const bl_case *c, int method, double k, double theta_k,
     return st;
   if (!(k < c->ekmax))
     return st;
-  se = ecase(c, &e);
+  se = bl_method_eterm(c, &e);
   if (se == BL_SUCCESS)
     se = bl_ebrems_full(&e, k, theta_k, theta_p, phi, &v);
   if (se != BL_SUCCESS)

@@ -9,19 +9,33 @@
 
 #include "methods/internal.h"
 
+#include "brakelight/bl_ebrems.h"
 #include "brakelight/bl_sampler.h"
 
 #define SMP_NDIM 4     /* k, photon angle, particle angle, azimuth */
 #define SMP_NBIN 64    /* grid bins per dimension */
 
+/* What a channel draws: the element's whole value (the nucleus and the
+** atomic electrons' part with static kinematics), its nucleus alone, or
+** its bound electrons' exact part (bl_ebrems_full: recoil, end point). */
+enum { SMP_ALL = 0, SMP_NUCLEUS = 1, SMP_EXACT = 2 };
+
+/* Most channels: two per element. */
+#define SMP_MAXCHAN (2 * BL_MATERIAL_MAXCOMP)
+
 /*
-** One element of the target: its case, weight, grid and cells.  The grid
+** One channel of an element of the target (kind SMP_*): its case, the
+** element, weight, window, grid and cells.  The grid
 ** maps x in [0, 1)^4 to y in [0, 1)^4 (bin i of dimension d of width
 ** 1/SMP_NBIN in x holds [edge[d][i], edge[d][i+1]] in y); map.c takes y to
 ** the physical variables.
 */
 typedef struct smp_chan {
-  bl_case c;
+  bl_case c;                             /* SMP_NUCLEUS: without electrons */
+  int kind, elem;                        /* SMP_*, index in the material */
+  bl_ebrems eb;                          /* SMP_EXACT: the exact term */
+  double kmax, lnk;                      /* window top (SMP_EXACT: at most
+                                         ** the end point), ln(kmax/kmin) */
   double atoms;                          /* per formula unit */
   double edge[SMP_NDIM][SMP_NBIN + 1];
   int hasridge_b;                        /* c.ridge_b is a finite pole */
@@ -41,24 +55,28 @@ typedef struct smp_point {
   double v, sphi;       /* 1 - cos(phi), sin(phi) >= 0 */
   double qz, dt;        /* q along k, p0 s0 - p s (units of m) */
   double wel, we;       /* the two parts of W at q^2 (Elwert factor in wel) */
+  double pe[2][4];      /* SMP_EXACT: the projectile's and the struck
+                        ** electron's final four-momenta, MeV, lab frame
+                        ** with the photon at azimuth 0 */
   unsigned warn;
 } smp_point;
 
 struct bl_sampler {
-  int n;                                 /* elements */
+  int n;                                 /* channels */
+  int nelem;                             /* elements */
   int method;                            /* BL_METHOD_BORN or _DISTORTED */
   double kmin, kmax, lnk;                /* window, ln(kmax/kmin) */
   uint64_t seed;
   bl_sampler_conf conf;
-  smp_chan ch[BL_MATERIAL_MAXCOMP];
-  /* the cells of every element, element by element: ncell per element */
+  smp_chan ch[SMP_MAXCHAN];
+  /* the cells of every channel, channel by channel: ncell per channel */
   int ncell;
   int *celem;                            /* (unused slot kept 0) */
   double *env;                           /* envelope: weight bound per cell */
   double *cumenv;                        /* cumulative env (unweighted) */
   double *prob, *cumprob;                /* weighted mode: cell probabilities */
   double envtot;                         /* sum env * V */
-  double sigma, err, share[BL_MATERIAL_MAXCOMP];
+  double sigma, err, share[BL_MATERIAL_MAXCOMP];   /* per element */
   unsigned warn;
   uint64_t evals;
 };

@@ -25,6 +25,7 @@
 
 #include <math.h>
 
+#include "ebrems/internal.h"
 #include "sampler/internal.h"
 
 /* The backward ridge gets its own half of y2 when its width in h is below
@@ -159,11 +160,31 @@ static void beam_angles (const smp_point *pt, double *tk, double *tp,
 }
 
 
+/* The exact part of channel ch (SMP_EXACT) at pt: Z times the bound
+** electron term's fully differential value at the same photon and the
+** same projectile direction (the projectile's energy from conservation,
+** not E0 - k: bl_smp_event); 0 from the end point on. */
+static double exact_value (const smp_chan *ch, smp_point *pt) {
+  double tk, tp, phib, v;
+  pt->wel = 0.0;
+  pt->we = 1.0;
+  pt->warn = 0u;
+  if (!(pt->kmev < ch->c.ekmax))
+    return 0.0;
+  beam_angles(pt, &tk, &tp, &phib);
+  if (bl_ebrems_full(&ch->eb, pt->kmev, tk, tp, phib, &v) != BL_SUCCESS)
+    return NAN;
+  return ch->c.Z * v;
+}
+
+
 /* The value at pt, whose geometry, v and bracket are set. */
 double bl_smp_value (const bl_sampler *s, const smp_chan *ch, smp_point *pt) {
   const bl_case *c = &ch->c;
   const bl_kin *kn = &pt->kn;
   double x, B, f;
+  if (ch->kind == SMP_EXACT)
+    return exact_value(ch, pt);
   parts(ch, pt);
   if (s->method == BL_METHOD_DISTORTED) {
     bl_result r;
@@ -200,12 +221,109 @@ void bl_smp_geometry (const smp_chan *ch, double kmev, double h0, double h,
 }
 
 
+/*
+** The largest photon angle (h0 = 1 - cos) at which a projectile of energy
+** E1, momentum p1, mass M (units m_e) on a free electron at rest can emit
+** k: the final pair's mass W^2 = s - 2 k (E1 + 1 - p1 cos) >= (M + 1)^2,
+** s = M^2 + 1 + 2 E1, i.e. h0 <= (t0/k - 1 - (E1 - p1)) / p1, E1 - p1 =
+** M^2 / (E1 + p1); in [0, 2].
+*/
+static double exact_h0max (const smp_chan *ch, double kmev) {
+  const bl_ebrems *e = &ch->eb;
+  double h = (e->t0 / (kmev / BL_ME_MEV) - 1.0 - e->m * e->m / (e->e0 + e->p0))
+             / e->p0;
+  return fmin(fmax(h, 0.0), 2.0);
+}
+
+
+/*
+** One end of the exact part's pair-frame polar variable: h from t in [0,
+** 1), uniform in ln(1 + h/a) over [0, 1] (a the scale of the smallest
+** recoils at that end); returns dh/dt.
+*/
+static double pair_end (double a, double t, double *h) {
+  double L = log1p(1.0 / a);
+  *h = a * expm1(t * L);
+  return L * (*h + a);
+}
+
+
+/* A weight-0 point of the exact part at its kinematic edge, whose event
+** (weighted mode) must still balance: the struck electron at rest, the
+** projectile taking p0 - k and E0 - k (on its mass shell at the edge). */
+static double edge_point (const smp_chan *ch, smp_point *pt) {
+  int d;
+  for (d = 0; d < 4; d++)
+    pt->pe[1][d] = d == 0 ? BL_ME_MEV : 0.0;
+  pt->pe[0][0] = ch->c.T + ch->c.particle.mass - pt->kmev;
+  pt->pe[0][1] = -pt->kmev * pt->g.s0;
+  pt->pe[0][2] = 0.0;
+  pt->pe[0][3] = ch->c.particle.mass * pt->kn.p0
+                 - pt->kmev * (1.0 - pt->g.h0);
+  return 0.0;
+}
+
+
+/*
+** The exact part (SMP_EXACT) at photon energy pt->kmev and direction
+** pt->g (h0, s0): the projectile's direction drawn in the rest frame of
+** the final projectile and electron, where the value is smooth (the lab
+** density has an integrable edge at the largest lab angle): y2 -> h_s =
+** 1 - cos(theta_s), split at 1, each half uniform in ln(1 + h/a) from its
+** end (0: the electron slow in the lab, 2: the projectile slow; a =
+** max(T_min, b^2/2) / (gamma beta p*) in m_e, T_min the lab kinetic
+** energy there, linear in h_s with slope gamma beta p*, b the smallest
+** screening momentum of the binding), y3 -> phi_s uniform.  Returns Z
+** d5sigma/(dk dOmega_k dOmega_s) (mb/(MeV sr^2)) times the Jacobians of
+** y2, y3; the lab four-momenta (MeV, photon at azimuth 0) go to pt->pe.
+*/
+static double exact_pair (const smp_chan *ch, const double y[4],
+                          smp_point *pt) {
+  const bl_ebrems *e = &ch->eb;
+  bl_ebframe f;
+  bl_ebpoint x;
+  double tb = HUGE_VAL, hs, hs2, jac, sl, st, phs = 2.0 * BL_PI * y[3];
+  int i, d;
+  pt->wel = 0.0;
+  pt->we = 1.0;
+  pt->warn = 0u;
+  if (bl_eb_frame_set(e, pt->kmev / BL_ME_MEV, pt->g.h0, pt->g.s0, &f) != 0
+      && bl_eb_frame_set(e, pt->kmev / BL_ME_MEV, pt->g.h0 * (1.0 - 1e-9),
+                         pt->g.s0, &f) != 0)
+    return edge_point(ch, pt);   /* beyond the edge by rounding only */
+  for (i = 0; i < e->inc.n; i++)
+    tb = fmin(tb, 0.5 * e->inc.b[i] * e->inc.b[i]);
+  if (e->Z == 0)
+    tb = 0.0;   /* a free electron */
+  sl = f.gb * f.ps;
+  if (!(sl > 0.0))
+    return edge_point(ch, pt);   /* the pair at rest: at the end point */
+  if (y[2] < 0.5) {
+    jac = 2.0 * pair_end(fmax(fmax(f.t4min, tb) / sl, 1e-300), 2.0 * y[2],
+                         &hs);
+    hs2 = 2.0 - hs;
+  }
+  else {
+    jac = 2.0 * pair_end(fmax(fmax(f.t3min, tb) / sl, 1e-300),
+                         2.0 * y[2] - 1.0, &hs2);
+    hs = 2.0 - hs2;
+  }
+  st = sqrt(fmax(hs * hs2, 0.0));
+  bl_eb_point_at(e, &f, hs, hs2, st * cos(phs), st * sin(phs), &x);
+  for (d = 0; d < 4; d++) {
+    pt->pe[0][d] = x.p[2][d] * BL_ME_MEV;
+    pt->pe[1][d] = x.p[3][d] * BL_ME_MEV;
+  }
+  return ch->c.Z * bl_eb_d5(e, &x) * bl_eb_unit() * jac * 2.0 * BL_PI;
+}
+
+
 double bl_smp_weight (const bl_sampler *s, const smp_chan *ch, const double y[4],
                    smp_point *pt) {
   const bl_case *c = &ch->c;
   bl_kin *kn = &pt->kn;
   bl_polar *g = &pt->g;
-  double k = s->kmin * exp(y[0] * s->lnk), jac = k * s->lnk;
+  double k = s->kmin * exp(y[0] * ch->lnk), jac = k * ch->lnk;
   double smax0, sg0, r, smax, m, b, f;
   pt->kmev = k;
   if (!(k < c->T))
@@ -213,14 +331,18 @@ double bl_smp_weight (const bl_sampler *s, const smp_chan *ch, const double y[4]
   bl_kin_set(kn, c->t0, k / c->particle.mass, c->particle.spin);
   if (!(kn->p > 0.0))
     return 0.0;
-  /* photon angle */
-  smax0 = log1p(2.0 / kn->hc0);
+  /* photon angle (the exact part: where a free electron can take the
+  ** recoil, h0 <= exact_h0max) */
+  smax0 = log1p((ch->kind == SMP_EXACT ? exact_h0max(ch, k) : 2.0)
+                / kn->hc0);
   sg0 = y[1] * smax0;
   g->h0 = kn->hc0 * expm1(sg0);
   if (g->h0 > 2.0)
     g->h0 = 2.0;
   g->s0 = sqrt(g->h0 * (2.0 - g->h0));
   jac *= smax0 * (g->h0 + kn->hc0);
+  if (ch->kind == SMP_EXACT)   /* the overall azimuth: 2 pi */
+    return exact_pair(ch, y, pt) * jac * 2.0 * BL_PI * ch->atoms;
   /* particle angle */
   smax = log1p(2.0 / kn->hc);
   r = kn->p0 * g->s0 / kn->p;
@@ -273,6 +395,58 @@ double bl_smp_weight (const bl_sampler *s, const smp_chan *ch, const double y[4]
 
 
 /*
+** An event of the exact part (SMP_EXACT): the photon at the overall
+** azimuth A, the projectile (for e- the faster electron) as drawn in
+** exact_pair turned by A, q = p0 - k - p the struck electron's momentum
+** (binding neglected in the kinematics: E0 + m_e = k_E + p_E + q_E); the
+** photon-frame h and phi of p measured as bl_smp_event's.
+*/
+static void exact_event (const smp_chan *ch, const smp_point *pt,
+                         double u_az, bl_event *ev) {
+  const bl_case *c = &ch->c;
+  double m = c->particle.mass, A = 2.0 * BL_PI * u_az, ca = cos(A);
+  double sa = sin(A), s0 = pt->g.s0, c0 = 1.0 - pt->g.h0, kh[3], pu[3];
+  double e1[3], a1 = 0.0, a2 = 0.0, d2 = 0.0, pm = 0.0;
+  int d, b = ch->eb.m == 1.0 && pt->pe[1][0] > pt->pe[0][0];
+  kh[0] = s0 * ca;
+  kh[1] = s0 * sa;
+  kh[2] = c0;
+  e1[0] = -c0 * ca;
+  e1[1] = -c0 * sa;
+  e1[2] = s0;
+  ev->p0[0] = c->T + m;
+  ev->p0[1] = ev->p0[2] = 0.0;
+  ev->p0[3] = sqrt(c->T * (c->T + 2.0 * m));
+  ev->k[0] = pt->kmev;
+  ev->p[0] = pt->pe[b][0];
+  ev->p[1] = ca * pt->pe[b][1] - sa * pt->pe[b][2];
+  ev->p[2] = sa * pt->pe[b][1] + ca * pt->pe[b][2];
+  ev->p[3] = pt->pe[b][3];
+  for (d = 0; d < 3; d++) {
+    ev->k[d + 1] = pt->kmev * kh[d];
+    ev->q[d] = ev->p0[d + 1] - ev->k[d + 1] - ev->p[d + 1];
+    pm += ev->p[d + 1] * ev->p[d + 1];
+  }
+  pm = sqrt(pm);
+  for (d = 0; d < 3; d++) {
+    pu[d] = pm > 0.0 ? ev->p[d + 1] / pm : 0.0;
+    d2 += (pu[d] - kh[d]) * (pu[d] - kh[d]);
+    a1 += pu[d] * e1[d];
+  }
+  a2 = pu[0] * sa - pu[1] * ca;   /* e2 = (sin A, -cos A, 0) */
+  ev->Z = c->Z;
+  ev->hit = BL_HIT_ELECTRON;
+  ev->recoil = 1;
+  ev->kk = pt->kmev;
+  ev->h0 = pt->g.h0;
+  ev->h = fmin(0.5 * d2, 2.0);
+  ev->phi = atan2(a2, a1);
+  if (ev->phi < 0.0)
+    ev->phi += 2.0 * BL_PI;
+}
+
+
+/*
 ** The lab frame: the photon direction khat = (s0 cos A, s0 sin A, cos
 ** theta0) at the overall azimuth A; e1 = the unit part of the beam axis
 ** across khat = (-cos(theta0) cos A, -cos(theta0) sin A, s0); e2 = khat x
@@ -291,6 +465,10 @@ void bl_smp_event (const smp_chan *ch, const smp_point *pt, double u_az,
   double kh[3], e1[3], e2[3], q1, q2, pm = m * kn->p, kmev = pt->kmev;
   double tot = pt->wel + pt->we;
   int d;
+  if (ch->kind == SMP_EXACT) {
+    exact_event(ch, pt, u_az, ev);
+    return;
+  }
   kh[0] = g->s0 * ca;
   kh[1] = g->s0 * sa;
   kh[2] = c0;
@@ -315,6 +493,8 @@ void bl_smp_event (const smp_chan *ch, const smp_point *pt, double u_az,
   ev->Z = c->Z;
   ev->hit = tot > 0.0 && u_hit * tot < pt->we ? BL_HIT_ELECTRON
                                                : BL_HIT_NUCLEUS;
+  ev->recoil = 0;
+
   ev->kk = kmev;
   ev->h0 = g->h0;
   ev->h = g->h;

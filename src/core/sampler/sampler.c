@@ -325,12 +325,53 @@ static double cumulate (double *a, double *cum, int n, double floor_share) {
 }
 
 
+/*
+** The channels of element e of t into s (from s->n on): where its bound
+** electron part is the exact term (bl_method_eexact, unless t->estatic)
+** and its end point is above kmin, the nucleus alone and the exact part
+** (events with the struck electron's recoil); otherwise the whole value.
+*/
+static int channels (bl_sampler *s, const bl_target *t, int e) {
+  const bl_case *c = &t->c[e];
+  smp_chan *ch = &s->ch[s->n];
+  int exact = !t->estatic && bl_method_eexact(c) && c->ekmax > s->kmin;
+  int i, st;
+  for (i = 0; i < 1 + exact; i++) {
+    ch[i].elem = e;
+    ch[i].atoms = t->atoms[e];
+    ch[i].kmax = s->kmax;
+    ch[i].kind = exact ? (i == 0 ? SMP_NUCLEUS : SMP_EXACT) : SMP_ALL;
+    ch[i].c = *c;
+  }
+  if (exact) {
+    st = bl_method_nuclear(c, &ch[0].c);
+    if (st == BL_SUCCESS)
+      st = bl_method_eterm(c, &ch[1].eb);
+    if (st != BL_SUCCESS)
+      return st;
+    ch[1].kmax = fmin(s->kmax, c->ekmax);
+  }
+  for (i = 0; i < 1 + exact; i++) {
+    ch[i].lnk = log(ch[i].kmax / s->kmin);
+    ch[i].hasridge_b = isfinite(ch[i].c.ridge_b) && ch[i].c.ridge_b > 0.0;
+    if (s->conf.coulomb && s->method == BL_METHOD_BORN
+        && ch[i].kind != SMP_EXACT) {
+      st = coulomb_table(s, &ch[i]);
+      if (st != BL_SUCCESS)
+        return st;
+    }
+  }
+  s->n += 1 + exact;
+  return BL_SUCCESS;
+}
+
+
 int bl_sampler_new (const bl_target *t, double kmin, double kmax,
                     uint64_t seed, const bl_sampler_conf *conf,
                     bl_sampler **out) {
   bl_sampler *s;
-  double *rms, sig[BL_MATERIAL_MAXCOMP], var = 0.0, stot = 0.0;
-  int e, d, nall;
+  double *rms, sig[SMP_MAXCHAN], var = 0.0, stot = 0.0;
+  int e, d, nall, st;
   unsigned warn = 0;
   if (out == NULL)
     return BL_EDOMAIN;
@@ -349,13 +390,24 @@ int bl_sampler_new (const bl_target *t, double kmin, double kmax,
     free(s);
     return BL_EDOMAIN;
   }
-  s->n = t->n;
+  s->nelem = t->n;
   s->method = t->method == BL_METHOD_DISTORTED ? BL_METHOD_DISTORTED
                                                : BL_METHOD_BORN;
   s->kmin = kmin;
   s->kmax = kmax;
   s->lnk = log(kmax / kmin);
   s->seed = seed;
+  s->warn = t->warn;
+  for (e = 0; e < t->n; e++) {
+    int n0 = s->n;
+    st = channels(s, t, e);
+    if (st != BL_SUCCESS) {
+      bl_sampler_free(s);
+      return st;
+    }
+    if (s->n == n0 + 1 && t->c[e].ebexact)   /* its events on electrons */
+      s->warn |= BL_WARN_ERANGE;   /* keep the held ratio dsigma/dk replaces */
+  }
   s->ncell = 1;
   for (d = 0; d < SMP_NDIM; d++)
     s->ncell *= s->conf.cells[d];
@@ -372,16 +424,6 @@ int bl_sampler_new (const bl_target *t, double kmin, double kmax,
   }
   for (e = 0; e < s->n; e++) {
     double v;
-    s->ch[e].c = t->c[e];
-    s->ch[e].atoms = t->atoms[e];
-    s->ch[e].hasridge_b = isfinite(t->c[e].ridge_b) && t->c[e].ridge_b > 0.0;
-    if (s->conf.coulomb && s->method == BL_METHOD_BORN) {
-      int st = coulomb_table(s, &s->ch[e]);
-      if (st != BL_SUCCESS) {
-        bl_sampler_free(s);
-        return st;
-      }
-    }
     train(s, e, &warn);
     measure(s, e, rms, &sig[e], &v, &warn);
     var += v;
@@ -394,7 +436,7 @@ int bl_sampler_new (const bl_target *t, double kmin, double kmax,
   s->sigma = stot;
   s->err = sqrt(var);
   for (e = 0; e < s->n; e++)
-    s->share[e] = sig[e] / stot;
+    s->share[s->ch[e].elem] += sig[e] / stot;
   s->envtot = cumulate(s->env, s->cumenv, nall, ENV_FLOOR) / s->ncell;
   cumulate(s->prob, s->cumprob, nall, PROB_FLOOR);
   {   /* normalise the weighted mode's probabilities */
@@ -405,10 +447,7 @@ int bl_sampler_new (const bl_target *t, double kmin, double kmax,
       s->cumprob[j] /= tot;
     }
   }
-  s->warn = t->warn | warn;
-  for (e = 0; e < t->n; e++)   /* its events on electrons keep the held */
-    if (t->c[e].ebexact)       /* ratio that dsigma/dk replaces there */
-      s->warn |= BL_WARN_ERANGE;
+  s->warn |= warn;
   *out = s;
   return BL_SUCCESS;
 }
@@ -435,8 +474,8 @@ int bl_sampler_info_get (const bl_sampler *s, bl_sampler_info *out) {
   out->sigma = s->sigma;
   out->err = s->err;
   out->envelope = s->envtot;
-  out->nelem = s->n;
-  for (e = 0; e < s->n; e++)
+  out->nelem = s->nelem;
+  for (e = 0; e < s->nelem; e++)
     out->share[e] = s->share[e];
   out->method = s->method;
   out->warn = s->warn;
@@ -450,18 +489,28 @@ int bl_sampler_info_get (const bl_sampler *s, bl_sampler_info *out) {
 
 int bl_sampler_value (const bl_sampler *s, int i, double k, double h0,
                       double h, double phi, double *out) {
-  smp_point pt;
+  int j, any = 0;
   if (out == NULL)
     return BL_EDOMAIN;
   *out = 0.0;
-  if (s == NULL || i < 0 || i >= s->n || !(k > 0.0 && k < s->ch[i].c.T)
+  if (s == NULL || i < 0 || i >= s->nelem
       || !(h0 >= 0.0 && h0 <= 2.0) || !(h >= 0.0 && h <= 2.0)
       || !isfinite(phi))
     return BL_EDOMAIN;
-  bl_smp_geometry(&s->ch[i], k, h0, h, phi, &pt);
-  if (!(pt.kn.p > 0.0))
+  for (j = 0; j < s->n; j++) {   /* the element's channels */
+    smp_point pt;
+    if (s->ch[j].elem != i)
+      continue;
+    if (!(k > 0.0 && k < s->ch[j].c.T))
+      return BL_EDOMAIN;
+    bl_smp_geometry(&s->ch[j], k, h0, h, phi, &pt);
+    if (!(pt.kn.p > 0.0))
+      return BL_EDOMAIN;
+    *out += bl_smp_value(s, &s->ch[j], &pt);
+    any = 1;
+  }
+  if (!any)
     return BL_EDOMAIN;
-  *out = bl_smp_value(s, &s->ch[i], &pt);
   return isfinite(*out) ? BL_SUCCESS : BL_ENONFINITE;
 }
 
@@ -534,7 +583,7 @@ static void run_block (const bl_sampler *s, int mode, uint64_t b,
       if (id >= lo) {
         bl_event *o = &ev[id - lo];
         bl_smp_event(&s->ch[e], &pt, ua, us, uh, o);
-        o->elem = e;
+        o->elem = s->ch[e].elem;
         o->weight = weight;
         o->id = id;
       }
