@@ -24,14 +24,19 @@
 ** energies of the window, interpolated in ln(k/(E0 - k))) where the case's
 ** option applies the correction: sigma then follows the library's, and
 ** the correction is spread over the angles like the Born value (an
-** approximation: its angular shape is not known here).  Static field: the atom takes the momentum q = p0 -
-** p - k and no energy (its recoil energy q^2/2M is neglected), so E0 = E +
-** k; the atomic-electron part of the target factor is attributed to "an
-** atomic electron", but its kinematics are those of the static atom too:
-** no electron recoil, and the photon angles of those events follow the
-** static term's shape scaled to the bound term's dsigma/dk, not the exact
-** distribution the target's angular values have (bl_method_angular_e;
-** bl_target.estatic gives the events' own).
+** approximation: its angular shape is not known here).  Static field: on
+** the nucleus the atom takes the momentum q = p0 - p - k and no energy
+** (its recoil energy q^2/2M is neglected), so E0 = E + k.  Atomic
+** electrons: where the element's bound electron part is the exact term
+** (bl_method_eexact, unless t->estatic) the events on them follow that
+** term's own fully differential distribution (bl_method_full_e's
+** electron part; drawn in the rest frame of the final projectile and
+** electron) with the struck electron's recoil: q is its momentum, E0 + m_e
+** = E + k + (q^2 + m_e^2)^1/2, recoil = 1 (the electron free and at rest
+** in the kinematics; its binding weighs the rate only).  Elsewhere (e-/e+
+** above 1 TeV, others above 10 TeV, masses between 2 m_e and 100 MeV, or
+** t->estatic) the electron part keeps the static atom's kinematics and
+** the static term's angular shape scaled to dsigma/dk (recoil = 0).
 **
 ** Reproducibility: events are made in blocks of BL_SAMPLER_BLOCK; block b
 ** of a run uses its own random stream (seed, b), so event i is the same
