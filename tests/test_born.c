@@ -1166,6 +1166,16 @@ Test(born, nuclear_size) {
 }
 
 
+/* The nuclear (elastic) and electron parts of case c's target factor W at
+** q^2 = x (units of the projectile mass). */
+static void wparts (const bl_case *c, double x, double *el, double *e) {
+  *el = bl_target_w(x, c->npole, c->pole, c->single_el, c->nelastic,
+                    c->term);
+  *e = bl_target_w(x, c->npole, c->pole, c->single_e, c->nterm - c->nelastic,
+                   c->term + c->nelastic);
+}
+
+
 /* ---- the nucleus's incoherent part (BL_NUCLEUS_INCOHERENT) ---- */
 
 /*
@@ -1210,14 +1220,9 @@ Test(born, nucleus_incoherent_target_factor) {
           double fp = lam > 0.0 ? lam / (lam + x) : 1.0;
           double inc = fp * fp * (1.0 - bl_nucleus_ff2_fit(sqrt(x) * rm))
                        / (Zs[j] * x * x);
-          double eu = bl_target_w(x, u.npole, u.pole, u.single_el,
-                                  u.nelastic, u.term);
-          double en = bl_target_w(x, n.npole, n.pole, n.single_el,
-                                  n.nelastic, n.term);
-          double iu = bl_target_w(x, u.npole, u.pole, u.single_e,
-                                  u.nterm - u.nelastic, u.term + u.nelastic);
-          double in = bl_target_w(x, n.npole, n.pole, n.single_e,
-                                  n.nterm - n.nelastic, n.term + n.nelastic);
+          double eu, en, iu, in;
+          wparts(&u, x, &eu, &iu);
+          wparts(&n, x, &en, &in);
           if (x > n.qmax2)
             break;
           /* with F_p, rounding relative to the point-charge size, as in
@@ -1356,14 +1361,9 @@ Test(formfactor, target_factor_times_ff2) {
       lam = 6.0 / (rm * rm);
       for (lx = -12.0; lx <= 4.0; lx += 0.25) {
         double x = pow(10.0, lx) * lam, f = lam / (lam + x);
-        double e0 = bl_target_w(x, pt.npole, pt.pole, pt.single_el,
-                                pt.nelastic, pt.term);
-        double e1 = bl_target_w(x, ff.npole, ff.pole, ff.single_el,
-                                ff.nelastic, ff.term);
-        double i0 = bl_target_w(x, pt.npole, pt.pole, pt.single_e,
-                                pt.nterm - pt.nelastic, pt.term + pt.nelastic);
-        double i1 = bl_target_w(x, ff.npole, ff.pole, ff.single_e,
-                                ff.nterm - ff.nelastic, ff.term + ff.nelastic);
+        double e0, e1, i0, i1;
+        wparts(&pt, x, &e0, &i0);
+        wparts(&ff, x, &e1, &i1);
         if (x > pt.qmax2)
           break;
         cr_expect(fabs(e1 - f * f * e0) <= 1e-5 * fabs(e0),

@@ -53,6 +53,20 @@ static double deviation (const bl_particle *p, int Z, const char *model,
 }
 
 
+/* Case c prepared for "auto" into h; "auto" at y T into *ra; returns
+** auto/born - 1 there. */
+static double auto_vs_born (const bl_case *c, double y, bl_quad *q, bl_he *h,
+                            bl_result *ra) {
+  bl_result rb;
+  cr_assert_eq(bl_method_prepare(c, BL_METHOD_AUTO, q, h), BL_SUCCESS);
+  cr_assert_eq(bl_method_dk_e(c, h, BL_METHOD_AUTO, y * c->T, q, ra),
+               BL_SUCCESS);
+  cr_assert_eq(bl_method_dk_e(c, h, BL_METHOD_BORN, y * c->T, q, &rb),
+               BL_SUCCESS);
+  return ra->val / rb.val - 1.0;
+}
+
+
 /*
 ** Source: Tsai 1974 (Rev. Mod. Phys. 46, 815), section 3: the screening-function form is the small-angle limit of the
 ** Born integral.  Check of the issue: within 0.5 % for E >= 10^3 m, both
@@ -172,20 +186,14 @@ Test(methods, auto_agrees_every_mass, .timeout = 120) {
           for (iy = 0; iy < 4; iy++) {
             double E = gmin * above[ia], y = ys[iy], g0 = E / (1.0 - y), d;
             bl_he h;
-            bl_result ra, rb;
+            bl_result ra;
             cr_assert_eq(bl_case_setup(&c, &p, Zs[iz],
                                        bl_model_find("hartree-fock"), NULL,
                                        (g0 - 1.0) * p.mass, &bl_opts_default),
                          BL_SUCCESS);
-            cr_assert_eq(bl_method_prepare(&c, BL_METHOD_AUTO, q, &h),
-                         BL_SUCCESS);
-            cr_assert_eq(bl_method_dk_e(&c, &h, BL_METHOD_AUTO, y * c.T, q,
-                                        &ra), BL_SUCCESS);
-            cr_assert_eq(bl_method_dk_e(&c, &h, BL_METHOD_BORN, y * c.T, q,
-                                        &rb), BL_SUCCESS);
+            d = auto_vs_born(&c, y, q, &h, &ra);
             cr_expect_eq(ra.method, BL_METHOD_HIGH_ENERGY, "m=%g: auto takes "
                          "high-energy above the switch", p.mass);
-            d = ra.val / rb.val - 1.0;
             cr_expect(fabs(d) < 1e-3, "m=%g spin %g Z=%d gamma=%g y=%g: "
                       "auto/born - 1 = %.3g", p.mass, p.spin, Zs[iz], E, y, d);
             worst = fmax(worst, fabs(d));
@@ -229,7 +237,7 @@ Test(methods, auto_agrees_incoherent_nucleus, .timeout = 120) {
           bl_particle p = {"probe", 0.0, -1.0, 0.0, 0u};
           bl_case c;
           bl_he h;
-          bl_result ra, rb;
+          bl_result ra;
           double y = ys[iy], g0, d;
           p.mass = masses[im];
           p.spin = 0.5 * is;
@@ -240,14 +248,8 @@ Test(methods, auto_agrees_incoherent_nucleus, .timeout = 120) {
                                      bl_model_find("hartree-fock"), NULL,
                                      (g0 - 1.0) * p.mass, &o), BL_SUCCESS);
           cr_expect(c.warn & BL_WARN_NINCOH, "m=%g: flagged", p.mass);
-          cr_assert_eq(bl_method_prepare(&c, BL_METHOD_AUTO, q, &h),
-                       BL_SUCCESS);
-          cr_assert_eq(bl_method_dk_e(&c, &h, BL_METHOD_AUTO, y * c.T, q,
-                                      &ra), BL_SUCCESS);
-          cr_assert_eq(bl_method_dk_e(&c, &h, BL_METHOD_BORN, y * c.T, q,
-                                      &rb), BL_SUCCESS);
+          d = auto_vs_born(&c, y, q, &h, &ra);
           cr_expect_eq(ra.method, BL_METHOD_HIGH_ENERGY);
-          d = ra.val / rb.val - 1.0;
           cr_expect(fabs(d) < 1e-3, "m=%g spin %g Z=%d y=%g: auto/born - 1 "
                     "= %.3g", p.mass, p.spin, Zs[iz], y, d);
           worst = fmax(worst, fabs(d));
