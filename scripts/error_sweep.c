@@ -6,12 +6,21 @@
 ** Uses the public C API only, so the same source builds against this tree
 ** and against an earlier commit (make bench, make error-ref).
 **
-**   error_sweep gen [-n N] [-s SEED] [-r RTOL] [-j THREADS] -o FILE
+**   error_sweep gen [-n N] [-s SEED] [-r RTOL] [-j THREADS] [-k heavy-e]
+**                   [-b FIRST] -o FILE
 **       draws N random points (point i depends only on SEED and i) and
 **       writes their inputs and dsigma/dk at RTOL (default 1e-10).  A point
 **       whose reference does not reach RTOL (status, tolerance warning,
 **       err > RTOL |val|, val <= 0) is dropped, with its reason written as
-**       a comment line and printed.
+**       a comment line and printed.  With -k heavy-e only the points
+**       whose projectile gets the other-projectile bound electron table are
+**       computed and written (atomic electrons on, a screening model with an
+**       electron field, i.e. not "none", mass >= BL_EBH_M_MIN, except the
+**       spin-1/2 muon, which has a table of its own); the others are drawn
+**       all the same (point i still depends only on SEED and i) but
+**       skipped, and -b FIRST starts at point FIRST (of 0..N-1), to make
+**       a long run in pieces.  Their lines go in place of the same indices
+**       of a full set (the points of issue 14: tests/data/born-ref.txt).
 **   error_sweep run [-r R1,R2,...] [-j THREADS] [-m MAX] -i REF [-o OUT]
 **       evaluates every reference point at each rtol and prints per rtol:
 **       the share of points with true error <= rtol, the median true error,
@@ -68,6 +77,7 @@ typedef struct point {
   unsigned long calls[MAXRTOL];
   int st[MAXRTOL];
   unsigned warn[MAXRTOL];
+  int skip;                  /* gen -k: not in the subset, not computed */
 } point;
 
 static const char *const models[] = {"none", "exponential", "thomas-fermi",
@@ -128,6 +138,16 @@ static void draw (point *p, uint64_t seed, long i) {
 }
 
 
+/* gen -k heavy-e: the points that get the other-projectile table in
+** bl_case_setup (electrons on, mass >= BL_EBH_M_MIN, not the spin-1/2
+** muon; "none" has no electron field and sets electrons off). */
+static int heavy_e (const point *p) {
+  int mu = p->spin == 0.5 && fabs(p->mass - BL_MMU_MEV) <= 1e-12 * BL_MMU_MEV;
+  return p->electrons && strcmp(models[p->model], "none") != 0
+         && p->mass >= BL_EBH_M_MIN && !mu;
+}
+
+
 static int mkcase (const point *p, bl_case *c) {
   bl_particle pa = {"sweep", p->mass, p->charge, p->spin, 0};
   bl_opts o = bl_opts_bare;
@@ -142,7 +162,8 @@ static int mkcase (const point *p, bl_case *c) {
 
 typedef struct job {
   point *pts;
-  long n, next, done;
+  long n, next, done, todo, every;
+  double t0;
   int nr;
   double rtol[MAXRTOL];
   int gen;
@@ -152,7 +173,10 @@ typedef struct job {
 
 static void one (job *jb, point *p, bl_quad *q) {
   bl_case c;
-  int st = mkcase(p, &c), r;
+  int st, r;
+  if (p->skip)
+    return;
+  st = mkcase(p, &c);
   if (jb->gen) {
     bl_result res;
     if (st != BL_SUCCESS) {
@@ -204,9 +228,9 @@ static void *worker (void *arg) {
       break;
     one(jb, &jb->pts[i], q);
     pthread_mutex_lock(&jb->mu);
-    jb->done++;
-    if (jb->done % 500 == 0)
-      fprintf(stderr, "error_sweep: %ld of %ld points\n", jb->done, jb->n);
+    if (!jb->pts[i].skip && ++jb->done % jb->every == 0)
+      fprintf(stderr, "error_sweep: %ld of %ld points, %.0f s\n", jb->done,
+              jb->todo, now() - jb->t0);
     pthread_mutex_unlock(&jb->mu);
   }
   bl_quad_free(q);
@@ -221,6 +245,11 @@ static void runall (job *jb, int nthreads) {
     nthreads = 1;
   if (nthreads > 16)
     nthreads = 16;
+  if (jb->todo == 0)
+    jb->todo = jb->n;
+  if (jb->every == 0)
+    jb->every = 500;
+  jb->t0 = now();
   pthread_mutex_init(&jb->mu, NULL);
   for (t = 0; t < nthreads; t++)
     pthread_create(&th[t], NULL, worker, jb);
@@ -249,18 +278,23 @@ static double median (double *v, long n) {
 #define LINEFMT "%ld %.17g %.17g %.17g %d %s %d %d %.17g %.17g"
 
 static int gen (long n, uint64_t seed, double rtol, int nthreads,
-                const char *out) {
+                const char *keep, long first, const char *out) {
   job jb;
   FILE *f;
-  long i, nok = 0;
+  long i, nok = 0, nsub = 0;
   double t1 = now();
   memset(&jb, 0, sizeof jb);
   jb.pts = calloc(n, sizeof *jb.pts);
   if (jb.pts == NULL)
     return 1;
-  for (i = 0; i < n; i++)
+  for (i = 0; i < n; i++) {
     draw(&jb.pts[i], seed, i);
+    jb.pts[i].skip = i < first || (keep != NULL && !heavy_e(&jb.pts[i]));
+    nsub += !jb.pts[i].skip;
+  }
   jb.n = n;
+  jb.todo = nsub;
+  jb.every = keep != NULL ? 50 : 500;
   jb.gen = 1;
   jb.nr = 1;
   jb.rtol[0] = rtol;
@@ -275,8 +309,13 @@ static int gen (long n, uint64_t seed, double rtol, int nthreads,
              "# columns: index mass[MeV] charge spin Z model nucleus electrons "
              "T[MeV] k[MeV] dsdk[mb/MeV] err[mb/MeV] calls status\n",
           (unsigned long long)seed, n, rtol, BL_VERSION);
+  if (keep != NULL || first > 0)
+    fprintf(f, "# only %ld points: %s, from point %ld on\n", nsub,
+            keep != NULL ? "-k heavy-e" : "all", first);
   for (i = 0; i < n; i++) {
     const point *p = &jb.pts[i];
+    if (p->skip)
+      continue;
     if (!p->ok) {
       fprintf(f, "# dropped %ld (m %.6g MeV spin %g Z %d %s nucleus %d "
                  "electrons %d T/m %.4g y %.6g): %s\n", p->idx, p->mass,
@@ -295,7 +334,7 @@ static int gen (long n, uint64_t seed, double rtol, int nthreads,
   }
   fclose(f);
   printf("error_sweep gen: %ld of %ld points kept (%ld dropped), %.0f s\n",
-         nok, n, n - nok, now() - t1);
+         nok, nsub, nsub - nok, now() - t1);
   free(jb.pts);
   return 0;
 }
@@ -576,15 +615,15 @@ static int parse_rtols (const char *s, double *r) {
 
 
 int main (int argc, char **argv) {
-  const char *in = NULL, *out = NULL;
-  long n = 10000, max = 1L << 40;
+  const char *in = NULL, *out = NULL, *keep = NULL;
+  long n = 10000, max = 1L << 40, first = 0;
   unsigned long long seed = 14;
   double rtol[MAXRTOL] = {1e-2, 1e-3, 1e-4, 1e-6};
   int nr = 4, nthreads = 2, i, rset = 0;
   gsl_set_error_handler_off();
   if (argc < 2) {
 usage:
-    fprintf(stderr, "usage: error_sweep gen [-n N] [-s SEED] [-r RTOL] [-j T] -o FILE\n"
+    fprintf(stderr, "usage: error_sweep gen [-n N] [-s SEED] [-r RTOL] [-j T] [-k heavy-e] [-b FIRST] -o FILE\n"
                     "       error_sweep run [-r R1,R2,..] [-j T] [-m MAX] -i REF [-o OUT]\n"
                     "       error_sweep compare BASE.out HERE.out\n");
     return 2;
@@ -606,13 +645,34 @@ usage:
     else if (strcmp(o, "-m") == 0) max = atol(v);
     else if (strcmp(o, "-i") == 0) in = v;
     else if (strcmp(o, "-o") == 0) out = v;
+    else if (strcmp(o, "-k") == 0) {
+      if (strcmp(v, "heavy-e") != 0) {
+        fprintf(stderr, "error_sweep: -k %s: the only subset is heavy-e\n", v);
+        return 2;
+      }
+      keep = v;
+    }
+    else if (strcmp(o, "-b") == 0) {
+      char *end;
+      first = strtol(v, &end, 10);
+      if (end == v || *end != '\0') {
+        fprintf(stderr, "error_sweep: -b %s: the first point must be an "
+                        "integer in 0..N - 1\n", v);
+        return 2;
+      }
+    }
     else goto usage;
   }
   if (i != argc || nr < 1)
     goto usage;
-  if (strcmp(argv[1], "gen") == 0 && out != NULL && n > 0)
-    return gen(n, seed, rset ? rtol[0] : 1e-10,
-               nthreads, out);
+  if (strcmp(argv[1], "gen") == 0 && out != NULL && n > 0) {
+    if (first < 0 || first >= n) {
+      fprintf(stderr, "error_sweep: -b %ld: the first point must be in "
+                      "0..%ld (N - 1)\n", first, n - 1);
+      return 2;
+    }
+    return gen(n, seed, rset ? rtol[0] : 1e-10, nthreads, keep, first, out);
+  }
   if (strcmp(argv[1], "run") == 0 && in != NULL)
     return run(in, out, rtol, nr, nthreads, max);
   goto usage;
