@@ -641,9 +641,11 @@ continuity-full: $(B)/continuity
 # computed with the integrator of BENCH_BASE (GSL's qag, whose estimates
 # are pessimistic: independent of the scheme under test), built in its
 # worktree as make bench does (about 2 min on two cores).  BASE computes
-# the static electron term: the points of electrons with atomic electrons
-# on were recomputed with this tree since (see the file's header), and a
-# regeneration with BASE makes them stale again.
+# the static electron term: the points with atomic electrons on whose
+# projectile gets a bound electron table (electrons, muons, and with
+# error_sweep gen -k heavy-e every mass from 100 MeV) were recomputed with
+# this tree since (see the file's header), and a regeneration with BASE
+# makes them stale again.
 error-ref:
 	@set -e; wt=$$(BENCH_BASE=$(BENCH_BASE) bash scripts/bench.sh --base-only); \
 	$(CC) -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L -Iinclude \
