@@ -16,8 +16,9 @@
 **                 1/2): at each node R_P, R_I, R_E at charge +1
 **   fit-ebrems -H [-j THREADS] -m N SEED   its interpolation error against
 **                 fresh ratios of particles of random spin, mass (ln M
-**                 uniform on the mass nodes), charge (-2, -1, 1, 2), Z,
-**                 tau = T/M and u
+**                 uniform on the mass nodes), charge (-2, -1, 1, 2),
+**                 Z = 1...92, tau = T/M (ln uniform up to 10 TeV) and u
+**                 (ln(u/(1-u)) uniform on the u nodes): median, 90 %, worst
 **   fit-ebrems -q SPIN MASS Z T U   the three parts of one particle of
 **                 charge +1 (a quick look)
 **   fit-ebrems -p KIND Z T U             one point on stdout (a quick look;
@@ -359,6 +360,96 @@ static void *mworker (void *arg) {
 }
 
 
+/* -H -m: random points of other projectiles (spin, mass, charge, Z, tau,
+** u), the library's R (bl_case_eratio, the table) against a fresh
+** all-diagram ratio of the particle itself (ratio_p, the generator's
+** integrals at rtol 1e-3 / 1e-5) */
+typedef struct hpoint {
+  bl_particle p;
+  int Z;
+  double T, u, fresh, got, rel;
+} hpoint;
+static hpoint *hp = NULL;
+
+static void *hmworker (void *arg) {
+  bl_quad *qe = bl_quad_alloc(200), *qb = bl_quad_alloc(200);
+  (void)arg;
+  if (qe == NULL || qb == NULL)
+    exit(1);
+  bl_quad_set_rtol(qe, 1e-3);
+  bl_quad_set_rtol(qb, 1e-5);
+  for (;;) {
+    int j;
+    double err;
+    bl_case c;
+    hpoint *x;
+    pthread_mutex_lock(&lock);
+    j = mnext++;
+    pthread_mutex_unlock(&lock);
+    if (j >= nmp)
+      break;
+    x = &hp[j];
+    if (ratio_p(&x->p, x->Z, x->T, x->u, qe, qb, BL_EBREMS_RAD_BOTH,
+                &x->fresh, &err)
+        || bl_case_setup(&c, &x->p, x->Z, bl_model_find("hartree-fock"),
+                         NULL, x->T, &bl_opts_default) != BL_SUCCESS)
+      exit(1);
+    x->got = bl_case_eratio(&c, x->u * c.ekmax);
+    x->rel = fabs(x->got - x->fresh) / fmax(x->fresh, 1e-300);
+    if (progress)
+      fprintf(stderr, "%d/%d done\n", j + 1, nmp);
+  }
+  bl_quad_free(qe);
+  bl_quad_free(qb);
+  return NULL;
+}
+
+/* ln M uniform on the mass nodes, tau = T/M log-uniform from the first
+** tau node up to T = BL_EBREMS_T_MAX or the last tau node, ln(u/(1-u))
+** uniform on the u nodes, charge -2, -1, 1 or 2, spin 0 or 1/2 */
+static int hmeasure (int mn, unsigned seed, int nth) {
+  static const double zs[4] = {-2.0, -1.0, 1.0, 2.0};
+  double *d = malloc(sizeof(double) * (size_t)mn);
+  double a = log(bl_ebh_u[0] / (1.0 - bl_ebh_u[0]));
+  double b = log(bl_ebh_u[EBH_NU - 1] / (1.0 - bl_ebh_u[EBH_NU - 1]));
+  int j;
+  hp = malloc(sizeof(hpoint) * (size_t)mn);
+  if (d == NULL || hp == NULL)
+    return 1;
+  nmp = mn;
+  for (j = 0; j < mn; j++) {
+    double r[4], lt1;
+    int i;
+    hp[j].p.name = "random";
+    hp[j].p.flags = 0;
+    hp[j].p.spin = 0.5 * (rand_r(&seed) % 2);
+    hp[j].p.charge = zs[rand_r(&seed) % 4];
+    hp[j].Z = 1 + rand_r(&seed) % 92;
+    for (i = 0; i < 4; i++)
+      r[i] = rand_r(&seed) / (RAND_MAX + 1.0);
+    hp[j].p.mass = exp(EBH_LM0 + EBH_DLM * (EBH_NM - 1) * r[0]);
+    lt1 = fmin(EBH_LT0 + EBH_DLT * (EBH_NT - 1),
+               log(BL_EBREMS_T_MAX / hp[j].p.mass));
+    hp[j].T = hp[j].p.mass * exp(EBH_LT0 + (lt1 - EBH_LT0) * r[1]);
+    hp[j].u = 1.0 / (1.0 + exp(-(a + (b - a) * r[2])));
+  }
+  run_threads(hmworker, nth);
+  for (j = 0; j < mn; j++) {
+    d[j] = hp[j].rel;
+    printf("spin %.1f M=%.5g z=%+g Z=%d T=%.5g u=%.6f table %.6g fresh "
+           "%.6g rel %.2e\n", hp[j].p.spin, hp[j].p.mass, hp[j].p.charge,
+           hp[j].Z, hp[j].T, hp[j].u, hp[j].got, hp[j].fresh, hp[j].rel);
+  }
+  qsort(d, (size_t)mn, sizeof d[0], dcmp);
+  printf("interpolation error of R over %d points: median %.2e, 90 %% %.2e, "
+         "worst %.2e; %d integrals missed their tolerance\n", mn, d[mn / 2],
+         d[(9 * mn) / 10], d[mn - 1], misses);
+  free(d);
+  free(hp);
+  return 0;
+}
+
+
 int main (int argc, char **argv) {
   const char *out = NULL;
   int nth = 1, i, kind, iz, it, iu, mn = 0, had = 0;
@@ -440,6 +531,8 @@ int main (int argc, char **argv) {
     nth = 1;
   if (had && mn == 0)
     return htable(out != NULL ? out : "src/core/ebrems/eb_table_h.c", nth);
+  if (had)
+    return hmeasure(mn, mseed, nth);
   if (out == NULL)
     out = mu ? "src/core/ebrems/eb_table_mu.c" : "src/core/ebrems/eb_table.c";
   if (nth < 1 || nth > 8)
