@@ -1447,3 +1447,53 @@ Test(ebwire, other_continuous_everywhere, .timeout = 120) {
   cr_expect(table_ratio_p(pr, 8, 1e4, 1.5) == 0.0);
   cr_expect(table_ratio_p(pr, 8, 1e4, 0.9999) > 0.0);
 }
+
+/*
+** Other projectiles at table nodes (the generator's own points, so only
+** the integrals' tolerances separate table and fresh values: rtol 2e-3
+** there, 1e-3 here): charges z = +1, -1, 2 against fresh all-diagram
+** integrals of the particle itself (internal consistency with bl_ebrems,
+** no outside source).  At the first node (spin 1/2, M = 1 GeV, Z = 8,
+** tau = 1000, u = 0.5) R_P and R_E are of one size and R_I = 2 c_I
+** sqrt(R_P R_E) is a tenth of R (DEVELOPERS.md, "Other projectiles", the
+** table measured before the grid), so R(+1) - R(-1) = 2 R_I is checked
+** on its own against the fresh difference: a table evaluation with the
+** sign of c_I flipped gives the difference the wrong sign.  Measured:
+** table against fresh within 5e-6 for R and 6e-6 for the difference (the
+** adaptive rules land on the same points); tolerances from the
+** generator's rtol 2e-3: R within 2e-3, the difference within 4e-3 R(+1)
+** (2 % of it at the first node, 18 % at the second, where 2 R_I is 2.2 %
+** of R).  Mutant: combine() with -2 c_I fails all six R checks and both
+** differences (the first node's R by 19 %, z = 2 by 18 %).
+*/
+Test(ebwire, other_charges_at_nodes, .timeout = 240) {
+  static const struct { double M, spin, tau, u; int Z; } nodes[] = {
+    {1e3, 0.5, 1e3, 0.5, 8}, {316.22776601683796, 0.0, 10.0, 0.1, 82}};
+  static const double zs[3] = {1.0, -1.0, 2.0};
+  bl_quad *q = bl_quad_alloc(200);
+  size_t i, j;
+  cr_assert_not_null(q);
+  cr_assert_eq(bl_quad_set_rtol(q, 1e-3), 0);
+  for (i = 0; i < sizeof nodes / sizeof nodes[0]; i++) {
+    double T = nodes[i].tau * nodes[i].M, got[3], fresh[3], dg, df;
+    for (j = 0; j < 3; j++) {
+      bl_particle p = {"node", nodes[i].M, zs[j], nodes[i].spin, 0};
+      fresh[j] = fresh_ratio_p(&p, nodes[i].Z, T, nodes[i].u, q);
+      got[j] = table_ratio_p(&p, nodes[i].Z, T, nodes[i].u);
+      cr_log_info("node M=%g z=%g: table %.6g fresh %.6g (%.2e)",
+                  nodes[i].M, zs[j], got[j], fresh[j],
+                  got[j] / fresh[j] - 1.0);
+      cr_expect(fabs(got[j] / fresh[j] - 1.0) < 2e-3, "M=%g spin %g Z=%d "
+                "T=%g u=%g z=%g: table %.6g fresh %.6g", nodes[i].M,
+                nodes[i].spin, nodes[i].Z, T, nodes[i].u, zs[j], got[j],
+                fresh[j]);
+    }
+    dg = got[0] - got[1];
+    df = fresh[0] - fresh[1];
+    cr_log_info("node M=%g: 2 R_I table %.6g fresh %.6g (R %.6g)",
+                nodes[i].M, dg, df, fresh[0]);
+    cr_expect(df > 0.0 && fabs(dg - df) < 4e-3 * fresh[0], "M=%g: R(+1) "
+              "- R(-1) table %.6g, fresh %.6g", nodes[i].M, dg, df);
+  }
+  bl_quad_free(q);
+}
