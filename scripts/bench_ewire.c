@@ -1,12 +1,14 @@
 /*
-** bench_ewire.c -- cost of the bound electron term of e-/e+ and muons as
-** the methods give it with electrons = true (bl_case_eratio, the table of
+** bench_ewire.c -- cost of the bound electron term of e-/e+, muons and
+** other projectiles (pion, proton: the table of the three charge parts)
+** as the methods give it with electrons = true (bl_case_eratio, the table of
 ** src/core/ebrems/table.c) against the nuclear term alone
 ** (electrons = false), per dsigma/dk point at rtol 1e-3, measured side by
 ** side in this run (`make bench`; issue 13 item 6: the electron term may
 ** cost no more than the nuclear term).  The electron term's cost is
 ** t(electrons) - t(nucleus); the ratio printed is that over t(nucleus).
-** Also the first call of a fresh process (case setup + one point).  Never
+** Also the first call of a fresh process (case setup + one point), and
+** the first proton call after it (the hadron table's own set-up).  Never
 ** a test.
 ** See Copyright Notice in LICENSE
 */
@@ -80,19 +82,26 @@ static int angular (void) {
 
 
 int main (void) {
-  static const struct { const char *name; int Z; double T; int method; }
-  pts[] = {{"electron", 8, 1.0, BL_METHOD_BORN},
-           {"electron", 8, 10.0, BL_METHOD_BORN},
-           {"electron", 82, 10.0, BL_METHOD_BORN},
-           {"positron", 6, 1.0, BL_METHOD_BORN},
-           {"electron", 1, 0.1, BL_METHOD_DISTORTED},
-           {"electron", 6, 1e4, BL_METHOD_HIGH_ENERGY},
-           {"electron", 29, 1e5, BL_METHOD_AUTO},
+  static const struct { const char *name; int Z; double T; int method, ek; }
+  pts[] = {{"electron", 8, 1.0, BL_METHOD_BORN, 0},
+           {"electron", 8, 10.0, BL_METHOD_BORN, 0},
+           {"electron", 82, 10.0, BL_METHOD_BORN, 0},
+           {"positron", 6, 1.0, BL_METHOD_BORN, 0},
+           {"electron", 1, 0.1, BL_METHOD_DISTORTED, 0},
+           {"electron", 6, 1e4, BL_METHOD_HIGH_ENERGY, 0},
+           {"electron", 29, 1e5, BL_METHOD_AUTO, 0},
            /* muons: their own table; at y above y_max (0.48 at 10 GeV)
            ** the electron part is 0 and costs nothing */
-           {"muon", 6, 1e4, BL_METHOD_BORN},
-           {"antimuon", 26, 1e5, BL_METHOD_AUTO},
-           {"muon", 82, 1e6, BL_METHOD_HIGH_ENERGY}};
+           {"muon", 6, 1e4, BL_METHOD_BORN, 0},
+           {"antimuon", 26, 1e5, BL_METHOD_AUTO, 0},
+           {"muon", 82, 1e6, BL_METHOD_HIGH_ENERGY, 0},
+           /* other projectiles: y = k / k_max of the electron part (k_max
+           ** = T m_e / (m_e + E0 - p0), far below T at low gamma), so
+           ** that the electron part is not 0 */
+           {"pion+", 6, 1e4, BL_METHOD_BORN, 1},
+           {"pion-", 26, 1e5, BL_METHOD_AUTO, 1},
+           {"proton", 6, 1e4, BL_METHOD_BORN, 1},
+           {"proton", 82, 1e6, BL_METHOD_HIGH_ENERGY, 1}};
   static const double ys[] = {0.1, 0.5, 0.8};
   const bl_model *hf = bl_model_find("hartree-fock");
   double ratio[64], first, t0;
@@ -113,7 +122,15 @@ int main (void) {
   printf("first call (setup + Born dsigma/dk, e- 1 MeV on O, electrons): "
          "%.1f ms (issue 13 target < 50 ms: %s)\n", 1e3 * first,
          first < 0.05 ? "met" : "missed");
-  printf("%-9s %3s %8s %-11s %4s %10s %10s %8s\n", "particle", "Z", "T/MeV",
+  t0 = now();
+  if (bl_case_setup(&c, bl_particle_find("proton"), 8, hf, NULL, 1e4,
+                    &bl_opts_default) != BL_SUCCESS
+      || bl_dcs_dk_e(&c, 0.5 * c.ekmax, q, &r) != BL_SUCCESS)
+    return 1;
+  printf("first proton call after it (setup + Born dsigma/dk, 10 GeV on O, "
+         "k = k_max/2 of the electron part): %.1f ms\n", 1e3 * (now() - t0));
+  printf("%-9s %3s %8s %-11s %4s %10s %10s %8s  (y = k/T; pions, protons: "
+         "k/k_max of the electron part)\n", "particle", "Z", "T/MeV",
          "method", "y", "nuc ms", "nuc+e ms", "e/nuc");
   for (ip = 0; ip < sizeof pts / sizeof pts[0]; ip++)
     for (iy = 0; iy < 3; iy++) {
@@ -121,7 +138,7 @@ int main (void) {
       bl_case ce, cn;
       bl_opts o = bl_opts_default;
       bl_he he, hn;
-      double k = ys[iy] * pts[ip].T, tn = 0.0, te = 0.0, t1;
+      double k, tn = 0.0, te = 0.0, t1;
       int j;
       o.electrons = 0;
       if (bl_case_setup(&ce, p, pts[ip].Z, hf, NULL, pts[ip].T,
@@ -131,6 +148,7 @@ int main (void) {
           || bl_method_prepare(&ce, pts[ip].method, q, &he) != BL_SUCCESS
           || bl_method_prepare(&cn, pts[ip].method, q, &hn) != BL_SUCCESS)
         return 1;
+      k = ys[iy] * (pts[ip].ek ? ce.ekmax : pts[ip].T);
       bl_method_dk_e(&cn, &hn, pts[ip].method, k, q, &r);   /* warm */
       bl_method_dk_e(&ce, &he, pts[ip].method, k, q, &r);
       for (j = 0; j < REP || tn < 0.02; j++) {   /* alternated: the same
