@@ -106,7 +106,7 @@ echo "== electron target (scripts/bench_ebrems.c): rtol 1e-3, against nuclear Bo
 bench_prog bench_ebrems
 
 echo
-echo "== bound electron term of e-/e+ and muons as the methods give it (scripts/bench_ewire.c): rtol 1e-3, against the nuclear term in the same run"
+echo "== bound electron term of e-/e+, muons, pions and protons as the methods give it (scripts/bench_ewire.c): rtol 1e-3, against the nuclear term in the same run"
 bench_prog bench_ewire
 
 echo
