@@ -1200,6 +1200,34 @@ Test(ebwire, other_table_against_fresh_integrals, .timeout = 240) {
 }
 
 /*
+** The top of the table of other projectiles: a mass row's first tau node
+** whose T = M tau reaches 10 TeV holds the values at 10 TeV, so it stands
+** at tau = 10 TeV / M in the interpolation (table.c, tau_stencil).  At the
+** mass node 3.16 GeV (no mass interpolation), spin 0, O, u = 0.03, against
+** fresh integrals (internal consistency with bl_ebrems): measured within
+** 8e-4 at 3-9.9 TeV; with the node at its own tau (14.7 TeV) -3.1 %, +7 %,
+** +14 %, +21 % at 5, 8, 9, 9.9 TeV.  Tolerance 1 %.
+*/
+Test(ebwire, other_table_top_node, .timeout = 120) {
+  static const double Ts[] = {5e6, 8e6, 9.9e6};
+  bl_particle p = {"probe", 3162.2776601683795, 1.0, 0.0, 0};
+  bl_quad *q = bl_quad_alloc(200);
+  size_t i;
+  bl_quad_set_rtol(q, 1e-3);
+  for (i = 0; i < sizeof Ts / sizeof Ts[0]; i++) {
+    bl_case c;
+    double fresh = fresh_ratio_p(&p, 8, Ts[i], 0.03, q), got;
+    cr_assert_eq(bl_case_setup(&c, &p, 8, bl_model_find("hartree-fock"),
+                               NULL, Ts[i], &bl_opts_default), 0);
+    got = bl_case_eratio(&c, 0.03 * c.ekmax);
+    cr_expect(fabs(got / fresh - 1.0) < 0.01, "T=%g: table %g fresh %g",
+              Ts[i], got, fresh);
+  }
+  bl_quad_free(q);
+}
+
+
+/*
 ** The projectile's radiation alone (opts.eradiation = BL_ERAD_PROJECTILE,
 ** the muon-physics convention): muons take R_P of the table of other
 ** projectiles, at their mass, 5.7 % above its first mass node; against

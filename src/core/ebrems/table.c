@@ -299,10 +299,38 @@ double bl_ebt_eval (int kind, const double rows[2][BL_EBT_ROW], double wz,
 ** ln R_P, rows[1] ln R_E (the mass scaling (M / EBH_M0)^2 put back),
 ** rows[2] c_I.
 */
+/*
+** The tau stencil of mass row m at xt (units of EBH_DLT from EBH_LT0):
+** its first node *st and weights wt.  The row's first tau node whose T =
+** M tau reaches BL_EBREMS_T_MAX holds the values at T = BL_EBREMS_T_MAX
+** (those above it copy it), so that node stands at its true abscissa
+** xcut = ln(T_MAX / M) and the interpolation uses no node above it; xt
+** beyond xcut is held there.  (Interpolating that node as if it stood at
+** its own tau put R 3-21 % off between about 4 and 10 TeV: DEVELOPERS.md,
+** "Other projectiles".)
+*/
+static void tau_stencil (int m, double xt, int *st, double wt[4]) {
+  double lm = EBH_LM0 + EBH_DLM * m, xs[4];
+  double xcut = (log(BL_EBREMS_T_MAX) - lm - EBH_LT0) / EBH_DLT;
+  int tc = EBH_NT - 1, it, a;
+  while (tc > 0 && xcut <= tc - 1 + 1e-9)
+    tc--;                      /* the first node at or above the cut */
+  if (xcut > tc)
+    xcut = tc;                 /* the cut lies beyond the table */
+  if (xt > xcut)
+    xt = xcut;
+  it = (int)xt < tc - 1 ? (int)xt : tc - 1;
+  *st = stencil(it, tc + 1);
+  for (a = 0; a < 4; a++)
+    xs[a] = *st + a < tc ? *st + a : xcut;
+  lagrange4(xs, xt, wt);
+}
+
+
 void bl_ebh_rows (int spin2, double M, int Z, double T,
                   double rows[3][BL_EBT_ROW]) {
-  double xm = (log(M) - EBH_LM0) / EBH_DLM, xt, xs[4], wm[4], wt[4], wz;
-  int im, sm, it, st, iz, a, b, j, q, zz;
+  double xm = (log(M) - EBH_LM0) / EBH_DLM, xt, xs[4], wm[4], wt[4][4], wz;
+  int im, sm, st[4], iz, a, b, j, q, zz;
   typedef char ebh_row_fits[EBH_NU <= BL_EBT_ROW ? 1 : -1];
   (void)sizeof(ebh_row_fits);
   pthread_once(&once, make_logs);
@@ -313,15 +341,12 @@ void bl_ebh_rows (int spin2, double M, int Z, double T,
   xm = fmax(0.0, fmin(xm, EBH_NM - 1.0));
   xt = fmax(0.0, fmin(xt, EBH_NT - 1.0));
   im = (int)xm < EBH_NM - 2 ? (int)xm : EBH_NM - 2;
-  it = (int)xt < EBH_NT - 2 ? (int)xt : EBH_NT - 2;
   sm = stencil(im, EBH_NM);
-  st = stencil(it, EBH_NT);
-  for (a = 0; a < 4; a++)
+  for (a = 0; a < 4; a++) {
     xs[a] = sm + a;
+    tau_stencil(sm + a, xt, &st[a], wt[a]);
+  }
   lagrange4(xs, xm, wm);
-  for (a = 0; a < 4; a++)
-    xs[a] = st + a;
-  lagrange4(xs, xt, wt);
   if (Z <= bl_ebh_z[0] || Z >= bl_ebh_z[EBH_NZ - 1]) {
     iz = Z <= bl_ebh_z[0] ? 0 : EBH_NZ - 2;
     wz = Z <= bl_ebh_z[0] ? 0.0 : 1.0;
@@ -339,8 +364,8 @@ void bl_ebh_rows (int spin2, double M, int Z, double T,
         v[zz] = 0.0;
         for (a = 0; a < 4; a++)
           for (b = 0; b < 4; b++)
-            v[zz] += wm[a] * wt[b]
-                     * lnh[spin2][sm + a][iz + zz][st + b][j][q];
+            v[zz] += wm[a] * wt[a][b]
+                     * lnh[spin2][sm + a][iz + zz][st[a] + b][j][q];
       }
       rows[q][j] = (1.0 - wz) * v[0] + wz * v[1];
     }
