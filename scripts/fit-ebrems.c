@@ -328,35 +328,50 @@ typedef struct mpoint {
 static mpoint *mp = NULL;
 static int nmp = 0, mnext = 0;
 
-static void *mworker (void *arg) {
+/* The library's R at point j of -m (mp) or -H -m (hp) against a fresh
+** ratio with the quadratures qe, qb: into the point; nonzero on failure. */
+static int mpoint_eval (int j, bl_quad *qe, bl_quad *qb);
+static int hpoint_eval (int j, bl_quad *qe, bl_quad *qb);
+
+/* A worker of -m and -H -m: the next point until nmp, by `eval`. */
+static void measure_points (int (*eval) (int, bl_quad *, bl_quad *)) {
   bl_quad *qe = bl_quad_alloc(200), *qb = bl_quad_alloc(200);
-  (void)arg;
   if (qe == NULL || qb == NULL)
     exit(1);
   bl_quad_set_rtol(qe, 1e-3);
   bl_quad_set_rtol(qb, 1e-5);
   for (;;) {
     int j;
-    double err;
-    bl_case c;
-    mpoint *x;
     pthread_mutex_lock(&lock);
     j = mnext++;
     pthread_mutex_unlock(&lock);
     if (j >= nmp)
       break;
-    x = &mp[j];
-    if (ratio(x->kind, x->Z, x->T, x->u, qe, qb, &x->fresh, &err)
-        || bl_case_setup(&c, bl_particle_find(kinds[x->kind]), x->Z,
-                         bl_model_find("hartree-fock"), NULL, x->T,
-                         &bl_opts_default) != BL_SUCCESS)
+    if (eval(j, qe, qb))
       exit(1);
-    x->got = bl_case_eratio(&c, x->u * c.ekmax);
-    x->rel = fabs(x->got - x->fresh) / fmax(x->fresh, 1e-300);
   }
   bl_quad_free(qe);
   bl_quad_free(qb);
+}
+
+static void *mworker (void *arg) {
+  (void)arg;
+  measure_points(mpoint_eval);
   return NULL;
+}
+
+static int mpoint_eval (int j, bl_quad *qe, bl_quad *qb) {
+  mpoint *x = &mp[j];
+  double err;
+  bl_case c;
+  if (ratio(x->kind, x->Z, x->T, x->u, qe, qb, &x->fresh, &err)
+      || bl_case_setup(&c, bl_particle_find(kinds[x->kind]), x->Z,
+                       bl_model_find("hartree-fock"), NULL, x->T,
+                       &bl_opts_default) != BL_SUCCESS)
+    return 1;
+  x->got = bl_case_eratio(&c, x->u * c.ekmax);
+  x->rel = fabs(x->got - x->fresh) / fmax(x->fresh, 1e-300);
+  return 0;
 }
 
 
@@ -371,36 +386,25 @@ typedef struct hpoint {
 } hpoint;
 static hpoint *hp = NULL;
 
+static int hpoint_eval (int j, bl_quad *qe, bl_quad *qb) {
+  hpoint *x = &hp[j];
+  double err;
+  bl_case c;
+  if (ratio_p(&x->p, x->Z, x->T, x->u, qe, qb, BL_EBREMS_RAD_BOTH,
+              &x->fresh, &err)
+      || bl_case_setup(&c, &x->p, x->Z, bl_model_find("hartree-fock"),
+                       NULL, x->T, &bl_opts_default) != BL_SUCCESS)
+    return 1;
+  x->got = bl_case_eratio(&c, x->u * c.ekmax);
+  x->rel = fabs(x->got - x->fresh) / fmax(x->fresh, 1e-300);
+  if (progress)
+    fprintf(stderr, "%d/%d done\n", j + 1, nmp);
+  return 0;
+}
+
 static void *hmworker (void *arg) {
-  bl_quad *qe = bl_quad_alloc(200), *qb = bl_quad_alloc(200);
   (void)arg;
-  if (qe == NULL || qb == NULL)
-    exit(1);
-  bl_quad_set_rtol(qe, 1e-3);
-  bl_quad_set_rtol(qb, 1e-5);
-  for (;;) {
-    int j;
-    double err;
-    bl_case c;
-    hpoint *x;
-    pthread_mutex_lock(&lock);
-    j = mnext++;
-    pthread_mutex_unlock(&lock);
-    if (j >= nmp)
-      break;
-    x = &hp[j];
-    if (ratio_p(&x->p, x->Z, x->T, x->u, qe, qb, BL_EBREMS_RAD_BOTH,
-                &x->fresh, &err)
-        || bl_case_setup(&c, &x->p, x->Z, bl_model_find("hartree-fock"),
-                         NULL, x->T, &bl_opts_default) != BL_SUCCESS)
-      exit(1);
-    x->got = bl_case_eratio(&c, x->u * c.ekmax);
-    x->rel = fabs(x->got - x->fresh) / fmax(x->fresh, 1e-300);
-    if (progress)
-      fprintf(stderr, "%d/%d done\n", j + 1, nmp);
-  }
-  bl_quad_free(qe);
-  bl_quad_free(qb);
+  measure_points(hpoint_eval);
   return NULL;
 }
 
