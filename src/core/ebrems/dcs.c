@@ -36,9 +36,11 @@
 
 /* Work budget of one dsigma/dk in integrand calls: past it the outer
 ** integral bisects no more and the result is flagged.  (The fuzzing
-** build lowers it, Makefile "fuzz".) */
-#ifndef CALL_BUDGET
-#define CALL_BUDGET 4000000UL
+** build lowers it, Makefile "fuzz": a call of bl_eb_d5 costs about 100
+** Born integrand calls, and an integral over k of a projectile outside the
+** other-projectile table takes one such dsigma/dk per point.) */
+#ifndef EB_CALL_BUDGET
+#define EB_CALL_BUDGET 4000000UL
 #endif
 
 /* The relative tolerance of an inner level as a share of the level above. */
@@ -383,7 +385,7 @@ static double angular (integ *it, double eps, int outer, double *err) {
       if (outer)
         st = bl_gk_adapt_budget(hs_f, it, 0.0, top, 0.0, eps, it->q->limit,
                                 it->npt, it->q->pan[1], &it->q->calls,
-                                it->q->calls + CALL_BUDGET, &pv, &pe);
+                                it->q->calls + EB_CALL_BUDGET, &pv, &pe);
       else
         st = bl_gk_adapt(hs_f, it, 0.0, top, 0.0, eps, it->q->limit,
                          it->npt, it->q->pan[1], &pv, &pe);
@@ -476,7 +478,7 @@ int bl_ebrems_dk_e (const bl_ebrems *c, double k, bl_quad *q, bl_result *out) {
   it.smax = log1p(hmax / it.hkc);
   st = bl_gk_adapt_budget(hk_f, &it, 0.0, 1.0, 0.0, q->rtol,
                           q->limit, it.npt, q->pan[0], &q->calls,
-                          q->calls + CALL_BUDGET, &v, &e);
+                          q->calls + EB_CALL_BUDGET, &v, &e);
   note(&it, st);
   fill(out, v, e, it.status);
   return finish(out, it.status);
