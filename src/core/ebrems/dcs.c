@@ -467,8 +467,7 @@ int bl_ebrems_dk_e (const bl_ebrems *c, double k, bl_quad *q, bl_result *out) {
   if (bl_quad_stopped(q))
     return BL_EINTR;
   km = k / BL_ME_MEV;
-  /* the photon directions with W >= m + m_e: h_k <= (1/y - 1/y_max) / p0 */
-  hmax = (c->t0 / km - 1.0 / c->ymax) / c->p0;
+  hmax = bl_eb_hkmax(c, km);   /* the directions with W >= m + m_e */
   if (!(hmax > 0.0))
     return BL_SUCCESS;
   if (hmax > 2.0)

@@ -103,4 +103,13 @@ double bl_eb_binding (const bl_ebrems *c, const bl_ebpoint *x);
 /* lambda_e^2 / m_e in mb/MeV. */
 double bl_eb_unit (void);
 
+/*
+** The largest photon polar variable h_k = 1 - cos(theta_k) at photon
+** energy k (m_e) that leaves W >= m + m_e: h_k <= (t0/k - 1/y_max) / p0
+** (may be <= 0: no direction; callers clamp to [0, 2]).
+*/
+static inline double bl_eb_hkmax (const bl_ebrems *c, double k) {
+  return (c->t0 / k - 1.0 / c->ymax) / c->p0;
+}
+
 #endif

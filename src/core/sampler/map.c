@@ -229,10 +229,7 @@ void bl_smp_geometry (const smp_chan *ch, double kmev, double h0, double h,
 ** M^2 / (E1 + p1); in [0, 2].
 */
 static double exact_h0max (const smp_chan *ch, double kmev) {
-  const bl_ebrems *e = &ch->eb;
-  double h = (e->t0 / (kmev / BL_ME_MEV) - 1.0 - e->m * e->m / (e->e0 + e->p0))
-             / e->p0;
-  return fmin(fmax(h, 0.0), 2.0);
+  return fmin(fmax(bl_eb_hkmax(&ch->eb, kmev / BL_ME_MEV), 0.0), 2.0);
 }
 
 
