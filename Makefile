@@ -577,7 +577,7 @@ $(ROCKSPEC): scripts/brakelight.rockspec.in $(VERSION_H)
 	sed 's|@VERSION@|$(VERSION)|g' $< > $@
 
 # ---- benchmarks and generators ---------------------------------------------
-.PHONY: bench hf-table nuc-table eb-table eb-table-mu eb-table-h error-sweep error-ref dw-positron continuity \
+.PHONY: bench hf-table nuc-table eb-table eb-table-mu eb-table-h error-sweep error-compare error-ref dw-positron continuity \
         continuity-full
 # The fixed earlier commit that make bench and make error-ref build in a git
 # worktree build/base/<commit> (the main before issue 14's integrator).
@@ -597,6 +597,23 @@ $(B)/error_sweep: scripts/error_sweep.c $(LIB)
 	  -I/usr/include/xraylib -o $@ $< $(LIB) $(LIBS)
 error-sweep: $(B)/error_sweep
 	./$(B)/error_sweep run -i $(ERROR_REF) -o $(B)/error-sweep.out
+
+# Calls at equal true error against BENCH_BASE (issue 14, item 2): both
+# trees over the reference set on one ladder of rtols, then error_sweep
+# compare (BASE built in its worktree as make bench does; about 2 min on
+# two cores, most of it BASE's sweep).  Not part of check.
+ERROR_BASE_BUILD = wt=$$(BENCH_BASE=$(BENCH_BASE) bash scripts/bench.sh --base-only); \
+	$(CC) -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L -Iinclude \
+	  -I/usr/include/xraylib -o $(B)/error_sweep_base scripts/error_sweep.c \
+	  $$wt/build/libbrakelight.a $(LIBS)
+ERROR_LADDER ?= 1e-2,3e-3,1e-3,3e-4,1e-4,3e-5,1e-5,3e-6,1e-6
+error-compare: $(B)/error_sweep
+	@set -e; $(ERROR_BASE_BUILD); \
+	./$(B)/error_sweep run -r $(ERROR_LADDER) -i $(ERROR_REF) \
+	  -o $(B)/error-ladder.out; \
+	./$(B)/error_sweep_base run -r $(ERROR_LADDER) -i $(ERROR_REF) \
+	  -o $(B)/error-ladder-base.out > $(B)/error-ladder-base.log; \
+	./$(B)/error_sweep compare $(B)/error-ladder-base.out $(B)/error-ladder.out
 
 # The positron/electron radiative-loss ratio of method "distorted" against
 # Kim et al. 1986 (scripts/dw-positron-ratio.c; about 20 s).  Not in check.
@@ -651,10 +668,7 @@ continuity-full: $(B)/continuity
 # this tree since (see the file's header), and a regeneration with BASE
 # makes them stale again.
 error-ref:
-	@set -e; wt=$$(BENCH_BASE=$(BENCH_BASE) bash scripts/bench.sh --base-only); \
-	$(CC) -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L -Iinclude \
-	  -I/usr/include/xraylib -o $(B)/error_sweep_base scripts/error_sweep.c \
-	  $$wt/build/libbrakelight.a $(LIBS); \
+	@set -e; $(ERROR_BASE_BUILD); \
 	./$(B)/error_sweep_base gen -n $(ERROR_POINTS) -s $(ERROR_SEED) \
 	  -o $(ERROR_REF)
 

@@ -58,7 +58,7 @@
 
 #include "bench_util.h"
 
-#define MAXRTOL 8
+#define MAXRTOL 12
 /* True errors below this are not resolved by references at 1e-10 (whose
 ** own true errors are smaller still); estimate/true ratios use
 ** max(true, TRUE_FLOOR) and the points below it are counted. */
@@ -600,14 +600,23 @@ static int compare (const char *fb, const char *fh) {
 }
 
 
+/* -r R1,R2,...: 1 to MAXRTOL values in (0, 1); -1 (said) otherwise. */
 static int parse_rtols (const char *s, double *r) {
+  const char *s0 = s;
   int n = 0;
   char *end;
-  while (*s && n < MAXRTOL) {
-    r[n] = strtod(s, &end);
-    if (end == s)
-      break;
-    n++;
+  while (*s) {
+    double v = strtod(s, &end);
+    if (end == s || !(v > 0.0 && v < 1.0) || (*end != ',' && *end != '\0')) {
+      fprintf(stderr, "error_sweep: -r %s: each rtol must be a number in "
+                      "(0, 1), separated by commas\n", s0);
+      return -1;
+    }
+    if (n == MAXRTOL) {
+      fprintf(stderr, "error_sweep: -r %s: at most %d rtols\n", s0, MAXRTOL);
+      return -1;
+    }
+    r[n++] = v;
     s = *end == ',' ? end + 1 : end;
   }
   return n;
@@ -639,6 +648,8 @@ usage:
     else if (strcmp(o, "-s") == 0) seed = strtoull(v, NULL, 10);
     else if (strcmp(o, "-r") == 0) {
       nr = parse_rtols(v, rtol);
+      if (nr <= 0)
+        return 2;
       rset = 1;
     }
     else if (strcmp(o, "-j") == 0) nthreads = atoi(v);
