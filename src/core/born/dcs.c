@@ -96,7 +96,7 @@
 ** 1,651); below RULE15_RTOL outer 3 -> 31, inner 10 -> 87 (3e-6: 5,712
 ** -> 3,401, 99.896 -> 99.948 % within).  Together 4.14x -> 5.40x fewer
 ** calls at equal true error 1e-6, 6.59x -> 6.70x at 1e-4, 1.91x ->
-** 4.31x at 1e-8.  1e-2 keeps its fixed 3/7 rules (nested 3 -> 15 there:
+** 4.02x at 1e-8.  1e-2 keeps its fixed 3/7 rules (nested 3 -> 15 there:
 ** 99.948 -> 99.886 % within); 1e-4, the default, keeps 10/21 and 7/15
 ** (see DEVELOPERS.md). */
 #define NESTED_RTOL 2e-4
