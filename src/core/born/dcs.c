@@ -396,43 +396,83 @@ static double ridge_width (const integ *it, double hs, double r, double cs) {
 */
 #define BACK_WIDTH 0.1
 /*
-** Beyond the kink (r >= 1) p s = p0 s0 has no solution, but q^2 still has
-** a minimum: q_z = delta - p0 h0 + p h vanishes at h_z = (p0 h0 - delta)/p,
-** where q^2 = (p0 s0 - p s_z)^2, and near the kink (r -> 1: theta0 and
-** theta near pi/2) that mismatch is small too.  The integrand is then a
-** peak at h_z of width ~ s_z hypot(p0 s0 - p s_z, screening)/p in h (q_z
-** changes with slope p, the mismatch with slope p cot(theta)).  For a
-** slow projectile that loses little energy (p0/p - 1 small: heavy masses
-** at small y) the whole range between the two kinks is so close to r = 1
-** that the peak is ~1e-3 wide, and one panel over the plain range can
-** miss it entirely: both rules of the panel see the smooth tail alone,
-** agree, and its d is small by coincidence (334 GeV spin-1/2 on Z = 80,
-** T = 2 m, y = 1.7e-3: the piece between the kinks 38 % low at rtol 1e-6
-** with an estimate of 1e-3 of the error).  Where the width is below
-** BACK_WIDTH the range is split at h_z and each side mapped as a ridge
-** (sides); q_z and p0 s0 - p s stay the plain differences (g.ridge = 0).
-** Returns 0 when it integrated, 1 when there is no such peak.
+** The q_z = 0 peak.  q_z = delta - p0 h0 + p h vanishes at
+** h_z = (p0 h0 - delta)/p, where q^2 = (p0 s0 - p s_z)^2 + b v.  Near the
+** kink (r = p0 s0/p -> 1: theta0 and theta near pi/2) that mismatch is
+** small too, and the integrand is a peak at h_z of width
+** ~ s_z hypot(p0 s0 - p s_z, screening)/p in h, or narrower where the
+** mismatch changes faster than q_z (slope p cot(theta) against p).  For a
+** slow projectile that loses little energy (p/p0 ~ 1: heavy masses at
+** small y) the whole outer range between the two kinks has r ~ 1 and the
+** peak is ~1e-3 wide; one panel over the plain range (r >= 1) or over a
+** ridge map made for the wider ridge beside it (r < 1, the ridge's width
+** ~ |h* - h_z| / cot(theta*)) can miss it entirely: both rules of the
+** panel see the smooth rest alone, agree, and its d is small by
+** coincidence (334 GeV spin-1/2 on Z = 80, T = 2 m, y = 1.7e-3: the outer
+** piece between the kinks 38 % low at rtol 1e-6, estimated at 1e-3 of
+** that).  Sets *hz and *wh (width in h) and returns 1 where the peak
+** exists and is narrower than BACK_WIDTH.
 */
-static int zpeak (integ *it, double smax, double eps, double negl,
-                  size_t limit, double *total, double *abserr_total) {
+static int zpeak_at (const integ *it, double *hz, double *wh) {
   const bl_kin *kn = &it->kn;
-  double hz = (kn->p0 * it->g.h0 - kn->delta) / kn->p, sz, dt, wh, c;
-  if (!(hz > 0.0 && hz < 2.0))
-    return 1;
-  sz = sqrt(hz * (2.0 - hz));
+  double sz, dt, c;
+  *hz = (kn->p0 * it->g.h0 - kn->delta) / kn->p;
+  *wh = HUGE_VAL;
+  if (!(*hz > 0.0 && *hz < 2.0))
+    return 0;
+  sz = sqrt(*hz * (2.0 - *hz));
   dt = kn->p0 * it->g.s0 - kn->p * sz;
-  c = fabs(1.0 - hz);   /* |cot(theta_z)| sz */
-  wh = hypot(dt, sqrt(it->c->ridge_b)) * sz / (kn->p * fmax(sz, c));
-  if (!(wh < BACK_WIDTH))
-    return 1;
+  c = fabs(1.0 - *hz);   /* |cot(theta_z)| s_z */
+  *wh = hypot(dt, sqrt(it->c->ridge_b)) * sz / (kn->p * fmax(sz, c));
+  return *wh < BACK_WIDTH;
+}
+
+
+/* The two sides of the q_z = 0 peak at hz (width wh in h) within [lo, hi]
+** in sigma, each by the sinh map; q_z and p0 s0 - p s are the plain
+** differences there (g.ridge = 0). */
+static void zsides (integ *it, double hz, double wh, double lo, double hi,
+                    double eps, double negl, size_t limit, double *total,
+                    double *abserr_total) {
   it->g.ridge = 0;
   it->g.hs = hz;
-  it->sstar = log1p(hz / kn->hc);
-  it->w = wh / (hz + kn->hc);
+  it->sstar = log1p(hz / it->kn.hc);
+  it->w = wh / (hz + it->kn.hc);
   if (!(it->w > 1e-300))
     it->w = 1e-300;
-  sides(it, 0.0, smax, eps, negl, limit, total, abserr_total);
-  return 0;
+  sides(it, lo, hi, eps, negl, limit, total, abserr_total);
+}
+
+
+/*
+** The ridge at hs over [lo, hi] in sigma and, where zp says a narrow
+** q_z = 0 peak lies in that range, too narrow for the ridge's map (its
+** width below ZPEAK_SHARE of the ridge's width and distance to h*
+** together: the scale of the sinh map there), that peak by its own map,
+** the range split halfway between the two in sigma.  The z-peak's width
+** is ~ cot(theta*)^2 times the ridge's, so this holds near the kink
+** (theta* -> pi/2) and not for forward ridges.
+*/
+#define ZPEAK_SHARE 0.1
+static void segment (integ *it, double hs, double r, double cs, double lo,
+                     double hi, int zp, double hz, double wz, double eps,
+                     double negl, size_t limit, double *total,
+                     double *abserr_total) {
+  double sr = log1p(hs / it->kn.hc), sz = log1p(hz / it->kn.hc), mid;
+  if (!zp || !(sz > lo && sz < hi)
+      || !(wz < ZPEAK_SHARE * hypot(ridge_width(it, hs, r, cs), hz - hs))) {
+    ridge(it, hs, r, cs, lo, hi, eps, negl, limit, total, abserr_total);
+    return;
+  }
+  mid = 0.5 * (sr + sz);
+  if (sz > sr) {
+    ridge(it, hs, r, cs, lo, mid, eps, negl, limit, total, abserr_total);
+    zsides(it, hz, wz, mid, hi, eps, negl, limit, total, abserr_total);
+  }
+  else {
+    ridge(it, hs, r, cs, mid, hi, eps, negl, limit, total, abserr_total);
+    zsides(it, hz, wz, lo, mid, eps, negl, limit, total, abserr_total);
+  }
 }
 
 
@@ -441,28 +481,33 @@ static int zpeak (integ *it, double smax, double eps, double negl,
 static double inner_integral (integ *it, double eps, double negl) {
   const bl_kin *kn = &it->kn;
   double smax = log1p(2.0 / kn->hc), r = kn->p0 * it->g.s0 / kn->p;
-  double total = 0.0, abserr_total = 0.0;
+  double total = 0.0, abserr_total = 0.0, hz, wz;
   size_t limit = it->q->limit < INNER_LIMIT || it->inner_alone
                  ? it->q->limit : INNER_LIMIT;
+  int zp;
   if (it->q->calls - it->calls0 > CALL_BUDGET) {
     limit = 1;
     if (it->status == GSL_SUCCESS)
       it->status = BL_ENOTCONV;
   }
+  zp = zpeak_at(it, &hz, &wz);
   if (r < 1.0) {
     double cs = sqrt((1.0 - r) * (1.0 + r));
     double hs = r * r / (1.0 + cs), hb = 1.0 + cs;
     if (hb < 2.0 && ridge_width(it, hb, r, cs) < BACK_WIDTH) {
       double sm = log1p(1.0 / kn->hc);   /* theta = pi/2, between them */
-      ridge(it, hs, r, cs, 0.0, sm, eps, negl, limit, &total, &abserr_total);
-      ridge(it, hb, r, cs, sm, smax, eps, negl, limit, &total,
-            &abserr_total);
+      segment(it, hs, r, cs, 0.0, sm, zp, hz, wz, eps, negl, limit, &total,
+              &abserr_total);
+      segment(it, hb, r, cs, sm, smax, zp, hz, wz, eps, negl, limit, &total,
+              &abserr_total);
     }
     else
-      ridge(it, hs, r, cs, 0.0, smax, eps, negl, limit, &total,
-            &abserr_total);
+      segment(it, hs, r, cs, 0.0, smax, zp, hz, wz, eps, negl, limit, &total,
+              &abserr_total);
   }
-  else if (zpeak(it, smax, eps, negl, limit, &total, &abserr_total) != 0) {
+  else if (zp)
+    zsides(it, hz, wz, 0.0, smax, eps, negl, limit, &total, &abserr_total);
+  else {
     it->g.ridge = 0;
     total = piece(it, inner_plainv, 0.0, smax, eps, negl, limit,
                   &abserr_total);
