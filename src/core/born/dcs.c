@@ -120,6 +120,7 @@ typedef struct integ {
   bl_polar g;
   bl_quad *q;
   double sstar, w, side;    /* inner map: sigma = sstar + side w sinh(u) */
+  double hcen, doff;        /* h at sstar, and hcen - h* (ridge: g.hs) */
   double last_err;          /* error estimate of the latest inner integral */
   unsigned long calls0;     /* q->calls when this integral began */
   double fpeak;             /* largest outer integrand value so far */
@@ -261,8 +262,11 @@ static void inner_fv (const double *u, int n, void *params, double *f,
   integ *it = params;
   double h[BL_NODE_MAX], dh[BL_NODE_MAX], jac[BL_NODE_MAX];
   int i;
-  bl_ridge_map_n(u, n, it->side * it->w, it->w, it->sstar, it->g.hs,
+  int m = BL_LANES_UP(n);   /* h, dh hold m values (the lanes) */
+  bl_ridge_map_n(u, n, it->side * it->w, it->w, it->sstar, it->hcen,
                  it->kn.hc, h, dh, jac);
+  for (i = 0; i < m; i++)
+    dh[i] += it->doff;   /* h - h* from h - hcen */
   phi_n(it, n, h, dh, f, err);
   for (i = 0; i < n; i++) {
     f[i] *= jac[i];
@@ -322,6 +326,33 @@ static double piece (integ *it, bl_gkvfun f, double a, double b, double eps,
 
 
 /*
+** Width in h of the ridge peak at h* (the scale of the sinh map), and in
+** *off the distance from h* to the minimum of q^2 there.  Near h*, at
+** phi = 0, q^2 = q_z^2 + (p0 s0 - p s)^2 + screening, with q_z = q_z* +
+** p (h - h*) and p0 s0 - p s = -p cot(theta*) (h - h*) to first order: a
+** sum of two squares, whose minimum lies at h* - sin^2(theta*) q_z* / p
+** with value cos^2(theta*) q_z*^2 + screening and curvature
+** p^2/sin^2(theta*); so the width is sin(theta*) hypot(cos(theta*) q_z*,
+** screening)/p.  A forward ridge (theta* small) has its minimum at h*
+** and width ~ sin(theta*) hypot(q_z*, screening)/p; near the kink
+** (theta* -> pi/2) the minimum moves to where q_z = 0 and the width to
+** ~ (p0 s0 - p s)/p there.  Centred at h* with the width
+** tan(theta*) hypot(q_z*, screening)/p, the map was ~30x too wide for a
+** 139 MeV projectile at T/m = 36, y = 3.6e-4 and one first panel missed
+** the peak (an outer node 6.5 % low, its estimate 1e-6).
+*/
+static double ridge_width (const integ *it, double hs, double r, double cs,
+                           double *off) {
+  const bl_kin *kn = &it->kn;
+  double qz = kn->delta - kn->p0 * it->g.h0 + kn->p * hs;
+  if (fabs(qz) < kn->delta)
+    qz = kn->delta;
+  *off = -r * r * qz / kn->p;
+  return r * hypot(cs * qz, sqrt(it->c->ridge_b)) / kn->p;
+}
+
+
+/*
 ** The two sides of a peak at sigma = it->sstar of width it->w in sigma,
 ** within [lo, hi], each by the sinh map; adds their values and errors.
 */
@@ -352,36 +383,33 @@ static void ridge (integ *it, double hs, double r, double cs, double lo,
                    double hi, double eps, double negl, size_t limit,
                    double *total, double *abserr_total) {
   const bl_kin *kn = &it->kn;
-  double qz = kn->delta - kn->p0 * it->g.h0 + kn->p * hs, wh;
+  double qz = kn->delta - kn->p0 * it->g.h0 + kn->p * hs, wh, off, hm, sm;
   /* q >= delta for every geometry, so |q_z| >= delta at the ridge; a
   ** smaller value is rounding of the three terms (forward photons) */
   if (fabs(qz) < kn->delta)
     qz = kn->delta;
-  wh = hypot(qz, sqrt(it->c->ridge_b)) * r
-       / (kn->p * (cs > 1e-300 ? cs : 1e-300));
-  it->sstar = log1p(hs / kn->hc);
+  wh = ridge_width(it, hs, r, cs, &off);
+  hm = hs + off;
+  sm = log1p(hm / kn->hc);
+  if (!(hm > 0.0 && hm < 2.0 && sm > lo && sm < hi)) {
+    off = 0.0;   /* the minimum of q^2 outside this range: centre at h* */
+    hm = hs;
+    sm = log1p(hs / kn->hc);
+  }
+  it->sstar = sm;
+  it->hcen = hm;
+  it->doff = off;
   it->g.ridge = 1;
   it->g.hs = hs;
   it->g.ss = r;
   it->g.qzs = qz;
-  it->w = wh / (hs + kn->hc);
+  it->w = wh / (hm + kn->hc);
   if (!(it->w > 1e-300))
     it->w = 1e-300;
   sides(it, lo, hi, eps, negl, limit, total, abserr_total);
 }
 
 
-/*
-** Width in h of the ridge peak at h* (the scale of the sinh map).
-*/
-static double ridge_width (const integ *it, double hs, double r, double cs) {
-  const bl_kin *kn = &it->kn;
-  double qz = kn->delta - kn->p0 * it->g.h0 + kn->p * hs;
-  if (fabs(qz) < kn->delta)
-    qz = kn->delta;
-  return hypot(qz, sqrt(it->c->ridge_b)) * r
-         / (kn->p * (cs > 1e-300 ? cs : 1e-300));
-}
 
 
 /*
@@ -404,14 +432,13 @@ static double ridge_width (const integ *it, double hs, double r, double cs) {
 ** mismatch changes faster than q_z (slope p cot(theta) against p).  For a
 ** slow projectile that loses little energy (p/p0 ~ 1: heavy masses at
 ** small y) the whole outer range between the two kinks has r ~ 1 and the
-** peak is ~1e-3 wide; one panel over the plain range (r >= 1) or over a
-** ridge map made for the wider ridge beside it (r < 1, the ridge's width
-** ~ |h* - h_z| / cot(theta*)) can miss it entirely: both rules of the
-** panel see the smooth rest alone, agree, and its d is small by
-** coincidence (334 GeV spin-1/2 on Z = 80, T = 2 m, y = 1.7e-3: the outer
-** piece between the kinks 38 % low at rtol 1e-6, estimated at 1e-3 of
-** that).  Sets *hz and *wh (width in h) and returns 1 where the peak
-** exists and is narrower than BACK_WIDTH.
+** peak is ~1e-3 wide; one panel over the plain range can miss it
+** entirely: both rules of the panel see the smooth rest alone, agree,
+** and its d is small by coincidence (334 GeV spin-1/2 on Z = 80, T = 2 m,
+** y = 1.7e-3: the outer piece between the kinks 38 % low at rtol 1e-6,
+** estimated at 1e-3 of that).  Where r < 1 the same minimum of q^2 is the
+** ridge's (ridge_width).  Sets *hz and *wh (width in h) and returns 1
+** where the peak exists (r >= 1) and is narrower than BACK_WIDTH.
 */
 static int zpeak_at (const integ *it, double *hz, double *wh) {
   const bl_kin *kn = &it->kn;
@@ -435,44 +462,13 @@ static void zsides (integ *it, double hz, double wh, double lo, double hi,
                     double eps, double negl, size_t limit, double *total,
                     double *abserr_total) {
   it->g.ridge = 0;
-  it->g.hs = hz;
+  it->g.hs = it->hcen = hz;
+  it->doff = 0.0;
   it->sstar = log1p(hz / it->kn.hc);
   it->w = wh / (hz + it->kn.hc);
   if (!(it->w > 1e-300))
     it->w = 1e-300;
   sides(it, lo, hi, eps, negl, limit, total, abserr_total);
-}
-
-
-/*
-** The ridge at hs over [lo, hi] in sigma and, where zp says a narrow
-** q_z = 0 peak lies in that range, too narrow for the ridge's map (its
-** width below ZPEAK_SHARE of the ridge's width and distance to h*
-** together: the scale of the sinh map there), that peak by its own map,
-** the range split halfway between the two in sigma.  The z-peak's width
-** is ~ cot(theta*)^2 times the ridge's, so this holds near the kink
-** (theta* -> pi/2) and not for forward ridges.
-*/
-#define ZPEAK_SHARE 0.1
-static void segment (integ *it, double hs, double r, double cs, double lo,
-                     double hi, int zp, double hz, double wz, double eps,
-                     double negl, size_t limit, double *total,
-                     double *abserr_total) {
-  double sr = log1p(hs / it->kn.hc), sz = log1p(hz / it->kn.hc), mid;
-  if (!zp || !(sz > lo && sz < hi)
-      || !(wz < ZPEAK_SHARE * hypot(ridge_width(it, hs, r, cs), hz - hs))) {
-    ridge(it, hs, r, cs, lo, hi, eps, negl, limit, total, abserr_total);
-    return;
-  }
-  mid = 0.5 * (sr + sz);
-  if (sz > sr) {
-    ridge(it, hs, r, cs, lo, mid, eps, negl, limit, total, abserr_total);
-    zsides(it, hz, wz, mid, hi, eps, negl, limit, total, abserr_total);
-  }
-  else {
-    ridge(it, hs, r, cs, mid, hi, eps, negl, limit, total, abserr_total);
-    zsides(it, hz, wz, lo, mid, eps, negl, limit, total, abserr_total);
-  }
 }
 
 
@@ -484,28 +480,25 @@ static double inner_integral (integ *it, double eps, double negl) {
   double total = 0.0, abserr_total = 0.0, hz, wz;
   size_t limit = it->q->limit < INNER_LIMIT || it->inner_alone
                  ? it->q->limit : INNER_LIMIT;
-  int zp;
   if (it->q->calls - it->calls0 > CALL_BUDGET) {
     limit = 1;
     if (it->status == GSL_SUCCESS)
       it->status = BL_ENOTCONV;
   }
-  zp = zpeak_at(it, &hz, &wz);
   if (r < 1.0) {
     double cs = sqrt((1.0 - r) * (1.0 + r));
-    double hs = r * r / (1.0 + cs), hb = 1.0 + cs;
-    if (hb < 2.0 && ridge_width(it, hb, r, cs) < BACK_WIDTH) {
+    double hs = r * r / (1.0 + cs), hb = 1.0 + cs, off;
+    if (hb < 2.0 && ridge_width(it, hb, r, cs, &off) < BACK_WIDTH) {
       double sm = log1p(1.0 / kn->hc);   /* theta = pi/2, between them */
-      segment(it, hs, r, cs, 0.0, sm, zp, hz, wz, eps, negl, limit, &total,
-              &abserr_total);
-      segment(it, hb, r, cs, sm, smax, zp, hz, wz, eps, negl, limit, &total,
-              &abserr_total);
+      ridge(it, hs, r, cs, 0.0, sm, eps, negl, limit, &total, &abserr_total);
+      ridge(it, hb, r, cs, sm, smax, eps, negl, limit, &total,
+            &abserr_total);
     }
     else
-      segment(it, hs, r, cs, 0.0, smax, zp, hz, wz, eps, negl, limit, &total,
-              &abserr_total);
+      ridge(it, hs, r, cs, 0.0, smax, eps, negl, limit, &total,
+            &abserr_total);
   }
-  else if (zp)
+  else if (zpeak_at(it, &hz, &wz))
     zsides(it, hz, wz, 0.0, smax, eps, negl, limit, &total, &abserr_total);
   else {
     it->g.ridge = 0;
