@@ -410,8 +410,6 @@ static void ridge (integ *it, double hs, double r, double cs, double lo,
 }
 
 
-
-
 /*
 ** int_0^2 dh Phi(h0, h) for the polar geometry already in it->g (h0, s0),
 ** to relative tolerance eps; pieces whose error is below negl need not
@@ -739,4 +737,3 @@ int bl_dcs_full_e (const bl_case *c, double k, double theta_k, double theta_p,
     return GSL_ERANGE;
   return BL_SUCCESS;
 }
-
