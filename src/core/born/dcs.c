@@ -135,6 +135,7 @@ typedef struct integ {
   bl_polar g;
   bl_quad *q;
   double sstar, w, side;    /* inner map: sigma = sstar + side w sinh(u) */
+  double hcen, doff;        /* h at sstar, and hcen - h* (ridge: g.hs) */
   double last_err;          /* error estimate of the latest inner integral */
   unsigned long calls0;     /* q->calls when this integral began */
   double fpeak;             /* largest outer integrand value so far */
@@ -276,8 +277,11 @@ static void inner_fv (const double *u, int n, void *params, double *f,
   integ *it = params;
   double h[BL_NODE_MAX], dh[BL_NODE_MAX], jac[BL_NODE_MAX];
   int i;
-  bl_ridge_map_n(u, n, it->side * it->w, it->w, it->sstar, it->g.hs,
+  int m = BL_LANES_UP(n);   /* h, dh hold m values (the lanes) */
+  bl_ridge_map_n(u, n, it->side * it->w, it->w, it->sstar, it->hcen,
                  it->kn.hc, h, dh, jac);
+  for (i = 0; i < m; i++)
+    dh[i] += it->doff;   /* h - h* from h - hcen */
   phi_n(it, n, h, dh, f, err);
   for (i = 0; i < n; i++) {
     f[i] *= jac[i];
@@ -337,29 +341,39 @@ static double piece (integ *it, bl_gkvfun f, double a, double b, double eps,
 
 
 /*
-** The two sides of the ridge at h* = hs (sin(theta*) = r), within [lo, hi]
-** in sigma, each by the sinh map; adds their values and errors.
+** Width in h of the ridge peak at h* (the scale of the sinh map), and in
+** *off the distance from h* to the minimum of q^2 there.  Near h*, at
+** phi = 0, q^2 = q_z^2 + (p0 s0 - p s)^2 + screening, with q_z = q_z* +
+** p (h - h*) and p0 s0 - p s = -p cot(theta*) (h - h*) to first order: a
+** sum of two squares, whose minimum lies at h* - sin^2(theta*) q_z* / p
+** with value cos^2(theta*) q_z*^2 + screening and curvature
+** p^2/sin^2(theta*); so the width is sin(theta*) hypot(cos(theta*) q_z*,
+** screening)/p.  A forward ridge (theta* small) has its minimum at h*
+** and width ~ sin(theta*) hypot(q_z*, screening)/p; near the kink
+** (theta* -> pi/2) the minimum moves to where q_z = 0 and the width to
+** ~ (p0 s0 - p s)/p there.  Centred at h* with the width
+** tan(theta*) hypot(q_z*, screening)/p, the map was ~30x too wide for a
+** 139 MeV projectile at T/m = 36, y = 3.6e-4 and one first panel missed
+** the peak (an outer node 6.5 % low, its estimate 1e-6).
 */
-static void ridge (integ *it, double hs, double r, double cs, double lo,
-                   double hi, double eps, double negl, size_t limit,
-                   double *total, double *abserr_total) {
+static double ridge_width (const integ *it, double hs, double r, double cs,
+                           double *off) {
   const bl_kin *kn = &it->kn;
-  double qz = kn->delta - kn->p0 * it->g.h0 + kn->p * hs, wh;
-  int side;
-  /* q >= delta for every geometry, so |q_z| >= delta at the ridge; a
-  ** smaller value is rounding of the three terms (forward photons) */
+  double qz = kn->delta - kn->p0 * it->g.h0 + kn->p * hs;
   if (fabs(qz) < kn->delta)
     qz = kn->delta;
-  wh = hypot(qz, sqrt(it->c->ridge_b)) * r
-       / (kn->p * (cs > 1e-300 ? cs : 1e-300));
-  it->sstar = log1p(hs / kn->hc);
-  it->g.ridge = 1;
-  it->g.hs = hs;
-  it->g.ss = r;
-  it->g.qzs = qz;
-  it->w = wh / (hs + kn->hc);
-  if (!(it->w > 1e-300))
-    it->w = 1e-300;
+  *off = -r * r * qz / kn->p;
+  return r * hypot(cs * qz, sqrt(it->c->ridge_b)) / kn->p;
+}
+
+
+/*
+** The two sides of a peak at sigma = it->sstar of width it->w in sigma,
+** within [lo, hi], each by the sinh map; adds their values and errors.
+*/
+static void sides (integ *it, double lo, double hi, double eps, double negl,
+                   size_t limit, double *total, double *abserr_total) {
+  int side;
   /* the far side first: it is the larger one except near theta0 = 0,
   ** and a later piece needs only an absolute share of the total so far */
   for (side = 1; side >= -1; side -= 2) {
@@ -377,15 +391,37 @@ static void ridge (integ *it, double hs, double r, double cs, double lo,
 
 
 /*
-** Width in h of the ridge peak at h* (the scale of the sinh map).
+** The two sides of the ridge at h* = hs (sin(theta*) = r), within [lo, hi]
+** in sigma, each by the sinh map; adds their values and errors.
 */
-static double ridge_width (const integ *it, double hs, double r, double cs) {
+static void ridge (integ *it, double hs, double r, double cs, double lo,
+                   double hi, double eps, double negl, size_t limit,
+                   double *total, double *abserr_total) {
   const bl_kin *kn = &it->kn;
-  double qz = kn->delta - kn->p0 * it->g.h0 + kn->p * hs;
+  double qz = kn->delta - kn->p0 * it->g.h0 + kn->p * hs, wh, off, hm, sm;
+  /* q >= delta for every geometry, so |q_z| >= delta at the ridge; a
+  ** smaller value is rounding of the three terms (forward photons) */
   if (fabs(qz) < kn->delta)
     qz = kn->delta;
-  return hypot(qz, sqrt(it->c->ridge_b)) * r
-         / (kn->p * (cs > 1e-300 ? cs : 1e-300));
+  wh = ridge_width(it, hs, r, cs, &off);
+  hm = hs + off;
+  sm = log1p(hm / kn->hc);
+  if (!(hm > 0.0 && hm < 2.0 && sm > lo && sm < hi)) {
+    off = 0.0;   /* the minimum of q^2 outside this range: centre at h* */
+    hm = hs;
+    sm = log1p(hs / kn->hc);
+  }
+  it->sstar = sm;
+  it->hcen = hm;
+  it->doff = off;
+  it->g.ridge = 1;
+  it->g.hs = hs;
+  it->g.ss = r;
+  it->g.qzs = qz;
+  it->w = wh / (hm + kn->hc);
+  if (!(it->w > 1e-300))
+    it->w = 1e-300;
+  sides(it, lo, hi, eps, negl, limit, total, abserr_total);
 }
 
 
@@ -400,12 +436,61 @@ static double ridge_width (const integ *it, double hs, double r, double cs) {
 ** its own split and map when its width is below BACK_WIDTH in h.
 */
 #define BACK_WIDTH 0.1
+/*
+** The q_z = 0 peak.  q_z = delta - p0 h0 + p h vanishes at
+** h_z = (p0 h0 - delta)/p, where q^2 = (p0 s0 - p s_z)^2 + b v.  Near the
+** kink (r = p0 s0/p -> 1: theta0 and theta near pi/2) that mismatch is
+** small too, and the integrand is a peak at h_z of width
+** ~ s_z hypot(p0 s0 - p s_z, screening)/p in h, or narrower where the
+** mismatch changes faster than q_z (slope p cot(theta) against p).  For a
+** slow projectile that loses little energy (p/p0 ~ 1: heavy masses at
+** small y) the whole outer range between the two kinks has r ~ 1 and the
+** peak is ~1e-3 wide; one panel over the plain range can miss it
+** entirely: both rules of the panel see the smooth rest alone, agree,
+** and its d is small by coincidence (334 GeV spin-1/2 on Z = 80, T = 2 m,
+** y = 1.7e-3: the outer piece between the kinks 38 % low at rtol 1e-6,
+** estimated at 1e-3 of that).  Where r < 1 the same minimum of q^2 is the
+** ridge's (ridge_width).  Sets *hz and *wh (width in h) and returns 1
+** where the peak exists (r >= 1) and is narrower than BACK_WIDTH.
+*/
+static int zpeak_at (const integ *it, double *hz, double *wh) {
+  const bl_kin *kn = &it->kn;
+  double sz, dt, c;
+  *hz = (kn->p0 * it->g.h0 - kn->delta) / kn->p;
+  *wh = HUGE_VAL;
+  if (!(*hz > 0.0 && *hz < 2.0))
+    return 0;
+  sz = sqrt(*hz * (2.0 - *hz));
+  dt = kn->p0 * it->g.s0 - kn->p * sz;
+  c = fabs(1.0 - *hz);   /* |cot(theta_z)| s_z */
+  *wh = hypot(dt, sqrt(it->c->ridge_b)) * sz / (kn->p * fmax(sz, c));
+  return *wh < BACK_WIDTH;
+}
+
+
+/* The two sides of the q_z = 0 peak at hz (width wh in h) within [lo, hi]
+** in sigma, each by the sinh map; q_z and p0 s0 - p s are the plain
+** differences there (g.ridge = 0). */
+static void zsides (integ *it, double hz, double wh, double lo, double hi,
+                    double eps, double negl, size_t limit, double *total,
+                    double *abserr_total) {
+  it->g.ridge = 0;
+  it->g.hs = it->hcen = hz;
+  it->doff = 0.0;
+  it->sstar = log1p(hz / it->kn.hc);
+  it->w = wh / (hz + it->kn.hc);
+  if (!(it->w > 1e-300))
+    it->w = 1e-300;
+  sides(it, lo, hi, eps, negl, limit, total, abserr_total);
+}
+
+
 /* Panels of one inner piece, at most (ordinary pieces use 1 to 20). */
 #define INNER_LIMIT 128
 static double inner_integral (integ *it, double eps, double negl) {
   const bl_kin *kn = &it->kn;
   double smax = log1p(2.0 / kn->hc), r = kn->p0 * it->g.s0 / kn->p;
-  double total = 0.0, abserr_total = 0.0;
+  double total = 0.0, abserr_total = 0.0, hz, wz;
   size_t limit = it->q->limit < INNER_LIMIT || it->inner_alone
                  ? it->q->limit : INNER_LIMIT;
   if (it->q->calls - it->calls0 > CALL_BUDGET) {
@@ -415,8 +500,8 @@ static double inner_integral (integ *it, double eps, double negl) {
   }
   if (r < 1.0) {
     double cs = sqrt((1.0 - r) * (1.0 + r));
-    double hs = r * r / (1.0 + cs), hb = 1.0 + cs;
-    if (hb < 2.0 && ridge_width(it, hb, r, cs) < BACK_WIDTH) {
+    double hs = r * r / (1.0 + cs), hb = 1.0 + cs, off;
+    if (hb < 2.0 && ridge_width(it, hb, r, cs, &off) < BACK_WIDTH) {
       double sm = log1p(1.0 / kn->hc);   /* theta = pi/2, between them */
       ridge(it, hs, r, cs, 0.0, sm, eps, negl, limit, &total, &abserr_total);
       ridge(it, hb, r, cs, sm, smax, eps, negl, limit, &total,
@@ -426,6 +511,8 @@ static double inner_integral (integ *it, double eps, double negl) {
       ridge(it, hs, r, cs, 0.0, smax, eps, negl, limit, &total,
             &abserr_total);
   }
+  else if (zpeak_at(it, &hz, &wz))
+    zsides(it, hz, wz, 0.0, smax, eps, negl, limit, &total, &abserr_total);
   else {
     it->g.ridge = 0;
     total = piece(it, inner_plainv, 0.0, smax, eps, negl, limit,
