@@ -30,6 +30,7 @@
 #define BL_EROW_UMIN 1e-6        /* lowest node, u = k / k_max */
 #define BL_EROW_UMAX (1.0 - 1e-4)  /* highest node */
 #define BL_EROW_NODE_RTOL 1e-3   /* tolerance of each node */
+#define BL_EROW_POLISH_RTOL 3e-4 /* of a node computed again */
 #define H0 2.0                   /* first spacing in x */
 /* The interpolation error measured at a midpoint before it is a node over
 ** the error that remains with it: 16 for a smooth function (four-point
@@ -98,7 +99,7 @@ int bl_erow_build (const bl_case *c, double kmin, double kmax, int moment,
   bl_ebrems e;
   double xs[BL_EROW_MAX], ys[BL_EROW_MAX], rs[BL_EROW_MAX], er[BL_EROW_MAX];
   double rq, ulo, uhi, xlo, xhi;
-  int n, i, st = BL_SUCCESS;
+  int n, i, st = BL_SUCCESS, done[BL_EROW_MAX];
   memset(w, 0, sizeof *w);
   if (c == NULL || q == NULL || !(c->ebexact && c->ekmax > 0.0
                                   && c->opts.electrons))
@@ -184,6 +185,38 @@ int bl_erow_build (const bl_case *c, double kmin, double kmax, int moment,
     memcpy(ys, ne, n * sizeof ys[0]);
     memcpy(er, nr, n * sizeof er[0]);
     memcpy(rs, nl, n * sizeof rs[0]);
+  }
+  /* the nodes whose own errors weigh most, again at BL_EROW_POLISH_RTOL,
+  ** while those errors weighted add up to more than tol */
+  memset(done, 0, sizeof done);
+  while (st == BL_SUCCESS && n >= 2) {
+    double sh[BL_EROW_MAX], sum = 0.0, tot = 0.0;
+    int b = -1;
+    for (i = 0; i < n; i++) {
+      sh[i] = 0.5 * ((i > 0 ? xs[i] - xs[i - 1] : 0.0)
+                     + (i < n - 1 ? xs[i + 1] - xs[i] : 0.0))
+              * gofx(w, xs[i], ys[i], moment);
+      sum += sh[i];
+    }
+    for (i = 0; i < n; i++) {
+      tot += rs[i] * sh[i];
+      if (!done[i] && rs[i] > BL_EROW_POLISH_RTOL
+          && (b < 0 || rs[i] * sh[i] > rs[b] * sh[b]))
+        b = i;
+    }
+    if (b < 0 || !(tot > tol * sum))
+      break;
+    if (bl_quad_set_rtol(q, BL_EROW_POLISH_RTOL) != BL_SUCCESS)
+      break;
+    {
+      double y0 = ys[b], r0 = rs[b];
+      st = node(c, &e, w, xs[b], q, &ys[b], &rs[b]);
+      done[b] = 1;
+      if (st == BL_SUCCESS && rs[b] > r0) {   /* not better: the first */
+        ys[b] = y0;
+        rs[b] = r0;
+      }
+    }
   }
   bl_quad_set_rtol(q, rq);
   if (st == 1) {   /* a node not positive: no row, the per-point path */

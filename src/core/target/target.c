@@ -601,7 +601,7 @@ static int breaks (const bl_target *t, double rtol, double kmin,
 ** integral's rtol, never below EROW_TOL_MIN (its cost grows as about
 ** the fourth root: DEVELOPERS.md, "Other projectiles"). */
 #define EROW_SHARE 0.5
-#define EROW_TOL_MIN 1e-4
+#define EROW_TOL_MIN 5e-5
 
 
 /*
@@ -712,8 +712,12 @@ int bl_target_kintegral_e (const bl_target *t, int kind, double theta_k,
          : bl_kintegral_tol_e(kpoint, ktol, &x, kmin, kmax, t->T, kb, nb, 0,
                               rtol, &v0, r1 == NULL ? NULL : &v1);
     if (st == BL_SUCCESS || bl_status_soft(st)) {   /* the dropped breaks */
-      v0.err += drop0 * fabs(v0.val) + erowerr(t, rows, 0);
-      v1.err += drop1 * fabs(v1.val) + erowerr(t, rows, 1);
+      v0.err += drop0 * fabs(v0.val);
+      v1.err += drop1 * fabs(v1.val);
+      if (r0 != NULL)   /* the moments computed: r0 NULL is moment 1 */
+        v0.err += erowerr(t, rows, 0);
+      if (r0 == NULL || r1 != NULL)
+        v1.err += erowerr(t, rows, 1);
       if (st == BL_SUCCESS && (v0.err > rtol * fabs(v0.val)
                                || v1.err > rtol * fabs(v1.val))) {
         st = BL_ENOTCONV;   /* kresult adds the tolerance warning */
