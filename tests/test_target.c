@@ -1083,6 +1083,8 @@ Test(erow, integral_against_per_point, .timeout = 900) {
     erow_pair(cs[i].p, cs[i].mat, cs[i].T, cs[i].a, cs[i].b, cs[i].m, 1e-4,
               &f, &r);
     d = fabs(f.val - r.val);
+    cr_log_info("erow case %zu: %.10g +- %.2g against per point %.10g +- "
+                "%.2g (%.2e)", i, f.val, f.err, r.val, r.err, d / fabs(r.val));
     cr_expect(d <= 1e-3 * fabs(r.val), "case %zu: %.10g against per point "
               "%.10g (%.2e)", i, f.val, r.val, d / fabs(r.val));
     cr_expect(d <= f.err + r.err, "case %zu: errors %.3g + %.3g below the "

@@ -12,13 +12,15 @@
 ** (four-point Lagrange on the nodes around k).  Nodes: evenly spaced by
 ** about H0 over the part of (kmin, kmax) inside (BL_EROW_UMIN,
 ** BL_EROW_UMAX) k_max, then refined: the midpoint of each interval is
-** computed and compared with the interpolation without it; an interval
-** whose error weighted by its share of the electron part of the integral
-** exceeds tol/4 is split again (both halves tested in the next pass).
-** The estimate of the interpolation error of the integral, est, is the
-** sum of those weighted errors of the interpolation without the last
-** midpoints, which the row then includes: an overestimate (about 10x,
-** DEVELOPERS.md).  Outside the row the per-point path stays.
+** computed and compared with the interpolation without it (less what the
+** nodes' own error estimates explain); the intervals with the largest
+** such errors weighted by their share of the electron part of the
+** integral are split again (their midpoints tested in the next pass)
+** until the sum, over EST_RATIO (the error left once the midpoint is a
+** node), is at most tol; then the nodes whose own errors weigh most are
+** computed again at BL_EROW_POLISH_RTOL while those add up to more than
+** tol.  est is that sum over EST_RATIO.  Outside the row the per-point
+** path stays.  Measurements: DEVELOPERS.md, "Other projectiles".
 */
 
 #include <math.h>

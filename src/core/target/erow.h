@@ -30,10 +30,10 @@ typedef struct bl_erow {
 ** The row of case c for the moment (0, 1) of dsigma/dk over (kmin, kmax),
 ** into *w: none (w->n = 0) unless c takes the exact electron term per
 ** point (bl_method_dk_e: c->ebexact, electrons on, k_max > 0) and the
-** range reaches into (BL_EROW_UMIN, BL_EROW_UMAX) k_max.  Nodes refined
-** until the estimated interpolation error of the electron part of the
-** integral is at most tol (or BL_EROW_MAX nodes); each node at rtol
-** BL_EROW_NODE_RTOL with q (its tolerance restored).  Status: BL_SUCCESS,
+** range reaches into (1e-6, 1 - 1e-4) k_max.  Nodes refined until the
+** estimated interpolation error of the electron part of the integral is
+** at most tol (or BL_EROW_MAX nodes); each node at rtol 1e-3 with q (its
+** tolerance restored), the heaviest again at 3e-4 (erow.c).  Status: BL_SUCCESS,
 ** a hard failure of a node, or BL_EINTR.
 */
 int bl_erow_build (const bl_case *c, double kmin, double kmax, int moment,
