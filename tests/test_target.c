@@ -986,3 +986,152 @@ Test(eshape, warned_where_the_shape_is_static, .timeout = 120) {
   bl_target_release(&t);
   bl_quad_free(q);
 }
+
+
+/* ==================================================================
+** Integrals over k of a projectile outside the other-projectile table
+** (c->ebexact): the exact bound electron term on a row of nodes made once
+** per integral (src/core/target/erow.c) against the same integral with
+** that term computed exactly at every point (bl_target_dk_e, the path
+** every integral took before).  Internal consistency, no outside source.
+*/
+
+typedef struct perpoint {
+  const bl_target *t;
+  bl_quad *q;
+} perpoint;
+
+static int perpoint_f (void *ud, double k, bl_result *out) {
+  perpoint *p = ud;
+  bl_tresult r;
+  int st = bl_target_dk_e(p->t, k, p->q, &r);
+  *out = r.r;
+  return st;
+}
+
+static void perpoint_tol (void *ud, double rtol) {
+  perpoint *p = ud;
+  bl_quad_set_rtol(p->q, fmin(BL_QUAD_RTOL_MAX,
+                              fmax(rtol, BL_QUAD_RTOL_MIN)));
+}
+
+/* particle p on material mat at T, method born, rtol: the integral of
+** moment m over (kmin, kmax) = (ukmin, ukmax) k_max (ukmax > 1: to T;
+** ukmin = 0: the energy loss) by the target (*fast) and per point
+** (*ref); the end point k_max a break of both, as bl_method_breaks has
+** it. */
+static void erow_pair (const bl_particle *p, const char *mat, double T,
+                       double ukmin, double ukmax, int m, double rtol,
+                       bl_result *fast, bl_result *ref) {
+  bl_target t;
+  bl_material mt;
+  bl_tresult r0, r1;
+  bl_quad *q = bl_quad_alloc(400);
+  perpoint pp;
+  double kb[1], kmin, kmax;
+  int failZ, st;
+  cr_assert_not_null(q);
+  memset(&t, 0, sizeof t);
+  cr_assert_eq(bl_material_lookup(&mt, mat, NULL), BL_SUCCESS);
+  cr_assert_eq(bl_target_setup(&t, p, &mt, bl_model_find("hartree-fock"),
+                               NULL, T, &bl_opts_default, BL_METHOD_BORN,
+                               NULL, &failZ), BL_SUCCESS);
+  cr_assert(t.c[0].ebexact, "%s on %s at %g: not outside the table", p->name,
+            mat, T);
+  kmin = ukmin * t.c[0].ekmax;
+  kmax = ukmax > 1.0 ? T : ukmax * t.c[0].ekmax;
+  kb[0] = t.c[0].ekmax;
+  cr_assert_eq(bl_quad_set_rtol(q, rtol), BL_SUCCESS);
+  st = kmin == 0.0 ? bl_target_energy_loss_e(&t, q, &r1)   /* moment 1 */
+                   : bl_target_cross_section_e(&t, kmin, kmax, q, &r0, &r1);
+  cr_expect(st == BL_SUCCESS || bl_status_soft(st), "fast: %s",
+            bl_strerror(st));
+  *fast = m ? r1.r : r0.r;
+  pp.t = &t;
+  pp.q = q;
+  st = bl_kintegral_tol_e(perpoint_f, perpoint_tol, &pp, kmin, kmax, T, kb,
+                          kb[0] > kmin && kb[0] < kmax, m, rtol, ref, NULL);
+  cr_expect(st == BL_SUCCESS || bl_status_soft(st), "per point: %s",
+            bl_strerror(st));
+  bl_quad_set_rtol(q, rtol);
+  bl_target_release(&t);
+  bl_quad_free(q);
+}
+
+/*
+** Three cases: a 0.1 keV pion on hydrogen (T/m below the table's 0.01),
+** its energy loss (moment 1 from 0; the electron part is 96 % of it);
+** a 30 GeV spin-1/2 particle on carbon (mass above the table's 10 GeV) at
+** 300 GeV, sigma and the first moment over 0.01-0.9 k_max.  Tolerance:
+** the task's 1e-3 of the per-point integral, and the two reported errors
+** together must cover the difference (each integral at rtol 1e-4; the
+** row's interpolation estimate is in the fast one's error).
+*/
+Test(erow, integral_against_per_point, .timeout = 900) {
+  bl_particle heavy = {"heavy", 3e4, 1.0, 0.5, 0};
+  const bl_particle *pion = bl_particle_find("pion+");
+  struct { const bl_particle *p; const char *mat; double T, a, b; int m; }
+  cs[] = {{NULL, "H", 1e-4, 0.0, 2.0, 1},
+          {NULL, "C", 3e5, 0.01, 0.9, 0},
+          {NULL, "C", 3e5, 0.01, 0.9, 1}};
+  size_t i;
+  cs[0].p = pion;
+  cs[1].p = cs[2].p = &heavy;
+  for (i = 0; i < sizeof cs / sizeof cs[0]; i++) {
+    bl_result f, r;
+    double d;
+    erow_pair(cs[i].p, cs[i].mat, cs[i].T, cs[i].a, cs[i].b, cs[i].m, 1e-4,
+              &f, &r);
+    d = fabs(f.val - r.val);
+    cr_log_info("erow case %zu: %.10g +- %.2g against per point %.10g +- "
+                "%.2g (%.2e)", i, f.val, f.err, r.val, r.err, d / fabs(r.val));
+    cr_expect(d <= 1e-3 * fabs(r.val), "case %zu: %.10g against per point "
+              "%.10g (%.2e)", i, f.val, r.val, d / fabs(r.val));
+    cr_expect(d <= f.err + r.err, "case %zu: errors %.3g + %.3g below the "
+              "difference %.3g", i, f.err, r.err, d);
+  }
+}
+
+/* A single dsigma/dk is still the exact term at its own photon energy,
+** before and after an integral of the same target (the rows are the
+** integral's own). */
+Test(erow, dsdk_still_exact_per_point, .timeout = 120) {
+  const bl_model *hf = bl_model_find("hartree-fock");
+  const bl_particle *p = bl_particle_find("pion+");
+  bl_target t;
+  bl_material mt;
+  bl_tresult a, b, el;
+  bl_opts off = bl_opts_default;
+  bl_case cn;
+  bl_ebrems e;
+  bl_result rn, re;
+  bl_quad *q = bl_quad_alloc(400);
+  double k;
+  int failZ;
+  off.electrons = 0;
+  cr_assert_not_null(q);
+  cr_assert_eq(bl_quad_set_rtol(q, 1e-4), 0);
+  cr_assert_eq(bl_material_lookup(&mt, "H", NULL), BL_SUCCESS);
+  cr_assert_eq(bl_target_setup(&t, p, &mt, hf, NULL, 1e-4, &bl_opts_default,
+                               BL_METHOD_BORN, NULL, &failZ), BL_SUCCESS);
+  k = 0.37 * t.c[0].ekmax;
+  cr_assert_eq(bl_target_dk_e(&t, k, q, &a), BL_SUCCESS);
+  cr_assert_eq(bl_quad_set_rtol(q, 1e-3), 0);
+  failZ = bl_target_energy_loss_e(&t, q, &el);
+  cr_expect(failZ == BL_SUCCESS || bl_status_soft(failZ), "energy_loss: %s",
+            bl_strerror(failZ));
+  cr_assert_eq(bl_quad_set_rtol(q, 1e-4), 0);
+  cr_assert_eq(bl_target_dk_e(&t, k, q, &b), BL_SUCCESS);
+  cr_expect(a.r.val == b.r.val && a.r.err == b.r.err,
+            "%.17g after the integral against %.17g before", b.r.val, a.r.val);
+  cr_assert_eq(bl_case_setup(&cn, p, 1, hf, NULL, 1e-4, &off), 0);
+  cr_assert_eq(bl_method_dk_e(&cn, NULL, BL_METHOD_BORN, k, q, &rn), 0);
+  cr_assert_eq(bl_ebrems_init(&e, p, 1e-4), 0);
+  cr_assert_eq(bl_ebrems_set_binding(&e, 1, hf, NULL), 0);
+  cr_assert_eq(bl_ebrems_dk_e(&e, k, q, &re), 0);
+  cr_expect(fabs(b.r.val - (rn.val + re.val)) <= 3e-4 * b.r.val,
+            "%.10g against nuclear + exact %.10g", b.r.val,
+            rn.val + re.val);
+  bl_target_release(&t);
+  bl_quad_free(q);
+}
