@@ -577,7 +577,7 @@ $(ROCKSPEC): scripts/brakelight.rockspec.in $(VERSION_H)
 	sed 's|@VERSION@|$(VERSION)|g' $< > $@
 
 # ---- benchmarks and generators ---------------------------------------------
-.PHONY: bench hf-table nuc-table eb-table eb-table-mu eb-table-h error-sweep error-compare error-ref dw-positron continuity \
+.PHONY: bench bench-erow hf-table nuc-table eb-table eb-table-mu eb-table-h error-sweep error-compare error-ref dw-positron continuity \
         continuity-full
 # The fixed earlier commit that make bench and make error-ref build in a git
 # worktree build/base/<commit> (the main before issue 14's integrator).
@@ -597,6 +597,12 @@ $(B)/error_sweep: scripts/error_sweep.c $(LIB)
 	  -I/usr/include/xraylib -o $@ $< $(LIB) $(LIBS)
 error-sweep: $(B)/error_sweep
 	./$(B)/error_sweep run -i $(ERROR_REF) -o $(B)/error-sweep.out
+
+# Integrals over k of projectiles whose bound electron term is exact per
+# point (target/erow.c): this tree's runner against 43edcdf's, case by case
+# alternating (scripts/bench_erow.sh; about 10 min).  Not part of bench.
+bench-erow: all
+	sh scripts/bench_erow.sh
 
 # Calls at equal true error against BENCH_BASE (issue 14, item 2): both
 # trees over the reference set on one ladder of rtols, then error_sweep
