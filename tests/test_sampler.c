@@ -393,6 +393,10 @@ static void sigma_check (const char *particle, const char *target, double T,
 Test(sampler, sigma_electron_W_10MeV) { sigma_check("electron", "W", 10, 0.1); }
 Test(sampler, sigma_electron_water) { sigma_check("electron", "water", 10, 0.1); }
 Test(sampler, sigma_pion_Cu) { sigma_check("pion+", "Cu", 1000, 10); }
+/* a slow proton (T/m = 0.021; p/p0 ~ 1 at small y): the
+** ridge map centred at the minimum of q^2 and the q_z = 0 peak between the
+** kinks (sampler/map.c), whose Jacobians the sums check */
+Test(sampler, sigma_proton_Pb_slow) { sigma_check("proton", "Pb", 20, 0.2); }
 
 
 /* ==================================================================

@@ -33,56 +33,101 @@
 #define BACK_WIDTH 0.1
 
 
-/* Width in h of the ridge at h* = hs (born/dcs.c, ridge_width), and q_z
-** there (at least delta: a smaller value is rounding). */
+/*
+** Width in h of the ridge peak at h* = hs, q_z there (at least delta: a
+** smaller value is rounding) and in *off the distance from h* to the
+** minimum of q^2 (born/dcs.c, ridge_width: sin(theta*) hypot(cos(theta*)
+** q_z*, screening)/p at h* - sin^2(theta*) q_z* / p).
+*/
 static double ridge_width (const smp_chan *ch, const bl_kin *kn, double h0,
-                           double hs, double r, double cs, double *qzs) {
+                           double hs, double r, double cs, double *qzs,
+                           double *off) {
   double qz = kn->delta - kn->p0 * h0 + kn->p * hs;
   double pole = ch->hasridge_b ? ch->c.ridge_b : 0.0;
   if (fabs(qz) < kn->delta)
     qz = kn->delta;
   *qzs = qz;
-  return hypot(qz, sqrt(pole)) * r / (kn->p * (cs > 1e-300 ? cs : 1e-300));
+  *off = -r * r * qz / kn->p;
+  return r * hypot(cs * qz, sqrt(pole)) / kn->p;
 }
 
 
 /*
-** h from t in [0, 1) by the sinh map around the ridge hs over [lo, hi] in
-** sigma; sets the ridge fields of g; returns dh/dt.
+** The q_z = 0 peak where there is no ridge (r >= 1; born/dcs.c, zpeak_at):
+** at h_z = (p0 h0 - delta)/p, width *wh in h; 1 where it lies inside
+** (0, 2) and is narrower than BACK_WIDTH.
 */
-static double ridge_map (const bl_kin *kn, bl_polar *g, double hs,
-                         double wh, double qzs, double r, double lo,
-                         double hi, double t) {
-  double hc = kn->hc, sstar = log1p(hs / hc), w = wh / (hs + hc);
-  double ua, ub, u, ds, h;
+static int zpeak_at (const smp_chan *ch, const bl_kin *kn, const bl_polar *g,
+                     double *hz, double *wh) {
+  double pole = ch->hasridge_b ? ch->c.ridge_b : 0.0, sz, dt;
+  *hz = (kn->p0 * g->h0 - kn->delta) / kn->p;
+  *wh = HUGE_VAL;
+  if (!(*hz > 0.0 && *hz < 2.0))
+    return 0;
+  sz = sqrt(*hz * (2.0 - *hz));
+  dt = kn->p0 * g->s0 - kn->p * sz;
+  *wh = hypot(dt, sqrt(pole)) * sz / (kn->p * fmax(sz, fabs(1.0 - *hz)));
+  return *wh < BACK_WIDTH;
+}
+
+
+/*
+** h from t in [0, 1) by the sinh map around hm (width wh in h) over
+** [lo, hi] in sigma: *h, and *dh = h - hm without cancellation near hm;
+** returns dh/dt.
+*/
+static double sinh_map (const bl_kin *kn, double hm, double wh, double lo,
+                        double hi, double t, double *h, double *dh) {
+  double hc = kn->hc, sstar = log1p(hm / hc), w = wh / (hm + hc);
+  double ua, ub, u, ds;
   if (!(w > 1e-300))
     w = 1e-300;
   ua = sstar > lo ? asinh((sstar - lo) / w) : 0.0;
   ub = hi > sstar ? asinh((hi - sstar) / w) : 0.0;
   u = -ua + t * (ua + ub);
   ds = w * sinh(u);
+  if (fabs(ds) < 0.5) {
+    *dh = (hm + hc) * expm1(ds);
+    *h = hm + *dh;
+  }
+  else {
+    *h = hc * expm1(sstar + ds);
+    *dh = *h - hm;
+  }
+  if (*h > 2.0) {
+    *dh += 2.0 - *h;
+    *h = 2.0;
+  }
+  else if (*h < 0.0) {
+    *dh -= *h;
+    *h = 0.0;
+  }
+  return (ua + ub) * w * cosh(u) * (*h + hc);
+}
+
+
+/*
+** h from t in [0, 1) by the sinh map around the ridge hs over [lo, hi] in
+** sigma, centred at the minimum of q^2 (hs + off) where that lies in the
+** range, else at hs; sets the ridge fields of g (dh = h - hs); returns
+** dh/dt.
+*/
+static double ridge_map (const bl_kin *kn, bl_polar *g, double hs,
+                         double off, double wh, double qzs, double r,
+                         double lo, double hi, double t) {
+  double hm = hs + off, sm = log1p(hm / kn->hc), h, dh, jac;
+  if (!(hm > 0.0 && hm < 2.0 && sm > lo && sm < hi)) {
+    hm = hs;
+    off = 0.0;
+  }
+  jac = sinh_map(kn, hm, wh, lo, hi, t, &h, &dh);
   g->ridge = 1;
   g->hs = hs;
   g->ss = r;
   g->qzs = qzs;
-  if (fabs(ds) < 0.5) {
-    g->dh = (hs + hc) * expm1(ds);
-    h = hs + g->dh;
-  }
-  else {
-    h = hc * expm1(sstar + ds);
-    g->dh = h - hs;
-  }
-  if (h > 2.0) {
-    g->dh += 2.0 - h;
-    h = 2.0;
-  }
-  else if (h < 0.0) {
-    g->dh -= h;
-    h = 0.0;
-  }
   g->h = h;
-  return (ua + ub) * w * cosh(u) * (h + hc);
+  g->dh = dh + off;
+  return jac;
 }
 
 
@@ -321,7 +366,7 @@ double bl_smp_weight (const bl_sampler *s, const smp_chan *ch, const double y[4]
   bl_kin *kn = &pt->kn;
   bl_polar *g = &pt->g;
   double k = s->kmin * exp(y[0] * ch->lnk), jac = k * ch->lnk;
-  double smax0, sg0, r, smax, m, b, f;
+  double smax0, sg0, r, smax, m, b, f, hz, wz;
   pt->kmev = k;
   if (!(k < c->T))
     return 0.0;
@@ -346,18 +391,26 @@ double bl_smp_weight (const bl_sampler *s, const smp_chan *ch, const double y[4]
   if (r < 1.0) {
     double cs = sqrt((1.0 - r) * (1.0 + r));
     double hs = r * r / (1.0 + cs), hb = 1.0 + cs, qzs, qzb = 0.0;
-    double wh = ridge_width(ch, kn, g->h0, hs, r, cs, &qzs);
-    double wb = hb < 2.0 ? ridge_width(ch, kn, g->h0, hb, r, cs, &qzb) : 1.0;
+    double os, ob = 0.0;
+    double wh = ridge_width(ch, kn, g->h0, hs, r, cs, &qzs, &os);
+    double wb = hb < 2.0 ? ridge_width(ch, kn, g->h0, hb, r, cs, &qzb, &ob)
+                         : 1.0;
     if (hb < 2.0 && wb < BACK_WIDTH) {
       double sm = log1p(1.0 / kn->hc);   /* theta = pi/2 */
       if (y[2] < 0.5)
-        jac *= 2.0 * ridge_map(kn, g, hs, wh, qzs, r, 0.0, sm, 2.0 * y[2]);
+        jac *= 2.0 * ridge_map(kn, g, hs, os, wh, qzs, r, 0.0, sm,
+                               2.0 * y[2]);
       else
-        jac *= 2.0 * ridge_map(kn, g, hb, wb, qzb, r, sm, smax,
+        jac *= 2.0 * ridge_map(kn, g, hb, ob, wb, qzb, r, sm, smax,
                                2.0 * y[2] - 1.0);
     }
     else
-      jac *= ridge_map(kn, g, hs, wh, qzs, r, 0.0, smax, y[2]);
+      jac *= ridge_map(kn, g, hs, os, wh, qzs, r, 0.0, smax, y[2]);
+  }
+  else if (zpeak_at(ch, kn, g, &hz, &wz)) {
+    double dh;
+    g->ridge = 0;
+    jac *= sinh_map(kn, hz, wz, 0.0, smax, y[2], &g->h, &dh);
   }
   else {
     double sg = y[2] * smax;
