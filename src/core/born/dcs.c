@@ -367,12 +367,9 @@ static double piece (integ *it, bl_gkvfun f, double a, double b, double eps,
 */
 static double ridge_width (const integ *it, double hs, double r, double cs,
                            double *off) {
-  const bl_kin *kn = &it->kn;
-  double qz = kn->delta - kn->p0 * it->g.h0 + kn->p * hs;
-  if (fabs(qz) < kn->delta)
-    qz = kn->delta;
-  *off = -r * r * qz / kn->p;
-  return r * hypot(cs * qz, sqrt(it->c->ridge_b)) / kn->p;
+  double qz;
+  return bl_ridge_width(&it->kn, it->g.h0, hs, r, cs, it->c->ridge_b, &qz,
+                        off);
 }
 
 
@@ -407,12 +404,10 @@ static void ridge (integ *it, double hs, double r, double cs, double lo,
                    double hi, double eps, double negl, size_t limit,
                    double *total, double *abserr_total) {
   const bl_kin *kn = &it->kn;
-  double qz = kn->delta - kn->p0 * it->g.h0 + kn->p * hs, wh, off, hm, sm;
+  double qz, wh, off, hm, sm;
   /* q >= delta for every geometry, so |q_z| >= delta at the ridge; a
   ** smaller value is rounding of the three terms (forward photons) */
-  if (fabs(qz) < kn->delta)
-    qz = kn->delta;
-  wh = ridge_width(it, hs, r, cs, &off);
+  wh = bl_ridge_width(kn, it->g.h0, hs, r, cs, it->c->ridge_b, &qz, &off);
   hm = hs + off;
   sm = log1p(hm / kn->hc);
   if (!(hm > 0.0 && hm < 2.0 && sm > lo && sm < hi)) {
@@ -463,17 +458,8 @@ static void ridge (integ *it, double hs, double r, double cs, double lo,
 ** where the peak exists (r >= 1) and is narrower than BACK_WIDTH.
 */
 static int zpeak_at (const integ *it, double *hz, double *wh) {
-  const bl_kin *kn = &it->kn;
-  double sz, dt, c;
-  *hz = (kn->p0 * it->g.h0 - kn->delta) / kn->p;
-  *wh = HUGE_VAL;
-  if (!(*hz > 0.0 && *hz < 2.0))
-    return 0;
-  sz = sqrt(*hz * (2.0 - *hz));
-  dt = kn->p0 * it->g.s0 - kn->p * sz;
-  c = fabs(1.0 - *hz);   /* |cot(theta_z)| s_z */
-  *wh = hypot(dt, sqrt(it->c->ridge_b)) * sz / (kn->p * fmax(sz, c));
-  return *wh < BACK_WIDTH;
+  return bl_zpeak(&it->kn, it->g.h0, it->g.s0, it->c->ridge_b, BACK_WIDTH,
+                  hz, wh);
 }
 
 

@@ -7,6 +7,8 @@
 #ifndef BL_BORN_INTERNAL_H
 #define BL_BORN_INTERNAL_H
 
+#include <math.h>
+
 #include "brakelight.h"
 
 /* The uniform-sphere fit of nucleus.c: poles in units of R^-2. */
@@ -165,5 +167,42 @@ void bl_polar_beam (double theta_k, double theta_p, double phi, bl_polar *g,
 ** method makes: BL_EDOMAIN unless 0 < k < T and the final momentum is
 ** positive. */
 int bl_kin_case (const bl_case *c, double k, bl_kin *kn);
+
+/*
+** The ridge peak of the inner integrand at h* = hs (sin(theta*) = r,
+** cos(theta*) = cs) for the photon direction h0, pole the smallest
+** screening pole (0: none): *qzs q_z at h* (at least delta: a smaller
+** value is rounding), *off the distance from h* to the minimum of q^2;
+** returns the peak's width in h (derivation: born/dcs.c, ridge_width).
+*/
+static inline double bl_ridge_width (const bl_kin *kn, double h0, double hs,
+                                     double r, double cs, double pole,
+                                     double *qzs, double *off) {
+  double qz = kn->delta - kn->p0 * h0 + kn->p * hs;
+  if (fabs(qz) < kn->delta)
+    qz = kn->delta;
+  *qzs = qz;
+  *off = -r * r * qz / kn->p;
+  return r * hypot(cs * qz, sqrt(pole)) / kn->p;
+}
+
+/*
+** The q_z = 0 peak where there is no ridge (r = p0 s0 / p >= 1): *hz =
+** (p0 h0 - delta) / p and its width *wh in h (HUGE_VAL outside (0, 2));
+** 1 where it lies in (0, 2) and *wh < wmax (born/dcs.c, zpeak_at).
+*/
+static inline int bl_zpeak (const bl_kin *kn, double h0, double s0,
+                            double pole, double wmax, double *hz,
+                            double *wh) {
+  double sz, dt;
+  *hz = (kn->p0 * h0 - kn->delta) / kn->p;
+  *wh = HUGE_VAL;
+  if (!(*hz > 0.0 && *hz < 2.0))
+    return 0;
+  sz = sqrt(*hz * (2.0 - *hz));
+  dt = kn->p0 * s0 - kn->p * sz;
+  *wh = hypot(dt, sqrt(pole)) * sz / (kn->p * fmax(sz, fabs(1.0 - *hz)));
+  return *wh < wmax;
+}
 
 #endif

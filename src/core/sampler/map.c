@@ -33,41 +33,20 @@
 #define BACK_WIDTH 0.1
 
 
-/*
-** Width in h of the ridge peak at h* = hs, q_z there (at least delta: a
-** smaller value is rounding) and in *off the distance from h* to the
-** minimum of q^2 (born/dcs.c, ridge_width: sin(theta*) hypot(cos(theta*)
-** q_z*, screening)/p at h* - sin^2(theta*) q_z* / p).
-*/
+/* The ridge's width and centre, and the q_z = 0 peak (born/internal.h,
+** with born/dcs.c's derivation), with the smallest screening pole of the
+** channel (none without a ridge pole). */
 static double ridge_width (const smp_chan *ch, const bl_kin *kn, double h0,
                            double hs, double r, double cs, double *qzs,
                            double *off) {
-  double qz = kn->delta - kn->p0 * h0 + kn->p * hs;
-  double pole = ch->hasridge_b ? ch->c.ridge_b : 0.0;
-  if (fabs(qz) < kn->delta)
-    qz = kn->delta;
-  *qzs = qz;
-  *off = -r * r * qz / kn->p;
-  return r * hypot(cs * qz, sqrt(pole)) / kn->p;
+  return bl_ridge_width(kn, h0, hs, r, cs,
+                        ch->hasridge_b ? ch->c.ridge_b : 0.0, qzs, off);
 }
 
-
-/*
-** The q_z = 0 peak where there is no ridge (r >= 1; born/dcs.c, zpeak_at):
-** at h_z = (p0 h0 - delta)/p, width *wh in h; 1 where it lies inside
-** (0, 2) and is narrower than BACK_WIDTH.
-*/
 static int zpeak_at (const smp_chan *ch, const bl_kin *kn, const bl_polar *g,
                      double *hz, double *wh) {
-  double pole = ch->hasridge_b ? ch->c.ridge_b : 0.0, sz, dt;
-  *hz = (kn->p0 * g->h0 - kn->delta) / kn->p;
-  *wh = HUGE_VAL;
-  if (!(*hz > 0.0 && *hz < 2.0))
-    return 0;
-  sz = sqrt(*hz * (2.0 - *hz));
-  dt = kn->p0 * g->s0 - kn->p * sz;
-  *wh = hypot(dt, sqrt(pole)) * sz / (kn->p * fmax(sz, fabs(1.0 - *hz)));
-  return *wh < BACK_WIDTH;
+  return bl_zpeak(kn, g->h0, g->s0, ch->hasridge_b ? ch->c.ridge_b : 0.0,
+                  BACK_WIDTH, hz, wh);
 }
 
 
