@@ -1064,8 +1064,9 @@ static void erow_pair (const bl_particle *p, const char *mat, double T,
 ** a 30 GeV spin-1/2 particle on carbon (mass above the table's 10 GeV) at
 ** 300 GeV, sigma and the first moment over 0.01-0.9 k_max.  Tolerance:
 ** 1e-3 of the per-point integral (the accuracy asked of the row), and
-** the two reported errors together must cover the difference (each integral at rtol 1e-4; the
-** row's interpolation estimate is in the fast one's error).
+** the two reported errors together must cover the difference (each
+** integral at rtol 1e-4; the row's interpolation estimate is in the fast
+** one's error).
 */
 Test(erow, integral_against_per_point, .timeout = 900) {
   bl_particle heavy = {"heavy", 3e4, 1.0, 0.5, 0};
