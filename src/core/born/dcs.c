@@ -404,18 +404,12 @@ static void ridge (integ *it, double hs, double r, double cs, double lo,
                    double hi, double eps, double negl, size_t limit,
                    double *total, double *abserr_total) {
   const bl_kin *kn = &it->kn;
-  double qz, wh, off, hm, sm;
+  double qz, wh, off, hm;
   /* q >= delta for every geometry, so |q_z| >= delta at the ridge; a
   ** smaller value is rounding of the three terms (forward photons) */
   wh = bl_ridge_width(kn, it->g.h0, hs, r, cs, it->c->ridge_b, &qz, &off);
-  hm = hs + off;
-  sm = log1p(hm / kn->hc);
-  if (!(hm > 0.0 && hm < 2.0 && sm > lo && sm < hi)) {
-    off = 0.0;   /* the minimum of q^2 outside this range: centre at h* */
-    hm = hs;
-    sm = log1p(hs / kn->hc);
-  }
-  it->sstar = sm;
+  hm = bl_ridge_centre(kn, hs, lo, hi, &off);
+  it->sstar = log1p(hm / kn->hc);
   it->hcen = hm;
   it->doff = off;
   it->g.ridge = 1;
@@ -470,7 +464,7 @@ static void zsides (integ *it, double hz, double wh, double lo, double hi,
                     double eps, double negl, size_t limit, double *total,
                     double *abserr_total) {
   it->g.ridge = 0;
-  it->g.hs = it->hcen = hz;
+  it->hcen = hz;
   it->doff = 0.0;
   it->sstar = log1p(hz / it->kn.hc);
   it->w = wh / (hz + it->kn.hc);

@@ -187,6 +187,20 @@ static inline double bl_ridge_width (const bl_kin *kn, double h0, double hs,
 }
 
 /*
+** The centre of the ridge's sinh map over [lo, hi] in sigma = ln(1 +
+** h/hc): the minimum of q^2, hs + *off, where it lies inside, else hs
+** itself (*off set to 0).
+*/
+static inline double bl_ridge_centre (const bl_kin *kn, double hs,
+                                      double lo, double hi, double *off) {
+  double hm = hs + *off, sm = log1p(hm / kn->hc);
+  if (hm > 0.0 && hm < 2.0 && sm > lo && sm < hi)
+    return hm;
+  *off = 0.0;
+  return hs;
+}
+
+/*
 ** The q_z = 0 peak where there is no ridge (r = p0 s0 / p >= 1): *hz =
 ** (p0 h0 - delta) / p and its width *wh in h (HUGE_VAL outside (0, 2));
 ** 1 where it lies in (0, 2) and *wh < wmax (born/dcs.c, zpeak_at).

@@ -94,11 +94,7 @@ static double sinh_map (const bl_kin *kn, double hm, double wh, double lo,
 static double ridge_map (const bl_kin *kn, bl_polar *g, double hs,
                          double off, double wh, double qzs, double r,
                          double lo, double hi, double t) {
-  double hm = hs + off, sm = log1p(hm / kn->hc), h, dh, jac;
-  if (!(hm > 0.0 && hm < 2.0 && sm > lo && sm < hi)) {
-    hm = hs;
-    off = 0.0;
-  }
+  double hm = bl_ridge_centre(kn, hs, lo, hi, &off), h, dh, jac;
   jac = sinh_map(kn, hm, wh, lo, hi, t, &h, &dh);
   g->ridge = 1;
   g->hs = hs;

@@ -71,12 +71,20 @@ static int node (const bl_case *c, const bl_ebrems *e, bl_erow *w, double x,
 }
 
 
+/* The interval [xs[i], xs[i + 1]] of the n >= 2 increasing nodes that
+** holds x (the first or last one outside). */
+static int interval (const double *xs, int n, double x) {
+  int i = 0;
+  while (i < n - 2 && x > xs[i + 1])
+    i++;
+  return i;
+}
+
+
 /* Four-point Lagrange of y on the n >= 4 increasing nodes xs at x. */
 static double lagrange (const double *xs, const double *ys, int n, double x) {
   double v = 0.0;
-  int i = 0, s, a, b;
-  while (i < n - 2 && x > xs[i + 1])
-    i++;
+  int i = interval(xs, n, x), s, a, b;
   s = i - 1 < 0 ? 0 : i - 1 > n - 4 ? n - 4 : i - 1;
   for (a = 0; a < 4; a++) {
     double l = 1.0;
@@ -259,8 +267,7 @@ int bl_erow_eval (const bl_erow *w, double k, double *val, double *err) {
   if (!(x >= w->x[0] && x <= w->x[w->n - 1]))
     return 0;
   *val = exp(lagrange(w->x, w->y, w->n, x));
-  for (i = 0; i < w->n - 2 && x > w->x[i + 1]; i++)
-    ;
+  i = interval(w->x, w->n, x);
   *err = fmax(w->r[i], w->r[i + 1]) * *val;   /* the nodes' own errors */
   return 1;
 }
