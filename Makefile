@@ -606,7 +606,7 @@ bench-erow: all
 
 # Calls at equal true error against BENCH_BASE (issue 14, item 2): both
 # trees over the reference set on one ladder of rtols, then error_sweep
-# compare (BASE built in its worktree as make bench does; about 2 min on
+# compare (BASE built in its worktree as make bench does; about 3 min on
 # two cores, most of it BASE's sweep).  Not part of check.
 ERROR_BASE_BUILD = wt=$$(BENCH_BASE=$(BENCH_BASE) bash scripts/bench.sh --base-only); \
 	$(CC) -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L -Iinclude \
