@@ -34,6 +34,41 @@ typedef struct bl_pwpot {
 } bl_pwpot;
 
 /*
+** Fill *v for the projectile's zza = z Z alpha in the field of screening
+** y (bl_models.h: a_i = alpha_i, c_i = b_i / m_mev), a projectile of mass
+** m_mev (MeV) and a uniform nucleus of radius R_fm (fm; 0: a point), in
+** the units above (c_i in m c/hbar, R = R_fm m_mev / hbar c).  rc is the
+** smallest r >= R with |zza| sum_i |a_i| E1(c_i rc) <= tol: the phase
+** the potential beyond rc can add to any wave is then at most
+** (2 E/p) tol (radial.c).  Returns BL_SUCCESS; BL_EDOMAIN for a NULL
+** pointer, non-finite or out-of-range argument (zza finite, 1 <= y->n <=
+** BL_YUKAWA_MAX, every alpha_i finite, every b_i finite and >= 0,
+** |sum alpha_i - 1| <= BL_PW_SUM_TOL, m_mev > 0, R_fm >= 0, 0 < tol < 1);
+** BL_EMODEL for a bare Coulomb term (b_i = 0 with alpha_i != 0: no
+** finite rc; a Coulomb tail match is not done here).
+*/
+int bl_pwpot_init (bl_pwpot *v, double zza, const bl_yukawa *y, double m_mev,
+                   double R_fm, double tol);
+
+/* how far sum alpha_i (sum a_i) may be from 1 */
+#define BL_PW_SUM_TOL 1e-6
+/* largest |kappa| bl_pw_radial accepts */
+#define BL_PW_KAPPA_MAX 100000
+
+/*
+** The checks of bl_pwpot_init (v not read) and of bl_pw_radial: 0 if
+** the arguments are valid, else BL_EDOMAIN (or BL_EMODEL) with a message
+** naming the parameter, its value and the allowed range written to
+** msg[0..size-1] (msg may be NULL).  bl_pw_radial_check also checks *v
+** (every field as bl_pwpot_init makes it, rc >= R finite) and, for a
+** point nucleus, |zza sum a_i| < |kappa| (a real power r^gamma).
+*/
+int bl_pwpot_check (double zza, const bl_yukawa *y, double m_mev,
+                    double R_fm, double tol, char *msg, size_t size);
+int bl_pw_radial_check (const bl_pwpot *v, double E, int kappa, int n,
+                        const double *r, char *msg, size_t size);
+
+/*
 ** Regular solution of the radial Dirac equation (g = P/r, f = Q/r):
 **   P' = -kappa P/r + (E + 1 - V) Q,
 **   Q' =  kappa Q/r - (E - 1 - V) P,
