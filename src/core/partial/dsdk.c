@@ -425,3 +425,400 @@ int bl_pw_free3 (double pa, int la, double pb, int lb, double k, int L,
   grid_free(&g);
   return BL_SUCCESS;
 }
+
+
+/* ------------------------------------------------------------------ */
+/* the cross section                                                   */
+
+/* One side of the transition: total energy and momentum (units of m). */
+typedef struct side {
+  double E, p;
+} side;
+
+/* A partial wave on the nodes: P, Q from bl_pw_radial (0 below node st)
+** and the complex amplitudes of P and Q beyond R (see the rays above). */
+typedef struct wave {
+  int kappa, l, lb, st;
+  double complex aP, aQ;
+  double *P, *Q;
+} wave;
+
+/* Everything one dsigma/dk needs; owned by bl_pw_dsdk_x. */
+typedef struct ctx {
+  const bl_pwpot *v;
+  side si, sf;
+  double k;                   /* photon energy, units of m */
+  grid g;
+  rays q;                     /* A = final wave, B = initial wave */
+  int jcap, lcap, D;
+  double *jl;                 /* [L][n]: j_L(k r_n), L = 0..jcap+1 */
+  double *pq, *qp;            /* [n] scratch: P_f Q_i w, Q_f P_i w */
+  double eps;                 /* truncation threshold of the inner sums */
+  double jerr;                /* sum of the dropped inner-sum estimates */
+  double jshell;              /* sum of |M_J|^2 at J = jcap */
+  long pairs;
+} ctx;
+
+/*
+** First radius worth computing for a wave of orbital momenta l and lbar:
+** where even the largest local momentum of an attractive Coulomb field of
+** strength |zza| gives p_loc r = SKIP_FRAC (l + 1/2), the wave is below
+** e^{-0.65 (l + 1/2)} of its outer amplitude (WKB); 0 for low l.
+*/
+static double r_skip (const side *s, double zza, int l, int lb) {
+  double nu = (l < lb ? l : lb) + 0.5, a = fabs(zza), f, disc;
+  if (nu < SKIP_NU)
+    return 0.0;
+  f = SKIP_FRAC * nu;
+  if (a >= f)
+    return 0.0;
+  /* (E r + a)^2 - r^2 = f^2 */
+  disc = s->E * s->E * a * a - (s->p * s->p) * (a * a - f * f);
+  return (-s->E * a + sqrt(disc)) / (s->p * s->p);
+}
+
+static void wave_free (wave *w) {
+  free(w->P);
+  free(w->Q);
+  w->P = w->Q = NULL;
+}
+
+/* Fill w with the wave kappa of side s.  BL_SUCCESS, BL_ENOMEM or the
+** code of bl_pw_radial. */
+static int wave_make (const ctx *c, const side *s, int kappa, wave *w) {
+  double rs, delta = 0.0, sg = kappa > 0 ? 1.0 : -1.0;
+  int st, n = c->g.n;
+  w->kappa = kappa;
+  w->l = lof(kappa);
+  w->lb = w->l - (kappa > 0 ? 1 : -1);
+  if (w->P == NULL) {
+    w->P = malloc((size_t)n * sizeof *w->P);
+    w->Q = malloc((size_t)n * sizeof *w->Q);
+    if (w->P == NULL || w->Q == NULL) {
+      wave_free(w);
+      return BL_ENOMEM;
+    }
+  }
+  rs = r_skip(s, c->v->zza, w->l, w->lb);
+  for (st = 0; st < n && c->g.r[st] < rs; st++) {
+    w->P[st] = 0.0;
+    w->Q[st] = 0.0;
+  }
+  w->st = st;
+  if (st < n) {
+    int e = bl_pw_radial(c->v, s->E, kappa, n - st, c->g.r + st, w->P + st,
+                         w->Q + st, &delta);
+    if (e)
+      return e;
+  }
+  w->aP = cexp(I * delta);
+  w->aQ = sg * s->p / (s->E + 1.0) * w->aP;
+  return BL_SUCCESS;
+}
+
+/* int_0^inf A B j_L dr over the nodes (from node st) and the rays */
+static double radint (const ctx *c, const double *ab, int st, int lA,
+                    double complex aA, int lB, double complex aB, int L) {
+  const double *j = c->jl + (size_t)L * c->g.n;
+  double s = 0.0, t = 0.0;
+  int i;
+  for (i = st; i < c->g.n; i++)
+    s += ab[i] * j[i];
+  tail(&c->q, lA, aA, lB, aB, L, L, &t, NULL);
+  return s + t;
+}
+
+/*
+** sum over J of |M_J(kappa_f, kappa_i)|^2, both multipole types, J from
+** max(1, |j_f - j_i|) up to min(j_f + j_i, jcap), stopped early when two
+** successive J add less than eps of the pair's sum (their size goes to
+** c->jerr).
+*/
+static double pair (ctx *c, const wave *wi, const wave *wf) {
+  int st = wi->st > wf->st ? wi->st : wf->st, n = c->g.n, i, J, Jlo, Jhi;
+  double sum = 0.0, last = 0.0;
+  double ipq[JCAP_MAX + 3], iqp[JCAP_MAX + 3];
+  int have = -1;              /* integrals known for L <= have */
+  int ai = abs(wi->kappa), af = abs(wf->kappa);
+  Jlo = abs(ai - af);
+  if (Jlo < 1)
+    Jlo = 1;
+  Jhi = ai + af - 1;
+  if (Jhi > c->jcap)
+    Jhi = c->jcap;
+  if (Jlo > Jhi)
+    return 0.0;
+  c->pairs++;
+  for (i = st; i < n; i++) {
+    c->pq[i] = wf->P[i] * wi->Q[i] * c->g.w[i];
+    c->qp[i] = wf->Q[i] * wi->P[i] * c->g.w[i];
+  }
+  for (J = Jlo; J <= Jhi; J++) {
+    double m, e, a, b, t[3];
+    int L;
+    for (L = (have < J - 1 ? J - 1 : have + 1); L <= J + 1; L++) {
+      ipq[L] = radint(c, c->pq, st, wf->l, wf->aP, wi->lb, wi->aQ, L);
+      iqp[L] = radint(c, c->qp, st, wf->lb, wf->aQ, wi->l, wi->aP, L);
+      have = L;
+    }
+    for (L = J - 1; L <= J + 1; L++)
+      t[L - J + 1] = bl_pw_sred(wf->kappa, -wi->kappa, J, L) * ipq[L]
+                     - bl_pw_sred(-wf->kappa, wi->kappa, J, L) * iqp[L];
+    a = sqrt((J + 1.0) / (2.0 * J + 1.0));
+    b = sqrt(J / (2.0 * J + 1.0));
+    m = t[1];                 /* magnetic: L = J */
+    e = a * t[0] - b * t[2];  /* electric: L = J -+ 1 */
+    m = m * m + e * e;
+    sum += m;
+    if (J == c->jcap)
+      c->jshell += m;
+    if (J >= Jlo + 2 && m + last <= c->eps * sum) {
+      c->jerr += m + last;
+      break;
+    }
+    last = m;
+  }
+  return sum;
+}
+
+int bl_pw_dsdk_check (const bl_pwpot *v, double m_mev, double z, double T,
+                      double k, double rtol, char *msg, size_t size) {
+  char dummy[1];
+  if (msg == NULL) {
+    msg = dummy;
+    size = sizeof dummy;
+  }
+  msg[0] = '\0';
+  if (v == NULL) {
+    snprintf(msg, size, "potential v is NULL");
+    return BL_EDOMAIN;
+  }
+  if (!isfinite(v->zza) || !isfinite(v->rc) || !(v->rc >= 0.0)) {
+    snprintf(msg, size, "potential: zza = %g, rc = %g (finite, rc >= 0)",
+             v->zza, v->rc);
+    return BL_EDOMAIN;
+  }
+  if (!(m_mev > 0.0) || !isfinite(m_mev)) {
+    snprintf(msg, size, "mass m_mev = %g (must be > 0 and finite)", m_mev);
+    return BL_EDOMAIN;
+  }
+  if (!(z != 0.0) || !isfinite(z) || (v->zza != 0.0 && (z > 0) != (v->zza > 0))) {
+    snprintf(msg, size, "charge z = %g (nonzero, finite, same sign as "
+             "v->zza = %g)", z, v->zza);
+    return BL_EDOMAIN;
+  }
+  if (!(T > 0.0) || !(T <= 1e4 * m_mev)) {
+    snprintf(msg, size, "kinetic energy T = %g MeV (must be in (0, %g])",
+             T, 1e4 * m_mev);
+    return BL_EDOMAIN;
+  }
+  if (!(k > 0.0) || !(k < T)) {
+    snprintf(msg, size, "photon energy k = %g MeV (must be in (0, T = %g))",
+             k, T);
+    return BL_EDOMAIN;
+  }
+  if (!(rtol >= 1e-6 && rtol <= 0.1)) {
+    snprintf(msg, size, "rtol = %g (must be in [1e-6, 0.1])", rtol);
+    return BL_EDOMAIN;
+  }
+  return BL_SUCCESS;
+}
+
+int bl_pw_dsdk (const bl_pwpot *v, double m_mev, double z, double T,
+                double k, double rtol, double *dsdk, double *err) {
+  return bl_pw_dsdk_x(v, m_mev, z, T, k, rtol, dsdk, err, NULL);
+}
+
+static void ctx_free (ctx *c) {
+  grid_free(&c->g);
+  rays_free(&c->q);
+  free(c->jl);
+  free(c->pq);
+  free(c->qp);
+}
+
+/*
+** The l-sum: initial waves l_i = 0, 1, ... (kappa_i = -(l_i+1), l_i),
+** final waves l_f = l_i -+ d, d = 0, 1, ... D (stopped as the J sum is,
+** on the contribution of two successive d), final waves kept in a ring
+** of 2 D + 2 values of l_f.  The l-sum stops when the geometric
+** extrapolation of its last four terms leaves less than rtol/5.
+*/
+int bl_pw_dsdk_x (const bl_pwpot *v, double m_mev, double z, double T,
+                  double k, double rtol, double *dsdk, double *err,
+                  bl_pwinfo *info) {
+  ctx c;
+  wave *ring = NULL, wi = {0, 0, 0, 0, 0, 0, NULL, NULL};
+  int *ringl = NULL, W, li, e = BL_SUCCESS, i, n, conv = 0;
+  double t, tf, qmin, cmin, bmax, total = 0.0, hist[4] = {0, 0, 0, 0};
+  double pref, unit, ltail = HUGE_VAL;
+  if (dsdk != NULL)
+    *dsdk = 0.0;
+  if (err != NULL)
+    *err = 0.0;
+  if (dsdk == NULL || err == NULL)
+    return BL_EDOMAIN;
+  e = bl_pw_dsdk_check(v, m_mev, z, T, k, rtol, NULL, 0);
+  if (e)
+    return e;
+  memset(&c, 0, sizeof c);
+  c.v = v;
+  t = T / m_mev;
+  tf = (T - k) / m_mev;
+  c.k = k / m_mev;
+  c.si.E = 1.0 + t;
+  c.si.p = sqrt(t * (t + 2.0));
+  c.sf.E = 1.0 + tf;
+  c.sf.p = sqrt(tf * (tf + 2.0));
+  qmin = c.k * (1.0 / (c.si.E + c.si.p) + 1.0 / (c.sf.E + c.sf.p))
+         / (c.si.p + c.sf.p);
+  if (v->zza == 0.0)          /* no field, no radiation */
+    return BL_SUCCESS;
+  cmin = HUGE_VAL;
+  for (i = 0; i < v->n; i++)
+    if (v->a[i] != 0.0 && v->c[i] > 0.0 && v->c[i] < cmin)
+      cmin = v->c[i];
+  bmax = B_FAC / fmax(qmin, cmin < HUGE_VAL ? 2.0 * cmin : 0.0);
+  c.lcap = 10 + (int)ceil(fmin(c.si.p * bmax, (double)LCAP_MAX));
+  if (c.lcap > LCAP_MAX)
+    c.lcap = LCAP_MAX;
+  c.jcap = 6 + (int)ceil(fmin(c.k * bmax, (double)JCAP_MAX));
+  if (c.jcap > JCAP_MAX)
+    c.jcap = JCAP_MAX;
+  c.D = c.jcap + 1;
+  c.eps = 1e-3 * rtol;
+  {
+    double R = ray_start(v->rc, c.lcap + c.D + 1, c.sf.p, c.jcap + 1, c.k,
+                         qmin);
+    e = grid_make(&c.g, R, PANEL_PHASE / (c.si.p + c.sf.p + c.k));
+    if (!e)
+      e = rays_make(&c.q, R, c.sf.p, c.lcap + c.D + 2, c.si.p, c.lcap + 2,
+                    c.k, c.jcap + 2);
+  }
+  if (e) {
+    ctx_free(&c);
+    return e;
+  }
+  n = c.g.n;
+  c.jl = malloc((size_t)(c.jcap + 2) * n * sizeof *c.jl);
+  c.pq = malloc((size_t)n * sizeof *c.pq);
+  c.qp = malloc((size_t)n * sizeof *c.qp);
+  W = 2 * c.D + 2;
+  ring = calloc((size_t)(2 * W), sizeof *ring);
+  ringl = malloc((size_t)W * sizeof *ringl);
+  if (c.jl == NULL || c.pq == NULL || c.qp == NULL || ring == NULL
+      || ringl == NULL) {
+    e = BL_ENOMEM;
+    goto done;
+  }
+  for (i = 0; i < W; i++)
+    ringl[i] = -1;
+  {
+    double *row = malloc((size_t)(c.jcap + 2) * sizeof *row);
+    int L;
+    if (row == NULL) {
+      e = BL_ENOMEM;
+      goto done;
+    }
+    for (i = 0; i < n; i++) {
+      int bad = gsl_sf_bessel_jl_steed_array(c.jcap + 1, c.k * c.g.r[i], row);
+      for (L = 0; L <= c.jcap + 1 && !bad; L++)
+        bad = !isfinite(row[L]);
+      if (bad)                /* Steed's method gave NaN at some small x
+                              ** (seen at x = 2.6e-4, L = 61): one by one */
+        for (L = 0; L <= c.jcap + 1; L++) {
+          gsl_sf_result jr;
+          row[L] = gsl_sf_bessel_jl_e(L, c.k * c.g.r[i], &jr) == GSL_SUCCESS
+                   && isfinite(jr.val) ? jr.val : 0.0;
+        }
+      for (L = 0; L <= c.jcap + 1; L++)
+        c.jl[(size_t)L * n + i] = row[L];
+    }
+    free(row);
+  }
+  for (li = 0; li <= c.lcap && !conv; li++) {
+    double cl = 0.0;
+    int ki;
+    for (ki = 0; ki < 2; ki++) {
+      int kappa_i = ki == 0 ? -(li + 1) : li, d;
+      double si = 0.0, lastd = 0.0;
+      if (kappa_i == 0)
+        continue;
+      e = wave_make(&c, &c.si, kappa_i, &wi);
+      if (e)
+        goto done;
+      for (d = 0; d <= c.D; d++) {
+        double cd = 0.0;
+        int sgn;
+        for (sgn = -1; sgn <= 1; sgn += 2) {
+          int lf = li + sgn * d, kf, slot;
+          if (lf < 0 || (d == 0 && sgn > 0))
+            continue;
+          slot = lf % W;
+          if (ringl[slot] != lf) {
+            for (kf = 0; kf < 2; kf++) {
+              int kappa_f = kf == 0 ? -(lf + 1) : lf;
+              if (kappa_f == 0)
+                continue;
+              e = wave_make(&c, &c.sf, kappa_f, &ring[2 * slot + kf]);
+              if (e)
+                goto done;
+            }
+            ringl[slot] = lf;
+          }
+          for (kf = 0; kf < 2; kf++)
+            if (!(kf == 1 && lf == 0))
+              cd += pair(&c, &wi, &ring[2 * slot + kf]);
+        }
+        si += cd;
+        if (d >= 2 && cd + lastd <= c.eps * si) {
+          c.jerr += cd + lastd;
+          break;
+        }
+        lastd = cd;
+      }
+      cl += si;
+    }
+    total += cl;
+    hist[0] = hist[1];
+    hist[1] = hist[2];
+    hist[2] = hist[3];
+    hist[3] = cl;
+    if (li >= 12 && li >= 2.0 * c.si.p && hist[0] + hist[1] > 0.0) {
+      double rho = sqrt((hist[2] + hist[3]) / (hist[0] + hist[1]));
+      ltail = rho < 0.98 ? cl * rho / (1.0 - rho) : HUGE_VAL;
+      if (ltail <= 0.2 * rtol * total)
+        conv = 1;
+    }
+  }
+  pref = 8.0 * BL_PI * z * z * BL_ALPHA * c.k * (c.si.E + 1.0)
+         * (c.sf.E + 1.0) / (c.si.p * c.si.p * c.si.p * c.sf.p);
+  unit = (BL_HBARC_MEVFM / m_mev) * (BL_HBARC_MEVFM / m_mev) / BL_FM2_PER_MB
+         / m_mev;
+  *dsdk = pref * unit * total;
+  *err = pref * unit * (fmin(ltail, total) + c.jerr + c.jshell);
+  if (!isfinite(*dsdk) || !isfinite(*err)) {
+    *dsdk = 0.0;
+    *err = 0.0;
+    e = BL_ENONFINITE;
+  } else if (!conv)
+    e = BL_ENOTCONV;
+  if (info != NULL) {
+    info->lmax = li - 1;
+    info->jmax = c.jcap;
+    info->nodes = n;
+    info->R = c.g.R;
+    info->pairs = c.pairs;
+    info->ltail = total > 0.0 ? fmin(ltail, total) / total : 0.0;
+    info->jtail = total > 0.0 ? c.jshell / total : 0.0;
+  }
+done:
+  wave_free(&wi);
+  if (ring != NULL)
+    for (i = 0; i < 2 * W; i++)
+      wave_free(&ring[i]);
+  free(ring);
+  free(ringl);
+  ctx_free(&c);
+  return e;
+}
