@@ -457,6 +457,7 @@ typedef struct ctx {
   double jerr;                /* sum of the dropped inner-sum estimates */
   double jshell;              /* sum of |M_J|^2 at J = jcap */
   long pairs;
+  int jused, dused;           /* largest J and |l_f - l_i| computed */
 } ctx;
 
 /*
@@ -570,6 +571,8 @@ static double pair (ctx *c, const wave *wi, const wave *wf) {
     e = a * t[0] - b * t[2];  /* electric: L = J -+ 1 */
     m = m * m + e * e;
     sum += m;
+    if (J > c->jused)
+      c->jused = J;
     if (J == c->jcap)
       c->jshell += m;
     if (J >= Jlo + 2 && m + last <= c->eps * sum) {
@@ -771,6 +774,8 @@ int bl_pw_dsdk_x (const bl_pwpot *v, double m_mev, double z, double T,
               cd += pair(&c, &wi, &ring[2 * slot + kf]);
         }
         si += cd;
+        if (d > c.dused)
+          c.dused = d;
         if (d >= 2 && cd + lastd <= c.eps * si) {
           c.jerr += cd + lastd;
           break;
@@ -806,6 +811,8 @@ int bl_pw_dsdk_x (const bl_pwpot *v, double m_mev, double z, double T,
   if (info != NULL) {
     info->lmax = li - 1;
     info->jmax = c.jcap;
+    info->jused = c.jused;
+    info->dused = c.dused;
     info->nodes = n;
     info->R = c.g.R;
     info->pairs = c.pairs;

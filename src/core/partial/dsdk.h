@@ -51,6 +51,8 @@ int bl_pw_free3 (double pa, int la, double pb, int lb, double k, int L,
 typedef struct bl_pwinfo {
   int lmax;        /* largest l of the initial waves summed */
   int jmax;        /* largest photon multipole J allowed */
+  int jused;       /* largest J reached by the adaptive J sums */
+  int dused;       /* largest |l_f - l_i| reached */
   int nodes;       /* radial nodes on [0, R] */
   double R;        /* start of the complex rays, units of hbar/(m c) */
   long pairs;      /* (kappa_i, kappa_f) pairs computed */
