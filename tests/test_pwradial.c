@@ -657,3 +657,48 @@ Test(pwradial, cut_radius) {
     EXPECT_REL(vm.R, 7.0 * BL_MMU_MEV / BL_HBARC_MEVFM, 1e-14, "muon R");
   }
 }
+
+
+/* ==================================================================
+** Near the origin: for a point nucleus the regular solution is
+** r^gamma (a0 + O(r)), (b0 + O(r)) with gamma = sqrt(kappa^2 - Z'^2),
+** b0/a0 = Z'/(gamma - kappa) (Rose 1961, ch. 5, the Coulomb series; the
+** leading terms follow from the equation of internal.h with V -> Z'/r).
+** At r = 1e-6 and 2e-6 (r K ~ 1e-5): Q/P within 1e-4 of b0/a0 and
+** P(2r)/P(r) within 1e-4 of 2^gamma.  Inside a uniform sphere (V(0) = V0)
+** kappa < 0: Q/P = -(E - 1 - V0) r/(2|kappa| + 1), kappa > 0:
+** P/Q = (E + 1 - V0) r/(2 kappa + 1) (the same equation, V regular),
+** within 1e-3 at r = 1e-5 R.
+*/
+Test(pwradial, near_origin) {
+  const int ks[] = {-1, 1, -2, 2, -5};
+  size_t ik;
+  for (ik = 0; ik < sizeof ks / sizeof ks[0]; ik++) {
+    bl_pwpot v;
+    int k = ks[ik];
+    double r[2] = {1e-6, 2e-6}, P[2], Q[2], d, E = 3.0;
+    double z = -ZAU, g = sqrt(k * k - z * z), ratio;
+    yuk_pot(&v, z, 0.1, 1e-12);
+    cr_assert_eq(bl_pw_radial(&v, E, k, 2, r, P, Q, &d), BL_SUCCESS);
+    ratio = k < 0 ? Q[0] / P[0] : P[0] / Q[0];
+    EXPECT_REL(ratio, k < 0 ? z / (g - k) : -z / (g + k), 1e-4,
+               "point nucleus kappa %d: small component ratio at r = 1e-6",
+               k);
+    EXPECT_REL(P[1] / P[0], pow(2.0, g), 1e-4, "point nucleus kappa %d: "
+               "P(2e-6)/P(1e-6) = 2^gamma", k);
+  }
+  for (ik = 0; ik < sizeof ks / sizeof ks[0]; ik++) {
+    bl_pwpot v;
+    int k = ks[ik];
+    double E = 3.0, r, P, Q, d, V0, want;
+    au_pot(&v, -ZAU, 7.0, 1e-12);
+    r = 1e-5 * v.R;
+    V0 = v.zza * (1.5 / v.R - (v.a[0] * v.c[0] + v.a[1] * v.c[1]
+                               + v.a[2] * v.c[2]));
+    cr_assert_eq(bl_pw_radial(&v, E, k, 1, &r, &P, &Q, &d), BL_SUCCESS);
+    want = k < 0 ? -(E - 1.0 - V0) * r / (1.0 - 2.0 * k)
+                 : (E + 1.0 - V0) * r / (2.0 * k + 1.0);
+    EXPECT_REL(k < 0 ? Q / P : P / Q, want, 1e-3, "uniform sphere kappa %d: "
+               "small component ratio at r = 1e-5 R", k);
+  }
+}
