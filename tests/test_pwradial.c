@@ -713,3 +713,31 @@ Test(pwradial, near_origin) {
                "small component ratio at r = 1e-5 R", k);
   }
 }
+
+
+/* ==================================================================
+** High energy: without the mass terms the equation of internal.h,
+** P' = -kappa P/r + (E - V) Q, Q' = kappa Q/r - (E - V) P, goes into
+** itself under kappa -> -kappa, (P, Q) -> (Q, -P) (substitute), and
+** l(-kappa) = lbar(kappa), so delta_kappa = delta_-kappa up to O(1/E).
+** At E = 1e4 (Au, rc cut to 5 for speed, x up to 5e4; the start at
+** r ~ 1e-11, where unscaled Taylor coefficients would overflow): within
+** 1e-6 (measured 3.5e-9 at kappa = 1), finite P.
+*/
+Test(pwradial, high_energy_symmetry) {
+  const int ks[] = {1, 7, 50};
+  size_t ik;
+  for (ik = 0; ik < sizeof ks / sizeof ks[0]; ik++) {
+    bl_pwpot v;
+    double r[3] = {1e-12, 1e-3, 4.0}, P[3], Q[3], d1, d2;
+    int k = ks[ik], i;
+    au_pot(&v, -ZAU, 7.0, 1e-12);
+    v.rc = 5.0;
+    cr_assert_eq(bl_pw_radial(&v, 1e4, k, 3, r, P, Q, &d1), BL_SUCCESS);
+    for (i = 0; i < 3; i++)
+      cr_expect(isfinite(P[i]) && isfinite(Q[i]));
+    cr_assert_eq(bl_pw_radial(&v, 1e4, -k, 3, r, P, Q, &d2), BL_SUCCESS);
+    cr_expect(fabs(dphase(d1, d2)) <= 1e-6, "E 1e4 kappa +-%d: delta %.12f "
+              "%.12f", k, d1, d2);
+  }
+}

@@ -514,17 +514,28 @@ static void w_series (const bl_pwpot *v, double sa, double r0, int inside,
 ** One Taylor step of the equation multiplied by r (r = r0 + s, W = r V):
 **   r0 (k+1) P_{k+1} = -(kappa + k) P_k + (E+1)(r0 Q_k + Q_{k-1}) - (W*Q)_k
 **   r0 (k+1) Q_{k+1} =  (kappa - k) Q_k - (E-1)(r0 P_k + P_{k-1}) + (W*P)_k
-** ((W*Q)_k = sum_j W_j Q_{k-j}), to order TAYLOR_K, from (P, Q) = y at r0.
-** Coefficients into cP, cQ; the step h the last two terms allow for
-** TAYLOR_TOL times the amplitude A, at most hmax.
+** ((W*Q)_k = sum_j W_j Q_{k-j}), to order TAYLOR_K, from (P, Q) = y at r0,
+** in the scaled form p_k = P_k hs^k (hs = *hsc, the power of 2 at or below
+** r0: s/hs is exact, and p_k stays in range where P_k ~ r0^-k would
+** overflow at tiny r0):
+**   p_{k+1} = (hs/r0) [-(kappa + k) p_k + (E+1)(r0 q_k + hs q_{k-1})
+**             - sum_j w_j q_{k-j}] / (k+1),   w_j = W_j hs^j,
+** and the same for q.  Coefficients into cP, cQ; returns the step h the
+** last two terms allow for TAYLOR_TOL times the amplitude A, times
+** TAYLOR_SAFE, at most hmax.
 */
 static double taylor_coef (const eqn *q, double r0, int inside, double w,
                            const double y[2], double hmax, double *cP,
-                           double *cQ) {
+                           double *cQ, double *hsc) {
   double W[TAYLOR_K + 1], A = sqrt(y[0] * y[0] + w * w * y[1] * y[1]);
-  double h = hmax, kap = q->kappa, E = q->E;
+  double hs = ldexp(1.0, ilogb(r0)), rho = hs / r0, sig = hmax / hs;
+  double kap = q->kappa, E = q->E, t = 1.0;
   int k, j;
   w_series(q->v, q->sa, r0, inside, W);
+  for (k = 1; k <= TAYLOR_K; k++) {
+    t *= hs;
+    W[k] *= t;
+  }
   cP[0] = y[0];
   cQ[0] = y[1];
   for (k = 0; k < TAYLOR_K; k++) {
@@ -534,27 +545,28 @@ static double taylor_coef (const eqn *q, double r0, int inside, double w,
       sp += W[j] * cQ[k - j];
       sq += W[j] * cP[k - j];
     }
-    cP[k + 1] = (-(kap + k) * cP[k] + (E + 1.0) * (r0 * cQ[k] + qm) - sp)
-                / (r0 * (k + 1.0));
-    cQ[k + 1] = ((kap - k) * cQ[k] - (E - 1.0) * (r0 * cP[k] + pm) + sq)
-                / (r0 * (k + 1.0));
+    cP[k + 1] = rho * (-(kap + k) * cP[k] + (E + 1.0) * (r0 * cQ[k] + hs * qm)
+                       - sp) / (k + 1.0);
+    cQ[k + 1] = rho * ((kap - k) * cQ[k] - (E - 1.0) * (r0 * cP[k] + hs * pm)
+                       + sq) / (k + 1.0);
   }
   for (k = TAYLOR_K - 1; k <= TAYLOR_K; k++) {
     double c = fmax(fabs(cP[k]), w * fabs(cQ[k]));
     if (c > 0.0)
-      h = fmin(h, pow(TAYLOR_TOL * A / c, 1.0 / k));
+      sig = fmin(sig, pow(TAYLOR_TOL * A / c, 1.0 / k));
   }
-  return TAYLOR_SAFE * h;
+  *hsc = hs;
+  return TAYLOR_SAFE * sig * hs;
 }
 
-/* The polynomials at s (Horner). */
-static void taylor_eval (const double *cP, const double *cQ, double s,
+/* The polynomials at sigma = s/hs (Horner). */
+static void taylor_eval (const double *cP, const double *cQ, double sig,
                          double *P, double *Q) {
   double a = cP[TAYLOR_K], b = cQ[TAYLOR_K];
   int k;
   for (k = TAYLOR_K - 1; k >= 0; k--) {
-    a = a * s + cP[k];
-    b = b * s + cQ[k];
+    a = a * sig + cP[k];
+    b = b * sig + cQ[k];
   }
   *P = a;
   *Q = b;
@@ -578,8 +590,8 @@ static int integrate (const eqn *q, double rs, double rm, const double *r,
   int i = i0;
   while (t < rm) {
     int inside = t < q->v->R;
-    double t1 = inside ? q->v->R : rm, h, tn, A;
-    h = taylor_coef(q, t, inside, w, y, TAYLOR_RMAX * t, cP, cQ);
+    double t1 = inside ? q->v->R : rm, h, tn, A, hs;
+    h = taylor_coef(q, t, inside, w, y, TAYLOR_RMAX * t, cP, cQ, &hs);
     if (!(h > 0.0) || ++steps > STEP_MAX)
       return BL_ENOTCONV;
     tn = t + h;
@@ -587,8 +599,8 @@ static int integrate (const eqn *q, double rs, double rm, const double *r,
       tn = t1;
     h = tn - t;   /* exact */
     for (; i < m && r[i] <= tn; i++)
-      taylor_eval(cP, cQ, r[i] - t, P + i, Q + i);
-    taylor_eval(cP, cQ, h, y, y + 1);
+      taylor_eval(cP, cQ, (r[i] - t) / hs, P + i, Q + i);
+    taylor_eval(cP, cQ, h / hs, y, y + 1);
     t = tn;
     if (!isfinite(y[0]) || !isfinite(y[1]))
       return BL_ENONFINITE;
