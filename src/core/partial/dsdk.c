@@ -52,6 +52,8 @@
                          ** 2 c_min) set the cap of l */
 #define LCAP_MAX 6000    /* hard cap of l */
 #define JCAP_MAX 60      /* hard cap of the photon multipole J */
+#define J_TINY 1e-30     /* j_L(k r) below this (r below its turning
+                         ** point) is left out of the radial sums */
 #define SKIP_NU 30       /* waves with l + 1/2 >= SKIP_NU start at r_skip */
 #define SKIP_FRAC 0.4    /* r_skip: local p r = SKIP_FRAC (l + 1/2) */
 
@@ -452,6 +454,7 @@ typedef struct ctx {
   rays q;                     /* A = final wave, B = initial wave */
   int jcap, lcap, D;
   double *jl;                 /* [L][n]: j_L(k r_n), L = 0..jcap+1 */
+  int jst[JCAP_MAX + 2];      /* first node with |j_L| >= J_TINY */
   double *pq, *qp;            /* [n] scratch: P_f Q_i w, Q_f P_i w */
   double eps;                 /* truncation threshold of the inner sums */
   double jerr;                /* sum of the dropped inner-sum estimates */
@@ -523,7 +526,7 @@ static double radint (const ctx *c, const double *ab, int st, int lA,
   const double *j = c->jl + (size_t)L * c->g.n;
   double s = 0.0, t = 0.0;
   int i;
-  for (i = st; i < c->g.n; i++)
+  for (i = st > c->jst[L] ? st : c->jst[L]; i < c->g.n; i++)
     s += ab[i] * j[i];
   tail(&c->q, lA, aA, lB, aB, L, L, &t, NULL);
   return s + t;
@@ -738,6 +741,11 @@ int bl_pw_dsdk_x (const bl_pwpot *v, double m_mev, double z, double T,
         c.jl[(size_t)L * n + i] = row[L];
     }
     free(row);
+    for (L = 0; L <= c.jcap + 1; L++) {
+      for (i = 0; i < n && fabs(c.jl[(size_t)L * n + i]) < J_TINY; i++)
+        ;
+      c.jst[L] = i;
+    }
   }
   for (li = 0; li <= c.lcap && !conv; li++) {
     double cl = 0.0;
