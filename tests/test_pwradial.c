@@ -417,6 +417,10 @@ Test(pwradial, independent_yukawa) {
   against_reference(&v, "Yukawa c=1 zza<0 point");
   yuk_pot(&v, ZAU, 1.0, 1e-12);
   against_reference(&v, "Yukawa c=1 zza>0 point");
+  /* strong field: gamma(kappa = +-1) = 0.31, the start's admixture
+  ** decays only like r^-0.62 */
+  yuk_pot(&v, -0.95, 1.0, 1e-12);
+  against_reference(&v, "Yukawa c=1 zza=-0.95 point");
 }
 
 
@@ -697,6 +701,21 @@ Test(pwradial, near_origin) {
                k);
     EXPECT_REL(P[1] / P[0], pow(2.0, g), 1e-4, "point nucleus kappa %d: "
                "P(2e-6)/P(1e-6) = 2^gamma", k);
+    /* the first correction: V = Z'/r + V1 + O(r), V1 = -zza c here; at
+    ** order r^gamma (g+1+kappa) a1 + Z' b1 = (E+1-V1) b0 and
+    ** -Z' a1 + (g+1-kappa) b1 = -(E-1-V1) a0 (substituted into the
+    ** equation of internal.h); at r = 1e-4 within 1e-6 (next order
+    ** (r K)^2 ~ 2e-7) */
+    {
+      double a0 = k < 0 ? 1.0 : -z / (g + k), b0 = k < 0 ? z / (g - k) : 1.0;
+      double V1 = -z * 0.1, D = 2.0 * g + 1.0, rr = 1e-4, a1, b1, Pr, Qr;
+      a1 = ((E + 1.0 - V1) * b0 * (g + 1.0 - k) + z * (E - 1.0 - V1) * a0) / D;
+      b1 = (-(g + 1.0 + k) * (E - 1.0 - V1) * a0 + z * (E + 1.0 - V1) * b0) / D;
+      cr_assert_eq(bl_pw_radial(&v, E, k, 1, &rr, &Pr, &Qr, &d), BL_SUCCESS);
+      EXPECT_REL(Qr / Pr, (b0 + b1 * rr) / (a0 + a1 * rr), 1e-6,
+                 "point nucleus kappa %d: Q/P at r = 1e-4 with the first "
+                 "correction", k);
+    }
   }
   for (ik = 0; ik < sizeof ks / sizeof ks[0]; ik++) {
     bl_pwpot v;

@@ -26,16 +26,17 @@
 **
 ** The start (derivation in DEVELOPERS.md, "Partial waves: radial
 ** functions"):
-**  - point nucleus: the Frobenius leading term P, Q ~ r^gamma (a0, b0),
-**    gamma = sqrt(kappa^2 - Z'^2), Z' = zza sum a_i, with
-**    b0/a0 = Z'/(gamma - kappa) = -(gamma + kappa)/Z';
+**  - point nucleus: the Frobenius series P, Q ~ r^gamma (a0 + a1 r,
+**    b0 + b1 r), gamma = sqrt(kappa^2 - Z'^2), Z' = zza sum a_i, with
+**    b0/a0 = Z'/(gamma - kappa) = -(gamma + kappa)/Z' and a1, b1 from
+**    V = Z'/r + V1 + O(r) (start_vector);
 **  - inside a uniform sphere (V regular, V(0) = V0): kappa < 0:
 **    P = r^|kappa|, Q = -(E - 1 - V0) r^(|kappa|+1)/(2|kappa| + 1);
 **    kappa > 0: Q = r^kappa, P = (E + 1 - V0) r^(kappa+1)/(2 kappa + 1),
 ** at r0 = START_KR / K, K = E + 1 + |V| scale.  The omitted higher terms
-** put an irregular admixture of relative size ~ r0 K into the start, and
-** it dies like (r0/r)^(2 gamma) (2 gamma >= 1.4 for |Z'| <= 0.7): below
-** 1e-17 by r = 1/K.  For |kappa| >= WKB_KAPPA the start moves out to the
+** put an irregular admixture of relative size ~ (r0 K)^2 (point nucleus)
+** or r0 K (sphere) into the start, and it dies like (r0/r)^(2 gamma)
+** (2 gamma >= 1.4 for |Z'| <= 0.7): below 1e-17 by r = 1/K.  For |kappa| >= WKB_KAPPA the start moves out to the
 ** radius where the WKB exponent up to the turning point (a barrier
 ** (gamma - 1)^2/r^2 against the largest local momentum the potential can
 ** give) reaches WKB_EFOLDS: the solution there is e^-60 of its
@@ -443,14 +444,26 @@ static void start_vector (const bl_pwpot *v, double E, int kappa, double sa,
       *eQ = k;
     }
   } else {
-    double z = v->zza * sa, g = sqrt(k * k - z * z);
+    /* V = Z'/r + V1 + O(r): the leading pair and its first correction,
+    ** (g+1+kappa) a1 + Z' b1 = (E+1-V1) b0,
+    ** -Z' a1 + (g+1-kappa) b1 = -(E-1-V1) a0, determinant 2g + 1 */
+    double z = v->zza * sa, g = sqrt(k * k - z * z), V1 = 0.0, a0, b0, a1, b1;
+    int i;
+    for (i = 0; i < v->n; i++)
+      V1 -= v->zza * v->a[i] * v->c[i];
     if (kappa < 0) {
-      y[0] = 1.0;
-      y[1] = z / (g - k);
+      a0 = 1.0;
+      b0 = z / (g - k);
     } else {
-      y[0] = -z / (g + k);
-      y[1] = 1.0;
+      a0 = -z / (g + k);
+      b0 = 1.0;
     }
+    a1 = ((E + 1.0 - V1) * b0 * (g + 1.0 - k) + z * (E - 1.0 - V1) * a0)
+         / (2.0 * g + 1.0);
+    b1 = (-(g + 1.0 + k) * (E - 1.0 - V1) * a0 + z * (E + 1.0 - V1) * b0)
+         / (2.0 * g + 1.0);
+    y[0] = a0 + a1 * rs;
+    y[1] = b0 + b1 * rs;
     *eP = *eQ = g;
   }
 }
