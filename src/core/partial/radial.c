@@ -598,7 +598,7 @@ static void taylor_eval (const double *cP, const double *cQ, double sig,
 static int integrate (const eqn *q, double rs, double rm, const double *r,
                       int i0, int m, double *P, double *Q, double y[2]) {
   const double w = (q->E + 1.0) / sqrt((q->E - 1.0) * (q->E + 1.0));
-  double t = rs, cP[TAYLOR_K + 1], cQ[TAYLOR_K + 1];
+  double t = rs, cP[TAYLOR_K + 1] = {0.0}, cQ[TAYLOR_K + 1] = {0.0};
   long steps = 0;
   int i = i0;
   while (t < rm) {
