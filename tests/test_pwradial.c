@@ -650,7 +650,8 @@ Test(pwradial, bad_input) {
 
 /* ==================================================================
 ** The cut radius: tail(rc) = tol exactly (its rule, radial.c), rc >= R,
-** and rc scales like 1/m for a muon (c_i = b_i/m).
+** rc scales like m for a muon (c_i = b_i/m), and the phase from beyond
+** rc stays within the rule's bound.
 */
 Test(pwradial, cut_radius) {
   bl_pwpot v, vm;
@@ -670,6 +671,33 @@ Test(pwradial, cut_radius) {
     t = vm.rc / v.rc;
     EXPECT_REL(t, BL_MMU_MEV / ME, 1e-9, "muon rc / electron rc");
     EXPECT_REL(vm.R, 7.0 * BL_MMU_MEV / BL_HBARC_MEVFM, 1e-14, "muon R");
+  }
+  /* the bound the rule promises (radial.c, bl_pwpot_init): the phase the
+  ** potential beyond rc adds is at most (2E/p) tol; tol = 1e-7 against
+  ** 1e-14, Au, both signs */
+  {
+    const double Es[] = {1.02, 3.0, 20.0};
+    const int ks[] = {-1, 1, -5, 20};
+    double r = 1.0, P, Q, worst = 0.0;
+    size_t ie, ik;
+    int iz;
+    for (iz = -1; iz <= 1; iz += 2)
+      for (ie = 0; ie < 3; ie++)
+        for (ik = 0; ik < 4; ik++) {
+          bl_pwpot v1, v2;
+          double E = Es[ie], p = sqrt(E * E - 1.0), d1, d2, b;
+          au_pot(&v1, iz * ZAU, 7.0, 1e-7);
+          au_pot(&v2, iz * ZAU, 7.0, 1e-14);
+          cr_assert_eq(bl_pw_radial(&v1, E, ks[ik], 1, &r, &P, &Q, &d1), 0);
+          cr_assert_eq(bl_pw_radial(&v2, E, ks[ik], 1, &r, &P, &Q, &d2), 0);
+          b = 2.0 * E / p * 1e-7;
+          cr_expect(fabs(dphase(d1, d2)) <= b, "zza %g E %g kappa %d: phase "
+                    "beyond rc %.3e > bound %.3e", iz * ZAU, E, ks[ik],
+                    fabs(dphase(d1, d2)), b);
+          worst = fmax(worst, fabs(dphase(d1, d2)) / b);
+        }
+    cr_log_info("phase beyond rc(tol = 1e-7): at most %.3f of (2E/p) tol",
+                worst);
   }
 }
 
