@@ -788,3 +788,46 @@ Test(pwradial, high_energy_symmetry) {
               "%.12f", k, d1, d2);
   }
 }
+
+
+/* ==================================================================
+** Beyond rc the solution is the free form of internal.h with the
+** returned delta: P = cos d u_l - sin d w_l, Q = s p/(E+1) (cos d u_lbar
+** - sin d w_lbar), here with GSL's Bessel functions.  radial.c fills
+** those points either by its Riccati-Bessel recurrences or, when
+** cheaper, by integrating the free equation on (kappa = -200, 500 with
+** 400 points over 5 % of rc): both to 1e-11 absolute, plus a jump test
+** (a point 1e-15 rc below rc against the one at rc: within 2e-11).
+*/
+Test(pwradial, beyond_rc) {
+  const int ks[] = {-1, 3, -200, 500};
+  size_t ik;
+  enum { N = 401 };
+  static double r[N], P[N], Q[N];
+  for (ik = 0; ik < sizeof ks / sizeof ks[0]; ik++) {
+    bl_pwpot v;
+    double E = 3.0, p = sqrt(E * E - 1.0), d, cd, sd, sg;
+    int k = ks[ik], l = lof(k), lb = lbarof(k), i;
+    au_pot(&v, -ZAU, 7.0, 1e-12);
+    r[0] = v.rc * (1.0 - 1e-15);    /* p (rc - r[0]) ~ 6e-12 */
+    for (i = 1; i < N; i++)
+      r[i] = v.rc * (1.0 + 0.05 * (i - 1.0) / (N - 2));
+    cr_assert_eq(bl_pw_radial(&v, E, k, N, r, P, Q, &d), BL_SUCCESS);
+    cd = cos(d);
+    sd = sin(d);
+    sg = k < 0 ? -1.0 : 1.0;
+    cr_expect(fabs(P[0] - P[1]) <= 2e-11 && fabs(Q[0] - Q[1]) <= 2e-11,
+              "kappa %d: P below rc %.15g, at rc %.15g; Q %.15g, %.15g", k,
+              P[0], P[1], Q[0], Q[1]);
+    for (i = 1; i < N; i++) {
+      double x = p * r[i];
+      double Pw = cd * rj(l, x) - sd * ry(l, x);
+      double Qw = sg * p / (E + 1.0) * (cd * rj(lb, x) - sd * ry(lb, x));
+      if (fabs(P[i] - Pw) > 1e-11 || fabs(Q[i] - Qw) > 1e-11) {
+        cr_expect(0, "kappa %d r %.10g: P %.15g free form %.15g, Q %.15g "
+                  "free form %.15g", k, r[i], P[i], Pw, Q[i], Qw);
+        break;
+      }
+    }
+  }
+}
