@@ -524,6 +524,15 @@ static void w_series (const bl_pwpot *v, double sa, double r0, int inside,
     W[k] *= v->zza;
 }
 
+/* 1/(k+1), k = 0..TAYLOR_K-1 (a multiplication instead of a division) */
+static const double inv_k1[TAYLOR_K] = {
+  1.0 / 1, 1.0 / 2, 1.0 / 3, 1.0 / 4, 1.0 / 5, 1.0 / 6,
+  1.0 / 7, 1.0 / 8, 1.0 / 9, 1.0 / 10, 1.0 / 11, 1.0 / 12,
+  1.0 / 13, 1.0 / 14, 1.0 / 15, 1.0 / 16, 1.0 / 17, 1.0 / 18,
+  1.0 / 19, 1.0 / 20, 1.0 / 21, 1.0 / 22, 1.0 / 23, 1.0 / 24,
+  1.0 / 25, 1.0 / 26, 1.0 / 27, 1.0 / 28, 1.0 / 29, 1.0 / 30
+};
+
 /*
 ** One Taylor step of the equation multiplied by r (r = r0 + s, W = r V):
 **   r0 (k+1) P_{k+1} = -(kappa + k) P_k + (E+1)(r0 Q_k + Q_{k-1}) - (W*Q)_k
@@ -543,30 +552,37 @@ static double taylor_coef (const eqn *q, double r0, int inside, double w,
                            double *cQ, double *hsc) {
   double W[TAYLOR_K + 1], A = sqrt(y[0] * y[0] + w * w * y[1] * y[1]);
   double hs = ldexp(1.0, ilogb(r0)), rho = hs / r0, sig = hmax / hs;
-  double kap = q->kappa, E = q->E, t = 1.0;
-  int k, j;
+  double kap = q->kappa, E = q->E, t = 1.0, th = 1.0, big;
+  int k, j, J = 0;
   if (q->vfree)
     for (k = 0; k <= TAYLOR_K; k++)
       W[k] = 0.0;
   else
     w_series(q->v, q->sa, r0, inside, W);
-  for (k = 1; k <= TAYLOR_K; k++) {
-    t *= hs;
+  /* J: the last W_j with W_j hmax^j above 1e-17 of the other terms'
+  ** scale, (E+1) r0 + |kappa| + k (the convolution beyond J adds nothing
+  ** for a step of at most hmax) */
+  big = 1e-17 * ((E + 1.0) * r0 + fabs(kap) + TAYLOR_K);
+  for (k = 0; k <= TAYLOR_K; k++) {
+    if (fabs(W[k]) * th > big)
+      J = k;
+    th *= hmax;
     W[k] *= t;
+    t *= hs;
   }
   cP[0] = y[0];
   cQ[0] = y[1];
   for (k = 0; k < TAYLOR_K; k++) {
     double sp = 0.0, sq = 0.0, pm = k > 0 ? cP[k - 1] : 0.0;
     double qm = k > 0 ? cQ[k - 1] : 0.0;
-    for (j = 0; j <= k; j++) {
+    for (j = 0; j <= k && j <= J; j++) {
       sp += W[j] * cQ[k - j];
       sq += W[j] * cP[k - j];
     }
-    cP[k + 1] = rho * (-(kap + k) * cP[k] + (E + 1.0) * (r0 * cQ[k] + hs * qm)
-                       - sp) / (k + 1.0);
-    cQ[k + 1] = rho * ((kap - k) * cQ[k] - (E - 1.0) * (r0 * cP[k] + hs * pm)
-                       + sq) / (k + 1.0);
+    cP[k + 1] = rho * inv_k1[k] * (-(kap + k) * cP[k]
+                                   + (E + 1.0) * (r0 * cQ[k] + hs * qm) - sp);
+    cQ[k + 1] = rho * inv_k1[k] * ((kap - k) * cQ[k]
+                                   - (E - 1.0) * (r0 * cP[k] + hs * pm) + sq);
   }
   for (k = TAYLOR_K - 1; k <= TAYLOR_K; k++) {
     double c = fmax(fabs(cP[k]), w * fabs(cQ[k]));
@@ -604,6 +620,7 @@ static int integrate (const eqn *q, double rs, double rm, const double *r,
                       int i0, int m, double *P, double *Q, double y[2]) {
   const double w = (q->E + 1.0) / sqrt((q->E - 1.0) * (q->E + 1.0));
   double t = rs, cP[TAYLOR_K + 1] = {0.0}, cQ[TAYLOR_K + 1] = {0.0};
+  double hprev = HUGE_VAL;
   long steps = 0;
   int i = i0;
   for (; i < m && r[i] <= t; i++) {   /* points at the start itself */
@@ -613,13 +630,16 @@ static int integrate (const eqn *q, double rs, double rm, const double *r,
   while (t < rm) {
     int inside = t < q->v->R;
     double t1 = inside ? q->v->R : rm, h, tn, A, hs;
-    h = taylor_coef(q, t, inside, w, y, TAYLOR_RMAX * t, cP, cQ, &hs);
+    h = taylor_coef(q, t, inside, w, y, fmin(TAYLOR_RMAX * t, 2.0 * hprev),
+                    cP, cQ, &hs);
     if (!(h > 0.0) || ++steps > STEP_MAX)
       return BL_ENOTCONV;
     tn = t + h;
     if (tn >= t1 || t1 - tn < 1e-3 * h)
       tn = t1;
     h = tn - t;   /* exact */
+    if (tn != t1)
+      hprev = h;
     for (; i < m && r[i] <= tn; i++)
       taylor_eval(cP, cQ, (r[i] - t) / hs, P + i, Q + i);
     taylor_eval(cP, cQ, h / hs, y, y + 1);
