@@ -831,3 +831,69 @@ Test(pwradial, beyond_rc) {
     }
   }
 }
+
+
+/* ==================================================================
+** Health: 300 random cases (Thomas-Fermi, Hartree-Fock, exponential
+** screening, Z = 1..98, electrons and muons, both charge signs and twice
+** the charge, point or uniform nucleus, E - 1 = 1e-3..1e3, |kappa| =
+** 1..2000, random grids reaching past rc; rc cut to at most 450 for
+** speed): every call succeeds (or, for a point nucleus with
+** |zza sum a| >= |kappa|, returns BL_EDOMAIN) with finite delta, P, Q
+** and |P| <= 10 (the free u_l peaks at about 1.1 l^(1/6) near x = l).
+*/
+static double lcg (unsigned long long *s) {
+  *s = *s * 6364136223846793005ULL + 1442695040888963407ULL;
+  return (double)(*s >> 11) / 9007199254740992.0;
+}
+
+Test(pwradial, random_health) {
+  const char *models[] = {"thomas-fermi", "hartree-fock", "exponential"};
+  unsigned long long seed = 20261204ULL;
+  enum { NMAX = 300 };
+  static double r[NMAX], P[NMAX], Q[NMAX];
+  int it;
+  for (it = 0; it < 300; it++) {
+    const bl_model *mod = bl_model_find(models[it % 3]);
+    bl_yukawa y;
+    bl_pwpot v;
+    double par[8], m, zza, Rfm, E, d, rmax, s, sa;
+    int Z = 1 + (int)(lcg(&seed) * 98), kappa, n, i, st;
+    cr_assert(mod != NULL);
+    bl_model_defaults(mod, par);
+    cr_assert_eq(mod->yukawa(Z, par, &y), BL_SUCCESS);
+    m = lcg(&seed) < 0.8 ? ME : BL_MMU_MEV;
+    zza = (lcg(&seed) < 0.5 ? -1.0 : 1.0) * Z * BL_ALPHA
+          * (lcg(&seed) < 0.2 ? 2.0 : 1.0);
+    Rfm = lcg(&seed) < 0.3 ? 0.0 : 1.2 * pow(2.5 * Z, 1.0 / 3.0);
+    cr_assert_eq(bl_pwpot_init(&v, zza, &y, m, Rfm,
+                               pow(10.0, -6.0 - 8.0 * lcg(&seed))),
+                 BL_SUCCESS);
+    v.rc = fmax(v.R, fmin(v.rc, 300.0 * (0.5 + lcg(&seed))));
+    E = 1.0 + pow(10.0, -3.0 + 6.0 * lcg(&seed));
+    kappa = (lcg(&seed) < 0.5 ? -1 : 1) * (int)pow(10.0, 3.3 * lcg(&seed));
+    n = 1 + (int)(lcg(&seed) * (NMAX - 1));
+    rmax = v.rc * (0.1 + 3.0 * lcg(&seed));
+    s = 1.0 + 3.0 * lcg(&seed);
+    for (i = 0; i < n; i++)
+      r[i] = rmax * pow((i + 1.0) / n, s);
+    st = bl_pw_radial(&v, E, kappa, n, r, P, Q, &d);
+    for (sa = 0.0, i = 0; i < y.n; i++)
+      sa += y.alpha[i];
+    if (v.R == 0.0 && fabs(zza * sa) >= abs(kappa)) {
+      cr_expect_eq(st, BL_EDOMAIN, "case %d", it);
+      continue;
+    }
+    cr_expect_eq(st, BL_SUCCESS, "case %d: %s Z %d m %g zza %g R %g rc %g "
+                 "E %g kappa %d n %d", it, models[it % 3], Z, m, zza, v.R,
+                 v.rc, E, kappa, n);
+    if (st != BL_SUCCESS)
+      continue;
+    cr_expect(isfinite(d), "case %d: delta %g", it, d);
+    for (i = 0; i < n; i++)
+      if (!(isfinite(P[i]) && isfinite(Q[i]) && fabs(P[i]) <= 10.0)) {
+        cr_expect(0, "case %d r %g: P %g Q %g", it, r[i], P[i], Q[i]);
+        break;
+      }
+  }
+}
