@@ -632,12 +632,15 @@ error-compare: $(B)/error_sweep
 
 # The positron/electron radiative-loss ratio of method "distorted" against
 # Kim et al. 1986 (scripts/dw-positron-ratio.c; about 20 s).  Not in check.
+# DW_POSITRON_ARGS="-p 0.1" adds the exact partial waves up to 100 keV
+# (about 10 minutes on one core); "-p 1 -Z 79" Au up to 1 MeV.
 $(B)/dw-positron-ratio: scripts/dw-positron-ratio.c $(LIB) $(B)/ref/kim1986.o
 	$(CC) -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L -Iinclude \
 	  -Isrc/core -Itests/ref -I/usr/include/xraylib -o $@ $< \
 	  $(B)/ref/kim1986.o $(LIB) $(LIBS)
+DW_POSITRON_ARGS ?=
 dw-positron: $(B)/dw-positron-ratio
-	./$(B)/dw-positron-ratio
+	./$(B)/dw-positron-ratio $(DW_POSITRON_ARGS)
 
 # Steps of dsigma/dk along T, method auto against distorted, and the
 # e-/e+ radiative energy loss in C, Cu, W, Pb, U rising with T (scripts/continuity.c;
