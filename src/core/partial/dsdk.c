@@ -583,7 +583,7 @@ static double pair (ctx *c, const wave *wi, const wave *wf) {
     c->qp[i] = wf->Q[i] * wi->P[i] * c->g.w[i];
   }
   for (J = Jlo; J <= Jhi; J++) {
-    double m, e, a, b, t[3];
+    double m, e, a, b, t[3] = {0.0, 0.0, 0.0};   /* all three set below */
     int L;
     for (L = (have < J - 1 ? J - 1 : have + 1); L <= J + 1; L++) {
       ipq[L] = radint(c, c->pq, st, wf->l, wf->aP, wi->lb, wi->aQ, L);
