@@ -604,6 +604,15 @@ error-sweep: $(B)/error_sweep
 bench-erow: all
 	sh scripts/bench_erow.sh
 
+# CPU time of the radial Dirac functions per kappa (partial/radial.c): Au,
+# 2e4 points up to rc, E = 1.02, 3, 40 and a muon at E = 3 (about 10 s).
+# Not part of bench.
+.PHONY: bench-pwradial
+$(B)/bench_pwradial: scripts/bench_pwradial.c $(LIB)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $< $(LIB) $(LIBS)
+bench-pwradial: $(B)/bench_pwradial
+	./$(B)/bench_pwradial
+
 # Calls at equal true error against BENCH_BASE (issue 14, item 2): both
 # trees over the reference set on one ladder of rtols, then error_sweep
 # compare (BASE built in its worktree as make bench does; about 3 min on

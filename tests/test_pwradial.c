@@ -417,6 +417,10 @@ Test(pwradial, independent_yukawa) {
   against_reference(&v, "Yukawa c=1 zza<0 point");
   yuk_pot(&v, ZAU, 1.0, 1e-12);
   against_reference(&v, "Yukawa c=1 zza>0 point");
+  /* strong field: gamma(kappa = +-1) = 0.31, the start's admixture
+  ** decays only like r^-0.62 */
+  yuk_pot(&v, -0.95, 1.0, 1e-12);
+  against_reference(&v, "Yukawa c=1 zza=-0.95 point");
 }
 
 
@@ -646,7 +650,8 @@ Test(pwradial, bad_input) {
 
 /* ==================================================================
 ** The cut radius: tail(rc) = tol exactly (its rule, radial.c), rc >= R,
-** and rc scales like 1/m for a muon (c_i = b_i/m).
+** rc scales like m for a muon (c_i = b_i/m), and the phase from beyond
+** rc stays within the rule's bound.
 */
 Test(pwradial, cut_radius) {
   bl_pwpot v, vm;
@@ -666,6 +671,33 @@ Test(pwradial, cut_radius) {
     t = vm.rc / v.rc;
     EXPECT_REL(t, BL_MMU_MEV / ME, 1e-9, "muon rc / electron rc");
     EXPECT_REL(vm.R, 7.0 * BL_MMU_MEV / BL_HBARC_MEVFM, 1e-14, "muon R");
+  }
+  /* the bound the rule promises (radial.c, bl_pwpot_init): the phase the
+  ** potential beyond rc adds is at most (2E/p) tol; tol = 1e-7 against
+  ** 1e-14, Au, both signs */
+  {
+    const double Es[] = {1.02, 3.0, 20.0};
+    const int ks[] = {-1, 1, -5, 20};
+    double r = 1.0, P, Q, worst = 0.0;
+    size_t ie, ik;
+    int iz;
+    for (iz = -1; iz <= 1; iz += 2)
+      for (ie = 0; ie < 3; ie++)
+        for (ik = 0; ik < 4; ik++) {
+          bl_pwpot v1, v2;
+          double E = Es[ie], p = sqrt(E * E - 1.0), d1, d2, b;
+          au_pot(&v1, iz * ZAU, 7.0, 1e-7);
+          au_pot(&v2, iz * ZAU, 7.0, 1e-14);
+          cr_assert_eq(bl_pw_radial(&v1, E, ks[ik], 1, &r, &P, &Q, &d1), 0);
+          cr_assert_eq(bl_pw_radial(&v2, E, ks[ik], 1, &r, &P, &Q, &d2), 0);
+          b = 2.0 * E / p * 1e-7;
+          cr_expect(fabs(dphase(d1, d2)) <= b, "zza %g E %g kappa %d: phase "
+                    "beyond rc %.3e > bound %.3e", iz * ZAU, E, ks[ik],
+                    fabs(dphase(d1, d2)), b);
+          worst = fmax(worst, fabs(dphase(d1, d2)) / b);
+        }
+    cr_log_info("phase beyond rc(tol = 1e-7): at most %.3f of (2E/p) tol",
+                worst);
   }
 }
 
@@ -697,6 +729,21 @@ Test(pwradial, near_origin) {
                k);
     EXPECT_REL(P[1] / P[0], pow(2.0, g), 1e-4, "point nucleus kappa %d: "
                "P(2e-6)/P(1e-6) = 2^gamma", k);
+    /* the first correction: V = Z'/r + V1 + O(r), V1 = -zza c here; at
+    ** order r^gamma (g+1+kappa) a1 + Z' b1 = (E+1-V1) b0 and
+    ** -Z' a1 + (g+1-kappa) b1 = -(E-1-V1) a0 (substituted into the
+    ** equation of internal.h); at r = 1e-4 within 1e-6 (next order
+    ** (r K)^2 ~ 2e-7) */
+    {
+      double a0 = k < 0 ? 1.0 : -z / (g + k), b0 = k < 0 ? z / (g - k) : 1.0;
+      double V1 = -z * 0.1, D = 2.0 * g + 1.0, rr = 1e-4, a1, b1, Pr, Qr;
+      a1 = ((E + 1.0 - V1) * b0 * (g + 1.0 - k) + z * (E - 1.0 - V1) * a0) / D;
+      b1 = (-(g + 1.0 + k) * (E - 1.0 - V1) * a0 + z * (E + 1.0 - V1) * b0) / D;
+      cr_assert_eq(bl_pw_radial(&v, E, k, 1, &rr, &Pr, &Qr, &d), BL_SUCCESS);
+      EXPECT_REL(Qr / Pr, (b0 + b1 * rr) / (a0 + a1 * rr), 1e-6,
+                 "point nucleus kappa %d: Q/P at r = 1e-4 with the first "
+                 "correction", k);
+    }
   }
   for (ik = 0; ik < sizeof ks / sizeof ks[0]; ik++) {
     bl_pwpot v;
@@ -739,5 +786,114 @@ Test(pwradial, high_energy_symmetry) {
     cr_assert_eq(bl_pw_radial(&v, 1e4, -k, 3, r, P, Q, &d2), BL_SUCCESS);
     cr_expect(fabs(dphase(d1, d2)) <= 1e-6, "E 1e4 kappa +-%d: delta %.12f "
               "%.12f", k, d1, d2);
+  }
+}
+
+
+/* ==================================================================
+** Beyond rc the solution is the free form of internal.h with the
+** returned delta: P = cos d u_l - sin d w_l, Q = s p/(E+1) (cos d u_lbar
+** - sin d w_lbar), here with GSL's Bessel functions.  radial.c fills
+** those points either by its Riccati-Bessel recurrences or, when
+** cheaper, by integrating the free equation on (kappa = -200, 500 with
+** 400 points over 5 % of rc): both to 1e-11 absolute, plus a jump test
+** (a point 1e-15 rc below rc against the one at rc: within 2e-11).
+*/
+Test(pwradial, beyond_rc) {
+  const int ks[] = {-1, 3, -200, 500};
+  size_t ik;
+  enum { N = 401 };
+  static double r[N], P[N], Q[N];
+  for (ik = 0; ik < sizeof ks / sizeof ks[0]; ik++) {
+    bl_pwpot v;
+    double E = 3.0, p = sqrt(E * E - 1.0), d, cd, sd, sg;
+    int k = ks[ik], l = lof(k), lb = lbarof(k), i;
+    au_pot(&v, -ZAU, 7.0, 1e-12);
+    r[0] = v.rc * (1.0 - 1e-15);    /* p (rc - r[0]) ~ 6e-12 */
+    for (i = 1; i < N; i++)
+      r[i] = v.rc * (1.0 + 0.05 * (i - 1.0) / (N - 2));
+    cr_assert_eq(bl_pw_radial(&v, E, k, N, r, P, Q, &d), BL_SUCCESS);
+    cd = cos(d);
+    sd = sin(d);
+    sg = k < 0 ? -1.0 : 1.0;
+    cr_expect(fabs(P[0] - P[1]) <= 2e-11 && fabs(Q[0] - Q[1]) <= 2e-11,
+              "kappa %d: P below rc %.15g, at rc %.15g; Q %.15g, %.15g", k,
+              P[0], P[1], Q[0], Q[1]);
+    for (i = 1; i < N; i++) {
+      double x = p * r[i];
+      double Pw = cd * rj(l, x) - sd * ry(l, x);
+      double Qw = sg * p / (E + 1.0) * (cd * rj(lb, x) - sd * ry(lb, x));
+      if (fabs(P[i] - Pw) > 1e-11 || fabs(Q[i] - Qw) > 1e-11) {
+        cr_expect(0, "kappa %d r %.10g: P %.15g free form %.15g, Q %.15g "
+                  "free form %.15g", k, r[i], P[i], Pw, Q[i], Qw);
+        break;
+      }
+    }
+  }
+}
+
+
+/* ==================================================================
+** Health: 300 random cases (Thomas-Fermi, Hartree-Fock, exponential
+** screening, Z = 1..98, electrons and muons, both charge signs and twice
+** the charge, point or uniform nucleus, E - 1 = 1e-3..1e3, |kappa| =
+** 1..2000, random grids reaching past rc; rc cut to at most 450 for
+** speed): every call succeeds (or, for a point nucleus with
+** |zza sum a| >= |kappa|, returns BL_EDOMAIN) with finite delta, P, Q
+** and |P| <= 10 (the free u_l peaks at about 1.1 l^(1/6) near x = l).
+*/
+static double lcg (unsigned long long *s) {
+  *s = *s * 6364136223846793005ULL + 1442695040888963407ULL;
+  return (double)(*s >> 11) / 9007199254740992.0;
+}
+
+Test(pwradial, random_health) {
+  const char *models[] = {"thomas-fermi", "hartree-fock", "exponential"};
+  unsigned long long seed = 20261204ULL;
+  enum { NMAX = 300 };
+  static double r[NMAX], P[NMAX], Q[NMAX];
+  int it;
+  for (it = 0; it < 300; it++) {
+    const bl_model *mod = bl_model_find(models[it % 3]);
+    bl_yukawa y;
+    bl_pwpot v;
+    double par[8], m, zza, Rfm, E, d, rmax, s, sa;
+    int Z = 1 + (int)(lcg(&seed) * 98), kappa, n, i, st;
+    cr_assert(mod != NULL);
+    bl_model_defaults(mod, par);
+    cr_assert_eq(mod->yukawa(Z, par, &y), BL_SUCCESS);
+    m = lcg(&seed) < 0.8 ? ME : BL_MMU_MEV;
+    zza = (lcg(&seed) < 0.5 ? -1.0 : 1.0) * Z * BL_ALPHA
+          * (lcg(&seed) < 0.2 ? 2.0 : 1.0);
+    Rfm = lcg(&seed) < 0.3 ? 0.0 : 1.2 * pow(2.5 * Z, 1.0 / 3.0);
+    cr_assert_eq(bl_pwpot_init(&v, zza, &y, m, Rfm,
+                               pow(10.0, -6.0 - 8.0 * lcg(&seed))),
+                 BL_SUCCESS);
+    v.rc = fmax(v.R, fmin(v.rc, 300.0 * (0.5 + lcg(&seed))));
+    E = 1.0 + pow(10.0, -3.0 + 6.0 * lcg(&seed));
+    kappa = (lcg(&seed) < 0.5 ? -1 : 1) * (int)pow(10.0, 3.3 * lcg(&seed));
+    n = 1 + (int)(lcg(&seed) * (NMAX - 1));
+    rmax = v.rc * (0.1 + 3.0 * lcg(&seed));
+    s = 1.0 + 3.0 * lcg(&seed);
+    for (i = 0; i < n; i++)
+      r[i] = rmax * pow((i + 1.0) / n, s);
+    st = bl_pw_radial(&v, E, kappa, n, r, P, Q, &d);
+    for (sa = 0.0, i = 0; i < y.n; i++)
+      sa += y.alpha[i];
+    if (v.R == 0.0 && fabs(zza * sa) >= abs(kappa)) {
+      cr_expect_eq(st, BL_EDOMAIN, "case %d", it);
+      continue;
+    }
+    cr_expect_eq(st, BL_SUCCESS, "case %d: %s Z %d m %g zza %g R %g rc %g "
+                 "E %g kappa %d n %d", it, models[it % 3], Z, m, zza, v.R,
+                 v.rc, E, kappa, n);
+    if (st != BL_SUCCESS)
+      continue;
+    cr_expect(isfinite(d), "case %d: delta %g", it, d);
+    for (i = 0; i < n; i++)
+      if (!(isfinite(P[i]) && isfinite(Q[i]) && fabs(P[i]) <= 10.0)) {
+        cr_expect(0, "case %d r %g: P %g Q %g", it, r[i], P[i], Q[i]);
+        break;
+      }
   }
 }

@@ -26,16 +26,17 @@
 **
 ** The start (derivation in DEVELOPERS.md, "Partial waves: radial
 ** functions"):
-**  - point nucleus: the Frobenius leading term P, Q ~ r^gamma (a0, b0),
-**    gamma = sqrt(kappa^2 - Z'^2), Z' = zza sum a_i, with
-**    b0/a0 = Z'/(gamma - kappa) = -(gamma + kappa)/Z';
+**  - point nucleus: the Frobenius series P, Q ~ r^gamma (a0 + a1 r,
+**    b0 + b1 r), gamma = sqrt(kappa^2 - Z'^2), Z' = zza sum a_i, with
+**    b0/a0 = Z'/(gamma - kappa) = -(gamma + kappa)/Z' and a1, b1 from
+**    V = Z'/r + V1 + O(r) (start_vector);
 **  - inside a uniform sphere (V regular, V(0) = V0): kappa < 0:
 **    P = r^|kappa|, Q = -(E - 1 - V0) r^(|kappa|+1)/(2|kappa| + 1);
 **    kappa > 0: Q = r^kappa, P = (E + 1 - V0) r^(kappa+1)/(2 kappa + 1),
 ** at r0 = START_KR / K, K = E + 1 + |V| scale.  The omitted higher terms
-** put an irregular admixture of relative size ~ r0 K into the start, and
-** it dies like (r0/r)^(2 gamma) (2 gamma >= 1.4 for |Z'| <= 0.7): below
-** 1e-17 by r = 1/K.  For |kappa| >= WKB_KAPPA the start moves out to the
+** put an irregular admixture of relative size ~ (r0 K)^2 (point nucleus)
+** or r0 K (sphere) into the start, and it dies like (r0/r)^(2 gamma)
+** (2 gamma >= 1.4 for |Z'| <= 0.7): below 1e-17 by r = 1/K.  For |kappa| >= WKB_KAPPA the start moves out to the
 ** radius where the WKB exponent up to the turning point (a barrier
 ** (gamma - 1)^2/r^2 against the largest local momentum the potential can
 ** give) reaches WKB_EFOLDS: the solution there is e^-60 of its
@@ -290,6 +291,7 @@ static double potential (const bl_pwpot *v, double sa, double r) {
 typedef struct eqn {
   const bl_pwpot *v;
   double E, sa, kappa;
+  int vfree;             /* 1: V = 0 (the free equation, beyond rc) */
 } eqn;
 
 /* ------------------------------------------------------------------ */
@@ -443,14 +445,26 @@ static void start_vector (const bl_pwpot *v, double E, int kappa, double sa,
       *eQ = k;
     }
   } else {
-    double z = v->zza * sa, g = sqrt(k * k - z * z);
+    /* V = Z'/r + V1 + O(r): the leading pair and its first correction,
+    ** (g+1+kappa) a1 + Z' b1 = (E+1-V1) b0,
+    ** -Z' a1 + (g+1-kappa) b1 = -(E-1-V1) a0, determinant 2g + 1 */
+    double z = v->zza * sa, g = sqrt(k * k - z * z), V1 = 0.0, a0, b0, a1, b1;
+    int i;
+    for (i = 0; i < v->n; i++)
+      V1 -= v->zza * v->a[i] * v->c[i];
     if (kappa < 0) {
-      y[0] = 1.0;
-      y[1] = z / (g - k);
+      a0 = 1.0;
+      b0 = z / (g - k);
     } else {
-      y[0] = -z / (g + k);
-      y[1] = 1.0;
+      a0 = -z / (g + k);
+      b0 = 1.0;
     }
+    a1 = ((E + 1.0 - V1) * b0 * (g + 1.0 - k) + z * (E - 1.0 - V1) * a0)
+         / (2.0 * g + 1.0);
+    b1 = (-(g + 1.0 + k) * (E - 1.0 - V1) * a0 + z * (E + 1.0 - V1) * b0)
+         / (2.0 * g + 1.0);
+    y[0] = a0 + a1 * rs;
+    y[1] = b0 + b1 * rs;
     *eP = *eQ = g;
   }
 }
@@ -510,6 +524,15 @@ static void w_series (const bl_pwpot *v, double sa, double r0, int inside,
     W[k] *= v->zza;
 }
 
+/* 1/(k+1), k = 0..TAYLOR_K-1 (a multiplication instead of a division) */
+static const double inv_k1[TAYLOR_K] = {
+  1.0 / 1, 1.0 / 2, 1.0 / 3, 1.0 / 4, 1.0 / 5, 1.0 / 6,
+  1.0 / 7, 1.0 / 8, 1.0 / 9, 1.0 / 10, 1.0 / 11, 1.0 / 12,
+  1.0 / 13, 1.0 / 14, 1.0 / 15, 1.0 / 16, 1.0 / 17, 1.0 / 18,
+  1.0 / 19, 1.0 / 20, 1.0 / 21, 1.0 / 22, 1.0 / 23, 1.0 / 24,
+  1.0 / 25, 1.0 / 26, 1.0 / 27, 1.0 / 28, 1.0 / 29, 1.0 / 30
+};
+
 /*
 ** One Taylor step of the equation multiplied by r (r = r0 + s, W = r V):
 **   r0 (k+1) P_{k+1} = -(kappa + k) P_k + (E+1)(r0 Q_k + Q_{k-1}) - (W*Q)_k
@@ -529,26 +552,37 @@ static double taylor_coef (const eqn *q, double r0, int inside, double w,
                            double *cQ, double *hsc) {
   double W[TAYLOR_K + 1], A = sqrt(y[0] * y[0] + w * w * y[1] * y[1]);
   double hs = ldexp(1.0, ilogb(r0)), rho = hs / r0, sig = hmax / hs;
-  double kap = q->kappa, E = q->E, t = 1.0;
-  int k, j;
-  w_series(q->v, q->sa, r0, inside, W);
-  for (k = 1; k <= TAYLOR_K; k++) {
-    t *= hs;
+  double kap = q->kappa, E = q->E, t = 1.0, th = 1.0, big;
+  int k, j, J = 0;
+  if (q->vfree)
+    for (k = 0; k <= TAYLOR_K; k++)
+      W[k] = 0.0;
+  else
+    w_series(q->v, q->sa, r0, inside, W);
+  /* J: the last W_j with W_j hmax^j above 1e-17 of the other terms'
+  ** scale, (E+1) r0 + |kappa| + k (the convolution beyond J adds nothing
+  ** for a step of at most hmax) */
+  big = 1e-17 * ((E + 1.0) * r0 + fabs(kap) + TAYLOR_K);
+  for (k = 0; k <= TAYLOR_K; k++) {
+    if (fabs(W[k]) * th > big)
+      J = k;
+    th *= hmax;
     W[k] *= t;
+    t *= hs;
   }
   cP[0] = y[0];
   cQ[0] = y[1];
   for (k = 0; k < TAYLOR_K; k++) {
     double sp = 0.0, sq = 0.0, pm = k > 0 ? cP[k - 1] : 0.0;
     double qm = k > 0 ? cQ[k - 1] : 0.0;
-    for (j = 0; j <= k; j++) {
+    for (j = 0; j <= k && j <= J; j++) {
       sp += W[j] * cQ[k - j];
       sq += W[j] * cP[k - j];
     }
-    cP[k + 1] = rho * (-(kap + k) * cP[k] + (E + 1.0) * (r0 * cQ[k] + hs * qm)
-                       - sp) / (k + 1.0);
-    cQ[k + 1] = rho * ((kap - k) * cQ[k] - (E - 1.0) * (r0 * cP[k] + hs * pm)
-                       + sq) / (k + 1.0);
+    cP[k + 1] = rho * inv_k1[k] * (-(kap + k) * cP[k]
+                                   + (E + 1.0) * (r0 * cQ[k] + hs * qm) - sp);
+    cQ[k + 1] = rho * inv_k1[k] * ((kap - k) * cQ[k]
+                                   - (E - 1.0) * (r0 * cP[k] + hs * pm) + sq);
   }
   for (k = TAYLOR_K - 1; k <= TAYLOR_K; k++) {
     double c = fmax(fabs(cP[k]), w * fabs(cQ[k]));
@@ -585,19 +619,27 @@ static void taylor_eval (const double *cP, const double *cQ, double sig,
 static int integrate (const eqn *q, double rs, double rm, const double *r,
                       int i0, int m, double *P, double *Q, double y[2]) {
   const double w = (q->E + 1.0) / sqrt((q->E - 1.0) * (q->E + 1.0));
-  double t = rs, cP[TAYLOR_K + 1], cQ[TAYLOR_K + 1];
+  double t = rs, cP[TAYLOR_K + 1] = {0.0}, cQ[TAYLOR_K + 1] = {0.0};
+  double hprev = HUGE_VAL;
   long steps = 0;
   int i = i0;
+  for (; i < m && r[i] <= t; i++) {   /* points at the start itself */
+    P[i] = y[0];
+    Q[i] = y[1];
+  }
   while (t < rm) {
     int inside = t < q->v->R;
     double t1 = inside ? q->v->R : rm, h, tn, A, hs;
-    h = taylor_coef(q, t, inside, w, y, TAYLOR_RMAX * t, cP, cQ, &hs);
+    h = taylor_coef(q, t, inside, w, y, fmin(TAYLOR_RMAX * t, 2.0 * hprev),
+                    cP, cQ, &hs);
     if (!(h > 0.0) || ++steps > STEP_MAX)
       return BL_ENOTCONV;
     tn = t + h;
     if (tn >= t1 || t1 - tn < 1e-3 * h)
       tn = t1;
     h = tn - t;   /* exact */
+    if (tn != t1)
+      hprev = h;
     for (; i < m && r[i] <= tn; i++)
       taylor_eval(cP, cQ, (r[i] - t) / hs, P + i, Q + i);
     taylor_eval(cP, cQ, h / hs, y, y + 1);
@@ -655,9 +697,13 @@ int bl_pw_radial (const bl_pwpot *v, double E, int kappa, int n,
   if (v->R > 0.0 && r0 > 1e-3 * v->R)
     r0 = 1e-3 * v->R;
   rs = abs(kappa) >= WKB_KAPPA ? wkb_start(v, E, kappa, r0) : r0;
+  /* the match at rm = max(rc, rs): a start beyond rc means that the wave
+  ** never reaches the potential, and the match there gives d ~ 0 */
+  if (rs > rm)
+    rm = rs;
   for (m = 0; m < n && r[m] < rm; m++)
     ;
-  if (rm > 0.0 && rs < rm) {
+  {
     double y0[2], ur[2], wr[2], su, sw, wq = (E + 1.0) / p;
     double phP, phQ, chP, chQ, al, be, sal, sbe, smax, nrm, sgn;
     double sg = kappa < 0 ? -1.0 : 1.0;
@@ -671,6 +717,7 @@ int bl_pw_radial (const bl_pwpot *v, double E, int kappa, int n,
     q.E = E;
     q.sa = sa;
     q.kappa = kappa;
+    q.vfree = 0;
     y[0] = y0[0];
     y[1] = y0[1];
     st = integrate(&q, rs, rm, r, i0, m, P, Q, y);
@@ -695,6 +742,18 @@ int bl_pw_radial (const bl_pwpot *v, double E, int kappa, int n,
     nrm = hypot(al, be);
     if (!(nrm > 0.0) || !isfinite(nrm))
       return BL_ENONFINITE;
+    /* the points beyond rm by the free equation's Taylor steps where that
+    ** is cheaper than free_wave's O(|kappa|) recurrences per point (cost
+    ** in flops: a step ~ 2000 for ~3 radians, a dense point ~ 120, a
+    ** recurrence order ~ 6) */
+    if (m < n && 2000.0 * p * (r[n - 1] - rm) / 3.0 + 120.0 * (n - m)
+                 < (6.0 * abs(kappa) + 100.0) * (n - m)) {
+      q.vfree = 1;
+      st = integrate(&q, rm, r[n - 1], r, m, n, P, Q, y);
+      if (st != BL_SUCCESS)
+        return st;
+      m = n;
+    }
     /* P / (sgn N), N = nrm e^smax in the units of the stored values */
     scale_all(P, Q, m, -smax - log(nrm));
     if (sgn < 0.0)
@@ -702,8 +761,6 @@ int bl_pw_radial (const bl_pwpot *v, double E, int kappa, int n,
         P[i] = -P[i];
         Q[i] = -Q[i];
       }
-  } else {
-    m = 0;   /* no potential the wave sees: the free form everywhere */
   }
   cd = cos(d);
   sd = sin(d);
