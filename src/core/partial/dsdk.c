@@ -557,6 +557,13 @@ static double radint (const ctx *c, const double *ab, int st, int lA,
   return s + t;
 }
 
+/* S(kf, -ki; J, L) int P_f Q_i j_L - S(-kf, ki; J, L) int Q_f P_i j_L */
+static double mterm (const wave *wi, const wave *wf, int J, int L,
+                     const double *ipq, const double *iqp) {
+  return bl_pw_sred(wf->kappa, -wi->kappa, J, L) * ipq[L]
+         - bl_pw_sred(-wf->kappa, wi->kappa, J, L) * iqp[L];
+}
+
 /*
 ** sum over J of |M_J(kappa_f, kappa_i)|^2, both multipole types, J from
 ** max(1, |j_f - j_i|) up to min(j_f + j_i, jcap), stopped early when two
@@ -590,9 +597,9 @@ static double pair (ctx *c, const wave *wi, const wave *wf) {
       iqp[L] = radint(c, c->qp, st, wf->lb, wf->aQ, wi->l, wi->aP, L);
       have = L;
     }
-    for (L = J - 1; L <= J + 1; L++)
-      t[L - J + 1] = bl_pw_sred(wf->kappa, -wi->kappa, J, L) * ipq[L]
-                     - bl_pw_sred(-wf->kappa, wi->kappa, J, L) * iqp[L];
+    t[0] = mterm(wi, wf, J, J - 1, ipq, iqp);
+    t[1] = mterm(wi, wf, J, J, ipq, iqp);
+    t[2] = mterm(wi, wf, J, J + 1, ipq, iqp);
     a = sqrt((J + 1.0) / (2.0 * J + 1.0));
     b = sqrt(J / (2.0 * J + 1.0));
     m = t[1];                 /* magnetic: L = J */
