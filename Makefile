@@ -577,7 +577,7 @@ $(ROCKSPEC): scripts/brakelight.rockspec.in $(VERSION_H)
 	sed 's|@VERSION@|$(VERSION)|g' $< > $@
 
 # ---- benchmarks and generators ---------------------------------------------
-.PHONY: bench bench-erow hf-table nuc-table eb-table eb-table-mu eb-table-h error-sweep error-compare error-ref dw-positron continuity \
+.PHONY: bench bench-erow hf-table nuc-table eb-table eb-table-mu eb-table-h error-sweep error-compare error-ref dw-positron pw-compare continuity \
         continuity-full
 # The fixed earlier commit that make bench and make error-ref build in a git
 # worktree build/base/<commit> (the main before issue 14's integrator).
@@ -641,6 +641,17 @@ $(B)/dw-positron-ratio: scripts/dw-positron-ratio.c $(LIB) $(B)/ref/kim1986.o
 DW_POSITRON_ARGS ?=
 dw-positron: $(B)/dw-positron-ratio
 	./$(B)/dw-positron-ratio $(DW_POSITRON_ARGS)
+
+# dsigma/dk of e- and e+ by the distorted waves and Born against the exact
+# partial waves (scripts/pw-dw-compare.c): Z = 6, 13, 29, 50, 79, 92 at
+# 10 and 100 keV by default (about 1 minute); PW_COMPARE_ARGS="-T 1
+# -Z 29,79" for 1 MeV (minutes per point at small y).  Not in check.
+$(B)/pw-dw-compare: scripts/pw-dw-compare.c $(LIB)
+	$(CC) -std=c11 -O2 -Wall -Wextra -D_POSIX_C_SOURCE=200809L -Iinclude \
+	  -Isrc/core -I/usr/include/xraylib -o $@ $< $(LIB) $(LIBS)
+PW_COMPARE_ARGS ?=
+pw-compare: $(B)/pw-dw-compare
+	./$(B)/pw-dw-compare $(PW_COMPARE_ARGS)
 
 # Steps of dsigma/dk along T, method auto against distorted, and the
 # e-/e+ radiative energy loss in C, Cu, W, Pb, U rising with T (scripts/continuity.c;
