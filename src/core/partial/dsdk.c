@@ -35,6 +35,7 @@
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_integration.h>
 #include <gsl/gsl_sf_bessel.h>
+#include <gsl/gsl_sf_gamma.h>
 
 #include "partial/dsdk.h"
 
@@ -72,10 +73,14 @@ static double three0 (int a, int b, int c) {
   double ln;
   if ((g2 & 1) || c > a + b || c < abs(a - b))
     return 0.0;
-  ln = 0.5 * (lgamma(g2 - 2.0 * a + 1) + lgamma(g2 - 2.0 * b + 1)
-              + lgamma(g2 - 2.0 * c + 1) - lgamma(g2 + 2.0))
-       + lgamma(g + 1.0) - lgamma(g - a + 1.0) - lgamma(g - b + 1.0)
-       - lgamma(g - c + 1.0);
+  /* ln n! by GSL: lgamma writes the global signgam, a data race when
+  ** spectra run on threads */
+  ln = 0.5 * (gsl_sf_lnfact((unsigned)(g2 - 2 * a))
+              + gsl_sf_lnfact((unsigned)(g2 - 2 * b))
+              + gsl_sf_lnfact((unsigned)(g2 - 2 * c))
+              - gsl_sf_lnfact((unsigned)(g2 + 1)))
+       + gsl_sf_lnfact((unsigned)g) - gsl_sf_lnfact((unsigned)(g - a))
+       - gsl_sf_lnfact((unsigned)(g - b)) - gsl_sf_lnfact((unsigned)(g - c));
   return ((g & 1) ? -1.0 : 1.0) * exp(ln);
 }
 
