@@ -41,12 +41,16 @@ enum {
                                 ** whose bound electron part keeps the
                                 ** static term's angular shape
                                 ** (bl_method_eshape) */
-  BL_WARN_NINCOH    = 1u << 15  /* the nucleus's incoherent part
+  BL_WARN_NINCOH    = 1u << 15, /* the nucleus's incoherent part
                                 ** (BL_NUCLEUS_INCOHERENT) counts: the
                                 ** closure sum of point protons, an upper
                                 ** bound (no Pauli blocking) */
+  BL_WARN_EBORN     = 1u << 16  /* method "partial": the atomic-electron
+                                ** part is added as the Born room gives
+                                ** it (bl_partial_epart_e), not by
+                                ** partial waves */
 };
-#define BL_WARN_COUNT 16
+#define BL_WARN_COUNT 17
 
 /* The share of the value above which a model uncertainty (sys) is
 ** warned about. */
