@@ -162,6 +162,8 @@ void lbl_addtarget (Opts *o, Warnings *w, const bl_tresult *tr) {
     w->minsup = tr->supp;
   if (tr->eshare > w->eshare)
     w->eshare = tr->eshare;
+  if (tr->eborn > w->eborn)
+    w->eborn = tr->eborn;
   o->used |= tr->used;
   o->Z = tr->Z;
 }
@@ -560,6 +562,19 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                o->T, o->T / p->mass, BL_EBH_M_MIN, BL_EBH_M_MAX,
                BL_EBH_TAU_MIN);
       break;
+    case BL_WARN_EBORN: {
+      char size[160] = "its share of the values was not measured (an "
+                       "integral over k; dsdk and spectrum give it)";
+      if (w->eborn > 0.0)
+        snprintf(size, sizeof size, "it carries up to %.3g %% of the "
+                 "values", 100.0 * w->eborn);
+      snprintf(msg, sizeof msg, "%s: Born with the electrons minus Born "
+               "without them at the same k, as the distorted waves add it; "
+               "%s (%s on %s, T = %g MeV); electrons = false leaves the "
+               "exact nuclear and screened part alone (README, Methods)",
+               text, size, p->name, o->target.name, o->T);
+      break;
+    }
     default:
       snprintf(msg, sizeof msg, "%s (warning bit 0x%x)", text, bit);
       break;
