@@ -36,6 +36,14 @@ enum {
 #define BL_PARTIAL_RTOL_MIN  1e-6
 #define BL_PARTIAL_RTOL_MAX  0.1
 
+/* Below k = BL_PARTIAL_SOFT_Y T method "partial" gives the Born value of
+** the elastic part times its partial-wave/Born ratio at that k (the cost
+** of the partial waves grows like T/k and their memory with it; by Low's
+** theorem the ratio tends to a constant as k -> 0), the ratio's change
+** from BL_PARTIAL_SOFT_Y2 T in sys, BL_WARN_PWSOFT. */
+#define BL_PARTIAL_SOFT_Y    0.02
+#define BL_PARTIAL_SOFT_Y2   0.05
+
 /* Below k = BL_DW_SOFT_Y T the distorted-wave method gives the Born value
 ** times its distorted/Born ratio at BL_DW_SOFT_Y T (the soft terms of the
 ** amplitudes cancel beyond double precision there; BL_WARN_SOFT). */
