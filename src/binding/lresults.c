@@ -575,6 +575,15 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                text, size, p->name, o->target.name, o->T);
       break;
     }
+    case BL_WARN_PWSOFT:
+      snprintf(msg, sizeof msg, "%s (up to k = %g MeV; %s on %s, T = %g "
+               "MeV): the partial waves' cost grows like T/k; the ratio "
+               "tends to a constant as k -> 0 (Low's theorem), and its "
+               "change from k = %g T, continued in ln k, is in sys (largest "
+               "share %.2g %% at %s) (README, Methods)", text,
+               kbit(w, BL_WARN_PWSOFT), p->name, o->target.name, o->T,
+               BL_PARTIAL_SOFT_Y2, 100.0 * w->sysrel, w->sysat);
+      break;
     default:
       snprintf(msg, sizeof msg, "%s (warning bit 0x%x)", text, bit);
       break;
