@@ -189,7 +189,9 @@ int bl_partial_check (const bl_particle *p, int Z, double T,
 ** the exact partial-wave value in the case's field (screening's Yukawa
 ** form, nucleus point or uniform: the elastic part (Z F_N - F)^2 to all
 ** orders in z Z alpha), plus, with the atomic electrons on, their part
-** as the Born room has it (bl_partial_epart_e; BL_WARN_EBORN).  h: the
+** as the Born room has it (bl_partial_epart_e; BL_WARN_EBORN); below
+** BL_PARTIAL_SOFT_Y T the elastic part is its Born value times the
+** partial-wave/Born ratio there (sys, BL_WARN_PWSOFT).  h: the
 ** field from bl_method_prepare, or NULL (made here, 20 us).  Relative
 ** tolerance: q's, clamped to [BL_PARTIAL_RTOL_MIN, BL_PARTIAL_RTOL_MAX].
 ** Seconds per point (0.1-0.6 s at 10 keV on Au, 8-32 s at 1 MeV).

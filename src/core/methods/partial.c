@@ -25,6 +25,10 @@
 ** static field either, and below BL_PARTIAL_T_MAX its share is small
 ** (transfers of the nucleon scale are out of reach).
 **
+** Soft photons.  Below k = BL_PARTIAL_SOFT_Y T the partial waves' cost
+** and memory grow like T/k; there the elastic part is its Born value
+** times the partial-wave/Born ratio at that k (soft() below).
+**
 ** No Elwert factor and no Coulomb correction: the waves hold the whole
 ** Coulomb field.  The switches of the case (opts.elwert, opts.coulomb)
 ** are ignored, as by the distorted waves.
@@ -41,8 +45,9 @@
 
 /* The cut of the field, relative to |zza| (the choice of
 ** tests/test_pwdsdk.c).  Measured, e-/e+ on C and Cu at 10 keV, y = 0.5,
-** rtol 1e-4: 1e-6 moves the value by up to 3e-9 relative, 1e-12 by below
-** 1e-12, at 10-25 % more time than 1e-6 (the waves are followed to rc). */
+** rtol 1e-4: 1e-6 moves the value by up to 3e-8 relative, 1e-12 by below
+** 1e-10 (print precision), at 10-25 % more time than 1e-6 (the waves are
+** followed to rc). */
 #define PW_CUT 1e-9
 
 /* The electron part's Born integrals are asked this much tighter than the
@@ -165,6 +170,8 @@ int bl_partial_epart_e (const bl_case *c, double k, bl_quad *q,
   if (out == NULL)
     return BL_EDOMAIN;
   bl_method_clear(out, BL_METHOD_BORN);
+  bl_method_clear(&ra, BL_METHOD_BORN);
+  bl_method_clear(&rn, BL_METHOD_BORN);
   if (c == NULL || q == NULL)
     return BL_EDOMAIN;
   if (!c->opts.electrons || !(bl_case_eratio(c, k) > 0.0))
@@ -219,8 +226,11 @@ static int soft (const bl_case *c, const bl_case *cn, const bl_pwpot *v,
                  double *sys) {
   bl_result bk, bs, b2;
   double ks = BL_PARTIAL_SOFT_Y * c->T, k2 = BL_PARTIAL_SOFT_Y2 * c->T;
-  double vs, es, v2, e2, rs, r2;
+  double vs = 0.0, es = 0.0, v2 = 0.0, e2 = 0.0, rs, r2;
   int st, s2;
+  bl_method_clear(&bk, BL_METHOD_BORN);
+  bl_method_clear(&bs, BL_METHOD_BORN);
+  bl_method_clear(&b2, BL_METHOD_BORN);
   st = bl_pw_dsdk(v, c->particle.mass, c->particle.charge, c->T, ks, rtol,
                   &vs, &es);
   if (st != BL_SUCCESS && !bl_status_soft(st))
@@ -234,8 +244,9 @@ static int soft (const bl_case *c, const bl_case *cn, const bl_pwpot *v,
     st = worse(st, bornel(cn, k2, q, &b2));
   if (st == BL_SUCCESS || bl_status_soft(st))
     st = worse(st, bornel(cn, k, q, &bk));
-  if (st != BL_SUCCESS && !bl_status_soft(st))
-    return st;
+  if ((st != BL_SUCCESS && !bl_status_soft(st)) || !(bs.val > 0.0)
+      || !(b2.val > 0.0))
+    return st != BL_SUCCESS && !bl_status_soft(st) ? st : BL_ENONFINITE;
   rs = vs / bs.val;
   r2 = v2 / b2.val;
   *val = rs * bk.val;
