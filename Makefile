@@ -203,7 +203,7 @@ lua-hosts: $(HOST_MODULES)
 # for all hosts (BL_RECIPES_RUNNER_DIR).
 LUA_HOST_FULL      ?= lua5.1
 LUA_HOST_LEAVE_OUT ?= test_recipes.lua test_demo.lua test_physics.lua \
-                      test_integrated.lua test_c_api.lua
+                      test_integrated.lua test_c_api.lua test_partial.lua
 .PHONY: test-lua-hosts-full
 test-lua-hosts: $(HOST_MODULES) $(MODULE) $(RUNNER) $(B)/target_values
 	@rm -rf $(B)/hosts-recipes; s=0; for h in $(LUA_HOSTS); do \

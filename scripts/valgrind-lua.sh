@@ -13,7 +13,8 @@
 # (scans with -j, shards) are not traced; the same code runs traced in the
 # parent.  The files whose time goes to the physics (distorted waves of
 # the default, long integrals, the sampler's histograms, the README's and
-# the recipes' examples) are left out here (BL_TEST_SKIP): under memcheck
+# the recipes' examples, the partial waves of test_partial.lua) are left
+# out here (BL_TEST_SKIP): under memcheck
 # they took minutes each, their C code runs under AddressSanitizer in the
 # C suites and all of them under make test-lua-asan.  So is test_hosts.lua
 # (a scan here and in the runner, compared byte for byte: the same binding
@@ -37,7 +38,7 @@ origins=
 BL_TEST_LIGHT=1 \
 BL_TEST_SKIP="test_integrated.lua test_physics.lua test_readme.lua \
 test_recipes.lua test_sampler.lua test_demo.lua test_c_api.lua \
-test_hosts.lua" \
+test_hosts.lua test_partial.lua" \
 BL_TEST_WRAP="valgrind -q --error-exitcode=99 --leak-check=full \
 --show-leak-kinds=definite,indirect --errors-for-leak-kinds=definite,indirect \
 $origins ${supp[*]}" exec bash scripts/run-lua-tests.sh

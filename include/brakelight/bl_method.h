@@ -20,9 +20,29 @@ enum {
   BL_METHOD_HIGH_ENERGY = 1,   /* screening functions, small angles */
   BL_METHOD_COMPLETE    = 2,   /* Tsai's complete-screening formula */
   BL_METHOD_AUTO        = 3,   /* distorted or high-energy, per point */
-  BL_METHOD_DISTORTED   = 4    /* Sommerfeld-Maue distorted waves */
+  BL_METHOD_DISTORTED   = 4,   /* Sommerfeld-Maue distorted waves */
+  BL_METHOD_PARTIAL     = 5    /* exact partial waves (dsigma/dk of spin-1/2
+                               ** projectiles of the electron mass) */
 };
-#define BL_METHOD_COUNT 5
+#define BL_METHOD_COUNT 6
+
+/* Where method "partial" holds (bl_partial_check): spin 1/2, a mass within
+** BL_PARTIAL_MASS_TOL MeV of BL_ME_MEV (any charge), 0 < T <=
+** BL_PARTIAL_T_MAX MeV, nucleus point or uniform.  Its relative tolerance
+** is the workspace's, clamped to [BL_PARTIAL_RTOL_MIN, BL_PARTIAL_RTOL_MAX]
+** (the range of the partial-wave sums). */
+#define BL_PARTIAL_T_MAX     3.0
+#define BL_PARTIAL_MASS_TOL  1e-6
+#define BL_PARTIAL_RTOL_MIN  1e-6
+#define BL_PARTIAL_RTOL_MAX  0.1
+
+/* Below k = BL_PARTIAL_SOFT_Y T method "partial" gives the Born value of
+** the elastic part times its partial-wave/Born ratio at that k (the cost
+** of the partial waves grows like T/k and their memory with it; by Low's
+** theorem the ratio tends to a constant as k -> 0), the ratio's change
+** from BL_PARTIAL_SOFT_Y2 T in sys, BL_WARN_PWSOFT. */
+#define BL_PARTIAL_SOFT_Y    0.02
+#define BL_PARTIAL_SOFT_Y2   0.05
 
 /* Below k = BL_DW_SOFT_Y T the distorted-wave method gives the Born value
 ** times its distorted/Born ratio at BL_DW_SOFT_Y T (the soft terms of the
@@ -67,6 +87,9 @@ typedef struct bl_hetab bl_hetab;
 ** projectile mass times the nuclear radius, per spin (a constant table in
 ** the library, src/core/methods/nuc_table.c).  Opaque. */
 
+/* Room in a bl_he for the field of method "partial", in doubles. */
+#define BL_PW_FIELD_SIZE 40
+
 /* Most unreferenced screening tables the cache keeps for reuse; beyond,
 ** the one released longest ago is freed (about 8 KB each). */
 #define BL_METHOD_CACHE_IDLE 64
@@ -95,6 +118,11 @@ typedef struct bl_he {
   double nucw[4];
   double maxerr;              /* worst interpolation error of the tables
                               ** (absolute, in units of phi) */
+  int pwready;                /* method "partial": pw holds the case's
+                              ** field (bl_method_prepare) */
+  double pw[BL_PW_FIELD_SIZE];  /* that field, opaque (its layout is the
+                              ** partial-wave room's, src/core/methods/
+                              ** partial.c) */
 } bl_he;
 
 /*
@@ -127,8 +155,10 @@ size_t bl_method_cache_count (void);
 /*
 ** Prepare *h for `method` on case c: bl_he_prepare for high-energy, and
 ** for auto where some photon energy can take it (gamma0 >= the switch);
-** otherwise h is cleared (h->ready = 0) at no cost.  Status as
-** bl_he_prepare; release h with bl_he_release.
+** for partial the case's field (h->pwready = 1; microseconds, left
+** unset where bl_partial_check refuses the case, whose points then
+** return BL_EDOMAIN); otherwise h is cleared (h->ready = 0) at no cost.
+** Status as bl_he_prepare; release h with bl_he_release.
 */
 int bl_method_prepare (const bl_case *c, int method, bl_quad *q, bl_he *h);
 
@@ -142,6 +172,48 @@ int bl_he_dk_e (const bl_case *c, const bl_he *h, double k,
 ** eq. 3.83), spin 0 through 1 + v^2 -> 2 v.  exceptions: BL_EDOMAIN */
 int bl_complete_dk_e (const bl_case *c, double k, bl_result *out);
 
+/*
+** Method "partial": 0 if it takes projectile p on Z at kinetic energy T
+** (MeV) with target options o (NULL: bl_opts_bare), else BL_EDOMAIN with
+** a message naming the parameter, its value and the allowed range in
+** msg[0..size-1] (msg may be NULL): spin 1/2 and a mass within
+** BL_PARTIAL_MASS_TOL MeV of BL_ME_MEV, 0 < T <= BL_PARTIAL_T_MAX, Z in
+** 1..100, nucleus point or uniform (the incoherent nucleus is refused),
+** and with a point nucleus |z| Z alpha < 1 (the waves kappa = -+1).
+*/
+int bl_partial_check (const bl_particle *p, int Z, double T,
+                      const bl_opts *o, char *msg, size_t size);
+
+/*
+** dsigma/dk (mb/MeV) by method "partial" (src/core/methods/partial.c):
+** the exact partial-wave value in the case's field (screening's Yukawa
+** form, nucleus point or uniform: the elastic part (Z F_N - F)^2 to all
+** orders in z Z alpha), plus, with the atomic electrons on, their part
+** as the Born room has it (bl_partial_epart_e; BL_WARN_EBORN); below
+** BL_PARTIAL_SOFT_Y T the elastic part is its Born value times the
+** partial-wave/Born ratio there (sys, BL_WARN_PWSOFT).  h: the
+** field from bl_method_prepare, or NULL (made here, 20 us).  Relative
+** tolerance: q's, clamped to [BL_PARTIAL_RTOL_MIN, BL_PARTIAL_RTOL_MAX].
+** Seconds per point (0.1-0.6 s at 10 keV on Au, 8-32 s at 1 MeV).
+** exceptions: BL_EDOMAIN (bl_partial_check, k not in (0, T), NULL c, q
+** or out), BL_ENOTCONV (sums not converged: value filled, tolerance
+** warning), BL_ENOMEM, BL_ENONFINITE, the Born integrals' codes
+*/
+int bl_partial_dk_e (const bl_case *c, const bl_he *h, double k,
+                     bl_quad *q, bl_result *out);
+
+/*
+** The atomic-electron part that method "partial" adds at photon energy
+** k: Born with the electrons minus Born without them (both without the
+** Elwert factor and the Coulomb correction, the case's nucleus), as the
+** distorted-wave method adds it; for e-/e+ the bound electron term the
+** case scales (bl_case_eratio).  0 (no integral) where the case has no
+** electrons or bl_case_eratio(c, k) is 0.  exceptions: BL_EDOMAIN and
+** the Born integrals' codes (out still filled where soft)
+*/
+int bl_partial_epart_e (const bl_case *c, double k, bl_quad *q,
+                        bl_result *out);
+
 /* 1 if the high-energy method holds at photon energy k of case c to
 ** 1e-3 (the switch of method "auto"): the final gamma is at least
 ** bl_he_gamma_min(c); 0 otherwise. */
@@ -154,8 +226,9 @@ int bl_he_valid (const bl_case *c, double k);
 double bl_he_gamma_min (const bl_case *c);
 
 /*
-** dsigma/dk by `method` (BL_METHOD_*); h may be NULL for born and
-** complete.  out->method is the method actually used.
+** dsigma/dk by `method` (BL_METHOD_*); h may be NULL for born,
+** complete, distorted and partial (which then makes its field per call).
+** out->method is the method actually used.
 ** exceptions: as the method's function
 */
 int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
@@ -165,7 +238,8 @@ int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
 ** d2sigma/(dk dOmega_k) and the fully differential cross section by
 ** `method`: the distorted-wave method's own (BL_METHOD_DISTORTED), the
 ** Born integrals for every other method (the closed forms have no
-** angles).  Arguments, units and exceptions as bl_dcs_angular_e and
+** angles) but "partial", which gives dsigma/dk only: BL_EDOMAIN (out
+** cleared).  Arguments, units and exceptions as bl_dcs_angular_e and
 ** bl_dcs_full_e.  Where bl_method_eexact(c), the angular distribution's
 ** electron part is the exact bound electron term's own distribution
 ** (bl_ebrems_angular_e times Z) added to the method's nuclear part, and

@@ -41,12 +41,19 @@ enum {
                                 ** whose bound electron part keeps the
                                 ** static term's angular shape
                                 ** (bl_method_eshape) */
-  BL_WARN_NINCOH    = 1u << 15  /* the nucleus's incoherent part
+  BL_WARN_NINCOH    = 1u << 15, /* the nucleus's incoherent part
                                 ** (BL_NUCLEUS_INCOHERENT) counts: the
                                 ** closure sum of point protons, an upper
                                 ** bound (no Pauli blocking) */
+  BL_WARN_EBORN     = 1u << 16, /* method "partial": the atomic-electron
+                                ** part is added as the Born room gives
+                                ** it (bl_partial_epart_e), not by
+                                ** partial waves */
+  BL_WARN_PWSOFT    = 1u << 17  /* method "partial" below k =
+                                ** BL_PARTIAL_SOFT_Y T: Born times the
+                                ** partial-wave/Born ratio at that k */
 };
-#define BL_WARN_COUNT 16
+#define BL_WARN_COUNT 18
 
 /* The share of the value above which a model uncertainty (sys) is
 ** warned about. */

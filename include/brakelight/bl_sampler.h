@@ -168,7 +168,8 @@ typedef struct bl_sampler bl_sampler;   /* opaque */
 ** per element, two where its bound electron part is the exact term
 ** (bl_method_eexact, unless t->estatic): the nucleus alone, and the
 ** electrons with their recoil.
-** exceptions: BL_EDOMAIN (NULL arguments, a bad window or setting),
+** exceptions: BL_EDOMAIN (NULL arguments, a bad window or setting, a
+** target of method "partial", which has no angles),
 ** BL_ENOMEM, BL_ENONFINITE (no finite non-zero value found, or a cross
 ** section that is not finite); *out is NULL on failure
 */

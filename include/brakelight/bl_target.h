@@ -87,6 +87,10 @@ typedef struct bl_tresult {
   bl_result fail;
   double eshare;   /* with BL_WARN_ESHAPE: the share of r.val that the
                    ** flagged electron parts carry; 0 otherwise */
+  double eborn;    /* with BL_WARN_EBORN (method "partial"), for dsigma/dk
+                   ** points and spectra: the share of r.val that the
+                   ** electron parts added by Born carry; 0 otherwise (and
+                   ** for integrals over k) */
 } bl_tresult;
 
 /*

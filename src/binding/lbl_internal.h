@@ -142,6 +142,9 @@ typedef struct Warnings {
   double eshare;       /* largest share of a point's value carried by an
                        ** electron part flagged BL_WARN_ESHAPE; 0: none
                        ** measured */
+  double eborn;        /* largest share of a point's value carried by
+                       ** the electron part that method "partial" adds
+                       ** as Born (BL_WARN_EBORN); 0: none measured */
   double kclamp;       /* smallest k flagged BL_WARN_CLAMPED (the largest
                        ** is kbit's) */
   int nclamp;          /* points flagged BL_WARN_CLAMPED */
@@ -166,6 +169,7 @@ const char *lbl_getstr (lua_State *L, int t, const char *fname,
 void lbl_addname (char *buf, size_t n, const char *s);
 
 /* Options (loptions.c): every value read once into C, checked, then used. */
+const char *lbl_methodnames (char *buf, size_t n);
 void lbl_readopts (lua_State *L, const char *fname,
                    const char *const keys[], int userol, Opts *o);
 double lbl_optrange (lua_State *L, const Opts *o, const char *key,

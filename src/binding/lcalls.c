@@ -395,7 +395,7 @@ int l_differential (lua_State *L) {
 
 
 /* brakelight.methods() -> {"born", "high-energy", "complete", "auto",
-** "distorted"} */
+** "distorted", "partial"} (in id order) */
 int l_methods (lua_State *L) {
   int i;
   lua_createtable(L, BL_METHOD_COUNT, 0);

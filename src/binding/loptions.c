@@ -107,20 +107,61 @@ static int optswitch (lua_State *L, const char *fname, const char *key) {
 }
 
 
+/* The method names, quoted, ", "-separated, the default marked. */
+const char *lbl_methodnames (char *buf, size_t n) {
+  int i;
+  char one[48];
+  snprintf(buf, n, "'%s' (default)", bl_method_name(METHOD_DEFAULT));
+  for (i = 0; i < BL_METHOD_COUNT; i++)
+    if (i != METHOD_DEFAULT) {
+      snprintf(one, sizeof one, "'%s'", bl_method_name(i));
+      lbl_addname(buf, n, one);
+    }
+  return buf;
+}
+
+
+/* 1 for the functions with angles: their methods are checked by
+** lbl_nocoulomb, which refuses "partial" with its own message. */
+static int hasangles (const char *fname) {
+  return strcmp(fname, "angular") == 0 || strcmp(fname, "differential") == 0
+         || strcmp(fname, "sampler") == 0;
+}
+
+
+/*
+** Method "partial": the projectile, T and nucleus it takes, for every
+** element of the target (bl_partial_check: the message names the
+** parameter, its value and the range); the functions with angles are
+** left to lbl_nocoulomb.
+*/
+static void optpartial (lua_State *L, const Opts *o) {
+  char msg[MSGSIZE];
+  int i;
+  if (hasangles(o->fname))
+    return;
+  for (i = 0; i < o->target.n; i++)
+    if (bl_partial_check(&o->particle, o->target.comp[i].Z, o->T, &o->bo,
+                         msg, sizeof msg) != BL_SUCCESS)
+      lbl_argfail(L, o->fname, "field 'method' is 'partial', but %s", msg);
+}
+
+
 /*
 ** Read options 'method' (default "auto") and 'suppression' (default
 ** "none"; needs a target with a density).  Functions that do not take
 ** them have already refused the keys.
 */
 static void optmethod (lua_State *L, Opts *o) {
-  char buf[OPTSTRLEN];
+  char buf[OPTSTRLEN], names[NAMESIZE];
   const char *s = lbl_getstr(L, 1, o->fname, "method", buf, sizeof buf);
   int st, mode;
   o->method = s == NULL ? METHOD_DEFAULT : bl_method_find(s);
   if (o->method < 0)
     lbl_argfail(L, o->fname, "unknown method '%.60s' in field 'method'; "
-                "allowed: 'auto' (default), 'born', 'high-energy', "
-                "'complete', 'distorted'", s);
+                "allowed: %s", s, lbl_methodnames(names, sizeof names));
+  if (o->method == BL_METHOD_PARTIAL)
+    optpartial(L, o);
   if (o->method == BL_METHOD_COMPLETE
       && o->screening->id == BL_MODEL_NONE)
     lbl_argfail(L, o->fname, "field 'method' is 'complete', but screening "
@@ -367,6 +408,12 @@ void lbl_nocoulomb (lua_State *L, Opts *o) {
     lbl_argfail(L, o->fname, "field 'coulomb' is true, but the Coulomb "
                 "correction is known for dsigma/dk only (spectrum, dsdk); "
                 "allowed here: false or 'auto' (not applied)");
+  if (o->method == BL_METHOD_PARTIAL)
+    lbl_argfail(L, o->fname, "field 'method' is 'partial', but partial "
+                "gives dsigma/dk, spectra and integrals over k (dsdk, "
+                "spectrum, cross_section, energy_loss, photon_yield), no "
+                "angles; allowed here: 'auto' (default), 'born' or "
+                "'distorted'");
   if (o->method != BL_METHOD_BORN && o->method != BL_METHOD_AUTO
       && o->method != BL_METHOD_DISTORTED)
     lbl_argfail(L, o->fname, "field 'method' is '%s', but angular "

@@ -162,6 +162,8 @@ void lbl_addtarget (Opts *o, Warnings *w, const bl_tresult *tr) {
     w->minsup = tr->supp;
   if (tr->eshare > w->eshare)
     w->eshare = tr->eshare;
+  if (tr->eborn > w->eborn)
+    w->eborn = tr->eborn;
   o->used |= tr->used;
   o->Z = tr->Z;
 }
@@ -559,6 +561,28 @@ static void pushwarning (lua_State *L, const Opts *o, const Warnings *w,
                "1 TeV) (README, What is computed)", text, p->name, p->mass,
                o->T, o->T / p->mass, BL_EBH_M_MIN, BL_EBH_M_MAX,
                BL_EBH_TAU_MIN);
+      break;
+    case BL_WARN_EBORN: {
+      char size[160] = "its share of the values was not measured (an "
+                       "integral over k; dsdk and spectrum give it)";
+      if (w->eborn > 0.0)
+        snprintf(size, sizeof size, "it carries up to %.3g %% of the "
+                 "values", 100.0 * w->eborn);
+      snprintf(msg, sizeof msg, "%s: Born with the electrons minus Born "
+               "without them at the same k, as the distorted waves add it; "
+               "%s (%s on %s, T = %g MeV); electrons = false leaves the "
+               "exact nuclear and screened part alone (README, Methods)",
+               text, size, p->name, o->target.name, o->T);
+      break;
+    }
+    case BL_WARN_PWSOFT:
+      snprintf(msg, sizeof msg, "%s (up to k = %g MeV; %s on %s, T = %g "
+               "MeV): the partial waves' cost grows like T/k; the ratio "
+               "tends to a constant as k -> 0 (Low's theorem), and its "
+               "change from k = %g T, continued in ln k, is in sys (largest "
+               "share %.2g %% at %s) (README, Methods)", text,
+               kbit(w, BL_WARN_PWSOFT), p->name, o->target.name, o->T,
+               BL_PARTIAL_SOFT_Y2, 100.0 * w->sysrel, w->sysat);
       break;
     default:
       snprintf(msg, sizeof msg, "%s (warning bit 0x%x)", text, bit);

@@ -138,6 +138,11 @@ static void pushnul (lua_State *L, Bytes *b) {
   lua_pushlstring(L, l->s, l->n);
 }
 
+/* The method names leave out "distorted" (fuzzed as the default "auto")
+** and "partial": a partial-wave point costs 0.05-30 s (up to T = 3 MeV,
+** minutes under the sanitizers), past the per-input timeout; its
+** refusals and points are tested in tests/test_methods.c (partial_method)
+** and tests/lua/test_partial.lua. */
 static const char *const strings[] = {
   "electron", "positron", "muon", "antimuon", "pion+", "pion-", "kaon+",
   "kaon-", "proton", "Electron", "tau",

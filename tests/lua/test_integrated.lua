@@ -347,8 +347,8 @@ end
 -- the list of methods
 do
   local m = bl.methods()
-  check(#m == 5 and m[1] == "born" and m[4] == "auto"
-        and m[5] == "distorted", "methods()")
+  check(#m == 6 and m[1] == "born" and m[4] == "auto"
+        and m[5] == "distorted" and m[6] == "partial", "methods()")
   nchecks = nchecks + 1
 end
 

@@ -69,6 +69,15 @@ const char *bl_warn_text (unsigned bit) {
       return "the nucleus's incoherent part is the closure sum of its "
              "protons as free point charges (no Pauli blocking, no "
              "excitation energy, no proton size): an upper bound";
+    case BL_WARN_EBORN:
+      return "method 'partial': exact partial waves for the nucleus and "
+             "the screened field, but the atomic electrons' own part "
+             "(their recoil, the bound electron term) is added as the "
+             "Born room gives it";
+    case BL_WARN_PWSOFT:
+      return "method 'partial' at photon energies below 0.02 T: the Born "
+             "value of the nucleus and screened field times their "
+             "partial-wave/Born ratio at k = 0.02 T";
     case BL_WARN_SOFT:
       return "distorted waves at photon energies below 1e-9 T: the Born value "
              "times the distorted/Born ratio at k = 1e-9 T";

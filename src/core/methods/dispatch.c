@@ -21,6 +21,8 @@ int bl_method_prepare (const bl_case *c, int method, bl_quad *q, bl_he *h) {
   if (method == BL_METHOD_HIGH_ENERGY
       || (method == BL_METHOD_AUTO && 1.0 + c->t0 > bl_he_gamma_min(c)))
     return bl_he_prepare(c, q, h);
+  if (method == BL_METHOD_PARTIAL)
+    return bl_partial_prepare(c, h);
   return BL_SUCCESS;
 }
 
@@ -76,6 +78,8 @@ int bl_method_dk_e (const bl_case *c, const bl_he *h, int method, double k,
       return bl_dw_dk_e(c, k, q, out);
     case BL_METHOD_DISTORTED:
       return bl_dw_dk_e(c, k, q, out);
+    case BL_METHOD_PARTIAL:
+      return bl_partial_dk_e(c, h, k, q, out);
     default:
       bl_method_clear(out, BL_METHOD_BORN);
       return BL_EDOMAIN;
@@ -113,10 +117,15 @@ int bl_method_eshape (const bl_case *c, double k) {
 
 
 /* The angular distribution by the method alone, the electron part as the
-** case has it: "auto" is the distorted waves there, every other method
-** gives Born's. */
+** case has it: "auto" is the distorted waves there, "partial" has none
+** (BL_EDOMAIN), every other method gives Born's. */
 int bl_method_angular_scaled_e (const bl_case *c, int method, double k,
                                 double theta_k, bl_quad *q, bl_result *out) {
+  if (method == BL_METHOD_PARTIAL) {   /* dsigma/dk only */
+    if (out != NULL)
+      bl_method_clear(out, method);
+    return BL_EDOMAIN;
+  }
   if (method == BL_METHOD_DISTORTED || method == BL_METHOD_AUTO)
     return bl_dw_angular_e(c, k, theta_k, q, out);
   return bl_dcs_angular_e(c, k, theta_k, q, out);
@@ -227,7 +236,7 @@ int bl_method_angular_e (const bl_case *c, int method, double k,
   bl_case cn;
   bl_result rs;
   int st, ss;
-  if (!bl_method_eexact(c) || q == NULL)
+  if (!bl_method_eexact(c) || q == NULL || method == BL_METHOD_PARTIAL)
     return bl_method_angular_scaled_e(c, method, k, theta_k, q, out);
   st = bl_method_nuclear(c, &cn);
   if (st != BL_SUCCESS)
@@ -270,6 +279,11 @@ static int dk_exact (const bl_case *c, const bl_he *h, int method, double k,
 int bl_method_full_scaled_e (const bl_case *c, int method, double k,
                              double theta_k, double theta_p, double phi,
                              bl_result *out) {
+  if (method == BL_METHOD_PARTIAL) {   /* dsigma/dk only */
+    if (out != NULL)
+      bl_method_clear(out, method);
+    return BL_EDOMAIN;
+  }
   if (method == BL_METHOD_DISTORTED || method == BL_METHOD_AUTO)
     return bl_dw_full_e(c, k, theta_k, theta_p, phi, out);
   return bl_dcs_full_e(c, k, theta_k, theta_p, phi, out);
@@ -291,7 +305,7 @@ int bl_method_full_e (const bl_case *c, int method, double k, double theta_k,
   bl_ebrems e;
   double v;
   int st, se;
-  if (c == NULL || !bl_method_eexact(c))
+  if (c == NULL || !bl_method_eexact(c) || method == BL_METHOD_PARTIAL)
     return bl_method_full_scaled_e(c, method, k, theta_k, theta_p, phi, out);
   st = bl_method_nuclear(c, &cn);
   if (st != BL_SUCCESS) {
@@ -350,7 +364,7 @@ int bl_method_breaks (const bl_case *c, const bl_he *h, int method,
 
 
 static const char *const method_names[BL_METHOD_COUNT] = {
-  "born", "high-energy", "complete", "auto", "distorted"
+  "born", "high-energy", "complete", "auto", "distorted", "partial"
 };
 
 

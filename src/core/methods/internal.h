@@ -75,6 +75,10 @@ void bl_nucsize_get (const bl_case *c, bl_he *h);
 void bl_nucsize_at (const bl_nuctab *t, double delta, double *N1,
                     double *N2);
 
+/* bl_method_prepare's part for method "partial" (partial.c): the case's
+** field into h (h->pwready) where bl_partial_check takes the case. */
+int bl_partial_prepare (const bl_case *c, bl_he *h);
+
 /* A cleared result of `method` (dispatch.c). */
 void bl_method_clear (bl_result *out, int method);
 

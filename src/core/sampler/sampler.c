@@ -377,7 +377,8 @@ int bl_sampler_new (const bl_target *t, double kmin, double kmax,
     return BL_EDOMAIN;
   *out = NULL;
   if (t == NULL || t->n < 1 || t->n > BL_MATERIAL_MAXCOMP
-      || !(kmin > 0.0 && kmin < kmax && kmax <= t->T) || !isfinite(kmax))
+      || !(kmin > 0.0 && kmin < kmax && kmax <= t->T) || !isfinite(kmax)
+      || t->method == BL_METHOD_PARTIAL)   /* dsigma/dk only: no angles */
     return BL_EDOMAIN;
   s = calloc(1, sizeof *s);
   if (s == NULL)

@@ -270,6 +270,28 @@ static void eshape (const bl_target *t, int i, int kind, double k,
 }
 
 
+/*
+** With BL_WARN_EBORN (method "partial"): the share of out's dsigma/dk at
+** k that the electron parts added as Born carry (bl_partial_epart_e, the
+** same integrals at the same tolerance as in the point: the same values),
+** into out->eborn; before the suppression, which scales both alike.
+*/
+static void eborn (const bl_target *t, double k, bl_quad *q,
+                   bl_tresult *out) {
+  double e = 0.0;
+  int i;
+  if (!(out->r.warn & BL_WARN_EBORN) || !(out->r.val > 0.0) || q == NULL)
+    return;
+  for (i = 0; i < t->n; i++) {
+    bl_result re;
+    int st = bl_partial_epart_e(&t->c[i], k, q, &re);
+    if (st == BL_SUCCESS || bl_status_soft(st))
+      e += t->atoms[i] * re.val;
+  }
+  out->eborn = fmin(fmax(e / out->r.val, 0.0), 1.0);
+}
+
+
 int bl_target_point_e (const bl_target *t, int kind, double k, double theta_k,
                        double theta_p, double phi, bl_quad *q,
                        bl_tresult *out) {
@@ -296,8 +318,10 @@ int bl_target_point_e (const bl_target *t, int kind, double k, double theta_k,
   }
   if ((out->r.warn & BL_WARN_ESHAPE) && out->r.val > 0.0)
     out->eshare = fmin(fmax(1.0 - nucsum / out->r.val, 0.0), 1.0);
-  if (kind == BL_TARGET_DK)
+  if (kind == BL_TARGET_DK) {
+    eborn(t, k, q, out);
     suppress(t, k, &out->r, out);
+  }
   return soft;
 }
 
@@ -427,8 +451,10 @@ int bl_target_spectrum_e (const bl_target *t, size_t n, const double *k,
   free(st);
   if (ret != BL_SUCCESS)
     return ret;
-  for (i = 0; i < n; i++)
+  for (i = 0; i < n; i++) {
+    eborn(t, k[i], q, &out[i]);
     suppress(t, k[i], &out[i].r, &out[i]);
+  }
   return BL_SUCCESS;
 }
 
