@@ -60,6 +60,7 @@
                          ** point) is left out of the radial sums */
 #define SKIP_NU 30       /* waves with l + 1/2 >= SKIP_NU start at r_skip */
 #define SKIP_FRAC 0.4    /* r_skip: local p r = SKIP_FRAC (l + 1/2) */
+#define NV_MAX 3         /* potentials summed at once: V, +eps V, -eps V */
 
 
 static int lof (int kappa) { return kappa > 0 ? kappa : -kappa - 1; }
@@ -470,9 +471,13 @@ typedef struct wave {
   double *P, *Q;
 } wave;
 
-/* Everything one dsigma/dk needs; owned by bl_pw_dsdk_x. */
+/* Everything one dsigma/dk needs; owned by bl_pw_dsdk_m.  The waves are
+** computed in nv potentials: vv[0] = V and, for the Born subtraction,
+** vv[1] = eps V, vv[2] = -eps V. */
 typedef struct ctx {
-  const bl_pwpot *v;
+  bl_pwpot vv[NV_MAX];
+  int nv;
+  double eps2;                /* eps^2 of the Born subtraction */
   side si, sf;
   double k;                   /* photon energy, units of m */
   grid g;
@@ -480,10 +485,11 @@ typedef struct ctx {
   int jcap, lcap, D;
   double *jl;                 /* [L][n]: j_L(k r_n), L = 0..jcap+1 */
   int jst[JCAP_MAX + 2];      /* first node with |j_L| >= J_TINY */
-  double *pq, *qp;            /* [n] scratch: P_f Q_i w, Q_f P_i w */
+  double *pq, *qp;            /* [nv][n] scratch: P_f Q_i w, Q_f P_i w */
   double eps;                 /* truncation threshold of the inner sums */
   double jerr;                /* sum of the dropped inner-sum estimates */
-  double jshell;              /* sum of |M_J|^2 at J = jcap */
+  double jshell;              /* sum of |M_J|^2 at J = jcap (of the
+                              ** differences, with the subtraction) */
   long pairs;
   int jused, dused;           /* largest J and |l_f - l_i| computed */
 } ctx;
@@ -512,10 +518,12 @@ static void wave_free (wave *w) {
   w->P = w->Q = NULL;
 }
 
-/* Fill w with the wave kappa of side s.  BL_SUCCESS, BL_ENOMEM or the
-** code of bl_pw_radial. */
-static int wave_make (const ctx *c, const side *s, int kappa, wave *w) {
+/* Fill w with the wave kappa of side s in the potential c->vv[iv].
+** BL_SUCCESS, BL_ENOMEM or the code of bl_pw_radial. */
+static int wave_make (const ctx *c, const side *s, int kappa, int iv,
+                      wave *w) {
   double rs, delta = 0.0, sg = kappa > 0 ? 1.0 : -1.0;
+  const bl_pwpot *v = &c->vv[iv];
   int st, n = c->g.n;
   w->kappa = kappa;
   w->l = lof(kappa);
@@ -528,14 +536,14 @@ static int wave_make (const ctx *c, const side *s, int kappa, wave *w) {
       return BL_ENOMEM;
     }
   }
-  rs = r_skip(s, c->v->zza, w->l, w->lb);
+  rs = r_skip(s, v->zza, w->l, w->lb);
   for (st = 0; st < n && c->g.r[st] < rs; st++) {
     w->P[st] = 0.0;
     w->Q[st] = 0.0;
   }
   w->st = st;
   if (st < n) {
-    int e = bl_pw_radial(c->v, s->E, kappa, n - st, c->g.r + st, w->P + st,
+    int e = bl_pw_radial(v, s->E, kappa, n - st, c->g.r + st, w->P + st,
                          w->Q + st, &delta);
     if (e)
       return e;
@@ -564,18 +572,28 @@ static double mterm (const wave *wi, const wave *wf, int J, int L,
          - bl_pw_sred(-wf->kappa, wi->kappa, J, L) * iqp[L];
 }
 
+/* The summed term: T(V) alone, or T(V) - [T(eps V) + T(-eps V)]/(2 eps^2). */
+static double combine (const ctx *c, const double *m) {
+  if (c->nv == 1)
+    return m[0];
+  return m[0] - (m[1] + m[2]) / (2.0 * c->eps2);
+}
+
 /*
 ** sum over J of |M_J(kappa_f, kappa_i)|^2, both multipole types, J from
-** max(1, |j_f - j_i|) up to min(j_f + j_i, jcap), stopped early when two
-** successive J add less than eps of the pair's sum (their size goes to
-** c->jerr).
+** max(1, |j_f - j_i|) up to min(j_f + j_i, jcap), for the c->nv
+** potentials at once (wi[iv], wf[iv] the waves in c->vv[iv]): returns
+** the sum of the combined terms (combine) and puts the sum of T(V) in
+** *full.  Stopped early when two successive J add less than eps of
+** *full (their size goes to c->jerr).
 */
-static double pair (ctx *c, const wave *wi, const wave *wf) {
-  int st = wi->st > wf->st ? wi->st : wf->st, n = c->g.n, i, J, Jlo, Jhi;
-  double sum = 0.0, last = 0.0;
-  double ipq[JCAP_MAX + 3], iqp[JCAP_MAX + 3];
+static double pair (ctx *c, const wave *wi, const wave *wf, double *full) {
+  int n = c->g.n, i, J, Jlo, Jhi, iv;
+  double sum = 0.0, dsum = 0.0, last = 0.0;
+  double ipq[NV_MAX][JCAP_MAX + 3], iqp[NV_MAX][JCAP_MAX + 3];
   int have = -1;              /* integrals known for L <= have */
   int ai = abs(wi->kappa), af = abs(wf->kappa);
+  *full = 0.0;
   Jlo = abs(ai - af);
   if (Jlo < 1)
     Jlo = 1;
@@ -585,38 +603,56 @@ static double pair (ctx *c, const wave *wi, const wave *wf) {
   if (Jlo > Jhi)
     return 0.0;
   c->pairs++;
-  for (i = st; i < n; i++) {
-    c->pq[i] = wf->P[i] * wi->Q[i] * c->g.w[i];
-    c->qp[i] = wf->Q[i] * wi->P[i] * c->g.w[i];
+  for (iv = 0; iv < c->nv; iv++) {
+    int st = wi[iv].st > wf[iv].st ? wi[iv].st : wf[iv].st;
+    double *pq = c->pq + (size_t)iv * n, *qp = c->qp + (size_t)iv * n;
+    for (i = 0; i < st; i++)
+      pq[i] = qp[i] = 0.0;
+    for (i = st; i < n; i++) {
+      pq[i] = wf[iv].P[i] * wi[iv].Q[i] * c->g.w[i];
+      qp[i] = wf[iv].Q[i] * wi[iv].P[i] * c->g.w[i];
+    }
   }
   for (J = Jlo; J <= Jhi; J++) {
-    double m, e, a, b, t[3] = {0.0, 0.0, 0.0};   /* all three set below */
+    double mv[NV_MAX], a, b, dm;
     int L;
     for (L = (have < J - 1 ? J - 1 : have + 1); L <= J + 1; L++) {
-      ipq[L] = radint(c, c->pq, st, wf->l, wf->aP, wi->lb, wi->aQ, L);
-      iqp[L] = radint(c, c->qp, st, wf->lb, wf->aQ, wi->l, wi->aP, L);
+      for (iv = 0; iv < c->nv; iv++) {
+        const wave *f = &wf[iv], *w = &wi[iv];
+        int st = w->st > f->st ? w->st : f->st;
+        ipq[iv][L] = radint(c, c->pq + (size_t)iv * n, st, f->l, f->aP,
+                            w->lb, w->aQ, L);
+        iqp[iv][L] = radint(c, c->qp + (size_t)iv * n, st, f->lb, f->aQ,
+                            w->l, w->aP, L);
+      }
       have = L;
     }
-    t[0] = mterm(wi, wf, J, J - 1, ipq, iqp);
-    t[1] = mterm(wi, wf, J, J, ipq, iqp);
-    t[2] = mterm(wi, wf, J, J + 1, ipq, iqp);
     a = sqrt((J + 1.0) / (2.0 * J + 1.0));
     b = sqrt(J / (2.0 * J + 1.0));
-    m = t[1];                 /* magnetic: L = J */
-    e = a * t[0] - b * t[2];  /* electric: L = J -+ 1 */
-    m = m * m + e * e;
-    sum += m;
+    for (iv = 0; iv < c->nv; iv++) {
+      double t[3], m, e;
+      t[0] = mterm(&wi[iv], &wf[iv], J, J - 1, ipq[iv], iqp[iv]);
+      t[1] = mterm(&wi[iv], &wf[iv], J, J, ipq[iv], iqp[iv]);
+      t[2] = mterm(&wi[iv], &wf[iv], J, J + 1, ipq[iv], iqp[iv]);
+      m = t[1];                 /* magnetic: L = J */
+      e = a * t[0] - b * t[2];  /* electric: L = J -+ 1 */
+      mv[iv] = m * m + e * e;
+    }
+    dm = combine(c, mv);
+    sum += mv[0];
+    dsum += dm;
     if (J > c->jused)
       c->jused = J;
     if (J == c->jcap)
-      c->jshell += m;
-    if (J >= Jlo + 2 && m + last <= c->eps * sum) {
-      c->jerr += m + last;
+      c->jshell += fabs(dm);
+    if (J >= Jlo + 2 && fabs(dm) + fabs(last) <= c->eps * sum) {
+      c->jerr += fabs(dm) + fabs(last);
       break;
     }
-    last = m;
+    last = dm;
   }
-  return sum;
+  *full = sum;
+  return dsum;
 }
 
 int bl_pw_dsdk_check (const bl_pwpot *v, double m_mev, double z, double T,
@@ -664,7 +700,15 @@ int bl_pw_dsdk_check (const bl_pwpot *v, double m_mev, double z, double T,
 
 int bl_pw_dsdk (const bl_pwpot *v, double m_mev, double z, double T,
                 double k, double rtol, double *dsdk, double *err) {
-  return bl_pw_dsdk_x(v, m_mev, z, T, k, rtol, dsdk, err, NULL);
+  return bl_pw_dsdk_m(v, m_mev, z, T, k, rtol, BL_PW_DEFAULT, dsdk, err,
+                      NULL);
+}
+
+int bl_pw_dsdk_x (const bl_pwpot *v, double m_mev, double z, double T,
+                  double k, double rtol, double *dsdk, double *err,
+                  bl_pwinfo *info) {
+  return bl_pw_dsdk_m(v, m_mev, z, T, k, rtol, BL_PW_DEFAULT, dsdk, err,
+                      info);
 }
 
 static void ctx_free (ctx *c) {
@@ -675,6 +719,93 @@ static void ctx_free (ctx *c) {
   free(c->qp);
 }
 
+
+/* ------------------------------------------------------------------ */
+/* the Born term of the same field                                     */
+
+/* The field's Yukawa terms, handed to bl_case_setup through the model
+** below (its kernel has no context argument); set and read within one
+** call of born_field in one thread. */
+static _Thread_local bl_yukawa field_y;
+
+static int field_yukawa (int Z, const double *p, bl_yukawa *out) {
+  (void)Z;
+  (void)p;
+  *out = field_y;
+  return BL_SUCCESS;
+}
+
+static double field_ff (double q, int Z, const double *p) {
+  double f = 0.0, q2 = q * q;
+  int i;
+  (void)Z;
+  (void)p;
+  for (i = 0; i < field_y.n; i++)
+    f += field_y.alpha[i] * field_y.b[i] * field_y.b[i]
+         / (field_y.b[i] * field_y.b[i] + q2);
+  return f;
+}
+
+static const bl_ref field_ref = {"pwfield", "the partial-wave potential's "
+                                 "own Yukawa terms (partial/internal.h)",
+                                 NULL};
+
+/* Not in the registry: the screening of a bl_pwpot, for born_field. */
+static const bl_model field_model = {
+  0, "pwfield", "the Yukawa terms of a partial-wave potential",
+  {&field_ref}, 0, NULL, field_ff, field_yukawa, NULL
+};
+
+/*
+** The first Born dsigma/dk (mb/MeV) of the field v (bl_dcs_dk_e, spin
+** 1/2, mass m_mev, charge z, electrons off) into *val, its quadrature
+** error into *err, to relative tolerance qtol: a case on Z = 1 with the
+** Yukawa terms a_i, b_i = c_i m of v, scaled by Z_eff^2 = (zza/(z
+** alpha))^2 (the elastic target factor (1 - F/Z)^2/q^4 has no other
+** Z).  A uniform nucleus (v->R > 0) through the nucleus option with
+** A = (R/1.2 fm)^3.  BL_EMODEL where that A is above 300 (the case's
+** range); else the code of bl_case_setup or bl_dcs_dk_e.
+*/
+static int born_field (const bl_pwpot *v, double m_mev, double z, double T,
+                       double k, double qtol, double *val, double *err) {
+  bl_particle p = {"pw-born", 0.0, 0.0, 0.5, 0};
+  bl_opts o = bl_opts_bare;
+  bl_case cs;
+  bl_result r;
+  bl_quad *q;
+  double zeff = v->zza / (z * BL_ALPHA), rfm;
+  int i, st;
+  p.mass = m_mev;
+  p.charge = z;
+  field_y.n = v->n;
+  for (i = 0; i < v->n; i++) {
+    field_y.alpha[i] = v->a[i];
+    field_y.b[i] = v->c[i] * m_mev;
+  }
+  if (v->R > 0.0) {
+    rfm = v->R * BL_HBARC_MEVFM / m_mev;
+    o.nucleus = BL_NUCLEUS_UNIFORM;
+    o.A = pow(rfm / 1.2, 3.0);
+    if (!(o.A > 0.0 && o.A <= 300.0))
+      return BL_EMODEL;
+  }
+  st = bl_case_setup(&cs, &p, 1, &field_model, NULL, T, &o);
+  if (st)
+    return st;
+  q = bl_quad_alloc(1000);
+  if (q == NULL)
+    return BL_ENOMEM;
+  st = bl_quad_set_rtol(q, qtol);
+  if (!st)
+    st = bl_dcs_dk_e(&cs, k, q, &r);
+  bl_quad_free(q);
+  if (st)
+    return st;
+  *val = r.val * zeff * zeff;
+  *err = r.err * zeff * zeff;
+  return BL_SUCCESS;
+}
+
 /*
 ** The l-sum: initial waves l_i = 0, 1, ... (kappa_i = -(l_i+1), l_i),
 ** final waves l_f = l_i -+ d, d = 0, 1, ... D (stopped as the J sum is,
@@ -682,26 +813,33 @@ static void ctx_free (ctx *c) {
 ** of 2 D + 2 values of l_f.  The l-sum stops when the geometric
 ** extrapolation of its last four terms leaves less than rtol/5, the
 ** ratio taken at least exp(-2 c_min/p_i) (the screened field's decay).
+** With BL_PW_BORNSUB every wave is computed in V, eps V and -eps V, the
+** summed terms are the differences of combine() and the sums start
+** from the closed-form Born value: the truncations and *err then
+** concern the differences only (Born's quadrature error added).
 */
-int bl_pw_dsdk_x (const bl_pwpot *v, double m_mev, double z, double T,
-                  double k, double rtol, double *dsdk, double *err,
-                  bl_pwinfo *info) {
+int bl_pw_dsdk_m (const bl_pwpot *v, double m_mev, double z, double T,
+                  double k, double rtol, int method, double *dsdk,
+                  double *err, bl_pwinfo *info) {
   ctx c;
-  wave *ring = NULL, wi = {0, 0, 0, 0, 0, 0, NULL, NULL};
-  int *ringl = NULL, W, li, e = BL_SUCCESS, i, n, conv = 0;
+  wave *ring = NULL, wi[NV_MAX];
+  int *ringl = NULL, W, li, e = BL_SUCCESS, i, n, conv = 0, nv, iv;
   double t, tf, qmin, cmin, bmax, total = 0.0, hist[4] = {0, 0, 0, 0};
-  double pref, unit, ltail = HUGE_VAL, rho_inf;
+  double pref, unit, ltail = HUGE_VAL, rho_inf, born = 0.0, berr = 0.0;
+  double bu = 0.0;            /* born in the units of the sums */
+  memset(wi, 0, sizeof wi);
   if (dsdk != NULL)
     *dsdk = 0.0;
   if (err != NULL)
     *err = 0.0;
   if (dsdk == NULL || err == NULL)
     return BL_EDOMAIN;
+  if (method != BL_PW_DIRECT && method != BL_PW_BORNSUB)
+    return BL_EDOMAIN;
   e = bl_pw_dsdk_check(v, m_mev, z, T, k, rtol, NULL, 0);
   if (e)
     return e;
   memset(&c, 0, sizeof c);
-  c.v = v;
   t = T / m_mev;
   tf = (T - k) / m_mev;
   c.k = k / m_mev;
@@ -713,6 +851,30 @@ int bl_pw_dsdk_x (const bl_pwpot *v, double m_mev, double z, double T,
          / (c.si.p + c.sf.p);
   if (v->zza == 0.0)          /* no field, no radiation */
     return BL_SUCCESS;
+  pref = 8.0 * BL_PI * z * z * BL_ALPHA * c.k * (c.si.E + 1.0)
+         * (c.sf.E + 1.0) / (c.si.p * c.si.p * c.si.p * c.sf.p);
+  unit = (BL_HBARC_MEVFM / m_mev) * (BL_HBARC_MEVFM / m_mev) / BL_FM2_PER_MB
+         / m_mev;
+  nv = 1;
+  c.vv[0] = *v;
+  if (method == BL_PW_BORNSUB) {
+    int b = born_field(v, m_mev, z, T, k, fmax(1e-9, 1e-2 * rtol), &born,
+                       &berr);
+    if (b == BL_EMODEL)
+      method = BL_PW_DIRECT;  /* the Born cannot represent the field */
+    else if (b) {
+      return b;
+    } else {
+      nv = 3;
+      c.eps2 = BL_PW_BORN_EPS * BL_PW_BORN_EPS;
+      c.vv[1] = *v;
+      c.vv[1].zza = BL_PW_BORN_EPS * v->zza;
+      c.vv[2] = *v;
+      c.vv[2].zza = -BL_PW_BORN_EPS * v->zza;
+      bu = born / (pref * unit);
+    }
+  }
+  c.nv = nv;
   cmin = HUGE_VAL;
   for (i = 0; i < v->n; i++)
     if (v->a[i] != 0.0 && v->c[i] > 0.0 && v->c[i] < cmin)
@@ -753,10 +915,10 @@ int bl_pw_dsdk_x (const bl_pwpot *v, double m_mev, double z, double T,
   }
   n = c.g.n;
   c.jl = malloc((size_t)(c.jcap + 2) * n * sizeof *c.jl);
-  c.pq = malloc((size_t)n * sizeof *c.pq);
-  c.qp = malloc((size_t)n * sizeof *c.qp);
+  c.pq = malloc((size_t)nv * n * sizeof *c.pq);
+  c.qp = malloc((size_t)nv * n * sizeof *c.qp);
   W = 2 * c.D + 2;
-  ring = calloc((size_t)(2 * W), sizeof *ring);
+  ring = calloc((size_t)(2 * W * nv), sizeof *ring);
   ringl = malloc((size_t)W * sizeof *ringl);
   if (c.jl == NULL || c.pq == NULL || c.qp == NULL || ring == NULL
       || ringl == NULL) {
@@ -798,14 +960,16 @@ int bl_pw_dsdk_x (const bl_pwpot *v, double m_mev, double z, double T,
     int ki;
     for (ki = 0; ki < 2; ki++) {
       int kappa_i = ki == 0 ? -(li + 1) : li, d;
-      double si = 0.0, lastd = 0.0;
+      double si = 0.0, sd = 0.0, lastd = 0.0;
       if (kappa_i == 0)
         continue;
-      e = wave_make(&c, &c.si, kappa_i, &wi);
-      if (e)
-        goto done;
+      for (iv = 0; iv < nv; iv++) {
+        e = wave_make(&c, &c.si, kappa_i, iv, &wi[iv]);
+        if (e)
+          goto done;
+      }
       for (d = 0; d <= c.D; d++) {
-        double cd = 0.0;
+        double cd = 0.0, cf = 0.0;
         int sgn;
         for (sgn = -1; sgn <= 1; sgn += 2) {
           int lf = li + sgn * d, kf, slot;
@@ -817,49 +981,53 @@ int bl_pw_dsdk_x (const bl_pwpot *v, double m_mev, double z, double T,
               int kappa_f = kf == 0 ? -(lf + 1) : lf;
               if (kappa_f == 0)
                 continue;
-              e = wave_make(&c, &c.sf, kappa_f, &ring[2 * slot + kf]);
-              if (e)
-                goto done;
+              for (iv = 0; iv < nv; iv++) {
+                e = wave_make(&c, &c.sf, kappa_f, iv,
+                              &ring[(2 * slot + kf) * nv + iv]);
+                if (e)
+                  goto done;
+              }
             }
             ringl[slot] = lf;
           }
           for (kf = 0; kf < 2; kf++)
-            if (!(kf == 1 && lf == 0))
-              cd += pair(&c, &wi, &ring[2 * slot + kf]);
+            if (!(kf == 1 && lf == 0)) {
+              double f;
+              cd += pair(&c, wi, &ring[(2 * slot + kf) * nv], &f);
+              cf += f;
+            }
         }
-        si += cd;
+        si += cf;
+        sd += cd;
         if (d > c.dused)
           c.dused = d;
-        if (d >= 2 && cd + lastd <= c.eps * si) {
-          c.jerr += cd + lastd;
+        if (d >= 2 && fabs(cd) + fabs(lastd) <= c.eps * si) {
+          c.jerr += fabs(cd) + fabs(lastd);
           break;
         }
         lastd = cd;
       }
-      cl += si;
+      cl += sd;
     }
     total += cl;
     hist[0] = hist[1];
     hist[1] = hist[2];
     hist[2] = hist[3];
-    hist[3] = cl;
+    hist[3] = fabs(cl);
     if (li >= 12 && li >= 2.0 * c.si.p && hist[0] + hist[1] > 0.0) {
       double rho = sqrt((hist[2] + hist[3]) / (hist[0] + hist[1]));
       rho = fmax(rho, rho_inf);
-      ltail = rho < 0.9999 ? cl * rho / (1.0 - rho) : HUGE_VAL;
-      if (ltail <= 0.2 * rtol * total)
+      ltail = rho < 0.9999 ? fabs(cl) * rho / (1.0 - rho) : HUGE_VAL;
+      if (ltail <= 0.2 * rtol * fabs(bu + total))
         conv = 1;
     }
   }
-  pref = 8.0 * BL_PI * z * z * BL_ALPHA * c.k * (c.si.E + 1.0)
-         * (c.sf.E + 1.0) / (c.si.p * c.si.p * c.si.p * c.sf.p);
-  unit = (BL_HBARC_MEVFM / m_mev) * (BL_HBARC_MEVFM / m_mev) / BL_FM2_PER_MB
-         / m_mev;
-  *dsdk = pref * unit * total;
+  *dsdk = born + pref * unit * total;
   /* the J remainder beyond jcap as 3 times its last shell: measured with
   ** the cap raised (Au e-/e+ 1 MeV y = 0.9: 1.1e-4 and 2.2e-4 missing,
   ** last shell 0.6e-4 and 1.1e-4 of the sum) */
-  *err = pref * unit * (fmin(ltail, total) + c.jerr + 3.0 * c.jshell);
+  *err = pref * unit * (fmin(ltail, fabs(bu + total)) + c.jerr
+                        + 3.0 * c.jshell) + berr;
   if (!isfinite(*dsdk) || !isfinite(*err)) {
     *dsdk = 0.0;
     *err = 0.0;
@@ -867,6 +1035,7 @@ int bl_pw_dsdk_x (const bl_pwpot *v, double m_mev, double z, double T,
   } else if (!conv)
     e = BL_ENOTCONV;
   if (info != NULL) {
+    double all = fabs(bu + total);
     info->lmax = li - 1;
     info->jmax = c.jcap;
     info->jused = c.jused;
@@ -874,13 +1043,16 @@ int bl_pw_dsdk_x (const bl_pwpot *v, double m_mev, double z, double T,
     info->nodes = n;
     info->R = c.g.R;
     info->pairs = c.pairs;
-    info->ltail = total > 0.0 ? fmin(ltail, total) / total : 0.0;
-    info->jtail = total > 0.0 ? c.jshell / total : 0.0;
+    info->ltail = all > 0.0 ? fmin(ltail, all) / all : 0.0;
+    info->jtail = all > 0.0 ? c.jshell / all : 0.0;
+    info->method = method;
+    info->born = born;
   }
 done:
-  wave_free(&wi);
+  for (iv = 0; iv < NV_MAX; iv++)
+    wave_free(&wi[iv]);
   if (ring != NULL)
-    for (i = 0; i < 2 * W; i++)
+    for (i = 0; i < 2 * W * nv; i++)
       wave_free(&ring[i]);
   free(ring);
   free(ringl);

@@ -58,7 +58,24 @@ typedef struct bl_pwinfo {
   long pairs;      /* (kappa_i, kappa_f) pairs computed */
   double ltail;    /* estimated relative remainder of the l sum */
   double jtail;    /* relative size of the last multipole shell J = jmax */
+  int method;      /* BL_PW_DIRECT or BL_PW_BORNSUB: the path taken */
+  double born;     /* BL_PW_BORNSUB: the closed-form Born part, mb/MeV */
 } bl_pwinfo;
+
+/*
+** The two ways of summing (bl_pw_dsdk_m):
+** BL_PW_DIRECT: the exact terms T(V) of every (kappa_i, kappa_f, J)
+**   summed as they are;
+** BL_PW_BORNSUB: the closed-form Born dsigma/dk of the same field
+**   (bl_dcs_dk_e) plus the sum of T(V) - T_1(V), T_1 the lowest-order
+**   term, [T(eps V) + T(-eps V)] / (2 eps^2), eps = BL_PW_BORN_EPS: the
+**   differences fall off much faster in l and J (DEVELOPERS.md,
+**   "Partial waves: dsigma/dk").  Falls back to BL_PW_DIRECT where the
+**   library's Born cannot represent the field (a uniform nucleus above
+**   R = 1.2 * 300^1/3 fm; info->method tells).
+*/
+enum { BL_PW_DIRECT = 1, BL_PW_BORNSUB = 2 };
+#define BL_PW_BORN_EPS 1e-4
 
 /*
 ** Checks of bl_pw_dsdk's arguments: 0 if valid, else BL_EDOMAIN with a
@@ -90,5 +107,12 @@ int bl_pw_dsdk (const bl_pwpot *v, double m_mev, double z, double T,
 int bl_pw_dsdk_x (const bl_pwpot *v, double m_mev, double z, double T,
                   double k, double rtol, double *dsdk, double *err,
                   bl_pwinfo *info);
+
+/* The same by the given method (BL_PW_DIRECT or BL_PW_BORNSUB; else
+** BL_EDOMAIN); bl_pw_dsdk and bl_pw_dsdk_x use BL_PW_DEFAULT. */
+int bl_pw_dsdk_m (const bl_pwpot *v, double m_mev, double z, double T,
+                  double k, double rtol, int method, double *dsdk,
+                  double *err, bl_pwinfo *info);
+#define BL_PW_DEFAULT BL_PW_DIRECT
 
 #endif
