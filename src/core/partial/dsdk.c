@@ -865,12 +865,19 @@ int bl_pw_dsdk_m (const bl_pwpot *v, double m_mev, double z, double T,
     else if (b) {
       return b;
     } else {
+      /* the scaled field's Sommerfeld parameter |zza| eps E_f/p_f at
+      ** most BL_PW_BORN_NU: its T_1 is then off by ~ nu^2 (the even
+      ** O(z^6) term, test born_limit); eps not smaller than that, or
+      ** the quadrature's 1e-13 of the free products becomes visible
+      ** (eps = 1e-4 at z = -1e-3, 10 keV: 5e-4 off) */
+      double eps = fmin(1.0, BL_PW_BORN_NU * c.sf.p
+                              / (c.sf.E * fabs(v->zza)));
       nv = 3;
-      c.eps2 = BL_PW_BORN_EPS * BL_PW_BORN_EPS;
+      c.eps2 = eps * eps;
       c.vv[1] = *v;
-      c.vv[1].zza = BL_PW_BORN_EPS * v->zza;
+      c.vv[1].zza = eps * v->zza;
       c.vv[2] = *v;
-      c.vv[2].zza = -BL_PW_BORN_EPS * v->zza;
+      c.vv[2].zza = -eps * v->zza;
       bu = born / (pref * unit);
     }
   }

@@ -68,14 +68,15 @@ typedef struct bl_pwinfo {
 **   summed as they are;
 ** BL_PW_BORNSUB: the closed-form Born dsigma/dk of the same field
 **   (bl_dcs_dk_e) plus the sum of T(V) - T_1(V), T_1 the lowest-order
-**   term, [T(eps V) + T(-eps V)] / (2 eps^2), eps = BL_PW_BORN_EPS: the
+**   term, [T(eps V) + T(-eps V)] / (2 eps^2), eps such that the scaled
+**   field's Sommerfeld parameter |eps zza| E_f/p_f is BL_PW_BORN_NU: the
 **   differences fall off much faster in l and J (DEVELOPERS.md,
 **   "Partial waves: dsigma/dk").  Falls back to BL_PW_DIRECT where the
 **   library's Born cannot represent the field (a uniform nucleus above
 **   R = 1.2 * 300^1/3 fm; info->method tells).
 */
 enum { BL_PW_DIRECT = 1, BL_PW_BORNSUB = 2 };
-#define BL_PW_BORN_EPS 1e-4
+#define BL_PW_BORN_NU 1e-4
 
 /*
 ** Checks of bl_pw_dsdk's arguments: 0 if valid, else BL_EDOMAIN with a
