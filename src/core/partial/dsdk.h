@@ -73,7 +73,9 @@ typedef struct bl_pwinfo {
 **   differences fall off much faster in l and J (DEVELOPERS.md,
 **   "Partial waves: dsigma/dk").  Falls back to BL_PW_DIRECT where the
 **   library's Born cannot represent the field (a uniform nucleus above
-**   R = 1.2 * 300^1/3 fm; info->method tells).
+**   R = 1.2 * 300^1/3 fm) and where the result cancels so much of Born
+**   that T_1's own error (2 nu^2 of Born) and Born's quadrature error
+**   exceed rtol/5 of it (e+ at 10 keV, y = 0.9); info->method tells.
 */
 enum { BL_PW_DIRECT = 1, BL_PW_BORNSUB = 2 };
 #define BL_PW_BORN_NU 1e-4
