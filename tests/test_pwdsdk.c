@@ -436,3 +436,27 @@ Test(pwdsdk, bornsub_bad_method) {
   cr_expect_eq(bl_pw_dsdk_m(&v, BL_ME_MEV, -1, 1, 0.5, 1e-3, 3, &ds, &err,
                             NULL), BL_EDOMAIN);
 }
+
+/* 6e. The error estimate of the subtraction path is honest as in
+** err_honest (the same point, Au e- 100 keV y = 0.1): at rtol 1e-2 and
+** 1e-3 the distance to its own rtol 1e-6 value is below *err + the
+** reference's err, *err not above 10 times the distance (or rtol/100)
+** and not above rtol. */
+Test(pwdsdk, bornsub_err_honest, .timeout = 300) {
+  double ref, rerr, ds, err;
+  bl_pwinfo info;
+  static const double rt[] = {1e-2, 1e-3};
+  size_t i;
+  ref = pwm(-1.0, 0.1, 0.1, 1e-6, BL_PW_BORNSUB, &rerr, &info);
+  cr_assert_eq(info.method, BL_PW_BORNSUB);
+  for (i = 0; i < 2; i++) {
+    ds = pwm(-1.0, 0.1, 0.1, rt[i], BL_PW_BORNSUB, &err, &info);
+    cr_log_info("bornsub_err_honest rtol %g: off by %.3g, err %.3g, l_i %d",
+                rt[i], fabs(ds - ref) / ref, err / ref, info.lmax);
+    cr_expect(fabs(ds - ref) <= err + rerr
+              && err <= fmax(10.0 * fabs(ds - ref), 1e-2 * rt[i] * ref),
+              "rtol %g: %.10g - %.10g = %g against err %g", rt[i], ds, ref,
+              ds - ref, err);
+    cr_expect(err <= rt[i] * ds, "rtol %g: err %g of %g", rt[i], err, ds);
+  }
+}
