@@ -466,7 +466,7 @@ typedef struct side {
 /* A partial wave on the nodes: P, Q from bl_pw_radial (0 below node st)
 ** and the complex amplitudes of P and Q beyond R (see the rays above). */
 typedef struct wave {
-  int kappa, l, lb, st;
+  int kappa, l, lb, st, np;   /* np: length of P, Q */
   double complex aP, aQ;
   double *P, *Q;
 } wave;
@@ -477,7 +477,7 @@ typedef struct wave {
 typedef struct ctx {
   bl_pwpot vv[NV_MAX];
   int nv;
-  double eps2;                /* eps^2 of the Born subtraction */
+  double eps2, epsv;          /* eps^2 and eps of the Born subtraction */
   side si, sf;
   double k;                   /* photon energy, units of m */
   grid g;
@@ -528,6 +528,7 @@ static int wave_make (const ctx *c, const side *s, int kappa, int iv,
   w->kappa = kappa;
   w->l = lof(kappa);
   w->lb = w->l - (kappa > 0 ? 1 : -1);
+  w->np = n;
   if (w->P == NULL) {
     w->P = malloc((size_t)n * sizeof *w->P);
     w->Q = malloc((size_t)n * sizeof *w->Q);
@@ -572,27 +573,63 @@ static double mterm (const wave *wi, const wave *wf, int J, int L,
          - bl_pw_sred(-wf->kappa, wi->kappa, J, L) * iqp[L];
 }
 
-/* The summed term: T(V) alone, or T(V) - [T(eps V) + T(-eps V)]/(2 eps^2). */
-static double combine (const ctx *c, const double *m) {
-  if (c->nv == 1)
-    return m[0];
-  return m[0] - (m[1] + m[2]) / (2.0 * c->eps2);
+/*
+** With the subtraction, the waves in eps V and -eps V (P+, P-) are
+** turned into S = (P+ + P-)/2 (the free wave + O(eps^2)) and
+** D = (P+ - P-)/(2 eps) (the first-order wave per unit V + O(eps^2)),
+** amplitudes beyond R alike; below the larger start node both are
+** exact combinations of the zeros there.
+*/
+static void wave_sd (wave *s, wave *d, double eps) {
+  int i;
+  for (i = 0; i < s->np; i++) {
+    double p = s->P[i], m = d->P[i], q = s->Q[i], r = d->Q[i];
+    s->P[i] = 0.5 * (p + m);
+    d->P[i] = 0.5 * (p - m) / eps;
+    s->Q[i] = 0.5 * (q + r);
+    d->Q[i] = 0.5 * (q - r) / eps;
+  }
+  {
+    double complex ap = s->aP, am = d->aP, aq = s->aQ, ar = d->aQ;
+    s->aP = 0.5 * (ap + am);
+    d->aP = 0.5 * (ap - am) / eps;
+    s->aQ = 0.5 * (aq + ar);
+    d->aQ = 0.5 * (aq - ar) / eps;
+  }
+  s->st = d->st = s->st < d->st ? s->st : d->st;
+}
+
+/* int_0^inf (A1 B2 + A2 B1) j_L dr: nodes of the summed product ab, two
+** ray tails */
+static double radint2 (const ctx *c, const double *ab, int st, int lA,
+                       double complex aA1, double complex aA2, int lB,
+                       double complex aB1, double complex aB2, int L) {
+  const double *j = c->jl + (size_t)L * c->g.n;
+  double s = 0.0, t = 0.0;
+  int i;
+  for (i = st > c->jst[L] ? st : c->jst[L]; i < c->g.n; i++)
+    s += ab[i] * j[i];
+  tail(&c->q, lA, aA1, lB, aB2, L, L, &t, NULL);
+  tail(&c->q, lA, aA2, lB, aB1, L, L, &t, NULL);
+  return s + t;
 }
 
 /*
 ** sum over J of |M_J(kappa_f, kappa_i)|^2, both multipole types, J from
-** max(1, |j_f - j_i|) up to min(j_f + j_i, jcap), for the c->nv
-** potentials at once (wi[iv], wf[iv] the waves in c->vv[iv]): returns
-** the sum of the combined terms (combine) and puts the sum of T(V) in
-** *full.  Stopped early when two successive J add less than eps of
-** *full (their size goes to c->jerr).
+** max(1, |j_f - j_i|) up to min(j_f + j_i, jcap).  wi[0], wf[0]: the
+** waves in V; with the subtraction (c->nv = 3) also wi[1..2], wf[1..2]
+** = S, D (wave_sd), from which the first-order amplitude
+** M_1 = M[S_f D_i + D_f S_i] and T_1 = M_1^2 (+ O(eps^2)).  Returns the
+** sum of T(V) - T_1 (of T(V) alone without the subtraction) and puts
+** the sum of T(V) in *full.  Stopped early when two successive J add
+** less than eps of *full (their size goes to c->jerr).
 */
 static double pair (ctx *c, const wave *wi, const wave *wf, double *full) {
-  int n = c->g.n, i, J, Jlo, Jhi, iv;
+  int n = c->g.n, i, J, Jlo, Jhi, iv, nr = c->nv == 1 ? 1 : 2;
   double sum = 0.0, dsum = 0.0, last = 0.0;
-  double ipq[NV_MAX][JCAP_MAX + 3], iqp[NV_MAX][JCAP_MAX + 3];
+  double ipq[2][JCAP_MAX + 3], iqp[2][JCAP_MAX + 3];
   int have = -1;              /* integrals known for L <= have */
-  int ai = abs(wi->kappa), af = abs(wf->kappa);
+  int ai = abs(wi->kappa), af = abs(wf->kappa), st[2];
   *full = 0.0;
   Jlo = abs(ai - af);
   if (Jlo < 1)
@@ -603,42 +640,47 @@ static double pair (ctx *c, const wave *wi, const wave *wf, double *full) {
   if (Jlo > Jhi)
     return 0.0;
   c->pairs++;
-  for (iv = 0; iv < c->nv; iv++) {
-    int st = wi[iv].st > wf[iv].st ? wi[iv].st : wf[iv].st;
-    double *pq = c->pq + (size_t)iv * n, *qp = c->qp + (size_t)iv * n;
-    for (i = 0; i < st; i++)
-      pq[i] = qp[i] = 0.0;
-    for (i = st; i < n; i++) {
-      pq[i] = wf[iv].P[i] * wi[iv].Q[i] * c->g.w[i];
-      qp[i] = wf[iv].Q[i] * wi[iv].P[i] * c->g.w[i];
+  st[0] = wi[0].st > wf[0].st ? wi[0].st : wf[0].st;
+  for (i = st[0]; i < n; i++) {
+    c->pq[i] = wf[0].P[i] * wi[0].Q[i] * c->g.w[i];
+    c->qp[i] = wf[0].Q[i] * wi[0].P[i] * c->g.w[i];
+  }
+  if (nr == 2) {
+    const wave *sf = &wf[1], *df = &wf[2], *si = &wi[1], *di = &wi[2];
+    double *pq = c->pq + n, *qp = c->qp + n;
+    st[1] = si->st > sf->st ? si->st : sf->st;
+    for (i = st[1]; i < n; i++) {
+      pq[i] = (sf->P[i] * di->Q[i] + df->P[i] * si->Q[i]) * c->g.w[i];
+      qp[i] = (sf->Q[i] * di->P[i] + df->Q[i] * si->P[i]) * c->g.w[i];
     }
   }
   for (J = Jlo; J <= Jhi; J++) {
-    double mv[NV_MAX], a, b, dm;
+    double mv[2], a, b, dm;
     int L;
     for (L = (have < J - 1 ? J - 1 : have + 1); L <= J + 1; L++) {
-      for (iv = 0; iv < c->nv; iv++) {
-        const wave *f = &wf[iv], *w = &wi[iv];
-        int st = w->st > f->st ? w->st : f->st;
-        ipq[iv][L] = radint(c, c->pq + (size_t)iv * n, st, f->l, f->aP,
-                            w->lb, w->aQ, L);
-        iqp[iv][L] = radint(c, c->qp + (size_t)iv * n, st, f->lb, f->aQ,
-                            w->l, w->aP, L);
+      ipq[0][L] = radint(c, c->pq, st[0], wf->l, wf->aP, wi->lb, wi->aQ, L);
+      iqp[0][L] = radint(c, c->qp, st[0], wf->lb, wf->aQ, wi->l, wi->aP, L);
+      if (nr == 2) {
+        const wave *sf = &wf[1], *df = &wf[2], *si = &wi[1], *di = &wi[2];
+        ipq[1][L] = radint2(c, c->pq + n, st[1], wf->l, sf->aP, df->aP,
+                            wi->lb, si->aQ, di->aQ, L);
+        iqp[1][L] = radint2(c, c->qp + n, st[1], wf->lb, sf->aQ, df->aQ,
+                            wi->l, si->aP, di->aP, L);
       }
       have = L;
     }
     a = sqrt((J + 1.0) / (2.0 * J + 1.0));
     b = sqrt(J / (2.0 * J + 1.0));
-    for (iv = 0; iv < c->nv; iv++) {
+    for (iv = 0; iv < nr; iv++) {
       double t[3], m, e;
-      t[0] = mterm(&wi[iv], &wf[iv], J, J - 1, ipq[iv], iqp[iv]);
-      t[1] = mterm(&wi[iv], &wf[iv], J, J, ipq[iv], iqp[iv]);
-      t[2] = mterm(&wi[iv], &wf[iv], J, J + 1, ipq[iv], iqp[iv]);
+      t[0] = mterm(wi, wf, J, J - 1, ipq[iv], iqp[iv]);
+      t[1] = mterm(wi, wf, J, J, ipq[iv], iqp[iv]);
+      t[2] = mterm(wi, wf, J, J + 1, ipq[iv], iqp[iv]);
       m = t[1];                 /* magnetic: L = J */
       e = a * t[0] - b * t[2];  /* electric: L = J -+ 1 */
       mv[iv] = m * m + e * e;
     }
-    dm = combine(c, mv);
+    dm = nr == 1 ? mv[0] : mv[0] - mv[1];
     sum += mv[0];
     dsum += dm;
     if (J > c->jused)
@@ -875,6 +917,7 @@ int bl_pw_dsdk_m (const bl_pwpot *v, double m_mev, double z, double T,
                               / (c.sf.E * fabs(v->zza)));
       nv = 3;
       c.eps2 = eps * eps;
+      c.epsv = eps;
       c.vv[1] = *v;
       c.vv[1].zza = eps * v->zza;
       c.vv[2] = *v;
@@ -923,8 +966,8 @@ int bl_pw_dsdk_m (const bl_pwpot *v, double m_mev, double z, double T,
   }
   n = c.g.n;
   c.jl = malloc((size_t)(c.jcap + 2) * n * sizeof *c.jl);
-  c.pq = malloc((size_t)nv * n * sizeof *c.pq);
-  c.qp = malloc((size_t)nv * n * sizeof *c.qp);
+  c.pq = malloc((size_t)2 * n * sizeof *c.pq);
+  c.qp = malloc((size_t)2 * n * sizeof *c.qp);
   W = 2 * c.D + 2;
   ring = calloc((size_t)(2 * W * nv), sizeof *ring);
   ringl = malloc((size_t)W * sizeof *ringl);
@@ -976,6 +1019,8 @@ int bl_pw_dsdk_m (const bl_pwpot *v, double m_mev, double z, double T,
         if (e)
           goto done;
       }
+      if (nv == 3)
+        wave_sd(&wi[1], &wi[2], c.epsv);
       for (d = 0; d <= c.D; d++) {
         double cd = 0.0, cf = 0.0;
         int sgn;
@@ -995,6 +1040,9 @@ int bl_pw_dsdk_m (const bl_pwpot *v, double m_mev, double z, double T,
                 if (e)
                   goto done;
               }
+              if (nv == 3)
+                wave_sd(&ring[(2 * slot + kf) * nv + 1],
+                        &ring[(2 * slot + kf) * nv + 2], c.epsv);
             }
             ringl[slot] = lf;
           }
