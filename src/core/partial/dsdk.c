@@ -655,7 +655,7 @@ static double pair (ctx *c, const wave *wi, const wave *wf, double *full) {
     }
   }
   for (J = Jlo; J <= Jhi; J++) {
-    double mv[2], a, b, dm;
+    double mv[2] = {0.0, 0.0}, a, b, dm;   /* both set below */
     int L;
     for (L = (have < J - 1 ? J - 1 : have + 1); L <= J + 1; L++) {
       ipq[0][L] = radint(c, c->pq, st[0], wf->l, wf->aP, wi->lb, wi->aQ, L);
