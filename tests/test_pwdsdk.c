@@ -1,7 +1,7 @@
 /*
 ** test_pwdsdk.c -- partial-wave dsigma/dk (src/core/partial/dsdk.c):
 ** angular factors, the free-field radial integrals, the first Born
-** limit, the charge sign, bad input
+** limit, the charge sign, bad input, the Born subtraction path
 ** See Copyright Notice in LICENSE
 **
 ** Suite: pwdsdk.

@@ -23,6 +23,12 @@
 ** transverse multipole field of parity (-1)^(l_f + l_i + J) (electric if
 ** even, magnetic if odd) between the radial functions of bl_pw_radial
 ** (unit amplitude at infinity).
+**
+** BL_PW_BORNSUB (bl_pw_dsdk_m): the closed-form Born value of the same
+** field plus the sum of T - T_1 over the terms, T_1 each term to lowest
+** order in V from the first-order waves (wave_sd); the usual subtraction
+** of the first Born series from a slowly converging partial-wave series
+** (no paper verified for it here).  DEVELOPERS.md, "Born subtraction".
 */
 
 #include <complex.h>
