@@ -436,7 +436,7 @@ Test(pwdsdk, bornsub_bad_method) {
   cr_expect_eq(bl_pw_dsdk_m(&v, BL_ME_MEV, -1, 1, 0.5, 1e-3, 0, &ds, &err,
                             NULL), BL_EDOMAIN);
   cr_expect(ds == 0.0 && err == 0.0);
-  cr_expect_eq(bl_pw_dsdk_m(&v, BL_ME_MEV, -1, 1, 0.5, 1e-3, 3, &ds, &err,
+  cr_expect_eq(bl_pw_dsdk_m(&v, BL_ME_MEV, -1, 1, 0.5, 1e-3, 4, &ds, &err,
                             NULL), BL_EDOMAIN);
 }
 

@@ -883,7 +883,8 @@ int bl_pw_dsdk_m (const bl_pwpot *v, double m_mev, double z, double T,
     *err = 0.0;
   if (dsdk == NULL || err == NULL)
     return BL_EDOMAIN;
-  if (method != BL_PW_DIRECT && method != BL_PW_BORNSUB)
+  if (method != BL_PW_DIRECT && method != BL_PW_BORNSUB
+      && method != BL_PW_AUTO)
     return BL_EDOMAIN;
   e = bl_pw_dsdk_check(v, m_mev, z, T, k, rtol, NULL, 0);
   if (e)
@@ -904,6 +905,14 @@ int bl_pw_dsdk_m (const bl_pwpot *v, double m_mev, double z, double T,
          * (c.sf.E + 1.0) / (c.si.p * c.si.p * c.si.p * c.sf.p);
   unit = (BL_HBARC_MEVFM / m_mev) * (BL_HBARC_MEVFM / m_mev) / BL_FM2_PER_MB
          / m_mev;
+  cmin = HUGE_VAL;
+  for (i = 0; i < v->n; i++)
+    if (v->a[i] != 0.0 && v->c[i] > 0.0 && v->c[i] < cmin)
+      cmin = v->c[i];
+  bmax = B_FAC / fmax(qmin, cmin < HUGE_VAL ? 2.0 * cmin : 0.0);
+  if (method == BL_PW_AUTO)   /* the subtraction where the J cap is hit */
+    method = 8.0 + c.k * bmax * BJ_FAC / B_FAC > JCAP_MAX ? BL_PW_BORNSUB
+                                                          : BL_PW_DIRECT;
   nv = 1;
   c.vv[0] = *v;
   if (method == BL_PW_BORNSUB) {
@@ -932,11 +941,6 @@ int bl_pw_dsdk_m (const bl_pwpot *v, double m_mev, double z, double T,
     }
   }
   c.nv = nv;
-  cmin = HUGE_VAL;
-  for (i = 0; i < v->n; i++)
-    if (v->a[i] != 0.0 && v->c[i] > 0.0 && v->c[i] < cmin)
-      cmin = v->c[i];
-  bmax = B_FAC / fmax(qmin, cmin < HUGE_VAL ? 2.0 * cmin : 0.0);
   c.lcap = 20 + (int)ceil(fmin(c.si.p * bmax, (double)LCAP_MAX));
   if (c.lcap > LCAP_MAX)
     c.lcap = LCAP_MAX;

@@ -77,7 +77,12 @@ typedef struct bl_pwinfo {
 **   that T_1's own error (2 nu^2 of Born) and Born's quadrature error
 **   exceed rtol/5 of it (e+ at 10 keV, y = 0.9); info->method tells.
 */
-enum { BL_PW_DIRECT = 1, BL_PW_BORNSUB = 2 };
+/* BL_PW_AUTO: BL_PW_BORNSUB where the photon multipole cap is reached
+** (8 + 4 k/max(q_min, 2 c_min) > 60: the direct sum loses every J
+** beyond it, the subtraction only the differences: Au e- 3 MeV y = 0.5
+** direct 1 % low, outside its err), else BL_PW_DIRECT (faster at and
+** below 1 MeV except at small y, DEVELOPERS.md). */
+enum { BL_PW_DIRECT = 1, BL_PW_BORNSUB = 2, BL_PW_AUTO = 3 };
 #define BL_PW_BORN_NU 1e-4
 
 /*
@@ -111,11 +116,12 @@ int bl_pw_dsdk_x (const bl_pwpot *v, double m_mev, double z, double T,
                   double k, double rtol, double *dsdk, double *err,
                   bl_pwinfo *info);
 
-/* The same by the given method (BL_PW_DIRECT or BL_PW_BORNSUB; else
-** BL_EDOMAIN); bl_pw_dsdk and bl_pw_dsdk_x use BL_PW_DEFAULT. */
+/* The same by the given method (BL_PW_DIRECT, BL_PW_BORNSUB or
+** BL_PW_AUTO; else BL_EDOMAIN); bl_pw_dsdk and bl_pw_dsdk_x use
+** BL_PW_DEFAULT. */
 int bl_pw_dsdk_m (const bl_pwpot *v, double m_mev, double z, double T,
                   double k, double rtol, int method, double *dsdk,
                   double *err, bl_pwinfo *info);
-#define BL_PW_DEFAULT BL_PW_DIRECT
+#define BL_PW_DEFAULT BL_PW_AUTO
 
 #endif
