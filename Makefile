@@ -607,6 +607,12 @@ bench-erow: all
 # CPU time of the radial Dirac functions per kappa (partial/radial.c): Au,
 # 2e4 points up to rc, E = 1.02, 3, 40 and a muon at E = 3 (about 10 s).
 # Not part of bench.
+.PHONY: bench-pwfast
+$(B)/bench_pwfast: scripts/bench_pwfast.c $(LIB)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $< $(LIB) $(LIBS)
+bench-pwfast: $(B)/bench_pwfast
+	./$(B)/bench_pwfast $(PWFAST_ARGS)
+
 .PHONY: bench-pwradial
 $(B)/bench_pwradial: scripts/bench_pwradial.c $(LIB)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $< $(LIB) $(LIBS)
