@@ -194,7 +194,7 @@ int bl_partial_check (const bl_particle *p, int Z, double T,
 ** partial-wave/Born ratio there (sys, BL_WARN_PWSOFT).  h: the
 ** field from bl_method_prepare, or NULL (made here, 20 us).  Relative
 ** tolerance: q's, clamped to [BL_PARTIAL_RTOL_MIN, BL_PARTIAL_RTOL_MAX].
-** Seconds per point (0.1-0.6 s at 10 keV on Au, 8-32 s at 1 MeV).
+** Seconds per point (0.1-0.6 s at 10 keV on Au, 2-60 s at 1 MeV, CPU).
 ** exceptions: BL_EDOMAIN (bl_partial_check, k not in (0, T), NULL c, q
 ** or out), BL_ENOTCONV (sums not converged: value filled, tolerance
 ** warning), BL_ENOMEM, BL_ENONFINITE, the Born integrals' codes
