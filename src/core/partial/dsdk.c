@@ -640,7 +640,7 @@ static double pair (ctx *c, const wave *wi, const wave *wf, double *full) {
   double sum = 0.0, dsum = 0.0, last = 0.0;
   double ipq[2][JCAP_MAX + 3], iqp[2][JCAP_MAX + 3];
   int have = -1;              /* integrals known for L <= have */
-  int ai = abs(wi->kappa), af = abs(wf->kappa), st[2];
+  int ai = abs(wi->kappa), af = abs(wf->kappa), st[2] = {0, 0};
   *full = 0.0;
   Jlo = abs(ai - af);
   if (Jlo < 1)
